@@ -1,0 +1,41 @@
+#!/usr/bin/env bash
+# The project's test command: installs the outside reference tools the tests compare against when they are
+# missing (Debian packages), runs every test project, and fails when no test ran or any test was skipped.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+missing=()
+command -v qconvex >/dev/null 2>&1 || missing+=(qhull-bin)
+command -v glpsol >/dev/null 2>&1 || missing+=(glpk-utils)
+/usr/bin/python3 -c 'import scipy.optimize' >/dev/null 2>&1 || missing+=(python3-scipy)
+if ((${#missing[@]})); then
+  echo "installing reference tools: ${missing[*]}"
+  if [ "$(id -u)" -ne 0 ]; then sudo=sudo; else sudo=; fi
+  export DEBIAN_FRONTEND=noninteractive
+  $sudo apt-get update -qq
+  $sudo apt-get install -y -qq "${missing[@]}" >/dev/null
+fi
+
+log=$(mktemp)
+trap 'rm -f "$log"' EXIT
+set +e
+dotnet test Hull.sln --nologo 2>&1 | tee "$log"
+status=${PIPESTATUS[0]}
+set -e
+
+# Sum the per-project summary lines, e.g. "Passed!  - Failed:     0, Passed:    12, Skipped:     0, Total:    12".
+read -r passed failed skipped < <(awk '
+  /(Passed|Failed)! +- +Failed:/ {
+    gsub(/,/, "");
+    for (i = 1; i <= NF; i++) {
+      if ($i == "Failed:") f += $(i + 1);
+      if ($i == "Passed:") p += $(i + 1);
+      if ($i == "Skipped:") s += $(i + 1);
+    }
+  }
+  END { printf "%d %d %d\n", p, f, s }' "$log")
+
+echo "${passed} passed, ${failed} failed, ${skipped} skipped"
+if [ "$status" -ne 0 ]; then exit "$status"; fi
+if [ "$passed" -eq 0 ]; then echo "error: no test ran" >&2; exit 1; fi
+if [ "$skipped" -ne 0 ]; then echo "error: ${skipped} test(s) skipped; skips are not allowed" >&2; exit 1; fi
