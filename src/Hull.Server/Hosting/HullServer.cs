@@ -1,0 +1,168 @@
+using System.Security.Cryptography.X509Certificates;
+using Hull.Server.Caching;
+using Hull.Server.Errors;
+using Hull.Server.Security;
+using Hull.Server.Services;
+using Hull.Store;
+using Microsoft.AspNetCore.Builder;
+using Microsoft.AspNetCore.Hosting;
+using Microsoft.AspNetCore.Hosting.Server;
+using Microsoft.AspNetCore.Hosting.Server.Features;
+using Microsoft.AspNetCore.Server.Kestrel.Core;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Logging;
+using Microsoft.Extensions.Logging.Console;
+
+namespace Hull.Server.Hosting;
+
+/// <summary>
+/// A running hull server: Kestrel on HTTP/2 (plain or TLS) serving the dataset, stability and diagnostics services,
+/// standard gRPC health checking and server reflection, over one dataset store. Used by the server executable, the
+/// CLI's demo and the tests alike.
+/// </summary>
+public sealed class HullServer : IAsyncDisposable
+{
+    private readonly WebApplication _app;
+    private readonly DatasetStore _store;
+    private int _stopped;
+
+    private HullServer(WebApplication app, DatasetStore store, Uri address)
+    {
+        _app = app;
+        _store = store;
+        Address = address;
+    }
+
+    /// <summary>The address clients use, e.g. http://127.0.0.1:50551.</summary>
+    public Uri Address { get; }
+
+    /// <summary>The port actually bound (useful with port 0).</summary>
+    public int Port => Address.Port;
+
+    /// <summary>The store the server runs on (for in-process callers such as tests).</summary>
+    public DatasetStore Store => _store;
+
+    /// <summary>The hull cache (for in-process callers such as tests).</summary>
+    public HullCache Cache => _app.Services.GetRequiredService<HullCache>();
+
+    /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
+    /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema).</exception>
+    /// <exception cref="IOException">The port cannot be bound.</exception>
+    public static async Task<HullServer> StartAsync(HullServerOptions options, CancellationToken cancellation = default)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        X509Certificate2? certificate = LoadCertificate(options);
+        DatasetStore store = DatasetStore.Open(options.DataDirectory);
+        try
+        {
+            WebApplication app = Build(options, store, certificate);
+            await app.StartAsync(cancellation);
+            string bound = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses.First();
+            return new HullServer(app, store, new Uri(bound));
+        }
+        catch
+        {
+            store.Dispose();
+            throw;
+        }
+    }
+
+    /// <summary>Completes when the host is asked to stop (SIGTERM, Ctrl+C, or <see cref="StopAsync"/>).</summary>
+    public Task WaitForShutdownAsync(CancellationToken cancellation = default) => _app.WaitForShutdownAsync(cancellation);
+
+    /// <summary>Stops listening, lets calls in flight finish briefly, and closes the store.</summary>
+    public async Task StopAsync()
+    {
+        if (Interlocked.Exchange(ref _stopped, 1) != 0) return;
+        try
+        {
+            using var grace = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+            await _app.StopAsync(grace.Token);
+        }
+        finally
+        {
+            await _app.DisposeAsync();
+            _store.Dispose();
+        }
+    }
+
+    public async ValueTask DisposeAsync() => await StopAsync();
+
+    private static WebApplication Build(HullServerOptions options, DatasetStore store, X509Certificate2? certificate)
+    {
+        WebApplicationBuilder builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions
+        {
+            Args = [],
+            ContentRootPath = AppContext.BaseDirectory,
+        });
+
+        builder.Logging.ClearProviders();
+        builder.Logging.AddJsonConsole(json =>
+        {
+            json.UseUtcTimestamp = true;
+            json.TimestampFormat = "yyyy-MM-ddTHH:mm:ss.fffZ";
+        });
+        // Logs go to stderr so that stdout carries only what the server prints for people and scripts.
+        builder.Services.Configure<ConsoleLoggerOptions>(console => console.LogToStandardErrorThreshold = LogLevel.Trace);
+        builder.Logging.SetMinimumLevel(options.MinimumLogLevel);
+        builder.Logging.AddFilter("Microsoft.AspNetCore", LogLevel.Warning);
+        builder.Logging.AddFilter("Grpc", LogLevel.Warning);
+        builder.Logging.AddFilter("Microsoft.Extensions.Diagnostics.HealthChecks", LogLevel.Warning);
+
+        builder.WebHost.ConfigureKestrel(kestrel =>
+        {
+            kestrel.AddServerHeader = false;
+            kestrel.Listen(options.BindAddress, options.Port, listen =>
+            {
+                listen.Protocols = HttpProtocols.Http2;
+                if (certificate is not null) listen.UseHttps(certificate);
+            });
+        });
+
+        ServiceLimits limits = options.Limits;
+        builder.Services.AddSingleton(store);
+        builder.Services.AddSingleton(limits);
+        builder.Services.AddSingleton(new WriteTokenSetting(options.WriteToken));
+        builder.Services.AddSingleton(new CacheSettings(options.MaxCachedHulls));
+        builder.Services.AddSingleton<VersionResolver>();
+        builder.Services.AddSingleton<HullCache>();
+        builder.Services.AddGrpc(grpc =>
+        {
+            grpc.MaxReceiveMessageSize = limits.MaxReceiveMessageBytes;
+            grpc.MaxSendMessageSize = limits.MaxSendMessageBytes;
+            grpc.EnableDetailedErrors = false;
+            // Outermost first: errors (including refused tokens) are translated and logged in one place.
+            grpc.Interceptors.Add<ErrorTranslationInterceptor>();
+            grpc.Interceptors.Add<WriteTokenInterceptor>();
+        });
+        builder.Services.AddGrpcHealthChecks().AddCheck<StoreHealthCheck>("store");
+        builder.Services.AddGrpcReflection();
+
+        WebApplication app = builder.Build();
+        app.MapGrpcService<DatasetGrpcService>();
+        app.MapGrpcService<StabilityGrpcService>();
+        app.MapGrpcService<DiagnosticsGrpcService>();
+        app.MapGrpcHealthChecksService();
+        app.MapGrpcReflectionService();
+        return app;
+    }
+
+    private static X509Certificate2? LoadCertificate(HullServerOptions options)
+    {
+        if (options.TlsCertificatePath is null)
+        {
+            if (options.TlsKeyPath is not null) throw new ArgumentException("--tls-key needs --tls-cert as well");
+            return null;
+        }
+
+        if (options.TlsKeyPath is not null)
+        {
+            return X509Certificate2.CreateFromPemFile(options.TlsCertificatePath, options.TlsKeyPath);
+        }
+
+        return options.TlsCertificatePath.EndsWith(".pem", StringComparison.OrdinalIgnoreCase)
+            ? X509Certificate2.CreateFromPemFile(options.TlsCertificatePath)
+            : X509CertificateLoader.LoadPkcs12FromFile(options.TlsCertificatePath, password: null);
+    }
+}

@@ -1,0 +1,142 @@
+using System.Globalization;
+using System.Net;
+using Microsoft.Extensions.Logging;
+
+namespace Hull.Server.Hosting;
+
+/// <summary>
+/// The server's command line: options of the form "--name value" (or "--name=value"). Unknown options and bad
+/// values are errors that name the option.
+/// </summary>
+public static class ServerCommandLine
+{
+    /// <summary>Environment variable read for the write token when --write-token is not given (keeps it out of ps).</summary>
+    public const string WriteTokenVariable = "HULL_WRITE_TOKEN";
+
+    public const string Usage = """
+        usage: hull-server [options]
+
+          --data-dir DIR                  dataset store directory, created on first start (default: ./hull-data)
+          --host ADDRESS                  address to bind (default: 127.0.0.1, loopback only)
+          --port N                        TCP port (default: 50551; 0 picks a free port and prints it)
+          --tls-cert FILE                 serve TLS with this PEM certificate (or PKCS#12 file)
+          --tls-key FILE                  PEM private key for --tls-cert
+          --write-token TOKEN             bearer token required by write methods (default: $HULL_WRITE_TOKEN; none = open)
+          --max-components-per-system N   default 8
+          --max-entries-per-system N      default 50000
+          --max-compositions-per-request N  default 1000
+          --max-message-bytes N           largest request message (default 16777216)
+          --log-level LEVEL               Trace, Debug, Information, Warning, Error (default Information)
+          --help                          show this text
+
+        Prints "hull server listening on <address>" on stdout once ready; logs are JSON lines on stderr.
+        """;
+
+    /// <summary>The options, or null with <paramref name="error"/> set; <paramref name="help"/> when --help was given.</summary>
+    public static HullServerOptions? Parse(IReadOnlyList<string> args, out string? error, out bool help)
+    {
+        error = null;
+        help = false;
+        var values = new Dictionary<string, string>(StringComparer.Ordinal);
+        string[] known =
+        [
+            "--data-dir", "--host", "--port", "--tls-cert", "--tls-key", "--write-token", "--max-components-per-system",
+            "--max-entries-per-system", "--max-compositions-per-request", "--max-message-bytes", "--log-level",
+        ];
+        for (int i = 0; i < args.Count; i++)
+        {
+            string arg = args[i];
+            if (arg is "--help" or "-h")
+            {
+                help = true;
+                return null;
+            }
+
+            string name = arg;
+            string? value = null;
+            int equals = arg.IndexOf('=');
+            if (arg.StartsWith("--", StringComparison.Ordinal) && equals > 0)
+            {
+                name = arg[..equals];
+                value = arg[(equals + 1)..];
+            }
+
+            if (!known.Contains(name))
+            {
+                error = $"unknown option '{arg}' (see --help)";
+                return null;
+            }
+
+            if (value is null)
+            {
+                if (i + 1 >= args.Count)
+                {
+                    error = $"option {name} needs a value";
+                    return null;
+                }
+
+                value = args[++i];
+            }
+
+            values[name] = value;
+        }
+
+        try
+        {
+            ServiceLimits limits = ServiceLimits.Default with
+            {
+                MaxComponentsPerSystem = PositiveInt(values, "--max-components-per-system", ServiceLimits.DefaultMaxComponentsPerSystem),
+                MaxEntriesPerSystem = PositiveInt(values, "--max-entries-per-system", ServiceLimits.DefaultMaxEntriesPerSystem),
+                MaxCompositionsPerRequest = PositiveInt(values, "--max-compositions-per-request", ServiceLimits.DefaultMaxCompositionsPerRequest),
+                MaxReceiveMessageBytes = PositiveInt(values, "--max-message-bytes", ServiceLimits.DefaultMaxReceiveMessageBytes),
+            };
+            int port = values.TryGetValue("--port", out string? portText) ? ParseInt(portText, "--port") : HullServerOptions.DefaultPort;
+            if (port is < 0 or > 65535) throw new FormatException($"--port {port} is outside 0..65535");
+            IPAddress host = IPAddress.Loopback;
+            if (values.TryGetValue("--host", out string? hostText))
+            {
+                host = hostText == "localhost" ? IPAddress.Loopback
+                    : IPAddress.TryParse(hostText, out IPAddress? parsed) ? parsed
+                    : throw new FormatException($"--host '{hostText}' is not an IP address (e.g. 127.0.0.1, ::1, 0.0.0.0)");
+            }
+
+            LogLevel level = LogLevel.Information;
+            if (values.TryGetValue("--log-level", out string? levelText) && !Enum.TryParse(levelText, ignoreCase: true, out level))
+            {
+                throw new FormatException($"--log-level '{levelText}' is not one of Trace, Debug, Information, Warning, Error");
+            }
+
+            string? token = values.GetValueOrDefault("--write-token") ?? Environment.GetEnvironmentVariable(WriteTokenVariable);
+            if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
+            return new HullServerOptions
+            {
+                DataDirectory = values.GetValueOrDefault("--data-dir") ?? Path.Combine(Environment.CurrentDirectory, "hull-data"),
+                BindAddress = host,
+                Port = port,
+                TlsCertificatePath = values.GetValueOrDefault("--tls-cert"),
+                TlsKeyPath = values.GetValueOrDefault("--tls-key"),
+                WriteToken = token?.Trim(),
+                Limits = limits,
+                MinimumLogLevel = level,
+            };
+        }
+        catch (FormatException e)
+        {
+            error = e.Message;
+            return null;
+        }
+    }
+
+    private static int PositiveInt(Dictionary<string, string> values, string name, int fallback)
+    {
+        if (!values.TryGetValue(name, out string? text)) return fallback;
+        int value = ParseInt(text, name);
+        if (value < 1) throw new FormatException($"{name} must be at least 1, not {value}");
+        return value;
+    }
+
+    private static int ParseInt(string text, string name) =>
+        int.TryParse(text, NumberStyles.Integer, CultureInfo.InvariantCulture, out int value)
+            ? value
+            : throw new FormatException($"{name} '{text}' is not a whole number");
+}

@@ -1,0 +1,154 @@
+using Google.Protobuf.WellKnownTypes;
+using Hull.Core.Thermo;
+using Hull.Protos.V1;
+using Hull.Server.Caching;
+using Hull.Store;
+using StoreBasis = Hull.Store.EnergyBasis;
+using ThermoBasis = Hull.Core.Thermo.EnergyBasis;
+using WireBasis = Hull.Protos.V1.EnergyBasis;
+using WireDecomposition = Hull.Protos.V1.Decomposition;
+using WireEntryStability = Hull.Protos.V1.EntryStability;
+using WireTieLine = Hull.Protos.V1.TieLine;
+
+namespace Hull.Server.Mapping;
+
+/// <summary>Translations between the wire messages, the store's records and the science layer's results.</summary>
+public static class WireMapping
+{
+    public static ThermoBasis ToThermo(StoreBasis basis) => basis switch
+    {
+        StoreBasis.TotalPerFormulaUnit => ThermoBasis.TotalPerFormulaUnit,
+        StoreBasis.TotalPerAtom => ThermoBasis.TotalPerAtom,
+        StoreBasis.FormationPerFormulaUnit => ThermoBasis.FormationPerFormulaUnit,
+        StoreBasis.FormationPerAtom => ThermoBasis.FormationPerAtom,
+        _ => throw new ArgumentOutOfRangeException(nameof(basis), basis, "not a defined energy basis"),
+    };
+
+    public static WireBasis ToWire(StoreBasis basis) => basis switch
+    {
+        StoreBasis.TotalPerFormulaUnit => WireBasis.TotalPerFormulaUnit,
+        StoreBasis.TotalPerAtom => WireBasis.TotalPerAtom,
+        StoreBasis.FormationPerFormulaUnit => WireBasis.FormationPerFormulaUnit,
+        StoreBasis.FormationPerAtom => WireBasis.FormationPerAtom,
+        _ => throw new ArgumentOutOfRangeException(nameof(basis), basis, "not a defined energy basis"),
+    };
+
+    public static Entry ToWire(EntryRow row) => new()
+    {
+        Id = row.Id,
+        Formula = row.Formula,
+        EnergyEv = row.EnergyEv,
+        Basis = ToWire(row.Basis),
+        Note = row.Metadata ?? string.Empty,
+    };
+
+    public static Protos.V1.DatasetSummary ToWire(Store.DatasetSummary summary) => new()
+    {
+        Name = summary.Name,
+        Description = summary.Description,
+        CreatedAt = Timestamp.FromDateTimeOffset(summary.CreatedAtUtc),
+        LatestVersion = summary.LatestVersion,
+        EntryCount = summary.EntryCount,
+    };
+
+    public static DatasetVersion ToWire(DatasetVersionInfo version) => new()
+    {
+        Version = version.Version,
+        CommittedAt = Timestamp.FromDateTimeOffset(version.CommittedAtUtc),
+        SourceLabel = version.SourceLabel,
+        Note = version.Note,
+        BatchEntryCount = version.BatchEntryCount,
+        InsertedCount = version.Inserted,
+        ReplacedCount = version.Replaced,
+        EntryCount = version.EntryCount,
+    };
+
+    public static VersionUsed ToWire(VersionRef version) => new()
+    {
+        Dataset = version.Dataset,
+        Version = version.Version,
+        ContentSha256 = version.Fingerprint,
+    };
+
+    public static WireDecomposition ToWire(Core.Thermo.Decomposition decomposition)
+    {
+        var wire = new WireDecomposition
+        {
+            HullEnergyEvPerAtom = decomposition.HullEnergyEvPerAtom,
+            Reaction = decomposition.ToReactionString(),
+        };
+        foreach (Core.Thermo.DecompositionProduct product in decomposition.Products)
+        {
+            wire.Products.Add(new Protos.V1.DecompositionProduct
+            {
+                PhaseId = product.Phase.Id,
+                IsElementalReference = product.Phase.IsSynthetic,
+                Formula = product.Phase.Composition.Formula,
+                AtomFraction = product.AtomFraction,
+                FormulaUnits = product.FormulaUnits,
+                FormulaUnitsExact = product.ExactFormulaUnits?.ToString() ?? string.Empty,
+                FormationEnergyEvPerAtom = product.Phase.FormationEnergyEvPerAtom,
+            });
+        }
+
+        return wire;
+    }
+
+    public static WireEntryStability ToWire(Core.Thermo.EntryStability stability, string formulaAsStored)
+    {
+        var wire = new WireEntryStability
+        {
+            EntryId = stability.Id,
+            Formula = formulaAsStored,
+            ChemicalSystem = stability.HullSystem,
+            FormationEnergyEvPerAtom = stability.FormationEnergyEvPerAtom,
+            EnergyAboveHullEvPerAtom = stability.EnergyAboveHullEvPerAtom,
+            IsOnHull = stability.IsOnHull,
+            IsHullVertex = stability.IsHullVertex,
+            Decomposition = ToWire(stability.Decomposition),
+        };
+        if (stability.DecompositionEnergyEvPerAtom is double decompositionEnergy)
+        {
+            wire.DecompositionEnergyEvPerAtom = decompositionEnergy;
+        }
+
+        return wire;
+    }
+
+    public static StablePhase ToWire(HullPhase phase) => new()
+    {
+        PhaseId = phase.Id,
+        Formula = phase.Composition.Formula,
+        FormationEnergyEvPerAtom = phase.FormationEnergyEvPerAtom,
+        IsElementalReference = phase.IsSynthetic,
+    };
+
+    public static HullFacet ToWire(PhaseFacet facet)
+    {
+        var wire = new HullFacet();
+        wire.PhaseIds.AddRange(facet.Phases.Select(p => p.Id));
+        for (int k = 0; k < facet.Components.Count; k++)
+        {
+            wire.ChemicalPotentials.Add(new ComponentPotential
+            {
+                Component = facet.Components[k],
+                ChemicalPotentialEvPerAtom = facet.ChemicalPotentialsEvPerAtom[k],
+            });
+        }
+
+        return wire;
+    }
+
+    public static WireTieLine ToWire(Core.Thermo.TieLine tieLine) => new()
+    {
+        FirstPhaseId = tieLine.First.Id,
+        SecondPhaseId = tieLine.Second.Id,
+    };
+
+    public static Protos.V1.ElementReference ToWire(Core.Thermo.ElementReference reference) => new()
+    {
+        Symbol = reference.Symbol,
+        ReferenceEnergyEvPerAtom = reference.EvPerAtom,
+        SourceEntryId = reference.SourceEntryId ?? string.Empty,
+    };
+}

@@ -1,0 +1,137 @@
+using Grpc.Core;
+using Hull.Protos.V1;
+using Hull.Server.Caching;
+using Hull.Server.Errors;
+using Hull.Server.Hosting;
+using Hull.Server.Mapping;
+using Hull.Server.Validation;
+using Hull.Store;
+
+namespace Hull.Server.Services;
+
+/// <summary>The dataset service: checks each request, then delegates to the store.</summary>
+public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits)
+    : DatasetService.DatasetServiceBase
+{
+    /// <summary>Entries per streamed export message when the caller does not say.</summary>
+    public const int DefaultPageSize = 1000;
+
+    public override Task<Protos.V1.DatasetSummary> CreateDataset(CreateDatasetRequest request, ServerCallContext context)
+    {
+        RequireName(request.Name, "name");
+        if (EntryRules.CheckText(request.Description, "description", allowLineBreaks: true) is { } problem)
+        {
+            throw RpcErrors.InvalidArgument("description", problem);
+        }
+
+        return Task.FromResult(WireMapping.ToWire(store.CreateDataset(request.Name, request.Description)));
+    }
+
+    public override Task<ListDatasetsResponse> ListDatasets(ListDatasetsRequest request, ServerCallContext context)
+    {
+        var response = new ListDatasetsResponse();
+        response.Datasets.AddRange(store.ListDatasets().Select(WireMapping.ToWire));
+        return Task.FromResult(response);
+    }
+
+    public override Task<DescribeDatasetResponse> DescribeDataset(DescribeDatasetRequest request, ServerCallContext context)
+    {
+        RequireName(request.Name, "name");
+        DatasetDescription description = store.DescribeDataset(request.Name);
+        var response = new DescribeDatasetResponse { Dataset = WireMapping.ToWire(description.Summary) };
+        response.Versions.AddRange(description.Versions.Select(WireMapping.ToWire));
+        return Task.FromResult(response);
+    }
+
+    public override Task<DeleteDatasetResponse> DeleteDataset(DeleteDatasetRequest request, ServerCallContext context)
+    {
+        RequireName(request.Name, "name");
+        try
+        {
+            store.DeleteDataset(request.Name);
+        }
+        finally
+        {
+            versions.Forget(request.Name);
+        }
+
+        return Task.FromResult(new DeleteDatasetResponse());
+    }
+
+    public override async Task<ImportEntriesResponse> ImportEntries(ImportEntriesRequest request, ServerCallContext context)
+    {
+        (IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy) = BatchValidation.Validate(request, limits);
+        context.CancellationToken.ThrowIfCancellationRequested();
+        // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
+        ImportResult result = await Task.Run(
+            () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
+        return new ImportEntriesResponse
+        {
+            DatasetVersion = result.NewVersion,
+            InsertedCount = result.Inserted,
+            ReplacedCount = result.Replaced,
+        };
+    }
+
+    public override async Task ExportEntries(ExportEntriesRequest request, IServerStreamWriter<ExportEntriesResponse> responseStream, ServerCallContext context)
+    {
+        RequireName(request.Dataset, "dataset");
+        int pageSize = PageSize(request.PageSize, "page_size");
+        if (request.Version < 0) throw RpcErrors.InvalidArgument("version", $"version {request.Version} is negative; 0 means the latest");
+
+        long? version = request.Version == 0 ? null : request.Version;
+        string? after = null;
+        do
+        {
+            context.CancellationToken.ThrowIfCancellationRequested();
+            EntryPage page = store.GetEntries(request.Dataset, version, after, pageSize);
+            version = page.Version;
+            var message = new ExportEntriesResponse { DatasetVersion = page.Version };
+            message.Entries.AddRange(page.Entries.Select(WireMapping.ToWire));
+            await responseStream.WriteAsync(message, context.CancellationToken);
+            after = page.NextAfterId;
+        }
+        while (after is not null);
+    }
+
+    public override Task<ListVersionsResponse> ListVersions(ListVersionsRequest request, ServerCallContext context)
+    {
+        RequireName(request.Dataset, "dataset");
+        var response = new ListVersionsResponse();
+        response.Versions.AddRange(store.ListVersions(request.Dataset).Select(WireMapping.ToWire));
+        return Task.FromResult(response);
+    }
+
+    public override Task<DeleteVersionResponse> DeleteVersion(DeleteVersionRequest request, ServerCallContext context)
+    {
+        RequireName(request.Dataset, "dataset");
+        if (request.Version <= 0) throw RpcErrors.InvalidArgument("version", $"version {request.Version} is not a version number; versions count from 1");
+        try
+        {
+            store.DeleteVersion(request.Dataset, request.Version);
+        }
+        finally
+        {
+            versions.Forget(request.Dataset);
+        }
+
+        return Task.FromResult(new DeleteVersionResponse());
+    }
+
+    /// <summary>A page size of 1 to the store's maximum; 0 means the default.</summary>
+    internal static int PageSize(int requested, string field)
+    {
+        if (requested == 0) return DefaultPageSize;
+        if (requested < 0 || requested > DatasetStore.MaxPageSize)
+        {
+            throw RpcErrors.InvalidArgument(field, $"page size {requested} is outside 1..{DatasetStore.MaxPageSize} (0 = {DefaultPageSize})");
+        }
+
+        return requested;
+    }
+
+    private static void RequireName(string name, string field)
+    {
+        if (DatasetName.Check(name) is { } problem) throw RpcErrors.InvalidArgument(field, problem);
+    }
+}

@@ -1,0 +1,131 @@
+using Hull.Core.Chemistry;
+using Hull.Protos.V1;
+using Hull.Server.Errors;
+using Hull.Server.Hosting;
+using Hull.Store;
+using StoreBasis = Hull.Store.EnergyBasis;
+using WireBasis = Hull.Protos.V1.EnergyBasis;
+using DuplicatePolicy = Hull.Store.DuplicatePolicy;
+
+namespace Hull.Server.Validation;
+
+/// <summary>
+/// Checks an import request row by row before anything is written, collecting every fault with its field path
+/// ("entries[12].formula"), so that one answer lists what to fix. A batch with any fault is refused whole.
+/// </summary>
+public static class BatchValidation
+{
+    /// <summary>The rows to store, or an RpcException listing every fault (INVALID_ARGUMENT, or RESOURCE_EXHAUSTED
+    /// when the only faults are rows past the component limit).</summary>
+    public static (IReadOnlyList<EntryRow> Rows, DuplicatePolicy Policy) Validate(ImportEntriesRequest request, ServiceLimits limits)
+    {
+        var violations = new List<FieldViolation>();
+        var limitViolations = new List<FieldViolation>();
+        if (DatasetName.Check(request.Dataset) is { } nameProblem) violations.Add(new("dataset", nameProblem));
+
+        DuplicatePolicy policy = DuplicatePolicy.Reject;
+        switch (request.DuplicatePolicy)
+        {
+            case Protos.V1.DuplicatePolicy.Reject: policy = DuplicatePolicy.Reject; break;
+            case Protos.V1.DuplicatePolicy.Replace: policy = DuplicatePolicy.Replace; break;
+            default:
+                violations.Add(new("duplicate_policy", "choose DUPLICATE_POLICY_REJECT or DUPLICATE_POLICY_REPLACE"));
+                break;
+        }
+
+        if (EntryRules.CheckText(request.SourceLabel, "source label") is { } labelProblem) violations.Add(new("source_label", labelProblem));
+        if (EntryRules.CheckText(request.Note, "note", allowLineBreaks: true) is { } noteProblem) violations.Add(new("note", noteProblem));
+        if (request.Entries.Count == 0) violations.Add(new("entries", "the batch is empty; an import needs at least one entry"));
+
+        var rows = new List<EntryRow>(request.Entries.Count);
+        var firstRowById = new Dictionary<string, int>(request.Entries.Count, StringComparer.Ordinal);
+        for (int i = 0; i < request.Entries.Count; i++)
+        {
+            Entry entry = request.Entries[i];
+            string at = $"entries[{i}]";
+            int before = violations.Count;
+
+            if (EntryRules.CheckId(entry.Id) is { } idProblem)
+            {
+                violations.Add(new($"{at}.id", idProblem));
+            }
+            else if (!firstRowById.TryAdd(entry.Id, i))
+            {
+                violations.Add(new($"{at}.id", $"id '{entry.Id}' repeats entries[{firstRowById[entry.Id]}]; ids must be unique within a batch"));
+            }
+
+            if (!Composition.TryParse(entry.Formula, out Composition? composition, out FormulaParseException? parseError))
+            {
+                violations.Add(new($"{at}.formula", parseError.Message));
+            }
+            else if (composition.Elements.Count > limits.MaxComponentsPerSystem)
+            {
+                limitViolations.Add(new($"{at}.formula",
+                    $"'{entry.Formula}' has {composition.Elements.Count} elements; the limit is {limits.MaxComponentsPerSystem} components per chemical system"));
+            }
+
+            if (!double.IsFinite(entry.EnergyEv))
+            {
+                violations.Add(new($"{at}.energy_ev", $"the energy is {Describe(entry.EnergyEv)}; energies must be finite numbers of eV"));
+            }
+
+            StoreBasis basis = default;
+            if (!TryMapBasis(entry.Basis, out basis))
+            {
+                violations.Add(new($"{at}.basis", BasisProblem(entry.Basis)));
+            }
+
+            if (EntryRules.CheckText(entry.Note, "note", allowLineBreaks: true) is { } entryNoteProblem)
+            {
+                violations.Add(new($"{at}.note", entryNoteProblem));
+            }
+
+            if (violations.Count == before && violations.Count < RpcErrors.MaxViolationsReported)
+            {
+                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, basis, entry.Note));
+            }
+        }
+
+        if (violations.Count > 0)
+        {
+            var all = violations.Concat(limitViolations).ToList();
+            throw RpcErrors.InvalidArgument(Summarize("the batch was refused; nothing was written", all), all);
+        }
+
+        if (limitViolations.Count > 0)
+        {
+            throw RpcErrors.WithViolations(Grpc.Core.StatusCode.ResourceExhausted,
+                Summarize("the batch was refused; nothing was written", limitViolations), limitViolations);
+        }
+
+        return (rows, policy);
+    }
+
+    /// <summary>Maps the wire basis; false for UNSPECIFIED or an unknown number.</summary>
+    public static bool TryMapBasis(WireBasis basis, out StoreBasis mapped)
+    {
+        switch (basis)
+        {
+            case WireBasis.TotalPerFormulaUnit: mapped = StoreBasis.TotalPerFormulaUnit; return true;
+            case WireBasis.TotalPerAtom: mapped = StoreBasis.TotalPerAtom; return true;
+            case WireBasis.FormationPerFormulaUnit: mapped = StoreBasis.FormationPerFormulaUnit; return true;
+            case WireBasis.FormationPerAtom: mapped = StoreBasis.FormationPerAtom; return true;
+            default: mapped = default; return false;
+        }
+    }
+
+    public static string BasisProblem(WireBasis basis) => basis == WireBasis.Unspecified
+        ? "the energy basis is not given; say whether the energy is a total or formation energy, per formula unit or per atom"
+        : $"{(int)basis} is not a defined energy basis";
+
+    private static string Describe(double value) =>
+        double.IsNaN(value) ? "NaN" : double.IsPositiveInfinity(value) ? "+Infinity" : "-Infinity";
+
+    /// <summary>"what: first fault (and N more)".</summary>
+    public static string Summarize(string what, IReadOnlyList<FieldViolation> violations)
+    {
+        FieldViolation first = violations[0];
+        string more = violations.Count > 1 ? $" (and {violations.Count - 1} more problem{(violations.Count > 2 ? "s" : string.Empty)})" : string.Empty;
+        return $"{what}: {first.Field}: {first.Description}{more}";
+    }
+}
