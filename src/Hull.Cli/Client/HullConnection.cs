@@ -1,0 +1,55 @@
+using Grpc.Core;
+using Grpc.Health.V1;
+using Grpc.Net.Client;
+using Hull.Protos.V1;
+
+namespace Hull.Cli.Client;
+
+/// <summary>One channel to a hull server, its service clients, and the call options every call uses.</summary>
+public sealed class HullConnection : IDisposable
+{
+    /// <summary>Largest response accepted, bytes: the server's default send limit.</summary>
+    private const int MaxReceiveMessageBytes = 64 * 1024 * 1024;
+
+    /// <summary>How long to wait for a TCP connection before calling the server unreachable.</summary>
+    private static readonly TimeSpan ConnectTimeout = TimeSpan.FromSeconds(5);
+
+    private readonly GrpcChannel _channel;
+    private readonly string? _token;
+    private readonly TimeSpan _timeout;
+
+    public HullConnection(Uri address, string? token, TimeSpan timeout)
+    {
+        Address = address;
+        _token = token;
+        _timeout = timeout;
+        _channel = GrpcChannel.ForAddress(address, new GrpcChannelOptions
+        {
+            MaxReceiveMessageSize = MaxReceiveMessageBytes,
+            HttpHandler = new SocketsHttpHandler { ConnectTimeout = ConnectTimeout, EnableMultipleHttp2Connections = true },
+        });
+        Datasets = new DatasetService.DatasetServiceClient(_channel);
+        Stability = new StabilityService.StabilityServiceClient(_channel);
+        Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
+        Health = new Health.HealthClient(_channel);
+    }
+
+    public Uri Address { get; }
+
+    public DatasetService.DatasetServiceClient Datasets { get; }
+
+    public StabilityService.StabilityServiceClient Stability { get; }
+
+    public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
+
+    public Health.HealthClient Health { get; }
+
+    /// <summary>Options for one call: the bearer token when given, the deadline, and cancellation.</summary>
+    public CallOptions Call(CancellationToken cancellation)
+    {
+        Metadata? headers = _token is null ? null : new Metadata { { "authorization", "Bearer " + _token } };
+        return new CallOptions(headers, DateTime.UtcNow + _timeout, cancellation);
+    }
+
+    public void Dispose() => _channel.Dispose();
+}

@@ -1,0 +1,46 @@
+using Google.Rpc;
+using Grpc.Core;
+
+namespace Hull.Cli.Client;
+
+/// <summary>Turns a failed call into the exit code and a message that says what the server objected to.</summary>
+public static class RpcFailure
+{
+    public static int ExitCodeOf(StatusCode code) => code switch
+    {
+        StatusCode.Unavailable => ExitCodes.ServerUnreachable,
+        StatusCode.InvalidArgument or StatusCode.FailedPrecondition or StatusCode.AlreadyExists
+            or StatusCode.OutOfRange or StatusCode.ResourceExhausted or StatusCode.Aborted => ExitCodes.Rejected,
+        StatusCode.NotFound => ExitCodes.NotFound,
+        StatusCode.Unauthenticated or StatusCode.PermissionDenied => ExitCodes.NotAuthorized,
+        StatusCode.DeadlineExceeded => ExitCodes.TimedOut,
+        _ => ExitCodes.ServerError,
+    };
+
+    /// <summary>The field violations of a google.rpc.BadRequest detail, if the error carries one.</summary>
+    public static IReadOnlyList<BadRequest.Types.FieldViolation> ViolationsOf(RpcException error) =>
+        error.GetRpcStatus()?.GetDetail<BadRequest>()?.FieldViolations.ToArray() ?? [];
+
+    public static string Describe(RpcException error, Uri address)
+    {
+        if (error.StatusCode == StatusCode.Unavailable)
+        {
+            return $"cannot reach the hull server at {address}: {error.Status.Detail}. " +
+                   "Is it running? Start one with `hull serve`, or point --server (or HULL_SERVER) at it.";
+        }
+
+        if (error.StatusCode == StatusCode.DeadlineExceeded)
+        {
+            return $"the server at {address} did not answer in time; raise --timeout for long work";
+        }
+
+        string text = $"server refused ({error.StatusCode}): {error.Status.Detail}";
+        IReadOnlyList<BadRequest.Types.FieldViolation> violations = ViolationsOf(error);
+        if (violations.Count > 1)
+        {
+            text += Environment.NewLine + string.Join(Environment.NewLine, violations.Select(v => $"  {v.Field}: {v.Description}"));
+        }
+
+        return text;
+    }
+}

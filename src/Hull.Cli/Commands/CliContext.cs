@@ -1,0 +1,48 @@
+using System.CommandLine;
+using Hull.Cli.Client;
+using Hull.Cli.Output;
+
+namespace Hull.Cli.Commands;
+
+/// <summary>What a command's action needs: the parsed values, the output streams and format, and the server.</summary>
+public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter stderr, GlobalOptions options)
+{
+    private HullConnection? _connection;
+
+    public ParseResult Parse { get; } = parse;
+
+    public TextWriter Out { get; } = stdout;
+
+    public TextWriter Err { get; } = stderr;
+
+    public OutputFormat Format { get; } = parse.GetValue(options.Json) ? OutputFormat.Json
+        : parse.GetValue(options.Csv) ? OutputFormat.Csv
+        : OutputFormat.Table;
+
+    public bool Quiet => Parse.GetValue(options.Quiet);
+
+    public Uri ServerAddress => new(Parse.GetValue(options.Server)!);
+
+    public T? Get<T>(Option<T> option) => Parse.GetValue(option);
+
+    public T? Get<T>(Argument<T> argument) => Parse.GetValue(argument);
+
+    /// <summary>The connection to --server, opened on first use.</summary>
+    public HullConnection Server => _connection ??= new HullConnection(
+        ServerAddress, Parse.GetValue(options.Token), TimeSpan.FromSeconds(Parse.GetValue(options.TimeoutSeconds)));
+
+    /// <summary>Prints a table in the chosen text format, or the message as JSON.</summary>
+    public void Emit(Google.Protobuf.IMessage message, Func<Table> table, string? caption = null)
+    {
+        if (Format == OutputFormat.Json)
+        {
+            Out.WriteLine(ProtoJson.Format(message));
+            return;
+        }
+
+        if (caption is not null && Format == OutputFormat.Table) Out.WriteLine(caption);
+        TableRenderer.Write(Out, table(), Format);
+    }
+
+    public void Close() => _connection?.Dispose();
+}

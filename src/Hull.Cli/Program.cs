@@ -1,0 +1,9 @@
+using Hull.Cli;
+
+using var cancel = new CancellationTokenSource();
+Console.CancelKeyPress += (_, e) =>
+{
+    e.Cancel = true;
+    cancel.Cancel();
+};
+return await CliApp.RunAsync(args, Console.Out, Console.Error, cancel.Token);
