@@ -85,9 +85,11 @@ public static class DegenerateDataGenerator
             b.Add(a, energy / atoms, $"on plane of {chosen.Length} low points");
         }
 
-        // Many points on one plane E = sum_k mu_k x_k, a little below the corners, so that part of it is hull.
+        // Many points on one plane E = sum_k mu_k x_k: nearly level, a little above the bowl at a random centre, so
+        // it cuts the bowl and the points inside the cut form one flat face of the hull while the rest lie above.
         int coplanar = count * 20 / 100;
-        var mu = Enumerable.Range(0, components).Select(_ => -0.05 - 0.4 * rng.NextDouble()).ToArray();
+        double level = Bowl(LatticeAmounts(components, rng)) + 0.03;
+        var mu = Enumerable.Range(0, components).Select(_ => level + 0.1 * (rng.NextDouble() - 0.5)).ToArray();
         for (int i = 0; i < coplanar; i++)
         {
             var a = LatticeAmounts(components, rng);

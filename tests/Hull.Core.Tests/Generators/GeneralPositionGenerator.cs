@@ -13,7 +13,7 @@ public static class GeneralPositionGenerator
     /// <summary>
     /// One pure point per component at exactly 0 eV/atom (at a random position in the list), then
     /// <paramref name="extraPoints"/> interior points with energies on a convex bowl plus noise, so the lower hull
-    /// has many vertices and some points lie far above it.
+    /// has many vertices and some points lie far above it (above the pure points too).
     /// </summary>
     public static PointSet Generate(int components, int extraPoints, int seed)
     {
@@ -35,9 +35,10 @@ public static class GeneralPositionGenerator
             for (int k = 0; k < components; k++) row[k] = rng.NextInt64(1, MaxAmount + 1);
             double total = row.Sum(a => (double)a);
             double sumSquares = row.Sum(a => (a / total) * (a / total));
-            // Convex bowl (sum x^2 - 1 is convex on the simplex and 0 at the corners) plus noise in [-0.15, 0.35].
+            // Convex bowl (sum x^2 - 1 is convex on the simplex and 0 at the corners) plus noise in [-0.15, 0.35];
+            // one point in five raised by 0.8 eV/atom so that the upper hull is not just the plane of the pure points.
             double bowl = -0.8 * (1.0 - sumSquares);
-            energies.Add(bowl - 0.15 + 0.5 * rng.NextDouble());
+            energies.Add(bowl - 0.15 + 0.5 * rng.NextDouble() + (rng.Next(5) == 0 ? 0.8 : 0.0));
             amounts.Add(row);
             kinds.Add("random");
         }

@@ -37,9 +37,12 @@ public sealed class LpReferenceTests(ITestOutputHelper output)
         // SciPy linprog(method="highs") on the LP above, primal/dual feasibility tolerance 1e-10.
         for (int i = 0; i < set.Count; i++) check.CheckPoint(i, answers[i], "SciPy HiGHS LP");
         for (int q = 0; q < hypothetical.Count; q++) check.CheckComposition(hypothetical[q], answers[set.Count + q], "SciPy HiGHS LP");
-        output.WriteLine($"{components} components, {set.Count} points, {hull.VertexPoints.Count} vertices, {hull.Facets.Count} facets; "
+        var degeneracy = DegeneracyCount.Of(set, hull);
+        output.WriteLine($"{components} components, {set.Count} points, {hull.Facets.Count} facets, {degeneracy}; "
             + $"build {buildTime.TotalMilliseconds:F0} ms, SciPy {referenceTime.TotalMilliseconds:F0} ms ({queries.Count} LPs), checks {clock.Elapsed.TotalMilliseconds:F0} ms");
         check.AssertNone($"{components} components, seed {seed}");
+        // The data must exercise the degenerate cases: points exactly on the hull that are not vertices.
+        Assert.True(degeneracy.OnHullNotVertex >= 5 && degeneracy.TwinsOnHull >= 1, $"generated data not degenerate enough: {degeneracy}");
     }
 
     [Theory]
@@ -60,7 +63,7 @@ public sealed class LpReferenceTests(ITestOutputHelper output)
         // glpsol --math hull_lp.mod --xcheck: simplex, final basis re-solved in exact rational arithmetic.
         for (int i = 0; i < set.Count; i++) check.CheckPoint(i, answers[i], "GLPK LP");
         for (int q = 0; q < hypothetical.Count; q++) check.CheckComposition(hypothetical[q], answers[set.Count + q], "GLPK LP");
-        output.WriteLine($"{components} components, {set.Count} points, {hull.VertexPoints.Count} vertices; glpsol {referenceTime.TotalMilliseconds:F0} ms ({queries.Count} LP blocks)");
+        output.WriteLine($"{components} components, {set.Count} points, {DegeneracyCount.Of(set, hull)}; glpsol {referenceTime.TotalMilliseconds:F0} ms ({queries.Count} LP blocks)");
         check.AssertNone($"{components} components, seed {seed}");
     }
 }

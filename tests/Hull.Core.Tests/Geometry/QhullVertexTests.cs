@@ -16,6 +16,12 @@ public sealed class QhullVertexTests(ITestOutputHelper output)
     /// </summary>
     private const double VerticalNormalTolerance = 1e-12;
 
+    /// <summary>
+    /// Chemical potentials from a qconvex plane are its unit normal and offset (printed to 16 digits, rounding near
+    /// 1e-15) divided by the normal's energy component; 1e-10 eV/atom per unit of that division leaves a wide margin.
+    /// </summary>
+    private const double ChemicalPotentialTolerance = 1e-10;
+
     [Theory]
     [InlineData(2, 300, 11)]
     [InlineData(2, 300, 12)]
@@ -57,10 +63,34 @@ public sealed class QhullVertexTests(ITestOutputHelper output)
         var extra = ours.Except(reference).Order().Select(set.Describe).ToList();
         Assert.True(missing.Count == 0 && extra.Count == 0,
             $"qconvex lower-hull vertices we lack:\n{string.Join("\n", missing)}\nour vertices qconvex lacks:\n{string.Join("\n", extra)}");
+
+        // In general position the lower hull is a unique triangulation, so the facets themselves must agree.
+        var ourFacets = hull.Facets.Select(f => FacetKey(f.VertexPoints)).ToHashSet();
+        var referenceFacets = lower.Select(f => FacetKey(f.Vertices)).ToHashSet();
+        Assert.True(ourFacets.SetEquals(referenceFacets),
+            $"{ourFacets.Except(referenceFacets).Count()} of our facets not in qconvex, {referenceFacets.Except(ourFacets).Count()} qconvex lower facets not ours");
+
+        // The facet plane n . (x_1..x_{n-1}, E) + offset = 0 gives E = sum_k mu_k x_k with mu_n = -offset / n_E at
+        // the corner of the last component and mu_k = -(offset + n_k) / n_E at the others (qconvex manual, 'n').
+        var byKey = hull.Facets.ToDictionary(f => FacetKey(f.VertexPoints));
+        foreach (var f in lower)
+        {
+            var mu = byKey[FacetKey(f.Vertices)].ChemicalPotentialsEvPerAtom;
+            double nE = f.OutwardNormal[^1];
+            for (int k = 0; k < components; k++)
+            {
+                double fromPlane = k == components - 1 ? -f.Offset / nE : -(f.Offset + f.OutwardNormal[k]) / nE;
+                Assert.True(Math.Abs(mu[k] - fromPlane) <= ChemicalPotentialTolerance * (1.0 / Math.Abs(nE)),
+                    $"facet {FacetKey(f.Vertices)}: mu[{k}] = {mu[k]:R}, qconvex plane gives {fromPlane:R}");
+            }
+        }
+
         // Sanity of the reference itself: every pure point is a lower vertex (corners of the simplex).
         for (int i = 0; i < set.Count; i++)
         {
             if (set.Kinds[i] == "pure") Assert.Contains(i, reference);
         }
     }
+
+    private static string FacetKey(IEnumerable<int> vertices) => string.Join(",", vertices.Order());
 }

@@ -26,10 +26,11 @@ public static class GlpkLpRunner
         var arguments = new List<string> { "--math", model, "--data", data };
         if (exactCheck) arguments.Add("--xcheck");
         var run = ToolProcess.Run("glpsol", arguments, scratch.Path, Timeout, "glpk-utils");
-        if (!run.StandardOutput.Contains("OPTIMAL", StringComparison.Ordinal) || run.StandardOutput.Contains("NO PRIMAL FEASIBLE", StringComparison.Ordinal))
-        {
-            throw new ReferenceToolException($"glpsol found no optimal solution:\n{run.StandardOutput}");
-        }
+        // glpsol reports "OPTIMAL LP SOLUTION FOUND" after the floating-point simplex and, with --xcheck, "OPTIMAL
+        // SOLUTION FOUND" after the exact re-solve (glpsol output, GLPK 5.0); anything else is not an optimum.
+        var lines = run.StandardOutput.Split('\n', StringSplitOptions.TrimEntries);
+        bool optimal = lines.Contains("OPTIMAL LP SOLUTION FOUND") && (!exactCheck || lines.Contains("OPTIMAL SOLUTION FOUND"));
+        if (!optimal) throw new ReferenceToolException($"glpsol found no optimal solution:\n{run.StandardOutput}");
         string answers = scratch.File("answers.txt");
         if (!File.Exists(answers)) throw new ReferenceToolException($"glpsol wrote no answers.\n{run.StandardOutput}");
         return Parse(File.ReadAllLines(answers), problem.Queries.Count);

@@ -14,6 +14,12 @@ public static class ScipyLpRunner
     private const string ScriptName = "hull_lp.py";
     private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
+    /// <summary>
+    /// Largest accepted violation of sum_j lambda_j x_j = x_q: the solver works to 1e-10 feasibility; above 1e-9
+    /// (the tolerance of the comparisons) the answer could not decide a check.
+    /// </summary>
+    private const double MaxResidual = 1e-9;
+
     public static IReadOnlyList<HullLpAnswer> Solve(HullLpProblem problem)
     {
         string script = Path.Combine(AppContext.BaseDirectory, "References", ScriptName);
@@ -37,6 +43,14 @@ public static class ScipyLpRunner
         if (parsed.List is null || parsed.List.Count != problem.Queries.Count)
         {
             throw new ReferenceToolException($"The LP script answered {parsed.List?.Count ?? 0} queries of {problem.Queries.Count}.");
+        }
+        for (int q = 0; q < parsed.List.Count; q++)
+        {
+            // An LP answer that misses its own constraints by more than the checks' tolerance is no reference.
+            if (!(parsed.List[q].Residual <= MaxResidual))
+            {
+                throw new ReferenceToolException($"SciPy's LP for query {q} misses the composition by {parsed.List[q].Residual:R}.");
+            }
         }
         return parsed.List.Select(a => new HullLpAnswer(a.HullEnergy, a.Phases, a.Weights)).ToList();
     }
