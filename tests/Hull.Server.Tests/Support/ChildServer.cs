@@ -1,0 +1,73 @@
+using System.Diagnostics;
+using Hull.Server.Hosting;
+
+namespace Hull.Server.Tests.Support;
+
+/// <summary>The server executable run as a child process (`dotnet Hull.Server.dll ...`), so that it can be SIGKILLed.</summary>
+public sealed class ChildServer : IDisposable
+{
+    private static readonly TimeSpan StartTimeout = TimeSpan.FromSeconds(60);
+    private readonly Process _process;
+
+    private ChildServer(Process process, Uri address)
+    {
+        _process = process;
+        Address = address;
+    }
+
+    public Uri Address { get; }
+
+    public bool HasExited => _process.HasExited;
+
+    public static async Task<ChildServer> StartAsync(string dataDirectory, params string[] extraArguments)
+    {
+        string serverDll = typeof(HullServer).Assembly.Location;
+        var start = new ProcessStartInfo("dotnet")
+        {
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
+            UseShellExecute = false,
+        };
+        foreach (string arg in new[] { serverDll, "--data-dir", dataDirectory, "--port", "0", "--log-level", "Warning" }.Concat(extraArguments))
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        var process = Process.Start(start) ?? throw new InvalidOperationException("could not start the server process");
+        process.ErrorDataReceived += (_, _) => { };
+        process.BeginErrorReadLine();
+        using var timeout = new CancellationTokenSource(StartTimeout);
+        while (true)
+        {
+            string? line = await process.StandardOutput.ReadLineAsync(timeout.Token);
+            if (line is null) throw new InvalidOperationException($"the server exited before listening (exit code {(process.WaitForExit(5000) ? process.ExitCode : -1)})");
+            const string Prefix = "hull server listening on ";
+            if (line.StartsWith(Prefix, StringComparison.Ordinal))
+            {
+                string address = line[Prefix.Length..].Split(' ')[0];
+                return new ChildServer(process, new Uri(address));
+            }
+        }
+    }
+
+    /// <summary>SIGKILL: no shutdown code runs, exactly like a power cut for the process.</summary>
+    public void Kill()
+    {
+        if (!_process.HasExited) _process.Kill(entireProcessTree: false);
+        _process.WaitForExit();
+    }
+
+    /// <summary>SIGTERM-like graceful stop where possible; kills if it does not stop in time.</summary>
+    public void Stop()
+    {
+        if (_process.HasExited) return;
+        Process.Start("kill", ["-TERM", _process.Id.ToString(System.Globalization.CultureInfo.InvariantCulture)])?.WaitForExit();
+        if (!_process.WaitForExit(10_000)) Kill();
+    }
+
+    public void Dispose()
+    {
+        Stop();
+        _process.Dispose();
+    }
+}
