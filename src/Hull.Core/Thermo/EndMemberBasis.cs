@@ -13,8 +13,11 @@ public sealed class EndMemberBasis
     private readonly BigFraction[][] _elementVectors;
     private readonly BigFraction[] _atomsPerFormulaUnit;
 
-    /// <exception cref="ThermoInputException">No end-members, or end-members that are not linearly independent.</exception>
-    public EndMemberBasis(IReadOnlyList<Composition> endMembers)
+    /// <param name="endMembers">The end-member compositions; their order is the hull's component order.</param>
+    /// <param name="names">Names for the end-members (e.g. "LiCoO2" as usually written, or "cathode"); default: their formulas.</param>
+    /// <exception cref="ThermoInputException">No end-members, end-members that are not linearly independent, or
+    /// names that are missing, empty or repeated.</exception>
+    public EndMemberBasis(IReadOnlyList<Composition> endMembers, IReadOnlyList<string>? names = null)
     {
         ArgumentNullException.ThrowIfNull(endMembers);
         if (endMembers.Count == 0)
@@ -32,7 +35,24 @@ public sealed class EndMemberBasis
 
         EndMembers = endMembers.ToArray();
         Elements = endMembers.SelectMany(c => c.Elements).Distinct().Order(StringComparer.Ordinal).ToArray();
-        Names = endMembers.Select(c => c.Formula).ToArray();
+        Names = names?.ToArray() ?? endMembers.Select(c => c.Formula).ToArray();
+        if (Names.Count != endMembers.Count)
+        {
+            throw new ThermoInputException($"{endMembers.Count} end-members but {Names.Count} names.");
+        }
+
+        for (int j = 0; j < Names.Count; j++)
+        {
+            if (string.IsNullOrWhiteSpace(Names[j]))
+            {
+                throw new ThermoInputException($"End-member {j} has an empty name.", rowIndex: j);
+            }
+
+            if (Names.Take(j).Contains(Names[j], StringComparer.Ordinal))
+            {
+                throw new ThermoInputException($"End-member name '{Names[j]}' is used twice.", rowIndex: j);
+            }
+        }
         _elementVectors = endMembers.Select(ElementVector).ToArray();
         _atomsPerFormulaUnit = endMembers.Select(c => BigFraction.FromRational(c.AtomsPerFormulaUnit)).ToArray();
 
@@ -52,7 +72,7 @@ public sealed class EndMemberBasis
     /// <summary>The end-member compositions, in the order given (this is the component order of the hull).</summary>
     public IReadOnlyList<Composition> EndMembers { get; }
 
-    /// <summary>The end-members' formulas, in order.</summary>
+    /// <summary>The end-members' names (their formulas unless named), in order: the hull's component names.</summary>
     public IReadOnlyList<string> Names { get; }
 
     /// <summary>Every element of the end-members, ordinally sorted.</summary>
