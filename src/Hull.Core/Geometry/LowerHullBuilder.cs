@@ -25,13 +25,14 @@ internal sealed class LowerHullBuilder
     // Facet storage, n slots per facet. Slot i holds a vertex (Infinity for a wall's vertex at infinite energy) and
     // the neighbour across the ridge opposite that vertex.
     private int _facetCount;
-    private int[] _vertices = new int[64];
-    private int[] _neighbors = new int[64];
-    private double[] _mu = new double[64];
-    private int[] _wallFace = new int[16];
-    private bool[] _alive = new bool[16];
-    private List<int>?[] _outside = new List<int>?[16];
-    private int[] _visitStamp = new int[16];
+    private readonly Stack<int> _freeFacets = new();
+    private int[] _vertices = [];
+    private int[] _neighbors = [];
+    private double[] _mu = [];
+    private int[] _wallFace = [];
+    private bool[] _alive = [];
+    private List<int>?[] _outside = [];
+    private int[] _visitStamp = [];
     private int _stamp;
 
     private readonly Queue<int> _pending = new();
@@ -138,14 +139,14 @@ internal sealed class LowerHullBuilder
         FindValidHorizon(apex, visible, horizon);
 
         created.Clear();
-        var ridges = new Dictionary<RidgeKey, (int Facet, int Slot)>();
+        _ridges.Clear();
         var slotBuffer = new int[_n];
-        foreach (var (f, slot) in horizon)
+        for (int h = 0; h < horizon.Count; h++)
         {
+            var (f, slot) = horizon[h];
             Array.Copy(_vertices, f * _n, slotBuffer, 0, _n);
             slotBuffer[slot] = apex;
-            int nf = NewFacet(slotBuffer, _wallFace[f]);
-            if (nf < 0) throw new InvalidOperationException($"Internal error: degenerate facet across a checked ridge while adding point {apex}.");
+            int nf = NewFacet(slotBuffer, _wallFace[f], _wallFace[f] < 0 ? _horizonMu.AsSpan(h * _n, _n) : default);
             int outsideNeighbor = _neighbors[f * _n + slot];
             _neighbors[nf * _n + slot] = outsideNeighbor;
             ReplaceNeighbor(outsideNeighbor, f, nf);
@@ -153,41 +154,43 @@ internal sealed class LowerHullBuilder
             for (int i = 0; i < _n; i++)
             {
                 if (i == slot) continue;
-                var key = RidgeKey.Of(_vertices, nf * _n, _n, skipSlot: i);
-                if (ridges.Remove(key, out var other))
+                ulong key = RidgeHash(nf, skipSlot: i);
+                if (_ridges.Remove(key, out var other))
                 {
+                    if (!SameRidge(nf, i, other.Facet, other.Slot))
+                    {
+                        throw new InvalidOperationException($"Internal error: ridge hash collision while adding point {apex}.");
+                    }
                     _neighbors[nf * _n + i] = other.Facet;
                     _neighbors[other.Facet * _n + other.Slot] = nf;
                 }
                 else
                 {
-                    ridges.Add(key, (nf, i));
+                    _ridges.Add(key, (nf, i));
                 }
             }
         }
-        if (ridges.Count != 0)
+        if (_ridges.Count != 0)
         {
-            throw new InvalidOperationException($"Internal error: {ridges.Count} unmatched ridges while adding point {apex}.");
+            throw new InvalidOperationException($"Internal error: {_ridges.Count} unmatched ridges while adding point {apex}.");
         }
 
+        foreach (int f in visible) _alive[f] = false;
+        int climbFrom = created[0];
+        foreach (int nf in created)
+        {
+            if (_wallFace[nf] < 0) { climbFrom = nf; break; }
+        }
         foreach (int f in visible)
         {
-            _alive[f] = false;
             var set = _outside[f];
             _outside[f] = null;
             if (set is null) continue;
             foreach (int q in set)
             {
                 if (q == apex) continue;
-                int best = -1;
-                double bestDepth = HullTolerances.EnergyEvPerAtom;
-                foreach (int nf in created)
-                {
-                    if (_wallFace[nf] >= 0) continue;
-                    double d = Depth(nf, q);
-                    if (d > bestDepth) { bestDepth = d; best = nf; }
-                }
-                if (best < 0) continue;
+                int best = Ascend(climbFrom, q, out double bestDepth);
+                if (bestDepth <= HullTolerances.EnergyEvPerAtom) continue;
                 var target = _outside[best];
                 if (target is null)
                 {
@@ -197,6 +200,66 @@ internal sealed class LowerHullBuilder
                 }
                 target.Add(q);
             }
+        }
+        foreach (int f in visible) _freeFacets.Push(f);
+    }
+
+    private readonly Dictionary<ulong, (int Facet, int Slot)> _ridges = new();
+    private double[] _horizonMu = [];
+
+    /// <summary>Order-free 64-bit hash of a ridge's vertex set (a facet less one slot).</summary>
+    private ulong RidgeHash(int facet, int skipSlot)
+    {
+        ulong h = 0;
+        for (int i = 0; i < _n; i++)
+        {
+            if (i == skipSlot) continue;
+            // SplitMix64 finaliser per vertex, summed: the sum does not depend on slot order.
+            ulong z = (ulong)(uint)(_vertices[facet * _n + i] + 2) * 0x9E3779B97F4A7C15UL;
+            z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9UL;
+            z = (z ^ (z >> 27)) * 0x94D049BB133111EBUL;
+            h += z ^ (z >> 31);
+        }
+        return h;
+    }
+
+    private bool SameRidge(int a, int skipA, int b, int skipB)
+    {
+        for (int i = 0; i < _n; i++)
+        {
+            if (i == skipA) continue;
+            int v = _vertices[a * _n + i];
+            bool found = false;
+            for (int j = 0; j < _n && !found; j++) found = j != skipB && _vertices[b * _n + j] == v;
+            if (!found) return false;
+        }
+        return true;
+    }
+
+    /// <summary>
+    /// Climbs from a lower facet to the lower facet whose plane is highest at the point's composition, stepping to
+    /// the best strictly higher neighbour. The facets' planes are the vertices of the chemical-potential polyhedron
+    /// and the climb is the simplex method on it, so a facet with no higher neighbour holds the hull energy there;
+    /// on exactly coplanar facets it may stop early, which the final check after construction catches.
+    /// </summary>
+    private int Ascend(int start, int point, out double depth)
+    {
+        int f = start;
+        depth = Depth(f, point);
+        while (true)
+        {
+            int next = -1;
+            double nextDepth = depth;
+            for (int i = 0; i < _n; i++)
+            {
+                int g = _neighbors[f * _n + i];
+                if (_wallFace[g] >= 0) continue;
+                double d = Depth(g, point);
+                if (d > nextDepth) { nextDepth = d; next = g; }
+            }
+            if (next < 0) return f;
+            f = next;
+            depth = nextDepth;
         }
     }
 
@@ -258,7 +321,13 @@ internal sealed class LowerHullBuilder
                     if (_visitStamp[g] == _stamp) continue;
                     Array.Copy(_vertices, f * _n, scratch, 0, _n);
                     scratch[i] = apex;
-                    if (OrientationSign(scratch, _wallFace[f]) > 0) { horizon.Add((f, i)); continue; }
+                    if (OrientationSign(scratch, _wallFace[f]) > 0)
+                    {
+                        // The orientation test left the factorised vertex matrix in _matrix: reuse it for the plane.
+                        if (_wallFace[f] < 0) SolveFromFactorization(scratch, horizon.Count);
+                        horizon.Add((f, i));
+                        continue;
+                    }
                     grownFrom = f; grownTo = g;
                     break;
                 }
@@ -279,6 +348,19 @@ internal sealed class LowerHullBuilder
                 throw new InvalidOperationException($"Internal error: cannot remove wall {grownTo} (from facet {grownFrom}) for point {apex}.");
             }
         }
+    }
+
+    private void SolveFromFactorization(int[] vertices, int horizonIndex)
+    {
+        if (_horizonMu.Length < (horizonIndex + 1) * _n) Array.Resize(ref _horizonMu, Math.Max(64 * _n, _horizonMu.Length * 2));
+        var mu = _horizonMu.AsSpan(horizonIndex * _n, _n);
+        if (_lastOrientationWasExact)
+        {
+            SolveChemicalPotentials(vertices, mu);
+            return;
+        }
+        for (int i = 0; i < _n; i++) mu[i] = _energies[vertices[i]];
+        SmallLinearSolver.Solve(_matrix, _n, _pivots, mu);
     }
 
     private void ReplaceNeighbor(int facet, int oldNeighbor, int newNeighbor)
@@ -303,6 +385,8 @@ internal sealed class LowerHullBuilder
     /// amounts (a wall: of its finite vertices without the wall's own component). Rows scaled by positive numbers
     /// keep the sign, so fractions give it in floating point and amounts give it exactly when that is too close to call.
     /// </summary>
+    private bool _lastOrientationWasExact;
+
     private int OrientationSign(int[] vertices, int wallFace)
     {
         int size = wallFace >= 0 ? _n - 1 : _n;
@@ -328,39 +412,66 @@ internal sealed class LowerHullBuilder
         }
         if (hadamard == 0.0) return 0;
         double det = SmallLinearSolver.Factorize(_matrix.AsSpan(0, size * size), size, _pivots);
+        _lastOrientationWasExact = false;
         if (Math.Abs(det) > HullTolerances.RelativeDeterminantFilter * hadamard) return Math.Sign(det);
+        _lastOrientationWasExact = true;
         return ExactDeterminant.Sign(_exact.AsSpan(0, size * size), size);
     }
 
-    /// <summary>Stores a facet; a lower facet gets its chemical potentials. Returns -1 for a degenerate lower facet.</summary>
-    private int NewFacet(int[] vertices, int wallFace)
+    /// <summary>
+    /// Stores a facet (reusing a removed one's storage); a lower facet gets its chemical potentials, from
+    /// <paramref name="mu"/> when the caller solved them already. Returns -1 for a degenerate lower facet.
+    /// </summary>
+    private int NewFacet(int[] vertices, int wallFace, ReadOnlySpan<double> mu = default)
     {
-        EnsureCapacity(_facetCount + 1);
-        int f = _facetCount;
+        Span<double> solved = stackalloc double[_n];
         if (wallFace < 0)
         {
-            if (OrientationSign(vertices, -1) <= 0) return -1;
-            for (int i = 0; i < _n; i++)
+            if (mu.IsEmpty)
             {
-                Array.Copy(_fractions, vertices[i] * _n, _matrix, i * _n, _n);
-                _mu[f * _n + i] = _energies[vertices[i]];
+                if (OrientationSign(vertices, -1) <= 0) return -1;
+                SolveChemicalPotentials(vertices, solved);
             }
-            SmallLinearSolver.Factorize(_matrix, _n, _pivots);
-            SmallLinearSolver.Solve(_matrix, _n, _pivots, _mu.AsSpan(f * _n, _n));
+            else
+            {
+                mu.CopyTo(solved);
+            }
         }
+        int f;
+        if (_freeFacets.Count > 0)
+        {
+            f = _freeFacets.Pop();
+        }
+        else
+        {
+            EnsureCapacity(_facetCount + 1);
+            f = _facetCount++;
+        }
+        if (wallFace < 0) solved.CopyTo(_mu.AsSpan(f * _n, _n));
         Array.Copy(vertices, 0, _vertices, f * _n, _n);
         _wallFace[f] = wallFace;
         _alive[f] = true;
         _outside[f] = null;
         _visitStamp[f] = 0;
-        _facetCount++;
         return f;
+    }
+
+    /// <summary>Plane through the vertices' (fraction, energy) points: solves X mu = E.</summary>
+    private void SolveChemicalPotentials(int[] vertices, Span<double> mu)
+    {
+        for (int i = 0; i < _n; i++)
+        {
+            Array.Copy(_fractions, vertices[i] * _n, _matrix, i * _n, _n);
+            mu[i] = _energies[vertices[i]];
+        }
+        SmallLinearSolver.Factorize(_matrix, _n, _pivots);
+        SmallLinearSolver.Solve(_matrix, _n, _pivots, mu);
     }
 
     private void EnsureCapacity(int facets)
     {
         if (facets <= _alive.Length) return;
-        int capacity = Math.Max(facets, _alive.Length * 2);
+        int capacity = Math.Max(Math.Max(facets, 16), _alive.Length * 2);
         Array.Resize(ref _vertices, capacity * _n);
         Array.Resize(ref _neighbors, capacity * _n);
         Array.Resize(ref _mu, capacity * _n);
