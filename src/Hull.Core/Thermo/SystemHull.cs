@@ -29,6 +29,9 @@ public sealed class SystemHull
 
     // Filled on demand by the single thread that computes entries (under _entries, or a dataset worker).
     private HullPosition?[]? _positions;
+    private List<int>[]? _facetsOfVertex;
+    private List<int>[]? _pointsInFacet;
+    private int[]? _pureCorners;
     private readonly Dictionary<string, double> _decompositionEnergyByKey = new(StringComparer.Ordinal);
 
     /// <summary>The hull of entries over elements (the union of the entries' elements unless given).</summary>
@@ -275,9 +278,12 @@ public sealed class SystemHull
             return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - known);
         }
 
-        // The hull without this composition differs from the hull only inside the star of its vertex (the facets
-        // that contain it): elsewhere every old facet still supports all remaining points. So the hull of the other
-        // vertices plus the points located in the star gives the same hull energy there as a full rebuild.
+        // Removing a vertex v changes the hull only inside its star (the facets that contain v): elsewhere every old
+        // facet still supports all remaining points. A new facet over x_v cannot reach a point strictly outside the
+        // star either: near that point it would coincide with an old facet plane, which passes at or below e_v at x_v.
+        // So the hull energy at x_v without v needs only the star's other corners, the points located in the star,
+        // and (to anchor the engine, which needs a pure point per component) the pure corners; adding any of the
+        // remaining points could not lower it. This keeps the rebuild local instead of rebuilding the whole hull.
         int vertex = _hull.VertexPoints.FirstOrDefault(
             v => string.Equals(_points[v].CompositionKey, point.CompositionKey, StringComparison.Ordinal), -1);
         double hullWithout;
@@ -288,18 +294,24 @@ public sealed class SystemHull
         }
         else
         {
-            var subset = new SortedSet<int>(_hull.VertexPoints.Where(v => v != vertex));
-            for (int j = 0; j < _points.Length; j++)
+            IndexStars();
+            var subset = new SortedSet<int>(_pureCorners!);
+            foreach (int facet in _facetsOfVertex![vertex])
             {
-                if (_vertexSet.Contains(j)
-                    || string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+                foreach (int corner in _hull.Facets[facet].VertexPoints)
                 {
-                    continue;
+                    if (corner != vertex)
+                    {
+                        subset.Add(corner);
+                    }
                 }
 
-                if (_hull.Facets[PositionOf(j).FacetIndex].VertexPoints.Contains(vertex))
+                foreach (int j in _pointsInFacet![facet])
                 {
-                    subset.Add(j);
+                    if (!string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+                    {
+                        subset.Add(j);
+                    }
                 }
             }
 
@@ -321,6 +333,38 @@ public sealed class SystemHull
             subset.Select(j => _points[j].Amounts).ToArray(),
             subset.Select(j => _points[j].FormationEnergyEvPerAtom).ToArray());
         return reduced.Locate(fractions).HullEnergyEvPerAtom;
+    }
+
+    /// <summary>Indexes, once, the facets around each vertex and the non-vertex points located in each facet.</summary>
+    private void IndexStars()
+    {
+        if (_facetsOfVertex is not null)
+        {
+            return;
+        }
+
+        var facetsOfVertex = new List<int>[_points.Length];
+        var pointsInFacet = new List<int>[_hull.Facets.Count];
+        for (int f = 0; f < _hull.Facets.Count; f++)
+        {
+            pointsInFacet[f] = [];
+            foreach (int v in _hull.Facets[f].VertexPoints)
+            {
+                (facetsOfVertex[v] ??= []).Add(f);
+            }
+        }
+
+        for (int j = 0; j < _points.Length; j++)
+        {
+            if (!_vertexSet.Contains(j))
+            {
+                pointsInFacet[PositionOf(j).FacetIndex].Add(j);
+            }
+        }
+
+        _pureCorners = _hull.VertexPoints.Where(v => _points[v].IsPureComponent).ToArray();
+        _pointsInFacet = pointsInFacet;
+        _facetsOfVertex = facetsOfVertex;
     }
 
     private HullPosition PositionOf(int i)
