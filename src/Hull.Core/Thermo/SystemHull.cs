@@ -24,6 +24,7 @@ public sealed class SystemHull
     private readonly HashSet<int> _vertexSet;
     private readonly double[]? _endMemberCornerEvPerAtom;
     private readonly Lazy<IReadOnlyList<EntryStability>> _entries;
+    private readonly Lazy<Dictionary<string, EntryStability>> _entryById;
     private readonly Lazy<IReadOnlyList<PhaseFacet>> _facets;
     private readonly Lazy<IReadOnlyList<TieLine>> _tieLines;
 
@@ -142,6 +143,8 @@ public sealed class SystemHull
                 .OrderBy(i => _points[i].RowIndex)
                 .Select(ComputeEntry)
                 .ToArray());
+        _entryById = new Lazy<Dictionary<string, EntryStability>>(
+            () => _entries.Value.ToDictionary(e => e.Id, StringComparer.Ordinal));
         _facets = new Lazy<IReadOnlyList<PhaseFacet>>(BuildFacets);
         _tieLines = new Lazy<IReadOnlyList<TieLine>>(BuildTieLines);
         StablePhases = _hull.VertexPoints.Select(v => _points[v].Phase).ToArray();
@@ -174,8 +177,9 @@ public sealed class SystemHull
     /// <summary>The stability of the entry with the given id.</summary>
     /// <exception cref="KeyNotFoundException">When no entry has that id.</exception>
     public EntryStability GetEntry(string id) =>
-        Entries.FirstOrDefault(e => string.Equals(e.Id, id, StringComparison.Ordinal))
-        ?? throw new KeyNotFoundException($"No entry '{id}' in the hull of {SystemName}.");
+        _entryById.Value.TryGetValue(id, out EntryStability? entry)
+            ? entry
+            : throw new KeyNotFoundException($"No entry '{id}' in the hull of {SystemName}.");
 
     /// <summary>The hull energy and decomposition at any composition of the system (per one formula unit as written).</summary>
     /// <exception cref="ThermoInputException">When the composition lies outside the system.</exception>

@@ -177,6 +177,17 @@ public sealed class EndMemberHullTests
             ["LCO|LMO", "LCO|NC", "LCO|NMC", "LMO|LNO", "LMO|NMC", "LNO|NC", "LNO|NMC", "NC|NMC"],
             hull.TieLines.Select(t => $"{t.First.Id}|{t.Second.Id}"));
 
+        // Input order does not matter.
+        SystemHull shuffled = SystemHull.OverEndMembers(Shuffled(entries, seed: 9), basis);
+        Assert.Equal(hull.TieLines.Select(t => t.ToString()), shuffled.TieLines.Select(t => t.ToString()));
+        foreach (EntryStability expected in hull.Entries)
+        {
+            EntryStability actual = shuffled.GetEntry(expected.Id);
+            Assert.Equal(expected.EnergyAboveHullEvPerAtom, actual.EnergyAboveHullEvPerAtom);
+            Assert.Equal(expected.DecompositionEnergyEvPerAtom, actual.DecompositionEnergyEvPerAtom);
+            Assert.Equal(expected.Decomposition.ToReactionString(), actual.Decomposition.ToReactionString());
+        }
+
         // A candidate on the bare Ni–Mn edge at -0.005 relative would lower the hull.
         CandidateStability candidate = hull.Assess(Mix(Rational.Zero, half, half), FromElements(0, 0.5, 0.5, -0.005));
         Assert.True(candidate.IsBelowHull);
