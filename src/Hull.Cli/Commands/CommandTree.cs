@@ -209,9 +209,8 @@ public static class CommandTree
             {
                 if (c.Format == OutputFormat.Json)
                 {
-                    var message = new ExportEntriesResponse { DatasetVersion = usedVersion };
-                    message.Entries.AddRange(entries);
-                    writer.WriteLine(ProtoJson.Format(message));
+                    // The entry-file layout (basis tokens as in CSV), so that an export can be imported again.
+                    writer.WriteLine(EntryFileWriter.ToJson(c.Get(dataset)!, usedVersion, entries));
                 }
                 else
                 {

@@ -1,0 +1,37 @@
+using System.Text;
+using System.Text.Json;
+using Hull.Cli.Input;
+using Hull.Protos.V1;
+
+namespace Hull.Cli.Output;
+
+/// <summary>Writes entries in the JSON entry-file layout of <see cref="EntryFileLayout"/>, readable by `hull import`.</summary>
+public static class EntryFileWriter
+{
+    public static string ToJson(string dataset, long version, IEnumerable<Entry> entries)
+    {
+        using var buffer = new MemoryStream();
+        using (var json = new Utf8JsonWriter(buffer, new JsonWriterOptions { Indented = true }))
+        {
+            json.WriteStartObject();
+            json.WriteString("dataset", dataset);
+            json.WriteNumber("dataset_version", version);
+            json.WriteStartArray("entries");
+            foreach (Entry e in entries)
+            {
+                json.WriteStartObject();
+                json.WriteString(EntryFileLayout.Id, e.Id);
+                json.WriteString(EntryFileLayout.Formula, e.Formula);
+                json.WriteNumber(EntryFileLayout.EnergyEv, e.EnergyEv);
+                json.WriteString(EntryFileLayout.Basis, EntryFileLayout.TokenOf(e.Basis));
+                json.WriteString(EntryFileLayout.Note, e.Note);
+                json.WriteEndObject();
+            }
+
+            json.WriteEndArray();
+            json.WriteEndObject();
+        }
+
+        return Encoding.UTF8.GetString(buffer.ToArray());
+    }
+}
