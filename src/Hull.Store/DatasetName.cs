@@ -21,11 +21,11 @@ public static class DatasetName
             bool alphanumeric = c is >= 'a' and <= 'z' or >= '0' and <= '9';
             if (i == 0 && !alphanumeric)
             {
-                return $"dataset name '{name}' starts with '{Printable(c)}'; {Rule}";
+                return $"dataset name '{name}' starts with {Describe(c)}; {Rule}";
             }
             if (!alphanumeric && c is not ('.' or '_' or '-'))
             {
-                return $"dataset name '{name}' has '{Printable(c)}' at position {i + 1}, which is not allowed; {Rule}";
+                return $"dataset name '{name}' has {Describe(c)} at position {i + 1}, which is not allowed; {Rule}";
             }
         }
         return null;
@@ -38,5 +38,6 @@ public static class DatasetName
         if (problem is not null) throw new InvalidDatasetNameException(name ?? string.Empty, problem);
     }
 
-    private static string Printable(char c) => char.IsControl(c) || char.IsWhiteSpace(c) ? $"U+{(int)c:X4}" : c.ToString();
+    // Invisible characters are named by code point, visible ones shown in quotes.
+    private static string Describe(char c) => char.IsControl(c) || char.IsWhiteSpace(c) || char.IsSurrogate(c) ? $"U+{(int)c:X4}" : $"'{c}'";
 }

@@ -13,13 +13,16 @@ internal static class Rows
     /// <summary>Equal row by row, with energies compared bit for bit (record equality would let 0.0 equal -0.0).</summary>
     public static void AssertSame(IReadOnlyList<EntryRow> expected, IReadOnlyList<EntryRow> actual, string context = "")
     {
-        Assert.True(expected.Count == actual.Count, $"{context}: expected {expected.Count} rows, got {actual.Count}");
+        if (expected.Count != actual.Count) Assert.Fail($"{context}: expected {expected.Count} rows, got {actual.Count}");
         for (int i = 0; i < expected.Count; i++)
         {
             EntryRow e = expected[i], a = actual[i];
-            Assert.True(e == a, $"{context}: row {i} differs: expected {e}, got {a}");
-            Assert.True(BitConverter.DoubleToInt64Bits(e.EnergyEv) == BitConverter.DoubleToInt64Bits(a.EnergyEv),
-                $"{context}: row {i} ('{e.Id}') energy bits differ: {e.EnergyEv:R} vs {a.EnergyEv:R}");
+            // Messages are built only on failure: these loops run over millions of rows.
+            if (e != a) Assert.Fail($"{context}: row {i} differs: expected {e}, got {a}");
+            if (BitConverter.DoubleToInt64Bits(e.EnergyEv) != BitConverter.DoubleToInt64Bits(a.EnergyEv))
+            {
+                Assert.Fail($"{context}: row {i} ('{e.Id}') energy bits differ: {e.EnergyEv:R} vs {a.EnergyEv:R}");
+            }
         }
     }
 
