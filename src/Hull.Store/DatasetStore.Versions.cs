@@ -205,16 +205,18 @@ public sealed partial class DatasetStore
     private static void ReadVisible(SqliteConnection connection, SqliteTransaction transaction, long datasetId, long k,
         string? afterId, int? limit, Action<EntryRow> sink)
     {
-        string after = afterId is null ? string.Empty : "AND entry_id > $after";
-        string bound = limit is null ? string.Empty : "LIMIT $limit";
-        using SqliteCommand command = connection.Command(transaction,
-                $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND {VisibleAtK} {after} ORDER BY entry_id {bound}")
+        using SqliteCommand command = connection.Command(transaction, VisibleRowsSql(afterId is not null, limit is not null))
             .With("$d", datasetId).With("$k", k);
         if (afterId is not null) command.With("$after", afterId);
         if (limit is not null) command.With("$limit", limit.Value);
         using SqliteDataReader reader = command.ExecuteReader();
         while (reader.Read()) sink(ReadEntry(reader));
     }
+
+    /// <summary>The query for one version's rows in id order; parameters $d, $k, and $after / $limit when asked for.</summary>
+    internal static string VisibleRowsSql(bool afterId, bool limit) =>
+        $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND {VisibleAtK}" +
+        (afterId ? " AND entry_id > $after" : string.Empty) + " ORDER BY entry_id" + (limit ? " LIMIT $limit" : string.Empty);
 
     private static EntryRow ReadEntry(SqliteDataReader reader)
     {
