@@ -1,0 +1,383 @@
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// The lower convex hull of points in the composition simplex lifted by energy per atom: the stable points, the
+/// facets, and for any composition the hull energy and the decomposition into hull points.
+/// </summary>
+/// <remarks>
+/// Points are given as exact non-negative integer amounts of each component (any positive scale per point) so that
+/// the engine can decide affine independence exactly; energies are compared with
+/// <see cref="HullTolerances.EnergyEvPerAtom"/>. Of several points with the same composition only the lowest in
+/// energy (lowest index among exact ties) takes part; the others are placed against it. Construction runs on the
+/// remaining points in a canonical order (by composition, then energy), so the result does not depend on input
+/// order beyond that tie rule.
+/// </remarks>
+public sealed class LowerHull
+{
+    private const int MaxRepairRounds = 8;
+
+    private readonly int _n;
+    private readonly double[] _fractions;
+    private readonly double[] _energies;
+    private readonly int[] _representative;
+    private readonly bool[] _isVertex;
+    private int[] _facetVertices = [];
+    private double[] _facetLu = [];
+    private int[] _facetPivots = [];
+    private int[] _facetNeighbors = [];
+    private double[] _facetMu = [];
+    private readonly int[] _pointFacet;
+
+    private LowerHull(int n, double[] fractions, double[] energies, int[] representative)
+    {
+        _n = n;
+        _fractions = fractions;
+        _energies = energies;
+        _representative = representative;
+        _isVertex = new bool[energies.Length];
+        _pointFacet = new int[energies.Length];
+        Facets = [];
+        VertexPoints = [];
+    }
+
+    /// <summary>Number of components (dimensions of the composition simplex plus one).</summary>
+    public int ComponentCount => _n;
+
+    /// <summary>Number of input points.</summary>
+    public int PointCount => _energies.Length;
+
+    /// <summary>Input indices of the points that are vertices of the lower hull, ascending.</summary>
+    public IReadOnlyList<int> VertexPoints { get; private set; }
+
+    /// <summary>The lower facets; their projections tile the composition simplex.</summary>
+    public IReadOnlyList<HullFacet> Facets { get; private set; }
+
+    /// <summary>
+    /// Builds the lower hull. <paramref name="amounts"/>[i][k] is the non-negative integer amount of component k in
+    /// point i (only ratios matter); <paramref name="energiesEvPerAtom"/>[i] its energy per atom. Every component
+    /// needs a point made of it alone.
+    /// </summary>
+    /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, non-finite energies,
+    /// or a component without a pure point; the message names the point and component.</exception>
+    public static LowerHull Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
+    {
+        ArgumentNullException.ThrowIfNull(amounts);
+        ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
+        if (amounts.Count == 0) throw new ArgumentException("The hull needs at least one point.", nameof(amounts));
+        if (amounts.Count != energiesEvPerAtom.Count)
+        {
+            throw new ArgumentException($"{amounts.Count} amount rows but {energiesEvPerAtom.Count} energies.", nameof(energiesEvPerAtom));
+        }
+        int n = amounts[0]?.Length ?? 0;
+        if (n == 0) throw new ArgumentException("Point 0 has no components.", nameof(amounts));
+        int count = amounts.Count;
+        var fractions = new double[count * n];
+        var energies = new double[count];
+        var rows = new long[count][];
+        for (int i = 0; i < count; i++)
+        {
+            var row = amounts[i] ?? throw new ArgumentException($"Point {i} has no amounts.", nameof(amounts));
+            if (row.Length != n) throw new ArgumentException($"Point {i} has {row.Length} components; point 0 has {n}.", nameof(amounts));
+            long total = 0;
+            for (int k = 0; k < n; k++)
+            {
+                if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", nameof(amounts));
+                total = checked(total + row[k]);
+            }
+            if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", nameof(amounts));
+            for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
+            double e = energiesEvPerAtom[i];
+            if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
+            energies[i] = e;
+            rows[i] = (long[])row.Clone();
+        }
+
+        var representative = ChooseRepresentatives(rows, energies, n, out var candidates);
+        var hull = new LowerHull(n, fractions, energies, representative);
+        hull.Construct(rows, candidates);
+        return hull;
+    }
+
+    /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
+    public double EnergyAboveHull(int pointIndex)
+    {
+        double above = _energies[pointIndex] - LocatePoint(pointIndex).HullEnergyEvPerAtom;
+        return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
+    }
+
+    /// <summary>Hull energy and decomposition at the composition of input point i.</summary>
+    public HullPosition LocatePoint(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        int rep = _representative[pointIndex];
+        int facet = _pointFacet[rep];
+        if (_isVertex[rep]) return new HullPosition(facet, [rep], [1.0], _energies[rep]);
+        return PositionIn(facet, _fractions.AsSpan(rep * _n, _n));
+    }
+
+    /// <summary>Hull energy and decomposition at composition fractions (non-negative, summing to 1).</summary>
+    /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
+    public HullPosition Locate(ReadOnlySpan<double> fractions)
+    {
+        if (fractions.Length != _n) throw new ArgumentException($"Expected {_n} fractions, got {fractions.Length}.", nameof(fractions));
+        double sum = 0;
+        for (int k = 0; k < _n; k++)
+        {
+            if (!double.IsFinite(fractions[k]) || fractions[k] < 0) throw new ArgumentException($"Fraction {k} is {fractions[k]}; fractions must be finite and non-negative.", nameof(fractions));
+            sum += fractions[k];
+        }
+        // Fractions typed or computed by a caller carry rounding of order 1e-15 per term; 1e-9 accepts those and
+        // still rejects a composition that is genuinely off the simplex.
+        if (Math.Abs(sum - 1.0) > 1e-9) throw new ArgumentException($"Fractions sum to {sum}, not 1.", nameof(fractions));
+        Span<double> lambda = stackalloc double[_n];
+        int facet = Walk(fractions, 0, lambda);
+        return PositionIn(facet, fractions);
+    }
+
+    private HullPosition PositionIn(int facet, ReadOnlySpan<double> x)
+    {
+        Span<double> lambda = stackalloc double[_n];
+        Barycentric(facet, x, lambda);
+        var points = new List<int>(_n);
+        var weights = new List<double>(_n);
+        double total = 0;
+        for (int i = 0; i < _n; i++)
+        {
+            if (lambda[i] <= HullTolerances.BarycentricWeight) continue;
+            points.Add(_facetVertices[facet * _n + i]);
+            weights.Add(lambda[i]);
+            total += lambda[i];
+        }
+        var w = weights.ToArray();
+        for (int i = 0; i < w.Length; i++) w[i] /= total;
+        double energy = 0;
+        for (int k = 0; k < _n; k++) energy += _facetMu[facet * _n + k] * x[k];
+        return new HullPosition(facet, points.ToArray(), w, energy);
+    }
+
+    private static int[] ChooseRepresentatives(long[][] rows, double[] energies, int n, out int[] candidates)
+    {
+        var byComposition = new Dictionary<long[], int>(new ReducedAmountsComparer());
+        var representative = new int[rows.Length];
+        var reduced = new long[rows.Length][];
+        for (int i = 0; i < rows.Length; i++)
+        {
+            reduced[i] = Reduce(rows[i]);
+            if (byComposition.TryGetValue(reduced[i], out int current))
+            {
+                if (energies[i] < energies[current]) byComposition[reduced[i]] = i;
+            }
+            else
+            {
+                byComposition.Add(reduced[i], i);
+            }
+        }
+        for (int i = 0; i < rows.Length; i++) representative[i] = byComposition[reduced[i]];
+        candidates = byComposition.Values.ToArray();
+        Array.Sort(candidates, (a, b) =>
+        {
+            int c = CompareLexicographic(reduced[a], reduced[b], rows[a], rows[b]);
+            return c != 0 ? c : a.CompareTo(b);
+        });
+        return representative;
+    }
+
+    /// <summary>Orders compositions by their fractions, exactly (cross-multiplied with 128-bit integers).</summary>
+    private static int CompareLexicographic(long[] a, long[] b, long[] rowA, long[] rowB)
+    {
+        Int128 totalA = 0, totalB = 0;
+        foreach (long v in a) totalA += v;
+        foreach (long v in b) totalB += v;
+        for (int k = 0; k < a.Length; k++)
+        {
+            int c = ((Int128)a[k] * totalB).CompareTo((Int128)b[k] * totalA);
+            if (c != 0) return c;
+        }
+        return 0;
+    }
+
+    private static long[] Reduce(long[] row)
+    {
+        long g = 0;
+        foreach (long v in row) g = Gcd(g, v);
+        var r = new long[row.Length];
+        for (int k = 0; k < row.Length; k++) r[k] = row[k] / g;
+        return r;
+    }
+
+    private static long Gcd(long a, long b)
+    {
+        while (b != 0) (a, b) = (b, a % b);
+        return Math.Abs(a);
+    }
+
+    private void Construct(long[][] rows, int[] candidates)
+    {
+        if (_n == 1)
+        {
+            int best = candidates[0];
+            SetFacets([[best]], [-1]);
+            _pointFacet[best] = 0;
+            return;
+        }
+
+        var pure = new int[_n];
+        var hasPure = new bool[_n];
+        foreach (int c in candidates)
+        {
+            int nonzero = -1, nonzeroCount = 0;
+            for (int k = 0; k < _n; k++)
+            {
+                if (rows[c][k] != 0) { nonzero = k; nonzeroCount++; }
+            }
+            if (nonzeroCount == 1) { pure[nonzero] = c; hasPure[nonzero] = true; }
+        }
+        for (int k = 0; k < _n; k++)
+        {
+            if (!hasPure[k])
+            {
+                throw new ArgumentException($"No point consists of component {k} alone; every component needs a pure end point to anchor the hull.");
+            }
+        }
+
+        var builder = new LowerHullBuilder(_n, rows, _fractions, _energies);
+        var facets = builder.Build(pure, candidates);
+        for (int round = 0; ; round++)
+        {
+            SetFacets(facets, builder.LowerNeighbors());
+            var below = LocateCandidates(candidates);
+            if (below.Count == 0) break;
+            if (round == MaxRepairRounds)
+            {
+                throw new InvalidOperationException($"The hull could not be completed: {below.Count} points remain below it after {MaxRepairRounds} repairs.");
+            }
+            var handBack = below.Select(b => (b.Point, builder.InternalId(b.Facet))).ToList();
+            facets = builder.Repair(handBack);
+        }
+    }
+
+    private void SetFacets(List<int[]> facets, int[] neighbors)
+    {
+        int f = facets.Count;
+        _facetVertices = new int[f * _n];
+        _facetLu = new double[f * _n * _n];
+        _facetPivots = new int[f * _n];
+        _facetMu = new double[f * _n];
+        _facetNeighbors = neighbors;
+        var list = new HullFacet[f];
+        Array.Clear(_isVertex);
+        for (int i = 0; i < f; i++)
+        {
+            var verts = facets[i];
+            Array.Copy(verts, 0, _facetVertices, i * _n, _n);
+            var lu = _facetLu.AsSpan(i * _n * _n, _n * _n);
+            var mu = _facetMu.AsSpan(i * _n, _n);
+            for (int r = 0; r < _n; r++)
+            {
+                _fractions.AsSpan(verts[r] * _n, _n).CopyTo(lu.Slice(r * _n, _n));
+                mu[r] = _energies[verts[r]];
+                _isVertex[verts[r]] = true;
+            }
+            SmallLinearSolver.Factorize(lu, _n, _facetPivots.AsSpan(i * _n, _n));
+            SmallLinearSolver.Solve(lu, _n, _facetPivots.AsSpan(i * _n, _n), mu);
+            list[i] = new HullFacet((int[])verts.Clone(), mu.ToArray());
+        }
+        Facets = Array.AsReadOnly(list);
+        var vertices = new List<int>();
+        for (int i = 0; i < _isVertex.Length; i++) if (_isVertex[i]) vertices.Add(i);
+        VertexPoints = vertices.AsReadOnly();
+    }
+
+    /// <summary>
+    /// Finds each candidate's facet by walking from the previous candidate's (they are in composition order, so
+    /// neighbours are close), in parallel chunks, and returns the candidates that lie below the hull.
+    /// </summary>
+    private List<(int Point, int Facet)> LocateCandidates(int[] candidates)
+    {
+        const int chunk = 2048;
+        int chunks = (candidates.Length + chunk - 1) / chunk;
+        var below = new List<(int, int)>[chunks];
+        Parallel.For(0, chunks, c =>
+        {
+            var found = new List<(int, int)>();
+            Span<double> lambda = stackalloc double[_n];
+            int facet = 0;
+            int end = Math.Min(candidates.Length, (c + 1) * chunk);
+            for (int i = c * chunk; i < end; i++)
+            {
+                int p = candidates[i];
+                var x = _fractions.AsSpan(p * _n, _n);
+                facet = _isVertex[p] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
+                _pointFacet[p] = facet;
+                if (_isVertex[p]) continue;
+                double hull = 0;
+                for (int k = 0; k < _n; k++) hull += _facetMu[facet * _n + k] * x[k];
+                if (_energies[p] < hull - HullTolerances.EnergyEvPerAtom) found.Add((p, facet));
+            }
+            below[c] = found;
+        });
+        return below.SelectMany(b => b).ToList();
+    }
+
+    private int FacetWithVertex(int point, ReadOnlySpan<double> x, int start, Span<double> lambda)
+    {
+        int f = Walk(x, start, lambda);
+        if (Array.IndexOf(_facetVertices, point, f * _n, _n) >= 0) return f;
+        for (int g = 0; g < _facetVertices.Length / _n; g++)
+        {
+            if (Array.IndexOf(_facetVertices, point, g * _n, _n) >= 0) return g;
+        }
+        return f;
+    }
+
+    private void Barycentric(int facet, ReadOnlySpan<double> x, Span<double> lambda)
+    {
+        x.CopyTo(lambda);
+        SmallLinearSolver.SolveTransposed(_facetLu.AsSpan(facet * _n * _n, _n * _n), _n, _facetPivots.AsSpan(facet * _n, _n), lambda);
+    }
+
+    /// <summary>
+    /// Visibility walk to the facet containing x: step across the ridge opposite the most negative weight. Crossing
+    /// such a ridge never lowers the facet plane's value at x (the hull is convex), so the walk heads for the
+    /// maximum; a step cap guards against cycling on exactly coplanar facets, after which every facet is tried.
+    /// </summary>
+    private int Walk(ReadOnlySpan<double> x, int start, Span<double> lambda)
+    {
+        int facetCount = _facetVertices.Length / _n;
+        if (facetCount == 1) return 0;
+        int f = start;
+        int maxSteps = 64 + 2 * facetCount;
+        for (int step = 0; step < maxSteps; step++)
+        {
+            Barycentric(f, x, lambda);
+            int worst = 0;
+            for (int i = 1; i < _n; i++) if (lambda[i] < lambda[worst]) worst = i;
+            if (lambda[worst] >= -HullTolerances.BarycentricWeight) return f;
+            int g = _facetNeighbors[f * _n + worst];
+            if (g < 0) break;
+            f = g;
+        }
+        int best = 0;
+        double bestMin = double.NegativeInfinity;
+        for (int g = 0; g < facetCount; g++)
+        {
+            Barycentric(g, x, lambda);
+            double min = double.PositiveInfinity;
+            for (int i = 0; i < _n; i++) min = Math.Min(min, lambda[i]);
+            if (min > bestMin) { bestMin = min; best = g; }
+        }
+        return best;
+    }
+
+    private sealed class ReducedAmountsComparer : IEqualityComparer<long[]>
+    {
+        public bool Equals(long[]? a, long[]? b) => a.AsSpan().SequenceEqual(b);
+
+        public int GetHashCode(long[] a)
+        {
+            var h = new HashCode();
+            foreach (long v in a) h.Add(v);
+            return h.ToHashCode();
+        }
+    }
+}
