@@ -52,7 +52,7 @@ public sealed partial class DatasetStore
                 reader.IsDBNull(3) ? NoVersion : reader.GetInt64(3),
                 reader.IsDBNull(4) ? 0 : reader.GetInt64(4)));
         }
-        return result;
+        return result.AsReadOnly();
     });
 
     /// <summary>A dataset with its latest version, entry count and every live version with provenance.</summary>
@@ -113,6 +113,6 @@ public sealed partial class DatasetStore
                 reader.GetInt32(6),
                 reader.GetInt64(7)));
         }
-        return result;
+        return result.AsReadOnly();
     }
 }

@@ -26,7 +26,10 @@ public sealed partial class DatasetStore
         {
             throw new ArgumentOutOfRangeException(nameof(policy), policy, "not a defined duplicate policy");
         }
-        BatchValidator.Validate(rows);
+        ArgumentNullException.ThrowIfNull(rows);
+        // A private copy: what was validated is exactly what gets written, whatever the caller does with its list.
+        EntryRow[] batch = [.. rows];
+        BatchValidator.Validate(batch);
         DateTimeOffset now = _clock.GetUtcNow();
 
         return Write((connection, transaction) =>
@@ -56,9 +59,9 @@ public sealed partial class DatasetStore
             insert.Prepare();
 
             int inserted = 0, replaced = 0;
-            for (int i = 0; i < rows.Count; i++)
+            for (int i = 0; i < batch.Length; i++)
             {
-                EntryRow row = rows[i];
+                EntryRow row = batch[i];
                 if (policy == DuplicatePolicy.Replace)
                 {
                     closeId.Value = row.Id;
@@ -98,7 +101,7 @@ public sealed partial class DatasetStore
             {
                 version.With("$d", dataset.DatasetId).With("$v", newVersion).With("$t", UtcText.Write(now))
                     .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
-                    .With("$count", rows.Count).With("$inserted", inserted).With("$replaced", replaced)
+                    .With("$count", batch.Length).With("$inserted", inserted).With("$replaced", replaced)
                     .With("$entries", (previous?.EntryCount ?? 0) + inserted);
                 version.ExecuteNonQuery();
             }

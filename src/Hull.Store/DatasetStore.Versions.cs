@@ -41,7 +41,7 @@ public sealed partial class DatasetStore
             LiveVersion live = ResolveVersion(connection, transaction, dataset, version);
             var result = new List<EntryRow>(checked((int)live.EntryCount));
             ReadVisible(connection, transaction, dataset.DatasetId, live.Version, afterId: null, limit: null, result.Add);
-            return result;
+            return result.AsReadOnly();
         });
     }
 
@@ -69,7 +69,7 @@ public sealed partial class DatasetStore
                 rows.RemoveAt(limit);
                 next = rows[^1].Id;
             }
-            return new EntryPage(live.Version, rows, next);
+            return new EntryPage(live.Version, rows.AsReadOnly(), next);
         });
     }
 
