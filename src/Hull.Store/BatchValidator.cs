@@ -1,0 +1,74 @@
+namespace Hull.Store;
+
+/// <summary>
+/// The Store's last line of defence on import: the server validates rows first, but nothing that would store a
+/// row the rest of the service cannot read (empty id, non-finite energy, broken text) gets past here.
+/// </summary>
+internal static class BatchValidator
+{
+    /// <summary>Throws <see cref="InvalidBatchException"/> for the first faulty row; checks repeats inside the batch.</summary>
+    public static void Validate(IReadOnlyList<EntryRow> rows)
+    {
+        ArgumentNullException.ThrowIfNull(rows);
+        if (rows.Count == 0) throw new InvalidBatchException("the batch is empty; an import needs at least one row");
+
+        var firstIndexById = new Dictionary<string, int>(rows.Count, StringComparer.Ordinal);
+        for (int i = 0; i < rows.Count; i++)
+        {
+            EntryRow? row = rows[i];
+            if (row is null) throw new InvalidBatchException($"row {i} is null", i);
+
+            if (string.IsNullOrWhiteSpace(row.Id))
+            {
+                throw new InvalidBatchException($"row {i}: Id is empty; every entry needs an id", i, row.Id, nameof(EntryRow.Id));
+            }
+            CheckText(i, row.Id, nameof(EntryRow.Id), row.Id);
+            if (string.IsNullOrWhiteSpace(row.Formula))
+            {
+                throw new InvalidBatchException($"row {i} (id '{row.Id}'): Formula is empty", i, row.Id, nameof(EntryRow.Formula));
+            }
+            CheckText(i, row.Id, nameof(EntryRow.Formula), row.Formula);
+            if (!double.IsFinite(row.EnergyEv))
+            {
+                throw new InvalidBatchException(
+                    $"row {i} (id '{row.Id}'): EnergyEv is {row.EnergyEv}; energies must be finite numbers of eV",
+                    i, row.Id, nameof(EntryRow.EnergyEv));
+            }
+            if (!EnergyBasisTokens.IsDefined(row.Basis))
+            {
+                throw new InvalidBatchException(
+                    $"row {i} (id '{row.Id}'): Basis {(int)row.Basis} is not a defined energy basis",
+                    i, row.Id, nameof(EntryRow.Basis));
+            }
+            if (row.Metadata is not null) CheckText(i, row.Id, nameof(EntryRow.Metadata), row.Metadata);
+
+            if (!firstIndexById.TryAdd(row.Id, i))
+            {
+                int first = firstIndexById[row.Id];
+                throw new DuplicateEntryException(
+                    $"row {i}: id '{row.Id}' repeats row {first} of the same batch; ids must be unique within a batch",
+                    i, row.Id, first, existingVersion: null);
+            }
+        }
+    }
+
+    // A lone UTF-16 surrogate cannot be encoded as UTF-8: SQLite would store U+FFFD instead, silently changing the text.
+    private static void CheckText(int rowIndex, string id, string field, string text)
+    {
+        for (int k = 0; k < text.Length; k++)
+        {
+            char c = text[k];
+            if (char.IsHighSurrogate(c) && k + 1 < text.Length && char.IsLowSurrogate(text[k + 1]))
+            {
+                k++;
+                continue;
+            }
+            if (char.IsSurrogate(c))
+            {
+                throw new InvalidBatchException(
+                    $"row {rowIndex} (id '{id}'): {field} has an unpaired UTF-16 surrogate U+{(int)c:X4} at character {k + 1}",
+                    rowIndex, id, field);
+            }
+        }
+    }
+}

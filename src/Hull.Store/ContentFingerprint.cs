@@ -1,0 +1,74 @@
+using System.Buffers.Binary;
+using System.Security.Cryptography;
+using System.Text;
+
+namespace Hull.Store;
+
+/// <summary>
+/// SHA-256 over a version's rows, as 64 lowercase hex digits: equal content gives equal fingerprints whatever the
+/// dataset or history, so a cache of results built from rows can key on it. The byte stream hashed is
+/// <c>"hull.store.content.v1\n"</c>, then for each row in <see cref="EntryIdOrder"/>: id, formula, energy, basis
+/// token, metadata. Each text is a 4-byte little-endian length of its UTF-8 bytes followed by those bytes; the
+/// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. Persisted fingerprints depend on this
+/// layout: change it only together with the prefix and a schema migration that clears stored fingerprints.
+/// </summary>
+public static class ContentFingerprint
+{
+    /// <summary>Leading bytes of every fingerprinted stream; names the layout.</summary>
+    public const string LayoutPrefix = "hull.store.content.v1\n";
+
+    /// <summary>The fingerprint of a set of rows, in any order (they are sorted by id first).</summary>
+    public static string Compute(IEnumerable<EntryRow> rows)
+    {
+        ArgumentNullException.ThrowIfNull(rows);
+        var sorted = rows.ToList();
+        sorted.Sort((a, b) => EntryIdOrder.Comparer.Compare(a.Id, b.Id));
+        using var builder = new Builder();
+        foreach (EntryRow row in sorted) builder.Append(row);
+        return builder.Finish();
+    }
+
+    /// <summary>Hashes rows fed in id order, one at a time, so a version can be fingerprinted while it streams.</summary>
+    internal sealed class Builder : IDisposable
+    {
+        private readonly IncrementalHash _hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
+        private byte[] _buffer = new byte[256];
+
+        public Builder()
+        {
+            _hash.AppendData(Encoding.ASCII.GetBytes(LayoutPrefix));
+        }
+
+        public void Append(EntryRow row)
+        {
+            int length = 0;
+            WriteText(row.Id, ref length);
+            WriteText(row.Formula, ref length);
+            Ensure(length + 8);
+            // -0.0 + 0.0 is +0.0; every other value is unchanged. SQLite gives back -0 as +0, so the two must agree.
+            BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits(row.EnergyEv + 0.0));
+            length += 8;
+            WriteText(EnergyBasisTokens.ToToken(row.Basis), ref length);
+            WriteText(row.Metadata ?? string.Empty, ref length);
+            _hash.AppendData(_buffer, 0, length);
+        }
+
+        public string Finish() => Convert.ToHexStringLower(_hash.GetHashAndReset());
+
+        public void Dispose() => _hash.Dispose();
+
+        private void WriteText(string text, ref int length)
+        {
+            int byteCount = Encoding.UTF8.GetByteCount(text);
+            Ensure(length + 4 + byteCount);
+            BinaryPrimitives.WriteInt32LittleEndian(_buffer.AsSpan(length), byteCount);
+            length += 4;
+            length += Encoding.UTF8.GetBytes(text, _buffer.AsSpan(length));
+        }
+
+        private void Ensure(int size)
+        {
+            if (size > _buffer.Length) Array.Resize(ref _buffer, Math.Max(size, _buffer.Length * 2));
+        }
+    }
+}

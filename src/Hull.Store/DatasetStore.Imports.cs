@@ -1,0 +1,116 @@
+using Hull.Store.Sqlite;
+using Microsoft.Data.Sqlite;
+
+namespace Hull.Store;
+
+// Importing a batch: one transaction, one new version.
+public sealed partial class DatasetStore
+{
+    // SQLite extended result code for a UNIQUE constraint violation.
+    private const int SqliteConstraintUnique = 2067;
+
+    /// <summary>
+    /// Writes <paramref name="rows"/> as a new version of the dataset (latest issued version + 1), all or nothing.
+    /// The new version holds the latest live version's entries plus the batch. Under <see cref="DuplicatePolicy.Reject"/>
+    /// an id already in the latest version fails the batch; under <see cref="DuplicatePolicy.Replace"/> the batch's row
+    /// supersedes it from the new version on. An id repeated inside the batch always fails it.
+    /// </summary>
+    /// <exception cref="InvalidBatchException">Empty batch or a faulty row (index, id and field named); nothing written.</exception>
+    /// <exception cref="DuplicateEntryException">A repeated id, as above; nothing written.</exception>
+    /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
+    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance)
+    {
+        DatasetName.Validate(datasetName);
+        ArgumentNullException.ThrowIfNull(provenance);
+        if (policy is not (DuplicatePolicy.Reject or DuplicatePolicy.Replace))
+        {
+            throw new ArgumentOutOfRangeException(nameof(policy), policy, "not a defined duplicate policy");
+        }
+        ArgumentNullException.ThrowIfNull(rows);
+        // A private copy: what was validated is exactly what gets written, whatever the caller does with its list.
+        EntryRow[] batch = [.. rows];
+        BatchValidator.Validate(batch);
+        DateTimeOffset now = _clock.GetUtcNow();
+
+        return Write((connection, transaction) =>
+        {
+            DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
+            LiveVersion? previous = FindLatestLive(connection, transaction, dataset.DatasetId);
+            long newVersion = dataset.LastVersionIssued + 1;
+
+            using SqliteCommand close = connection.Command(transaction, """
+                UPDATE entries SET last_version_exclusive = $v
+                WHERE dataset_id = $d AND entry_id = $id AND last_version_exclusive IS NULL
+                """);
+            close.With("$v", newVersion).With("$d", dataset.DatasetId);
+            SqliteParameter closeId = close.Parameters.Add("$id", SqliteType.Text);
+            close.Prepare();
+
+            using SqliteCommand insert = connection.Command(transaction, """
+                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version)
+                VALUES ($d, $id, $formula, $energy, $basis, $metadata, $v)
+                """);
+            insert.With("$d", dataset.DatasetId).With("$v", newVersion);
+            SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
+            SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
+            SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
+            SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
+            SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
+            insert.Prepare();
+
+            int inserted = 0, replaced = 0;
+            for (int i = 0; i < batch.Length; i++)
+            {
+                EntryRow row = batch[i];
+                if (policy == DuplicatePolicy.Replace)
+                {
+                    closeId.Value = row.Id;
+                    if (close.ExecuteNonQuery() == 1) replaced++;
+                    else inserted++;
+                }
+                else
+                {
+                    inserted++;
+                }
+
+                id.Value = row.Id;
+                formula.Value = row.Formula;
+                // SQLite reads -0.0 back as 0.0; store the +0 it will return so the row reads back exactly.
+                energy.Value = row.EnergyEv + 0.0;
+                basis.Value = EnergyBasisTokens.ToToken(row.Basis);
+                metadata.Value = row.Metadata ?? string.Empty;
+                try
+                {
+                    insert.ExecuteNonQuery();
+                }
+                catch (SqliteException e) when (e.SqliteExtendedErrorCode == SqliteConstraintUnique && policy == DuplicatePolicy.Reject)
+                {
+                    // Only an open row of the same id can collide: repeats inside the batch were refused before.
+                    throw new DuplicateEntryException(
+                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}; " +
+                        "import with the replace policy to supersede it",
+                        i, row.Id, firstRowIndex: null, existingVersion: previous?.Version);
+                }
+            }
+
+            using (SqliteCommand version = connection.Command(transaction, """
+                       INSERT INTO dataset_versions (dataset_id, version, committed_at_utc, source_label, note,
+                                                     batch_entry_count, inserted, replaced, entry_count)
+                       VALUES ($d, $v, $t, $source, $note, $count, $inserted, $replaced, $entries)
+                       """))
+            {
+                version.With("$d", dataset.DatasetId).With("$v", newVersion).With("$t", UtcText.Write(now))
+                    .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
+                    .With("$count", batch.Length).With("$inserted", inserted).With("$replaced", replaced)
+                    .With("$entries", (previous?.EntryCount ?? 0) + inserted);
+                version.ExecuteNonQuery();
+            }
+            using (SqliteCommand issue = connection.Command(transaction,
+                       "UPDATE datasets SET last_version_issued = $v WHERE dataset_id = $d"))
+            {
+                issue.With("$v", newVersion).With("$d", dataset.DatasetId).ExecuteNonQuery();
+            }
+            return new ImportResult(newVersion, inserted, replaced);
+        });
+    }
+}

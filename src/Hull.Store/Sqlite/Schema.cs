@@ -1,0 +1,75 @@
+namespace Hull.Store.Sqlite;
+
+/// <summary>
+/// The database layout, as the ordered list of steps that build it. A released step is never edited: a change is
+/// a new step at the end. Entry rows carry the range of versions they are visible in, so a version costs only its
+/// batch: a row is visible at version k iff first_version &lt;= k &lt; last_version_exclusive (or that is NULL), and a
+/// replace closes the old row at the new version and inserts the new row from it.
+/// </summary>
+internal static class Schema
+{
+    public static IReadOnlyList<Migration> Migrations { get; } =
+    [
+        new(1, "datasets, versions with provenance, entry rows with visibility ranges", """
+            CREATE TABLE schema_version (
+                version        INTEGER PRIMARY KEY,
+                description    TEXT NOT NULL,
+                applied_at_utc TEXT NOT NULL
+            );
+
+            -- AUTOINCREMENT: a deleted dataset's id is never given to a new one, so nothing keyed on an id can
+            -- ever mix two datasets that had the same name at different times.
+            CREATE TABLE datasets (
+                dataset_id          INTEGER PRIMARY KEY AUTOINCREMENT,
+                name                TEXT NOT NULL UNIQUE,
+                description         TEXT NOT NULL,
+                created_at_utc      TEXT NOT NULL,
+                last_version_issued INTEGER NOT NULL DEFAULT 0
+            );
+
+            -- A deleted version keeps its row (deleted_at_utc set) so that errors can say it was deleted.
+            CREATE TABLE dataset_versions (
+                dataset_id        INTEGER NOT NULL REFERENCES datasets (dataset_id) ON DELETE CASCADE,
+                version           INTEGER NOT NULL CHECK (version >= 1),
+                committed_at_utc  TEXT NOT NULL,
+                source_label      TEXT NOT NULL,
+                note              TEXT NOT NULL,
+                batch_entry_count INTEGER NOT NULL,
+                inserted          INTEGER NOT NULL,
+                replaced          INTEGER NOT NULL,
+                entry_count       INTEGER NOT NULL,
+                deleted_at_utc    TEXT NULL,
+                PRIMARY KEY (dataset_id, version)
+            ) WITHOUT ROWID;
+
+            CREATE TABLE entries (
+                row_id                 INTEGER PRIMARY KEY,
+                dataset_id             INTEGER NOT NULL REFERENCES datasets (dataset_id) ON DELETE CASCADE,
+                entry_id               TEXT NOT NULL CHECK (length(entry_id) > 0),
+                formula                TEXT NOT NULL,
+                energy_ev              REAL NOT NULL CHECK (abs(energy_ev) <= 1.7976931348623157e308),
+                energy_basis           TEXT NOT NULL CHECK (energy_basis IN ('total_per_formula_unit', 'total_per_atom',
+                                           'formation_per_formula_unit', 'formation_per_atom')),
+                metadata               TEXT NOT NULL,
+                first_version          INTEGER NOT NULL,
+                last_version_exclusive INTEGER NULL,
+                CHECK (last_version_exclusive IS NULL OR last_version_exclusive > first_version)
+            );
+
+            -- Serves reads of one version in id order (and pages after an id): the scan follows entry_id within the
+            -- dataset and tests visibility from the index alone, touching the table only for visible rows.
+            CREATE UNIQUE INDEX entries_by_id_and_range
+                ON entries (dataset_id, entry_id, first_version, last_version_exclusive);
+
+            -- The open rows are the latest version: at most one per id, and the lookup a replace needs.
+            CREATE UNIQUE INDEX entries_open_by_id
+                ON entries (dataset_id, entry_id) WHERE last_version_exclusive IS NULL;
+            """),
+        new(2, "per-version content fingerprint (SHA-256), filled in on first request", """
+            ALTER TABLE dataset_versions ADD COLUMN content_sha256 TEXT NULL;
+            """),
+    ];
+
+    /// <summary>The newest schema version this build knows.</summary>
+    public static int LatestVersion => Migrations[^1].Version;
+}
