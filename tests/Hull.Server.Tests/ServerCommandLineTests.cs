@@ -1,0 +1,47 @@
+using System.Net;
+using Hull.Server.Hosting;
+
+namespace Hull.Server.Tests;
+
+/// <summary>The server's options: defaults, values, and errors that name the option.</summary>
+public sealed class ServerCommandLineTests
+{
+    [Fact]
+    public void Defaults_bind_loopback_on_the_documented_port()
+    {
+        HullServerOptions? options = ServerCommandLine.Parse(["--data-dir", "/tmp/x"], out string? error, out bool help);
+        Assert.Null(error);
+        Assert.False(help);
+        Assert.Equal(IPAddress.Loopback, options!.BindAddress);
+        Assert.Equal(HullServerOptions.DefaultPort, options.Port);
+        Assert.Equal(ServiceLimits.Default, options.Limits);
+    }
+
+    [Fact]
+    public void Reads_every_option()
+    {
+        HullServerOptions? options = ServerCommandLine.Parse(
+            ["--data-dir=/d", "--host", "::1", "--port", "0", "--tls-cert", "c.pem", "--tls-key", "k.pem", "--write-token", "tok",
+             "--max-components-per-system", "5", "--max-entries-per-system", "100", "--max-compositions-per-request", "7",
+             "--max-message-bytes", "65536", "--log-level", "warning"], out string? error, out _);
+        Assert.Null(error);
+        Assert.Equal("/d", options!.DataDirectory);
+        Assert.Equal(IPAddress.IPv6Loopback, options.BindAddress);
+        Assert.Equal((0, "c.pem", "k.pem", "tok"), (options.Port, options.TlsCertificatePath, options.TlsKeyPath, options.WriteToken));
+        Assert.Equal((5, 100, 7, 65536), (options.Limits.MaxComponentsPerSystem, options.Limits.MaxEntriesPerSystem, options.Limits.MaxCompositionsPerRequest, options.Limits.MaxReceiveMessageBytes));
+    }
+
+    [Theory]
+    [InlineData(new[] { "--prot", "1" }, "unknown option '--prot'")]
+    [InlineData(new[] { "--port" }, "option --port needs a value")]
+    [InlineData(new[] { "--port", "70000" }, "--port 70000 is outside 0..65535")]
+    [InlineData(new[] { "--port", "x" }, "--port 'x' is not a whole number")]
+    [InlineData(new[] { "--host", "example" }, "--host 'example' is not an IP address")]
+    [InlineData(new[] { "--max-entries-per-system", "0" }, "--max-entries-per-system must be at least 1")]
+    [InlineData(new[] { "--log-level", "loud" }, "--log-level 'loud' is not one of")]
+    public void Bad_options_are_named(string[] args, string expected)
+    {
+        Assert.Null(ServerCommandLine.Parse(args, out string? error, out _));
+        Assert.Contains(expected, error);
+    }
+}
