@@ -294,29 +294,39 @@ public sealed class LowerHull
     /// </summary>
     private List<(int Point, int Facet)> LocateCandidates(int[] candidates)
     {
-        const int chunk = 2048;
+        // Chunks large enough that a worker's start-up is negligible; a hull of one chunk (the many small hulls of a
+        // dataset, built in parallel one level up) is located inline rather than through the thread pool.
+        const int chunk = 4096;
         int chunks = (candidates.Length + chunk - 1) / chunk;
         var below = new List<(int, int)>[chunks];
-        Parallel.For(0, chunks, c =>
+        if (chunks == 1)
         {
-            var found = new List<(int, int)>();
-            Span<double> lambda = stackalloc double[_n];
-            int facet = 0;
-            int end = Math.Min(candidates.Length, (c + 1) * chunk);
-            for (int i = c * chunk; i < end; i++)
-            {
-                int p = candidates[i];
-                var x = _fractions.AsSpan(p * _n, _n);
-                facet = _isVertex[p] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
-                _pointFacet[p] = facet;
-                if (_isVertex[p]) continue;
-                double hull = 0;
-                for (int k = 0; k < _n; k++) hull += _facetMu[facet * _n + k] * x[k];
-                if (_energies[p] < hull - HullTolerances.EnergyEvPerAtom) found.Add((p, facet));
-            }
-            below[c] = found;
-        });
+            below[0] = LocateChunk(candidates, 0, candidates.Length);
+        }
+        else
+        {
+            Parallel.For(0, chunks, c => below[c] = LocateChunk(candidates, c * chunk, Math.Min(candidates.Length, (c + 1) * chunk)));
+        }
         return below.SelectMany(b => b).ToList();
+    }
+
+    private List<(int Point, int Facet)> LocateChunk(int[] candidates, int begin, int end)
+    {
+        var found = new List<(int, int)>();
+        Span<double> lambda = stackalloc double[_n];
+        int facet = 0;
+        for (int i = begin; i < end; i++)
+        {
+            int p = candidates[i];
+            var x = _fractions.AsSpan(p * _n, _n);
+            facet = _isVertex[p] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
+            _pointFacet[p] = facet;
+            if (_isVertex[p]) continue;
+            double hull = 0;
+            for (int k = 0; k < _n; k++) hull += _facetMu[facet * _n + k] * x[k];
+            if (_energies[p] < hull - HullTolerances.EnergyEvPerAtom) found.Add((p, facet));
+        }
+        return found;
     }
 
     private int FacetWithVertex(int point, ReadOnlySpan<double> x, int start, Span<double> lambda)

@@ -38,33 +38,37 @@ public static class DatasetStability
 
         string NameOf(UInt128 mask) => string.Join("-", ElementsOf(mask, elements));
 
-        // A system is maximal when no larger present system contains it; containment is transitive, so checking
-        // against the maximal systems found so far (largest first) suffices.
+        // A system is maximal when no larger present system contains it. Entries span few elements, so each
+        // system's subsets are enumerated instead of comparing every pair of systems (tens of thousands of each).
         UInt128[] systems = rowsBySystem.Keys
             .OrderByDescending(m => UInt128.PopCount(m))
             .ThenBy(NameOf, StringComparer.Ordinal)
             .ToArray();
-        var maximal = new List<UInt128>();
+        var contained = new HashSet<UInt128>();
         foreach (UInt128 system in systems)
         {
-            if (!maximal.Any(m => (system & m) == system))
+            foreach (UInt128 subset in PresentSubsets(system, rowsBySystem.Keys, rowsBySystem))
             {
-                maximal.Add(system);
+                if (subset != system) contained.Add(subset);
             }
         }
+        var maximal = systems.Where(s => !contained.Contains(s)).ToList();
 
         // Each system reports from one hull: the smallest maximal system containing it (then by name).
         UInt128[] owners = maximal.OrderBy(m => UInt128.PopCount(m)).ThenBy(NameOf, StringComparer.Ordinal).ToArray();
         var ownerOf = new Dictionary<UInt128, UInt128>();
-        foreach (UInt128 system in systems)
+        var membersOf = new Dictionary<UInt128, UInt128[]>();
+        foreach (UInt128 owner in owners)
         {
-            ownerOf[system] = owners.First(m => (system & m) == system);
+            UInt128[] members = PresentSubsets(owner, rowsBySystem.Keys, rowsBySystem).ToArray();
+            membersOf[owner] = members;
+            foreach (UInt128 member in members) ownerOf.TryAdd(member, owner);
         }
 
         var results = new EntryStability[entries.Count];
         var failures = new System.Collections.Concurrent.ConcurrentBag<Exception>();
         var work = owners
-            .Select(m => (Mask: m, Members: systems.Where(s => (s & m) == s).ToArray()))
+            .Select(m => (Mask: m, Members: membersOf[m]))
             .OrderByDescending(w => w.Members.Sum(s => rowsBySystem[s].Count))
             .ToArray();
         Parallel.ForEach(
@@ -106,6 +110,40 @@ public static class DatasetStability
 
         return new DatasetStabilityResult(
             results, maximal.Select(NameOf).Order(StringComparer.Ordinal).ToArray(), formation.References);
+    }
+
+    /// <summary>Widest system whose subsets are enumerated; a wider one is compared with every present system.</summary>
+    private const int MaxEnumeratedElements = 16;
+
+    /// <summary>The present systems contained in a system (itself included).</summary>
+    private static IEnumerable<UInt128> PresentSubsets(
+        UInt128 system, IEnumerable<UInt128> present, Dictionary<UInt128, List<int>> rowsBySystem)
+    {
+        int count = (int)UInt128.PopCount(system);
+        if (count > MaxEnumeratedElements)
+        {
+            foreach (UInt128 candidate in present)
+            {
+                if ((candidate & system) == candidate) yield return candidate;
+            }
+            yield break;
+        }
+        var bits = new UInt128[count];
+        int j = 0;
+        for (int b = 0; b < 128 && j < count; b++)
+        {
+            UInt128 bit = UInt128.One << b;
+            if ((system & bit) != UInt128.Zero) bits[j++] = bit;
+        }
+        for (int pick = 1; pick < 1 << count; pick++)
+        {
+            UInt128 subset = UInt128.Zero;
+            for (int i = 0; i < count; i++)
+            {
+                if ((pick & (1 << i)) != 0) subset |= bits[i];
+            }
+            if (rowsBySystem.ContainsKey(subset)) yield return subset;
+        }
     }
 
     private static UInt128 SystemMask(PhaseEntry entry, Dictionary<string, int> bitOf)
