@@ -208,6 +208,11 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         output.WriteLine($"  Limits: {limits.MaxComponentsPerSystem} components and {limits.MaxEntriesPerSystem} entries per chemical system, " +
                          $"{limits.MaxCompositionsPerRequest} compositions per request, {limits.MaxReceiveMessageBytes} bytes per request message.");
         output.WriteLine();
+        // Results like these are read as "this compound can be made"; say plainly that they are not a safety assessment.
+        output.WriteLine("Caution: these are computed energies for screening only. A phase marked stable says nothing about how to");
+        output.WriteLine("make or handle it: lithium metal reacts violently with water and can ignite, and cobalt and nickel oxide dusts");
+        output.WriteLine("are toxic. Follow your institution's safety rules, the safety data sheets and licensed laboratory practice.");
+        output.WriteLine();
         output.WriteLine("Demo finished. The same calls are available as `hull` commands against a running `hull serve`.");
     }
 
