@@ -303,6 +303,12 @@ public static class FormulaParser
                 throw Error(start, $"malformed amount '{token}'");
             }
 
+            // "LiCo02" is almost always a mistyped letter O; no one writes an amount with a leading zero on purpose.
+            if (token.Length > 1 && token[0] == '0' && IsDigit(token[1]))
+            {
+                throw Error(start, $"amount '{token}' has a leading zero (if the letter O was meant, type O, not 0)");
+            }
+
             Rational value;
             try
             {

@@ -25,6 +25,8 @@ public class FormulaParserErrorTests
     [InlineData("H1.2.3", 1, "malformed amount '1.2.3'")]
     [InlineData("Li1/", 2, "malformed amount '1/'")]
     [InlineData("Li1/2/3", 2, "malformed amount '1/2/3'")]
+    [InlineData("LiCo02", 4, "amount '02' has a leading zero")] // the letter O typed as a zero
+    [InlineData("Fe2O007", 4, "amount '007' has a leading zero")]
     [InlineData("Li0.5/2", 2, "a fraction takes whole numbers")]
     [InlineData("H99999999999999999999", 1, "too large")]
     [InlineData("H2O#", 3, "unexpected character '#'")]
