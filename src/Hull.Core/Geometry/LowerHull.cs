@@ -27,6 +27,7 @@ public sealed class LowerHull
     private int[] _facetNeighbors = [];
     private double[] _facetMu = [];
     private readonly int[] _pointFacet;
+    private readonly double[] _hullEnergy;
 
     private LowerHull(int n, double[] fractions, double[] energies, int[] representative)
     {
@@ -36,6 +37,7 @@ public sealed class LowerHull
         _representative = representative;
         _isVertex = new bool[energies.Length];
         _pointFacet = new int[energies.Length];
+        _hullEnergy = new double[energies.Length];
         Facets = [];
         VertexPoints = [];
     }
@@ -74,6 +76,8 @@ public sealed class LowerHull
         var fractions = new double[count * n];
         var energies = new double[count];
         var rows = new long[count][];
+        var compositionOf = new int[count];
+        var distinct = new DistinctCompositions(n, count);
         for (int i = 0; i < count; i++)
         {
             var row = amounts[i] ?? throw new ArgumentException($"Point {i} has no amounts.", nameof(amounts));
@@ -89,10 +93,12 @@ public sealed class LowerHull
             double e = energiesEvPerAtom[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
             energies[i] = e;
-            rows[i] = (long[])row.Clone();
+            compositionOf[i] = distinct.Add(row);
+            // The reduced row has the same ratios, and is a private copy the caller cannot change later.
+            rows[i] = distinct.Reduced[compositionOf[i]];
         }
 
-        var representative = ChooseRepresentatives(rows, energies, n, out var candidates);
+        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, out var candidates);
         var hull = new LowerHull(n, fractions, energies, representative);
         hull.Construct(rows, candidates);
         return hull;
@@ -101,7 +107,8 @@ public sealed class LowerHull
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     public double EnergyAboveHull(int pointIndex)
     {
-        double above = _energies[pointIndex] - LocatePoint(pointIndex).HullEnergyEvPerAtom;
+        if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        double above = _energies[pointIndex] - _hullEnergy[_representative[pointIndex]];
         return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
     }
 
@@ -155,35 +162,29 @@ public sealed class LowerHull
         return new HullPosition(facet, points.ToArray(), w, energy);
     }
 
-    private static int[] ChooseRepresentatives(long[][] rows, double[] energies, int n, out int[] candidates)
+    private static int[] ChooseRepresentatives(int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, out int[] candidates)
     {
-        var byComposition = new Dictionary<long[], int>(new ReducedAmountsComparer());
-        var representative = new int[rows.Length];
-        var reduced = new long[rows.Length][];
-        for (int i = 0; i < rows.Length; i++)
+        var best = new int[reduced.Count];
+        Array.Fill(best, -1);
+        for (int i = 0; i < compositionOf.Length; i++)
         {
-            reduced[i] = Reduce(rows[i]);
-            if (byComposition.TryGetValue(reduced[i], out int current))
-            {
-                if (energies[i] < energies[current]) byComposition[reduced[i]] = i;
-            }
-            else
-            {
-                byComposition.Add(reduced[i], i);
-            }
+            int c = compositionOf[i];
+            // Strictly lower wins, so the lowest index stays among exact ties.
+            if (best[c] < 0 || energies[i] < energies[best[c]]) best[c] = i;
         }
-        for (int i = 0; i < rows.Length; i++) representative[i] = byComposition[reduced[i]];
-        candidates = byComposition.Values.ToArray();
+        var representative = new int[compositionOf.Length];
+        for (int i = 0; i < compositionOf.Length; i++) representative[i] = best[compositionOf[i]];
+        candidates = best;
         Array.Sort(candidates, (a, b) =>
         {
-            int c = CompareLexicographic(reduced[a], reduced[b], rows[a], rows[b]);
+            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]]);
             return c != 0 ? c : a.CompareTo(b);
         });
         return representative;
     }
 
     /// <summary>Orders compositions by their fractions, exactly (cross-multiplied with 128-bit integers).</summary>
-    private static int CompareLexicographic(long[] a, long[] b, long[] rowA, long[] rowB)
+    private static int CompareLexicographic(long[] a, long[] b)
     {
         Int128 totalA = 0, totalB = 0;
         foreach (long v in a) totalA += v;
@@ -196,21 +197,6 @@ public sealed class LowerHull
         return 0;
     }
 
-    private static long[] Reduce(long[] row)
-    {
-        long g = 0;
-        foreach (long v in row) g = Gcd(g, v);
-        var r = new long[row.Length];
-        for (int k = 0; k < row.Length; k++) r[k] = row[k] / g;
-        return r;
-    }
-
-    private static long Gcd(long a, long b)
-    {
-        while (b != 0) (a, b) = (b, a % b);
-        return Math.Abs(a);
-    }
-
     private void Construct(long[][] rows, int[] candidates)
     {
         if (_n == 1)
@@ -218,6 +204,7 @@ public sealed class LowerHull
             int best = candidates[0];
             SetFacets([[best]], [-1]);
             _pointFacet[best] = 0;
+            _hullEnergy[best] = _energies[best];
             return;
         }
 
@@ -321,9 +308,10 @@ public sealed class LowerHull
             var x = _fractions.AsSpan(p * _n, _n);
             facet = _isVertex[p] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
             _pointFacet[p] = facet;
-            if (_isVertex[p]) continue;
+            if (_isVertex[p]) { _hullEnergy[p] = _energies[p]; continue; }
             double hull = 0;
             for (int k = 0; k < _n; k++) hull += _facetMu[facet * _n + k] * x[k];
+            _hullEnergy[p] = hull;
             if (_energies[p] < hull - HullTolerances.EnergyEvPerAtom) found.Add((p, facet));
         }
         return found;
@@ -377,17 +365,5 @@ public sealed class LowerHull
             if (min > bestMin) { bestMin = min; best = g; }
         }
         return best;
-    }
-
-    private sealed class ReducedAmountsComparer : IEqualityComparer<long[]>
-    {
-        public bool Equals(long[]? a, long[]? b) => a.AsSpan().SequenceEqual(b);
-
-        public int GetHashCode(long[] a)
-        {
-            var h = new HashCode();
-            foreach (long v in a) h.Add(v);
-            return h.ToHashCode();
-        }
     }
 }

@@ -1,0 +1,71 @@
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// Groups integer amount rows by composition (rows reduced by their greatest common divisor), allocating one
+/// reduced row per distinct composition rather than one per point: a dataset of 1e5 entries often holds only a
+/// few hundred compositions.
+/// </summary>
+internal sealed class DistinctCompositions
+{
+    private readonly int _n;
+    private readonly List<long[]> _reduced = new();
+    private readonly List<int> _hashes = new();
+    private int[] _slots;
+    private readonly long[] _scratch;
+
+    public DistinctCompositions(int componentCount, int expectedRows)
+    {
+        _n = componentCount;
+        _scratch = new long[componentCount];
+        _slots = new int[Math.Max(16, (int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Min(expectedRows, 1 << 20) * 2))];
+        Array.Fill(_slots, -1);
+    }
+
+    /// <summary>The reduced rows, indexed by composition id.</summary>
+    public IReadOnlyList<long[]> Reduced => _reduced;
+
+    /// <summary>The id of the row's composition, adding it when new. The row must be non-negative and not all zero.</summary>
+    public int Add(long[] row)
+    {
+        long g = 0;
+        foreach (long v in row) g = Gcd(g, v);
+        for (int k = 0; k < _n; k++) _scratch[k] = row[k] / g;
+        var hc = new HashCode();
+        foreach (long v in _scratch) hc.Add(v);
+        int hash = hc.ToHashCode();
+        int mask = _slots.Length - 1;
+        for (int slot = hash & mask; ; slot = (slot + 1) & mask)
+        {
+            int id = _slots[slot];
+            if (id < 0)
+            {
+                id = _reduced.Count;
+                _reduced.Add((long[])_scratch.Clone());
+                _hashes.Add(hash);
+                _slots[slot] = id;
+                if (_reduced.Count * 2 > _slots.Length) Grow();
+                return id;
+            }
+            if (_hashes[id] == hash && _reduced[id].AsSpan().SequenceEqual(_scratch)) return id;
+        }
+    }
+
+    private void Grow()
+    {
+        _slots = new int[_slots.Length * 2];
+        Array.Fill(_slots, -1);
+        int mask = _slots.Length - 1;
+        for (int id = 0; id < _reduced.Count; id++)
+        {
+            int slot = _hashes[id] & mask;
+            while (_slots[slot] >= 0) slot = (slot + 1) & mask;
+            _slots[slot] = id;
+        }
+    }
+
+    private static long Gcd(long a, long b)
+    {
+        while (b != 0) (a, b) = (b, a % b);
+        return Math.Abs(a);
+    }
+}
