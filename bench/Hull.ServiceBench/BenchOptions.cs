@@ -17,6 +17,9 @@ public sealed record BenchOptions
 
     public TimeSpan WarmUp { get; init; } = TimeSpan.FromSeconds(2);
 
+    /// <summary>Unrecorded load of each query kind before the first measured run, so that the JIT has settled.</summary>
+    public TimeSpan JitWarmUp { get; init; } = TimeSpan.FromSeconds(5);
+
     public TimeSpan Window { get; init; } = TimeSpan.FromSeconds(10);
 
     /// <summary>Repetitions of every (query, clients) run; the report gives medians over them.</summary>
@@ -43,6 +46,7 @@ public sealed record BenchOptions
         usage: dotnet run -c Release --project bench/Hull.ServiceBench -- [options]
 
           --quick              short smoke run (1 repetition, 0.5 s warm-up, 2 s windows, 2e4-entry import); prints only
+          --summarize-trace F  only print the busy-time frame summary of a speedscope file F and exit
           --reps N             repetitions per run (default 3)
           --window S           measured seconds per run (default 10)
           --warmup S           warm-up seconds per run (default 2)
@@ -60,7 +64,7 @@ public sealed record BenchOptions
         BenchOptions options = quick
             ? new BenchOptions
             {
-                Quick = true, Repetitions = 1, WarmUp = TimeSpan.FromSeconds(0.5), Window = TimeSpan.FromSeconds(2),
+                Quick = true, Repetitions = 1, WarmUp = TimeSpan.FromSeconds(0.5), Window = TimeSpan.FromSeconds(2), JitWarmUp = TimeSpan.FromSeconds(1),
                 ImportEntries = 20_000, ImportBatches = 20,
             }
             : new BenchOptions { OutputPath = Path.Combine(repositoryRoot, "bench", "SERVICE.md") };

@@ -4,9 +4,10 @@ using System.Globalization;
 namespace Hull.ServiceBench;
 
 /// <summary>
-/// Samples the server's stacks with dotnet-trace (EventPipe sample profiler) while a load runs, then asks
-/// dotnet-trace for the top frames by inclusive and exclusive time. The tracer shares the two cores, so runs under
-/// a trace are for finding where time goes, never reported as throughput.
+/// Samples the server's stacks with dotnet-trace (EventPipe sample profiler) while a load runs, then sums the
+/// sampled stacks into the top frames by inclusive and exclusive busy time (see <see cref="SpeedscopeSummary"/>).
+/// The tracer shares the two cores, so runs under a trace are for finding where time goes, never reported as
+/// throughput.
 /// </summary>
 public static class ProfileCapture
 {
@@ -27,7 +28,7 @@ public static class ProfileCapture
 
     /// <summary>
     /// Traces process <paramref name="pid"/> for <paramref name="duration"/> into <paramref name="nettracePath"/> (plus a
-    /// speedscope file beside it) while <paramref name="load"/> runs; returns the topN reports as text.
+    /// speedscope file beside it) while <paramref name="load"/> runs; returns the busy-time summary of the frames.
     /// </summary>
     public static async Task<string> CaptureAsync(string tool, int pid, string nettracePath, TimeSpan duration, Func<Task> load)
     {
@@ -36,9 +37,7 @@ public static class ProfileCapture
             ["collect", "-p", pid.ToString(CultureInfo.InvariantCulture), "--format", "Speedscope", "--duration", durationText, "-o", nettracePath]);
         await load();
         await trace;
-        string inclusive = await RunAsync(tool, ["report", nettracePath, "topN", "-n", "40", "--inclusive"]);
-        string exclusive = await RunAsync(tool, ["report", nettracePath, "topN", "-n", "40"]);
-        return $"# top frames by inclusive time{Environment.NewLine}{inclusive}{Environment.NewLine}# top frames by exclusive time{Environment.NewLine}{exclusive}";
+        return SpeedscopeSummary.Summarize(Path.ChangeExtension(nettracePath, ".speedscope.json"), top: 80);
     }
 
     private static async Task<string> RunAsync(string tool, string[] arguments)

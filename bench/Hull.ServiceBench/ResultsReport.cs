@@ -70,7 +70,8 @@ public static class ResultsReport
              $"{(o.Channels == 1 ? string.Empty : "s")} (HTTP/2 multiplexes the calls on one connection; Kestrel allows 100 streams per " +
              "connection, so 64 clients fit on one), as one application process with many concurrent users would. Per-call " +
              "latency from Stopwatch timestamps around each awaited call, at the client (includes client-side serialisation and " +
-             $"scheduling). {o.WarmUp.TotalSeconds:0.#} s warm-up then {o.Window.TotalSeconds:0.#} s measured per run; {reps}; " +
+             $"scheduling). First one unrecorded {o.JitWarmUp.TotalSeconds:0.#} s run of each kind at 8 clients (the JIT settles); then " +
+             $"{o.WarmUp.TotalSeconds:0.#} s warm-up and {o.Window.TotalSeconds:0.#} s measured per run; {reps}; " +
              $"runs interleaved (repetition outermost) so that a burst of outside load does not hit one configuration only.");
         Line($"- Hull builds during the query runs: {run.HullsBuiltDuringQueries} (every query answered from the cache).");
         Line();
