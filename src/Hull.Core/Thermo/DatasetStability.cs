@@ -25,6 +25,7 @@ public static class DatasetStability
 
         // Chemical system of each entry as a bit set of elements (at most 118 elements fit in 128 bits).
         var rowsBySystem = new Dictionary<UInt128, List<int>>();
+        var systemOfRow = new UInt128[entries.Count];
         for (int row = 0; row < entries.Count; row++)
         {
             UInt128 mask = SystemMask(entries[row], bitOf);
@@ -34,43 +35,66 @@ public static class DatasetStability
             }
 
             rows.Add(row);
+            systemOfRow[row] = mask;
         }
-
-        string NameOf(UInt128 mask) => string.Join("-", ElementsOf(mask, elements));
 
         // A system is maximal when no larger present system contains it. Entries span few elements, so each
         // system's subsets are enumerated instead of comparing every pair of systems (tens of thousands of each).
-        UInt128[] systems = rowsBySystem.Keys
-            .OrderByDescending(m => UInt128.PopCount(m))
-            .ThenBy(NameOf, StringComparer.Ordinal)
-            .ToArray();
         var contained = new HashSet<UInt128>();
-        foreach (UInt128 system in systems)
+        foreach (UInt128 system in rowsBySystem.Keys)
         {
             foreach (UInt128 subset in PresentSubsets(system, rowsBySystem.Keys, rowsBySystem))
             {
                 if (subset != system) contained.Add(subset);
             }
         }
-        var maximal = systems.Where(s => !contained.Contains(s)).ToList();
 
-        // Each system reports from one hull: the smallest maximal system containing it (then by name).
-        UInt128[] owners = maximal.OrderBy(m => UInt128.PopCount(m)).ThenBy(NameOf, StringComparer.Ordinal).ToArray();
-        var ownerOf = new Dictionary<UInt128, UInt128>();
-        var membersOf = new Dictionary<UInt128, UInt128[]>();
-        foreach (UInt128 owner in owners)
+        var maximal = new List<(UInt128 Mask, string Name)>();
+        foreach (UInt128 system in rowsBySystem.Keys)
         {
-            UInt128[] members = PresentSubsets(owner, rowsBySystem.Keys, rowsBySystem).ToArray();
-            membersOf[owner] = members;
-            foreach (UInt128 member in members) ownerOf.TryAdd(member, owner);
+            if (!contained.Contains(system)) maximal.Add((system, string.Join("-", ElementsOf(system, elements))));
         }
 
+        // Each system reports from one hull: the smallest maximal system containing it (then by name).
+        maximal.Sort((x, y) =>
+        {
+            int bySize = UInt128.PopCount(x.Mask).CompareTo(UInt128.PopCount(y.Mask));
+            return bySize != 0 ? bySize : string.CompareOrdinal(x.Name, y.Name);
+        });
+        var members = new UInt128[maximal.Count][];
+        var reportingHull = new Dictionary<UInt128, int>();
+        for (int h = 0; h < maximal.Count; h++)
+        {
+            members[h] = PresentSubsets(maximal[h].Mask, rowsBySystem.Keys, rowsBySystem).ToArray();
+            foreach (UInt128 member in members[h]) reportingHull.TryAdd(member, h);
+        }
+
+        // Coordinates, phase and id rank of every entry, worked out once: a binary's entries sit in many hulls.
+        var prepared = new PreparedCoordinates[entries.Count];
+        var phases = new HullPhase[entries.Count];
+        var reportingHullOfRow = new int[entries.Count];
+        for (int row = 0; row < entries.Count; row++)
+        {
+            PhaseEntry entry = entries[row];
+            prepared[row] = PreparedCoordinates.Of(entry, row);
+            phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation.FormationEnergiesEvPerAtom[row]);
+            reportingHullOfRow[row] = reportingHull[systemOfRow[row]];
+        }
+
+        int[] sortRank = OrdinalIdRanks(entries);
+
+        // Largest hulls first, so that no big one is left to run alone at the end.
+        var work = new (int Hull, int Points)[maximal.Count];
+        for (int h = 0; h < maximal.Count; h++)
+        {
+            int points = 0;
+            foreach (UInt128 member in members[h]) points += rowsBySystem[member].Count;
+            work[h] = (h, points);
+        }
+
+        Array.Sort(work, (x, y) => x.Points != y.Points ? y.Points.CompareTo(x.Points) : x.Hull.CompareTo(y.Hull));
         var results = new EntryStability[entries.Count];
         var failures = new System.Collections.Concurrent.ConcurrentBag<Exception>();
-        var work = owners
-            .Select(m => (Mask: m, Members: membersOf[m]))
-            .OrderByDescending(w => w.Members.Sum(s => rowsBySystem[s].Count))
-            .ToArray();
         Parallel.ForEach(
             work,
             new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
@@ -78,17 +102,26 @@ public static class DatasetStability
             {
                 try
                 {
-                    var inputs = item.Members
-                        .SelectMany(s => rowsBySystem[s])
-                        .Select(row => (entries[row], row, formation.FormationEnergiesEvPerAtom[row]))
-                        .ToArray();
-                    var hull = new SystemHull(
-                        new ComponentSpace.OverElements(ElementsOf(item.Mask, elements)), inputs, formation.References);
-                    foreach ((int point, int row) in hull.EntryPoints())
+                    UInt128 mask = maximal[item.Hull].Mask;
+                    string[] symbols = ElementsOf(mask, elements);
+                    var points = new List<HullPoint>(item.Points + symbols.Length);
+                    foreach (UInt128 member in members[item.Hull])
                     {
-                        if (ownerOf[SystemMask(entries[row], bitOf)] == item.Mask)
+                        int[] columns = ColumnsOf(member, mask);
+                        foreach (int row in rowsBySystem[member])
                         {
-                            results[row] = hull.ComputeEntry(point);
+                            points.Add(new HullPoint(
+                                phases[row], entries[row], row, prepared[row], columns, symbols.Length, sortRank[row]));
+                        }
+                    }
+
+                    var hull = new SystemHull(new ComponentSpace.OverElements(symbols), points, formation.References);
+                    for (int i = 0; i < hull.PointCount; i++)
+                    {
+                        int row = hull.RowOfPoint(i);
+                        if (row >= 0 && reportingHullOfRow[row] == item.Hull)
+                        {
+                            results[row] = hull.ComputeEntry(i);
                         }
                     }
                 }
@@ -108,8 +141,9 @@ public static class DatasetStability
             ExceptionDispatchInfo.Capture(first).Throw();
         }
 
-        return new DatasetStabilityResult(
-            results, maximal.Select(NameOf).Order(StringComparer.Ordinal).ToArray(), formation.References);
+        string[] hullSystems = maximal.Select(m => m.Name).ToArray();
+        Array.Sort(hullSystems, StringComparer.Ordinal);
+        return new DatasetStabilityResult(results, hullSystems, formation.References);
     }
 
     /// <summary>Widest system whose subsets are enumerated; a wider one is compared with every present system.</summary>
@@ -144,6 +178,51 @@ public static class DatasetStability
             }
             if (rowsBySystem.ContainsKey(subset)) yield return subset;
         }
+    }
+
+    /// <summary>Rank of each row's id in ordinal order (ids are unique).</summary>
+    private static int[] OrdinalIdRanks(IReadOnlyList<PhaseEntry> entries)
+    {
+        var ids = new string[entries.Count];
+        var rows = new int[entries.Count];
+        for (int row = 0; row < ids.Length; row++)
+        {
+            ids[row] = entries[row].Id;
+            rows[row] = row;
+        }
+
+        Array.Sort(ids, rows, StringComparer.Ordinal);
+        var rank = new int[rows.Length];
+        for (int r = 0; r < rows.Length; r++)
+        {
+            rank[rows[r]] = r;
+        }
+
+        return rank;
+    }
+
+    /// <summary>For each element of a subsystem (in bit order), its column among the elements of the system.</summary>
+    private static int[] ColumnsOf(UInt128 subsystem, UInt128 system)
+    {
+        var columns = new int[(int)UInt128.PopCount(subsystem)];
+        int column = 0, next = 0;
+        for (int b = 0; next < columns.Length; b++)
+        {
+            UInt128 bit = UInt128.One << b;
+            if ((system & bit) == UInt128.Zero)
+            {
+                continue;
+            }
+
+            if ((subsystem & bit) != UInt128.Zero)
+            {
+                columns[next++] = column;
+            }
+
+            column++;
+        }
+
+        return columns;
     }
 
     private static UInt128 SystemMask(PhaseEntry entry, Dictionary<string, int> bitOf)

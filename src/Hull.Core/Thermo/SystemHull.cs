@@ -21,7 +21,7 @@ public sealed class SystemHull
     private readonly ComponentSpace _space;
     private readonly HullPoint[] _points;
     private readonly LowerHull _hull;
-    private readonly HashSet<int> _vertexSet;
+    private readonly bool[] _isVertex;
     private readonly double[]? _endMemberCornerEvPerAtom;
     private readonly Lazy<IReadOnlyList<EntryStability>> _entries;
     private readonly Lazy<Dictionary<string, EntryStability>> _entryById;
@@ -33,7 +33,7 @@ public sealed class SystemHull
     private List<int>[]? _facetsOfVertex;
     private List<int>[]? _pointsInFacet;
     private int[]? _pureCorners;
-    private readonly Dictionary<string, double> _decompositionEnergyByKey = new(StringComparer.Ordinal);
+    private Dictionary<long[], double>? _decompositionEnergyByComposition;
 
     /// <summary>The hull of entries over elements (the union of the entries' elements unless given).</summary>
     /// <param name="entries">Entries whose elements lie in the system; ids unique.</param>
@@ -96,34 +96,35 @@ public sealed class SystemHull
         ComponentSpace space,
         IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs,
         IReadOnlyList<ElementReference> references)
+        : this(space, MapInputs(space, inputs), references)
+    {
+    }
+
+    /// <summary>Builds the hull from the points of its entries (in any order; synthetic corners are added here).</summary>
+    internal SystemHull(ComponentSpace space, List<HullPoint> points, IReadOnlyList<ElementReference> references)
     {
         _space = space;
         References = references;
-        var points = new List<HullPoint>(inputs.Count + space.Names.Count);
-        foreach ((PhaseEntry entry, int row, double formation) in inputs)
-        {
-            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
-            {
-                throw new ThermoInputException(
-                    $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
-            }
-
-            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
-            points.Add(new HullPoint(phase, entry, row, atoms));
-        }
-
         AddCornerPoints(space, points);
 
         // Canonical order (by id; a synthetic reference after an entry of the same id) makes every tie-break of the
-        // engine, and so every result, independent of the input order.
-        _points = points
-            .OrderBy(p => p.Phase.Id, StringComparer.Ordinal)
-            .ThenBy(p => p.Phase.IsSynthetic)
-            .ToArray();
-        _hull = LowerHull.Build(
-            _points.Select(p => p.Amounts).ToArray(),
-            _points.Select(p => p.FormationEnergyEvPerAtom).ToArray());
-        _vertexSet = [.. _hull.VertexPoints];
+        // engine, and so every result, independent of the input order. Ids are unique, so the order is total.
+        _points = points.ToArray();
+        Array.Sort(_points, CanonicalOrder);
+        var amounts = new long[_points.Length][];
+        var energies = new double[_points.Length];
+        for (int i = 0; i < _points.Length; i++)
+        {
+            amounts[i] = _points[i].Amounts;
+            energies[i] = _points[i].FormationEnergyEvPerAtom;
+        }
+
+        _hull = LowerHull.Build(amounts, energies);
+        _isVertex = new bool[_points.Length];
+        foreach (int v in _hull.VertexPoints)
+        {
+            _isVertex[v] = true;
+        }
 
         if (space is ComponentSpace.OverEndMembers)
         {
@@ -132,7 +133,7 @@ public sealed class SystemHull
             {
                 if (_points[v].IsPureComponent)
                 {
-                    _endMemberCornerEvPerAtom[Array.FindIndex(_points[v].Amounts, a => a != 0)] = _points[v].FormationEnergyEvPerAtom;
+                    _endMemberCornerEvPerAtom[_points[v].PureComponent] = _points[v].FormationEnergyEvPerAtom;
                 }
             }
         }
@@ -147,8 +148,51 @@ public sealed class SystemHull
             () => _entries.Value.ToDictionary(e => e.Id, StringComparer.Ordinal));
         _facets = new Lazy<IReadOnlyList<PhaseFacet>>(BuildFacets);
         _tieLines = new Lazy<IReadOnlyList<TieLine>>(BuildTieLines);
-        StablePhases = _hull.VertexPoints.Select(v => _points[v].Phase).ToArray();
+        var stable = new HullPhase[_hull.VertexPoints.Count];
+        for (int k = 0; k < stable.Length; k++)
+        {
+            stable[k] = _points[_hull.VertexPoints[k]].Phase;
+        }
+
+        StablePhases = stable;
     }
+
+    private static List<HullPoint> MapInputs(
+        ComponentSpace space, IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs)
+    {
+        var points = new List<HullPoint>(inputs.Count + space.Names.Count);
+        foreach ((PhaseEntry entry, int row, double formation) in inputs)
+        {
+            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
+            {
+                throw new ThermoInputException(
+                    $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
+            }
+
+            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
+            points.Add(new HullPoint(phase, entry, row, atoms));
+        }
+
+        return points;
+    }
+
+    /// <summary>By id (ordinal; by rank where both points carry one), then a synthetic reference after an entry.</summary>
+    private static int CanonicalOrder(HullPoint a, HullPoint b)
+    {
+        if (a.SortRank >= 0 && b.SortRank >= 0)
+        {
+            return a.SortRank.CompareTo(b.SortRank);
+        }
+
+        int byId = string.CompareOrdinal(a.Phase.Id, b.Phase.Id);
+        return byId != 0 ? byId : a.Phase.IsSynthetic.CompareTo(b.Phase.IsSynthetic);
+    }
+
+    /// <summary>Number of points (entries and synthetic references) in canonical order.</summary>
+    internal int PointCount => _points.Length;
+
+    /// <summary>Row of the entry at canonical index <paramref name="i"/> (-1 for a synthetic reference).</summary>
+    internal int RowOfPoint(int i) => _points[i].RowIndex;
 
     /// <summary>The components (element symbols, or end-member formulas) in hull order.</summary>
     public IReadOnlyList<string> Components => _space.Names;
@@ -218,8 +262,8 @@ public sealed class SystemHull
         HullPoint point = _points[i];
         PhaseEntry entry = point.Entry ?? throw new InvalidOperationException("A synthetic reference has no stability record.");
         HullPosition position = PositionOf(i);
-        double above = _hull.EnergyAboveHull(i);
-        if (above <= HullTolerances.EnergyEvPerAtom)
+        double above = point.FormationEnergyEvPerAtom - position.HullEnergyEvPerAtom;
+        if (!(above > HullTolerances.EnergyEvPerAtom))
         {
             above = 0.0;
         }
@@ -245,14 +289,10 @@ public sealed class SystemHull
             fromEndMembers,
             point.Fractions,
             above,
-            _vertexSet.Contains(i),
+            _isVertex[i],
             BuildDecomposition(entry.Composition, point.ComponentAtoms, position),
             decompositionEnergy);
     }
-
-    /// <summary>Canonical indices of the points that are entries, for callers that report only some of them.</summary>
-    internal IEnumerable<(int PointIndex, int RowIndex)> EntryPoints() =>
-        Enumerable.Range(0, _points.Length).Where(i => _points[i].Entry is not null).Select(i => (i, _points[i].RowIndex));
 
     /// <summary>
     /// Decomposition energy computed the slow way, by rebuilding the whole hull without the entry's reduced
@@ -268,7 +308,7 @@ public sealed class SystemHull
         }
 
         int[] others = Enumerable.Range(0, _points.Length)
-            .Where(j => !string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+            .Where(j => !_points[j].HasSameCompositionAs(point))
             .ToArray();
         double hullWithout = HullEnergyOfSubset(others, point.Fractions);
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
@@ -277,7 +317,8 @@ public sealed class SystemHull
     private double DecompositionEnergy(int i)
     {
         HullPoint point = _points[i];
-        if (_decompositionEnergyByKey.TryGetValue(point.CompositionKey, out double known))
+        _decompositionEnergyByComposition ??= new Dictionary<long[], double>(AmountsComparer.Instance);
+        if (_decompositionEnergyByComposition.TryGetValue(point.Amounts, out double known))
         {
             return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - known);
         }
@@ -288,8 +329,16 @@ public sealed class SystemHull
         // So the hull energy at x_v without v needs only the star's other corners, the points located in the star,
         // and (to anchor the engine, which needs a pure point per component) the pure corners; adding any of the
         // remaining points could not lower it. This keeps the rebuild local instead of rebuilding the whole hull.
-        int vertex = _hull.VertexPoints.FirstOrDefault(
-            v => string.Equals(_points[v].CompositionKey, point.CompositionKey, StringComparison.Ordinal), -1);
+        int vertex = -1;
+        foreach (int v in _hull.VertexPoints)
+        {
+            if (_points[v].HasSameCompositionAs(point))
+            {
+                vertex = v;
+                break;
+            }
+        }
+
         double hullWithout;
         if (vertex < 0)
         {
@@ -299,30 +348,55 @@ public sealed class SystemHull
         else
         {
             IndexStars();
-            var subset = new SortedSet<int>(_pureCorners!);
+            var inSubset = new bool[_points.Length];
+            int count = 0;
+            void Include(int j)
+            {
+                if (!inSubset[j])
+                {
+                    inSubset[j] = true;
+                    count++;
+                }
+            }
+
+            foreach (int corner in _pureCorners!)
+            {
+                Include(corner);
+            }
+
             foreach (int facet in _facetsOfVertex![vertex])
             {
                 foreach (int corner in _hull.Facets[facet].VertexPoints)
                 {
                     if (corner != vertex)
                     {
-                        subset.Add(corner);
+                        Include(corner);
                     }
                 }
 
                 foreach (int j in _pointsInFacet![facet])
                 {
-                    if (!string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+                    if (!_points[j].HasSameCompositionAs(point))
                     {
-                        subset.Add(j);
+                        Include(j);
                     }
                 }
             }
 
-            hullWithout = HullEnergyOfSubset(subset.ToArray(), point.Fractions);
+            // Ascending point order, as the engine's tie-breaks depend on it.
+            var subset = new int[count];
+            for (int j = 0, next = 0; j < inSubset.Length; j++)
+            {
+                if (inSubset[j])
+                {
+                    subset[next++] = j;
+                }
+            }
+
+            hullWithout = HullEnergyOfSubset(subset, point.Fractions);
         }
 
-        _decompositionEnergyByKey[point.CompositionKey] = hullWithout;
+        _decompositionEnergyByComposition[point.Amounts] = hullWithout;
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
     }
 
@@ -333,10 +407,15 @@ public sealed class SystemHull
 
     private double HullEnergyOfSubset(int[] subset, double[] fractions)
     {
-        LowerHull reduced = LowerHull.Build(
-            subset.Select(j => _points[j].Amounts).ToArray(),
-            subset.Select(j => _points[j].FormationEnergyEvPerAtom).ToArray());
-        return reduced.Locate(fractions).HullEnergyEvPerAtom;
+        var amounts = new long[subset.Length][];
+        var energies = new double[subset.Length];
+        for (int k = 0; k < subset.Length; k++)
+        {
+            amounts[k] = _points[subset[k]].Amounts;
+            energies[k] = _points[subset[k]].FormationEnergyEvPerAtom;
+        }
+
+        return LowerHull.Build(amounts, energies).Locate(fractions).HullEnergyEvPerAtom;
     }
 
     /// <summary>Indexes, once, the facets around each vertex and the non-vertex points located in each facet.</summary>
@@ -360,13 +439,22 @@ public sealed class SystemHull
 
         for (int j = 0; j < _points.Length; j++)
         {
-            if (!_vertexSet.Contains(j))
+            if (!_isVertex[j])
             {
                 pointsInFacet[PositionOf(j).FacetIndex].Add(j);
             }
         }
 
-        _pureCorners = _hull.VertexPoints.Where(v => _points[v].IsPureComponent).ToArray();
+        var pureCorners = new List<int>();
+        foreach (int v in _hull.VertexPoints)
+        {
+            if (_points[v].IsPureComponent)
+            {
+                pureCorners.Add(v);
+            }
+        }
+
+        _pureCorners = pureCorners.ToArray();
         _pointsInFacet = pointsInFacet;
         _facetsOfVertex = facetsOfVertex;
     }
@@ -396,7 +484,7 @@ public sealed class SystemHull
             total += a;
         }
 
-        return atoms.Select(a => (a / total).ToDouble()).ToArray();
+        return HullPoint.FractionsOf(atoms, total);
     }
 
     /// <summary>
@@ -466,9 +554,18 @@ public sealed class SystemHull
 
     private static void AddCornerPoints(ComponentSpace space, List<HullPoint> points)
     {
+        var hasPure = new bool[space.Names.Count];
+        foreach (HullPoint point in points)
+        {
+            if (point.IsPureComponent)
+            {
+                hasPure[point.PureComponent] = true;
+            }
+        }
+
         for (int k = 0; k < space.Names.Count; k++)
         {
-            if (points.Any(p => p.IsPureComponent && p.Amounts[k] != 0))
+            if (hasPure[k])
             {
                 continue;
             }
