@@ -70,18 +70,13 @@ public static class DatasetStability
         }
 
         // Coordinates, phase and id rank of every entry, worked out once: a binary's entries sit in many hulls.
-        var prepared = new PreparedCoordinates[entries.Count];
-        var phases = new HullPhase[entries.Count];
+        var datasetPoints = new DatasetPoints(entries, formation.FormationEnergiesEvPerAtom, rowsBySystem);
         var reportingHullOfRow = new int[entries.Count];
         for (int row = 0; row < entries.Count; row++)
         {
-            PhaseEntry entry = entries[row];
-            prepared[row] = PreparedCoordinates.Of(entry, row);
-            phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation.FormationEnergiesEvPerAtom[row]);
             reportingHullOfRow[row] = reportingHull[systemOfRow[row]];
         }
 
-        int[] sortRank = OrdinalIdRanks(entries);
 
         // Largest hulls first, so that no big one is left to run alone at the end.
         var work = new (int Hull, int Points)[maximal.Count];
@@ -104,18 +99,16 @@ public static class DatasetStability
                 {
                     UInt128 mask = maximal[item.Hull].Mask;
                     string[] symbols = ElementsOf(mask, elements);
-                    var points = new List<HullPoint>(item.Points + symbols.Length);
+                    var hullPoints = new HullPoint[item.Points];
+                    int count = 0;
                     foreach (UInt128 member in members[item.Hull])
                     {
-                        int[] columns = ColumnsOf(member, mask);
-                        foreach (int row in rowsBySystem[member])
-                        {
-                            points.Add(new HullPoint(
-                                phases[row], entries[row], row, prepared[row], columns, symbols.Length, sortRank[row]));
-                        }
+                        HullPoint[] memberPoints = datasetPoints.Of(member, mask);
+                        memberPoints.CopyTo(hullPoints, count);
+                        count += memberPoints.Length;
                     }
 
-                    var hull = new SystemHull(new ComponentSpace.OverElements(symbols), points, formation.References);
+                    var hull = new SystemHull(new ComponentSpace.OverElements(symbols), hullPoints, formation.References);
                     for (int i = 0; i < hull.PointCount; i++)
                     {
                         int row = hull.RowOfPoint(i);
@@ -178,51 +171,6 @@ public static class DatasetStability
             }
             if (rowsBySystem.ContainsKey(subset)) yield return subset;
         }
-    }
-
-    /// <summary>Rank of each row's id in ordinal order (ids are unique).</summary>
-    private static int[] OrdinalIdRanks(IReadOnlyList<PhaseEntry> entries)
-    {
-        var ids = new string[entries.Count];
-        var rows = new int[entries.Count];
-        for (int row = 0; row < ids.Length; row++)
-        {
-            ids[row] = entries[row].Id;
-            rows[row] = row;
-        }
-
-        Array.Sort(ids, rows, StringComparer.Ordinal);
-        var rank = new int[rows.Length];
-        for (int r = 0; r < rows.Length; r++)
-        {
-            rank[rows[r]] = r;
-        }
-
-        return rank;
-    }
-
-    /// <summary>For each element of a subsystem (in bit order), its column among the elements of the system.</summary>
-    private static int[] ColumnsOf(UInt128 subsystem, UInt128 system)
-    {
-        var columns = new int[(int)UInt128.PopCount(subsystem)];
-        int column = 0, next = 0;
-        for (int b = 0; next < columns.Length; b++)
-        {
-            UInt128 bit = UInt128.One << b;
-            if ((system & bit) == UInt128.Zero)
-            {
-                continue;
-            }
-
-            if ((subsystem & bit) != UInt128.Zero)
-            {
-                columns[next++] = column;
-            }
-
-            column++;
-        }
-
-        return columns;
     }
 
     private static UInt128 SystemMask(PhaseEntry entry, Dictionary<string, int> bitOf)

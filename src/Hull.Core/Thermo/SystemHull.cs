@@ -100,16 +100,18 @@ public sealed class SystemHull
     {
     }
 
-    /// <summary>Builds the hull from the points of its entries (in any order; synthetic corners are added here).</summary>
-    internal SystemHull(ComponentSpace space, List<HullPoint> points, IReadOnlyList<ElementReference> references)
+    /// <summary>
+    /// Builds the hull from the points of its entries, in any order; synthetic corners are added here. The hull
+    /// takes the array over (it is sorted in place).
+    /// </summary>
+    internal SystemHull(ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references)
     {
         _space = space;
         References = references;
-        AddCornerPoints(space, points);
 
         // Canonical order (by id; a synthetic reference after an entry of the same id) makes every tie-break of the
         // engine, and so every result, independent of the input order. Ids are unique, so the order is total.
-        _points = points.ToArray();
+        _points = WithCornerPoints(space, points);
         Array.Sort(_points, CanonicalOrder);
         var amounts = new long[_points.Length][];
         var energies = new double[_points.Length];
@@ -157,12 +159,13 @@ public sealed class SystemHull
         StablePhases = stable;
     }
 
-    private static List<HullPoint> MapInputs(
+    private static HullPoint[] MapInputs(
         ComponentSpace space, IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs)
     {
-        var points = new List<HullPoint>(inputs.Count + space.Names.Count);
-        foreach ((PhaseEntry entry, int row, double formation) in inputs)
+        var points = new HullPoint[inputs.Count];
+        for (int k = 0; k < points.Length; k++)
         {
+            (PhaseEntry entry, int row, double formation) = inputs[k];
             if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
             {
                 throw new ThermoInputException(
@@ -170,7 +173,7 @@ public sealed class SystemHull
             }
 
             var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
-            points.Add(new HullPoint(phase, entry, row, atoms));
+            points[k] = new HullPoint(phase, entry, row, atoms);
         }
 
         return points;
@@ -552,7 +555,8 @@ public sealed class SystemHull
         return true;
     }
 
-    private static void AddCornerPoints(ComponentSpace space, List<HullPoint> points)
+    /// <summary>The points, followed by a synthetic reference for each element without a pure entry.</summary>
+    private static HullPoint[] WithCornerPoints(ComponentSpace space, HullPoint[] points)
     {
         var hasPure = new bool[space.Names.Count];
         foreach (HullPoint point in points)
@@ -563,6 +567,15 @@ public sealed class SystemHull
             }
         }
 
+        int missing = hasPure.Count(has => !has);
+        if (missing == 0)
+        {
+            return points;
+        }
+
+        var all = new HullPoint[points.Length + missing];
+        points.CopyTo(all, 0);
+        int next = points.Length;
         for (int k = 0; k < space.Names.Count; k++)
         {
             if (hasPure[k])
@@ -581,8 +594,10 @@ public sealed class SystemHull
             Composition single = Composition.Parse(name);
             var atoms = new BigFraction[space.Names.Count];
             atoms[k] = BigFraction.One;
-            points.Add(new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0), null, -1, atoms));
+            all[next++] = new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0), null, -1, atoms);
         }
+
+        return all;
     }
 
     private IReadOnlyList<PhaseFacet> BuildFacets() =>
