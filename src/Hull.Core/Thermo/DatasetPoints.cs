@@ -13,36 +13,64 @@ internal sealed class DatasetPoints
     private readonly PreparedCoordinates[] _prepared;
     private readonly HullPhase[] _phases;
     private readonly int[] _sortRank;
-    private readonly IReadOnlyDictionary<UInt128, List<int>> _rowsBySystem;
-    private readonly ConcurrentDictionary<(UInt128 System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
+    private readonly IReadOnlyList<UInt128> _systems;
+    private readonly IReadOnlyList<List<int>> _rowsOfSystem;
+    private readonly ConcurrentDictionary<(int System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
 
     /// <param name="entries">The dataset.</param>
     /// <param name="formationEvPerAtom">Formation energy of each row.</param>
-    /// <param name="rowsBySystem">Rows of each chemical system (a bit set over the dataset's elements).</param>
+    /// <param name="systems">The present chemical systems (bit sets over the dataset's elements).</param>
+    /// <param name="rowsOfSystem">Rows of each system.</param>
     /// <exception cref="ThermoInputException">When an entry's integer amounts do not fit in 64 bits (the earliest such row).</exception>
     public DatasetPoints(
-        IReadOnlyList<PhaseEntry> entries, IReadOnlyList<double> formationEvPerAtom, IReadOnlyDictionary<UInt128, List<int>> rowsBySystem)
+        IReadOnlyList<PhaseEntry> entries,
+        IReadOnlyList<double> formationEvPerAtom,
+        IReadOnlyList<UInt128> systems,
+        IReadOnlyList<List<int>> rowsOfSystem)
     {
         _entries = entries;
-        _rowsBySystem = rowsBySystem;
+        _systems = systems;
+        _rowsOfSystem = rowsOfSystem;
         _prepared = new PreparedCoordinates[entries.Count];
         _phases = new HullPhase[entries.Count];
-        for (int row = 0; row < entries.Count; row++)
+        var failures = new ThermoInputException?[entries.Count];
+        bool failed = false;
+
+        // Exact arithmetic per entry, independent between entries.
+        Parallel.For(
+            0,
+            entries.Count,
+            new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
+            row =>
+            {
+                PhaseEntry entry = entries[row];
+                try
+                {
+                    _prepared[row] = PreparedCoordinates.Of(entry, row);
+                }
+                catch (ThermoInputException e)
+                {
+                    failures[row] = e;
+                    failed = true;
+                }
+
+                _phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formationEvPerAtom[row]);
+            });
+
+        if (failed)
         {
-            PhaseEntry entry = entries[row];
-            _prepared[row] = PreparedCoordinates.Of(entry, row);
-            _phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formationEvPerAtom[row]);
+            throw failures.First(e => e is not null)!;
         }
 
         _sortRank = OrdinalIdRanks(entries);
     }
 
     /// <summary>The points of a present subsystem's entries in the columns of a system that contains it.</summary>
-    public HullPoint[] Of(UInt128 subsystem, UInt128 system)
+    public HullPoint[] Of(int subsystem, UInt128 system)
     {
         int width = (int)UInt128.PopCount(system);
-        int[] columns = ColumnsOf(subsystem, system);
-        if (subsystem == system)
+        int[] columns = ColumnsOf(_systems[subsystem], system);
+        if (_systems[subsystem] == system)
         {
             // A hull's own system is in no other hull: nothing to share.
             return Make(subsystem, columns, width);
@@ -63,9 +91,9 @@ internal sealed class DatasetPoints
         return points;
     }
 
-    private HullPoint[] Make(UInt128 subsystem, int[] columns, int width)
+    private HullPoint[] Make(int subsystem, int[] columns, int width)
     {
-        List<int> rows = _rowsBySystem[subsystem];
+        List<int> rows = _rowsOfSystem[subsystem];
         var points = new HullPoint[rows.Count];
         for (int k = 0; k < points.Length; k++)
         {
