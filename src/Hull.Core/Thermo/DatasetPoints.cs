@@ -15,19 +15,23 @@ internal sealed class DatasetPoints
     private readonly int[] _sortRank;
     private readonly IReadOnlyList<UInt128> _systems;
     private readonly IReadOnlyList<List<int>> _rowsOfSystem;
+    private readonly IReadOnlyList<int> _hullsOfSystem;
     private readonly ConcurrentDictionary<(int System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
 
     /// <param name="entries">The dataset.</param>
     /// <param name="formationEvPerAtom">Formation energy of each row.</param>
     /// <param name="systems">The present chemical systems (bit sets over the dataset's elements).</param>
     /// <param name="rowsOfSystem">Rows of each system.</param>
+    /// <param name="hullsOfSystem">Number of hulls that contain each system.</param>
     /// <exception cref="ThermoInputException">When an entry's integer amounts do not fit in 64 bits (the earliest such row).</exception>
     public DatasetPoints(
         IReadOnlyList<PhaseEntry> entries,
         IReadOnlyList<double> formationEvPerAtom,
         IReadOnlyList<UInt128> systems,
-        IReadOnlyList<List<int>> rowsOfSystem)
+        IReadOnlyList<List<int>> rowsOfSystem,
+        IReadOnlyList<int> hullsOfSystem)
     {
+        _hullsOfSystem = hullsOfSystem;
         _entries = entries;
         _systems = systems;
         _rowsOfSystem = rowsOfSystem;
@@ -70,9 +74,9 @@ internal sealed class DatasetPoints
     {
         int width = (int)UInt128.PopCount(system);
         int[] columns = ColumnsOf(_systems[subsystem], system);
-        if (_systems[subsystem] == system)
+        if (_hullsOfSystem[subsystem] < 2)
         {
-            // A hull's own system is in no other hull: nothing to share.
+            // A system in one hull only (every hull's own system, most single-entry systems): nothing to share.
             return Make(subsystem, columns, width);
         }
 

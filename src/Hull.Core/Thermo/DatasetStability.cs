@@ -77,6 +77,7 @@ public static class DatasetStability
         });
         var members = new int[maximal.Count][];
         var reportingHull = new int[systems.Count];
+        var hullsOfSystem = new int[systems.Count];
         Array.Fill(reportingHull, -1);
         for (int h = 0; h < maximal.Count; h++)
         {
@@ -85,11 +86,12 @@ public static class DatasetStability
             foreach (int member in members[h])
             {
                 if (reportingHull[member] < 0) reportingHull[member] = h;
+                hullsOfSystem[member]++;
             }
         }
 
         // Coordinates, phase and id rank of every entry, worked out once: a binary's entries sit in many hulls.
-        var datasetPoints = new DatasetPoints(entries, formation.FormationEnergiesEvPerAtom, systems, rowsOfSystem);
+        var datasetPoints = new DatasetPoints(entries, formation.FormationEnergiesEvPerAtom, systems, rowsOfSystem, hullsOfSystem);
 
         // Largest hulls first, so that no big one is left to run alone at the end.
         var work = new (int Hull, int Points)[maximal.Count];

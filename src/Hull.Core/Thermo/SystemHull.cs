@@ -30,8 +30,10 @@ public sealed class SystemHull
 
     // Filled on demand by the single thread that computes entries (under _entries, or a dataset worker).
     private HullPosition?[]? _positions;
-    private List<int>[]? _facetsOfVertex;
-    private List<int>[]? _pointsInFacet;
+    private int[]? _starStart;        // facets around vertex v: _starFacets[_starStart[v] .. _starStart[v + 1])
+    private int[]? _starFacets;
+    private int[]? _facetPointStart;  // non-vertex points located in facet f, likewise
+    private int[]? _facetPoints;
     private int[]? _pureCorners;
     private Dictionary<long[], double>? _decompositionEnergyByComposition;
 
@@ -333,11 +335,12 @@ public sealed class SystemHull
         // and (to anchor the engine, which needs a pure point per component) the pure corners; adding any of the
         // remaining points could not lower it. This keeps the rebuild local instead of rebuilding the whole hull.
         int vertex = -1;
-        foreach (int v in _hull.VertexPoints)
+        IReadOnlyList<int> vertices = _hull.VertexPoints;
+        for (int k = 0; k < vertices.Count; k++)
         {
-            if (_points[v].HasSameCompositionAs(point))
+            if (_points[vertices[k]].HasSameCompositionAs(point))
             {
-                vertex = v;
+                vertex = vertices[k];
                 break;
             }
         }
@@ -367,18 +370,21 @@ public sealed class SystemHull
                 Include(corner);
             }
 
-            foreach (int facet in _facetsOfVertex![vertex])
+            for (int s = _starStart![vertex]; s < _starStart[vertex + 1]; s++)
             {
-                foreach (int corner in _hull.Facets[facet].VertexPoints)
+                int facet = _starFacets![s];
+                IReadOnlyList<int> corners = _hull.Facets[facet].VertexPoints;
+                for (int c = 0; c < corners.Count; c++)
                 {
-                    if (corner != vertex)
+                    if (corners[c] != vertex)
                     {
-                        Include(corner);
+                        Include(corners[c]);
                     }
                 }
 
-                foreach (int j in _pointsInFacet![facet])
+                for (int p = _facetPointStart![facet]; p < _facetPointStart[facet + 1]; p++)
                 {
+                    int j = _facetPoints![p];
                     if (!_points[j].HasSameCompositionAs(point))
                     {
                         Include(j);
@@ -424,42 +430,80 @@ public sealed class SystemHull
     /// <summary>Indexes, once, the facets around each vertex and the non-vertex points located in each facet.</summary>
     private void IndexStars()
     {
-        if (_facetsOfVertex is not null)
+        if (_starStart is not null)
         {
             return;
         }
 
-        var facetsOfVertex = new List<int>[_points.Length];
-        var pointsInFacet = new List<int>[_hull.Facets.Count];
-        for (int f = 0; f < _hull.Facets.Count; f++)
+        IReadOnlyList<HullFacet> facets = _hull.Facets;
+        var starStart = new int[_points.Length + 1];
+        for (int f = 0; f < facets.Count; f++)
         {
-            pointsInFacet[f] = [];
-            foreach (int v in _hull.Facets[f].VertexPoints)
+            IReadOnlyList<int> corners = facets[f].VertexPoints;
+            for (int c = 0; c < corners.Count; c++)
             {
-                (facetsOfVertex[v] ??= []).Add(f);
+                starStart[corners[c] + 1]++;
             }
         }
 
+        var facetOfPoint = new int[_points.Length];
+        var facetPointStart = new int[facets.Count + 1];
         for (int j = 0; j < _points.Length; j++)
         {
             if (!_isVertex[j])
             {
-                pointsInFacet[PositionOf(j).FacetIndex].Add(j);
+                facetOfPoint[j] = PositionOf(j).FacetIndex;
+                facetPointStart[facetOfPoint[j] + 1]++;
+            }
+        }
+
+        for (int v = 0; v < _points.Length; v++)
+        {
+            starStart[v + 1] += starStart[v];
+        }
+
+        for (int f = 0; f < facets.Count; f++)
+        {
+            facetPointStart[f + 1] += facetPointStart[f];
+        }
+
+        // Fill in ascending facet and point order.
+        var starFacets = new int[starStart[_points.Length]];
+        var nextStar = (int[])starStart.Clone();
+        for (int f = 0; f < facets.Count; f++)
+        {
+            IReadOnlyList<int> corners = facets[f].VertexPoints;
+            for (int c = 0; c < corners.Count; c++)
+            {
+                starFacets[nextStar[corners[c]]++] = f;
+            }
+        }
+
+        var facetPoints = new int[facetPointStart[facets.Count]];
+        var nextPoint = (int[])facetPointStart.Clone();
+        for (int j = 0; j < _points.Length; j++)
+        {
+            if (!_isVertex[j])
+            {
+                facetPoints[nextPoint[facetOfPoint[j]]++] = j;
             }
         }
 
         var pureCorners = new List<int>();
-        foreach (int v in _hull.VertexPoints)
+        IReadOnlyList<int> vertices = _hull.VertexPoints;
+        for (int k = 0; k < vertices.Count; k++)
         {
-            if (_points[v].IsPureComponent)
+            if (_points[vertices[k]].IsPureComponent)
             {
-                pureCorners.Add(v);
+                pureCorners.Add(vertices[k]);
             }
         }
 
         _pureCorners = pureCorners.ToArray();
-        _pointsInFacet = pointsInFacet;
-        _facetsOfVertex = facetsOfVertex;
+        _starFacets = starFacets;
+        _facetPointStart = facetPointStart;
+        _facetPoints = facetPoints;
+        _starStart = starStart;
     }
 
     private HullPosition PositionOf(int i)
@@ -507,11 +551,21 @@ public sealed class SystemHull
         var products = new List<(int Point, double AtomFraction, double FormulaUnits, Rational? Exact)>(vertices.Count);
 
         // Phases containing a component the target lacks can only carry weight 0 exactly.
-        int[] candidates = vertices.Where(v => WithinSupport(_points[v].ComponentAtoms, targetAtoms)).ToArray();
-        BigFraction[]? exact = ExactLinearAlgebra.Solve(candidates.Select(v => _points[v].ComponentAtoms).ToArray(), targetAtoms);
-        if (exact is not null && exact.All(c => c.Sign >= 0))
+        var candidates = new List<int>(vertices.Count);
+        var columns = new List<BigFraction[]>(vertices.Count);
+        for (int k = 0; k < vertices.Count; k++)
         {
-            for (int k = 0; k < candidates.Length; k++)
+            if (WithinSupport(_points[vertices[k]].ComponentAtoms, targetAtoms))
+            {
+                candidates.Add(vertices[k]);
+                columns.Add(_points[vertices[k]].ComponentAtoms);
+            }
+        }
+
+        BigFraction[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
+        if (exact is not null && Array.TrueForAll(exact, c => c.Sign >= 0))
+        {
+            for (int k = 0; k < candidates.Count; k++)
             {
                 if (exact[k].IsZero)
                 {
@@ -535,10 +589,15 @@ public sealed class SystemHull
             }
         }
 
-        DecompositionProduct[] ordered = products
-            .OrderBy(p => p.Point)
-            .Select(p => new DecompositionProduct(_points[p.Point].Phase, p.AtomFraction, p.FormulaUnits, p.Exact))
-            .ToArray();
+        // By point index, which follows the id order (each point appears once).
+        products.Sort((a, b) => a.Point.CompareTo(b.Point));
+        var ordered = new DecompositionProduct[products.Count];
+        for (int k = 0; k < ordered.Length; k++)
+        {
+            (int p, double atomFraction, double formulaUnits, Rational? coefficient) = products[k];
+            ordered[k] = new DecompositionProduct(_points[p].Phase, atomFraction, formulaUnits, coefficient);
+        }
+
         return new Decomposition(composition, position.HullEnergyEvPerAtom, ordered);
     }
 
