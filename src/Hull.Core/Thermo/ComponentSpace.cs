@@ -9,13 +9,17 @@ namespace Hull.Core.Thermo;
 /// </summary>
 internal abstract class ComponentSpace
 {
-    protected ComponentSpace(IReadOnlyList<string> names) => Names = names;
+    protected ComponentSpace(IReadOnlyList<string> names)
+    {
+        Names = names;
+        SystemName = string.Join("-", names);
+    }
 
     /// <summary>Component names in hull order.</summary>
     public IReadOnlyList<string> Names { get; }
 
     /// <summary>The components joined by '-'.</summary>
-    public string SystemName => string.Join("-", Names);
+    public string SystemName { get; }
 
     /// <summary>Atoms per component in one formula unit, or a failure text that completes "Formula ...".</summary>
     public abstract bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure);
@@ -27,7 +31,7 @@ internal abstract class ComponentSpace
         {
             foreach (string element in composition.Elements)
             {
-                if (!Names.Contains(element, StringComparer.Ordinal))
+                if (IndexOf(element) < 0)
                 {
                     componentAtoms = [];
                     failure = $"contains {element}, which is not in the chemical system {SystemName}.";
@@ -35,9 +39,27 @@ internal abstract class ComponentSpace
                 }
             }
 
-            componentAtoms = Names.Select(e => BigFraction.FromRational(composition.AmountOf(e))).ToArray();
+            componentAtoms = new BigFraction[Names.Count];
+            for (int k = 0; k < componentAtoms.Length; k++)
+            {
+                componentAtoms[k] = BigFraction.FromRational(composition.AmountOf(Names[k]));
+            }
+
             failure = string.Empty;
             return true;
+        }
+
+        private int IndexOf(string element)
+        {
+            for (int k = 0; k < Names.Count; k++)
+            {
+                if (string.Equals(Names[k], element, StringComparison.Ordinal))
+                {
+                    return k;
+                }
+            }
+
+            return -1;
         }
     }
 

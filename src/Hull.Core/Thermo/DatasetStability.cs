@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Runtime.ExceptionServices;
 
 namespace Hull.Core.Thermo;
@@ -10,9 +11,14 @@ namespace Hull.Core.Thermo;
 /// hull answers for every entry inside it; each entry is reported once, from one hull. Hulls are built in parallel;
 /// the results are deterministic and independent of the input order.
 /// </summary>
+/// <remarks>
+/// The preparation runs once per call over loops of a hundred thousand rows and tens of thousands of systems, so
+/// its methods are compiled fully optimised from the start instead of running first as unoptimised code.
+/// </remarks>
 public static class DatasetStability
 {
     /// <exception cref="ThermoInputException">Bad rows, repeated ids or missing references.</exception>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static DatasetStabilityResult Analyze(IReadOnlyList<PhaseEntry> entries, ElementalReferences? references = null)
     {
         FormationEnergySet formation = FormationEnergies.Compute(entries, references);
@@ -23,54 +29,82 @@ public static class DatasetStability
             bitOf[elements[b]] = b;
         }
 
-        // Chemical system of each entry as a bit set of elements (at most 118 elements fit in 128 bits).
-        var rowsBySystem = new Dictionary<UInt128, List<int>>();
+        // Chemical system of each entry as a bit set of elements (at most 118 elements fit in 128 bits), numbered in
+        // order of first appearance.
+        var systemIndex = new Dictionary<UInt128, int>();
+        var systems = new List<UInt128>();
+        var rowsOfSystem = new List<List<int>>();
+        var systemOfRow = new int[entries.Count];
         for (int row = 0; row < entries.Count; row++)
         {
             UInt128 mask = SystemMask(entries[row], bitOf);
-            if (!rowsBySystem.TryGetValue(mask, out List<int>? rows))
+            if (!systemIndex.TryGetValue(mask, out int s))
             {
-                rowsBySystem[mask] = rows = [];
+                s = systems.Count;
+                systemIndex.Add(mask, s);
+                systems.Add(mask);
+                rowsOfSystem.Add([]);
             }
 
-            rows.Add(row);
+            rowsOfSystem[s].Add(row);
+            systemOfRow[row] = s;
         }
-
-        string NameOf(UInt128 mask) => string.Join("-", ElementsOf(mask, elements));
 
         // A system is maximal when no larger present system contains it. Entries span few elements, so each
         // system's subsets are enumerated instead of comparing every pair of systems (tens of thousands of each).
-        UInt128[] systems = rowsBySystem.Keys
-            .OrderByDescending(m => UInt128.PopCount(m))
-            .ThenBy(NameOf, StringComparer.Ordinal)
-            .ToArray();
-        var contained = new HashSet<UInt128>();
-        foreach (UInt128 system in systems)
+        var contained = new bool[systems.Count];
+        var subsets = new List<int>();
+        for (int s = 0; s < systems.Count; s++)
         {
-            foreach (UInt128 subset in PresentSubsets(system, rowsBySystem.Keys, rowsBySystem))
+            PresentSubsets(systems[s], systems, systemIndex, subsets);
+            foreach (int subset in subsets)
             {
-                if (subset != system) contained.Add(subset);
+                if (subset != s) contained[subset] = true;
             }
         }
-        var maximal = systems.Where(s => !contained.Contains(s)).ToList();
 
-        // Each system reports from one hull: the smallest maximal system containing it (then by name).
-        UInt128[] owners = maximal.OrderBy(m => UInt128.PopCount(m)).ThenBy(NameOf, StringComparer.Ordinal).ToArray();
-        var ownerOf = new Dictionary<UInt128, UInt128>();
-        var membersOf = new Dictionary<UInt128, UInt128[]>();
-        foreach (UInt128 owner in owners)
+        var maximal = new List<(UInt128 Mask, string Name)>();
+        for (int s = 0; s < systems.Count; s++)
         {
-            UInt128[] members = PresentSubsets(owner, rowsBySystem.Keys, rowsBySystem).ToArray();
-            membersOf[owner] = members;
-            foreach (UInt128 member in members) ownerOf.TryAdd(member, owner);
+            if (!contained[s]) maximal.Add((systems[s], string.Join("-", ElementsOf(systems[s], elements))));
         }
 
+        // Each system reports from one hull: the smallest maximal system containing it (then by name).
+        maximal.Sort((x, y) =>
+        {
+            int bySize = UInt128.PopCount(x.Mask).CompareTo(UInt128.PopCount(y.Mask));
+            return bySize != 0 ? bySize : string.CompareOrdinal(x.Name, y.Name);
+        });
+        var members = new int[maximal.Count][];
+        var reportingHull = new int[systems.Count];
+        var hullsOfSystem = new int[systems.Count];
+        Array.Fill(reportingHull, -1);
+        for (int h = 0; h < maximal.Count; h++)
+        {
+            PresentSubsets(maximal[h].Mask, systems, systemIndex, subsets);
+            members[h] = subsets.ToArray();
+            foreach (int member in members[h])
+            {
+                if (reportingHull[member] < 0) reportingHull[member] = h;
+                hullsOfSystem[member]++;
+            }
+        }
+
+        // Coordinates, phase and id rank of every entry, worked out once: a binary's entries sit in many hulls.
+        var datasetPoints = new DatasetPoints(entries, formation.FormationEnergiesEvPerAtom, systems, rowsOfSystem, hullsOfSystem);
+
+        // Largest hulls first, so that no big one is left to run alone at the end.
+        var work = new (int Hull, int Points)[maximal.Count];
+        for (int h = 0; h < maximal.Count; h++)
+        {
+            int points = 0;
+            foreach (int member in members[h]) points += rowsOfSystem[member].Count;
+            work[h] = (h, points);
+        }
+
+        Array.Sort(work, (x, y) => x.Points != y.Points ? y.Points.CompareTo(x.Points) : x.Hull.CompareTo(y.Hull));
         var results = new EntryStability[entries.Count];
         var failures = new System.Collections.Concurrent.ConcurrentBag<Exception>();
-        var work = owners
-            .Select(m => (Mask: m, Members: membersOf[m]))
-            .OrderByDescending(w => w.Members.Sum(s => rowsBySystem[s].Count))
-            .ToArray();
         Parallel.ForEach(
             work,
             new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
@@ -78,17 +112,24 @@ public static class DatasetStability
             {
                 try
                 {
-                    var inputs = item.Members
-                        .SelectMany(s => rowsBySystem[s])
-                        .Select(row => (entries[row], row, formation.FormationEnergiesEvPerAtom[row]))
-                        .ToArray();
-                    var hull = new SystemHull(
-                        new ComponentSpace.OverElements(ElementsOf(item.Mask, elements)), inputs, formation.References);
-                    foreach ((int point, int row) in hull.EntryPoints())
+                    UInt128 mask = maximal[item.Hull].Mask;
+                    var hullPoints = new HullPoint[item.Points];
+                    int count = 0;
+                    foreach (int member in members[item.Hull])
                     {
-                        if (ownerOf[SystemMask(entries[row], bitOf)] == item.Mask)
+                        HullPoint[] memberPoints = datasetPoints.Of(member, mask);
+                        memberPoints.CopyTo(hullPoints, count);
+                        count += memberPoints.Length;
+                    }
+
+                    var space = new ComponentSpace.OverElements(ElementsOf(mask, elements));
+                    var hull = new SystemHull(space, hullPoints, formation.References);
+                    for (int i = 0; i < hull.PointCount; i++)
+                    {
+                        int row = hull.RowOfPoint(i);
+                        if (row >= 0 && reportingHull[systemOfRow[row]] == item.Hull)
                         {
-                            results[row] = hull.ComputeEntry(point);
+                            results[row] = hull.ComputeEntry(i);
                         }
                     }
                 }
@@ -108,33 +149,39 @@ public static class DatasetStability
             ExceptionDispatchInfo.Capture(first).Throw();
         }
 
-        return new DatasetStabilityResult(
-            results, maximal.Select(NameOf).Order(StringComparer.Ordinal).ToArray(), formation.References);
+        string[] hullSystems = maximal.Select(m => m.Name).ToArray();
+        Array.Sort(hullSystems, StringComparer.Ordinal);
+        return new DatasetStabilityResult(results, hullSystems, formation.References);
     }
 
     /// <summary>Widest system whose subsets are enumerated; a wider one is compared with every present system.</summary>
     private const int MaxEnumeratedElements = 16;
 
-    /// <summary>The present systems contained in a system (itself included).</summary>
-    private static IEnumerable<UInt128> PresentSubsets(
-        UInt128 system, IEnumerable<UInt128> present, Dictionary<UInt128, List<int>> rowsBySystem)
+    /// <summary>Fills <paramref name="found"/> with the present systems contained in a system (itself included).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private static void PresentSubsets(
+        UInt128 system, List<UInt128> present, Dictionary<UInt128, int> indexOf, List<int> found)
     {
+        found.Clear();
         int count = (int)UInt128.PopCount(system);
         if (count > MaxEnumeratedElements)
         {
-            foreach (UInt128 candidate in present)
+            for (int s = 0; s < present.Count; s++)
             {
-                if ((candidate & system) == candidate) yield return candidate;
+                if ((present[s] & system) == present[s]) found.Add(s);
             }
-            yield break;
+
+            return;
         }
-        var bits = new UInt128[count];
+
+        Span<UInt128> bits = stackalloc UInt128[count];
         int j = 0;
-        for (int b = 0; b < 128 && j < count; b++)
+        for (int b = 0; j < count; b++)
         {
             UInt128 bit = UInt128.One << b;
             if ((system & bit) != UInt128.Zero) bits[j++] = bit;
         }
+
         for (int pick = 1; pick < 1 << count; pick++)
         {
             UInt128 subset = UInt128.Zero;
@@ -142,16 +189,18 @@ public static class DatasetStability
             {
                 if ((pick & (1 << i)) != 0) subset |= bits[i];
             }
-            if (rowsBySystem.ContainsKey(subset)) yield return subset;
+
+            if (indexOf.TryGetValue(subset, out int s)) found.Add(s);
         }
     }
 
     private static UInt128 SystemMask(PhaseEntry entry, Dictionary<string, int> bitOf)
     {
         UInt128 mask = UInt128.Zero;
-        foreach (string element in entry.Composition.Elements)
+        IReadOnlyList<string> symbols = entry.Composition.Elements;
+        for (int e = 0; e < symbols.Count; e++)
         {
-            mask |= UInt128.One << bitOf[element];
+            mask |= UInt128.One << bitOf[symbols[e]];
         }
 
         return mask;
@@ -159,15 +208,15 @@ public static class DatasetStability
 
     private static string[] ElementsOf(UInt128 mask, string[] elements)
     {
-        var list = new List<string>();
-        for (int b = 0; b < elements.Length; b++)
+        var symbols = new string[(int)UInt128.PopCount(mask)];
+        for (int b = 0, next = 0; next < symbols.Length; b++)
         {
             if ((mask & (UInt128.One << b)) != UInt128.Zero)
             {
-                list.Add(elements[b]);
+                symbols[next++] = elements[b];
             }
         }
 
-        return list.ToArray();
+        return symbols;
     }
 }

@@ -3,14 +3,25 @@ using System.Numerics;
 namespace Hull.Core.Thermo;
 
 /// <summary>A point handed to the hull engine, with the exact coordinates it was built from.</summary>
+/// <remarks>
+/// Only the integer amounts are needed to build a hull; the exact atoms and the atom fractions are needed only for
+/// the entries a hull reports, so a point made from prepared coordinates derives them on first use.
+/// </remarks>
 internal sealed class HullPoint
 {
+    private BigFraction[]? _componentAtoms;
+    private double[]? _fractions;
+    private readonly PreparedCoordinates? _prepared;
+    private readonly int[]? _columns;
+
+    /// <summary>A point from its exact component atoms (any component space).</summary>
     public HullPoint(HullPhase phase, PhaseEntry? entry, int rowIndex, BigFraction[] componentAtoms)
     {
         Phase = phase;
         Entry = entry;
         RowIndex = rowIndex;
-        ComponentAtoms = componentAtoms;
+        SortRank = -1;
+        _componentAtoms = componentAtoms;
         BigFraction total = BigFraction.Zero;
         foreach (BigFraction a in componentAtoms)
         {
@@ -19,9 +30,30 @@ internal sealed class HullPoint
 
         AtomsPerFormulaUnit = total;
         Amounts = ScaleToIntegers(componentAtoms, phase.Id, rowIndex);
-        Fractions = componentAtoms.Select(a => (a / total).ToDouble()).ToArray();
-        CompositionKey = string.Join(",", Amounts);
-        IsPureComponent = Amounts.Count(a => a != 0) == 1;
+        PureComponent = PureComponentOf(Amounts);
+    }
+
+    /// <summary>
+    /// A point over elements from coordinates prepared once for its entry: <paramref name="columns"/>[e] is the hull
+    /// column of the entry's element e. <paramref name="sortRank"/> orders the points of one dataset by id.
+    /// </summary>
+    public HullPoint(HullPhase phase, PhaseEntry entry, int rowIndex, PreparedCoordinates prepared, int[] columns, int componentCount, int sortRank)
+    {
+        Phase = phase;
+        Entry = entry;
+        RowIndex = rowIndex;
+        SortRank = sortRank;
+        _prepared = prepared;
+        _columns = columns;
+        AtomsPerFormulaUnit = prepared.AtomsPerFormulaUnit;
+        var amounts = new long[componentCount];
+        for (int e = 0; e < columns.Length; e++)
+        {
+            amounts[columns[e]] = prepared.Amounts[e];
+        }
+
+        Amounts = amounts;
+        PureComponent = columns.Length == 1 ? columns[0] : -1;
     }
 
     public HullPhase Phase { get; }
@@ -32,8 +64,11 @@ internal sealed class HullPoint
     /// <summary>Row of the entry in the analysed list (-1 for a synthetic reference).</summary>
     public int RowIndex { get; }
 
+    /// <summary>Rank of the id among the ids of one dataset (ordinal order), or -1 when not known.</summary>
+    public int SortRank { get; }
+
     /// <summary>Atoms contributed by each component to one formula unit as written (exact).</summary>
-    public BigFraction[] ComponentAtoms { get; }
+    public BigFraction[] ComponentAtoms => _componentAtoms ??= Expand(_prepared!.Atoms, BigFraction.Zero);
 
     public BigFraction AtomsPerFormulaUnit { get; }
 
@@ -41,15 +76,30 @@ internal sealed class HullPoint
     public long[] Amounts { get; }
 
     /// <summary>Atom fractions of the components.</summary>
-    public double[] Fractions { get; }
+    public double[] Fractions => _fractions ??= _prepared is null ? FractionsOf(ComponentAtoms, AtomsPerFormulaUnit) : Expand(_prepared.Fractions, 0.0);
 
-    /// <summary>Equal for points of the same reduced composition.</summary>
-    public string CompositionKey { get; }
+    /// <summary>The only component with a nonzero amount, or -1 when there are several.</summary>
+    public int PureComponent { get; }
 
     /// <summary>True when the point is made of one component alone.</summary>
-    public bool IsPureComponent { get; }
+    public bool IsPureComponent => PureComponent >= 0;
 
     public double FormationEnergyEvPerAtom => Phase.FormationEnergyEvPerAtom;
+
+    /// <summary>True when both points have the same reduced composition (equal coprime amounts).</summary>
+    public bool HasSameCompositionAs(HullPoint other) => Amounts.AsSpan().SequenceEqual(other.Amounts);
+
+    /// <summary>Atom fractions a / total of exact amounts, each rounded once to the nearest double.</summary>
+    internal static double[] FractionsOf(BigFraction[] atoms, BigFraction total)
+    {
+        var fractions = new double[atoms.Length];
+        for (int k = 0; k < atoms.Length; k++)
+        {
+            fractions[k] = (atoms[k] / total).ToDouble();
+        }
+
+        return fractions;
+    }
 
     /// <summary>Exact positive amounts scaled by the LCM of their denominators, then divided by their GCD.</summary>
     internal static long[] ScaleToIntegers(BigFraction[] amounts, string id, int rowIndex)
@@ -60,11 +110,12 @@ internal sealed class HullPoint
             lcm = lcm / BigInteger.GreatestCommonDivisor(lcm, a.Denominator) * a.Denominator;
         }
 
-        var scaled = amounts.Select(a => a.Numerator * (lcm / a.Denominator)).ToArray();
+        var scaled = new BigInteger[amounts.Length];
         BigInteger gcd = BigInteger.Zero;
-        foreach (BigInteger s in scaled)
+        for (int k = 0; k < amounts.Length; k++)
         {
-            gcd = BigInteger.GreatestCommonDivisor(gcd, s);
+            scaled[k] = amounts[k].Numerator * (lcm / amounts[k].Denominator);
+            gcd = BigInteger.GreatestCommonDivisor(gcd, scaled[k]);
         }
 
         var result = new long[scaled.Length];
@@ -84,5 +135,36 @@ internal sealed class HullPoint
         }
 
         return result;
+    }
+
+    private static int PureComponentOf(long[] amounts)
+    {
+        int pure = -1;
+        for (int k = 0; k < amounts.Length; k++)
+        {
+            if (amounts[k] != 0)
+            {
+                if (pure >= 0)
+                {
+                    return -1;
+                }
+
+                pure = k;
+            }
+        }
+
+        return pure;
+    }
+
+    private T[] Expand<T>(T[] own, T zero)
+    {
+        var values = new T[Amounts.Length];
+        Array.Fill(values, zero);
+        for (int e = 0; e < _columns!.Length; e++)
+        {
+            values[_columns[e]] = own[e];
+        }
+
+        return values;
     }
 }

@@ -21,7 +21,7 @@ public sealed class SystemHull
     private readonly ComponentSpace _space;
     private readonly HullPoint[] _points;
     private readonly LowerHull _hull;
-    private readonly HashSet<int> _vertexSet;
+    private readonly bool[] _isVertex;
     private readonly double[]? _endMemberCornerEvPerAtom;
     private readonly Lazy<IReadOnlyList<EntryStability>> _entries;
     private readonly Lazy<Dictionary<string, EntryStability>> _entryById;
@@ -30,10 +30,12 @@ public sealed class SystemHull
 
     // Filled on demand by the single thread that computes entries (under _entries, or a dataset worker).
     private HullPosition?[]? _positions;
-    private List<int>[]? _facetsOfVertex;
-    private List<int>[]? _pointsInFacet;
+    private int[]? _starStart;        // facets around vertex v: _starFacets[_starStart[v] .. _starStart[v + 1])
+    private int[]? _starFacets;
+    private int[]? _facetPointStart;  // non-vertex points located in facet f, likewise
+    private int[]? _facetPoints;
     private int[]? _pureCorners;
-    private readonly Dictionary<string, double> _decompositionEnergyByKey = new(StringComparer.Ordinal);
+    private Dictionary<long[], double>? _decompositionEnergyByComposition;
 
     /// <summary>The hull of entries over elements (the union of the entries' elements unless given).</summary>
     /// <param name="entries">Entries whose elements lie in the system; ids unique.</param>
@@ -96,34 +98,37 @@ public sealed class SystemHull
         ComponentSpace space,
         IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs,
         IReadOnlyList<ElementReference> references)
+        : this(space, MapInputs(space, inputs), references)
+    {
+    }
+
+    /// <summary>
+    /// Builds the hull from the points of its entries, in any order; synthetic corners are added here. The hull
+    /// takes the array over (it is sorted in place).
+    /// </summary>
+    internal SystemHull(ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references)
     {
         _space = space;
         References = references;
-        var points = new List<HullPoint>(inputs.Count + space.Names.Count);
-        foreach ((PhaseEntry entry, int row, double formation) in inputs)
-        {
-            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
-            {
-                throw new ThermoInputException(
-                    $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
-            }
-
-            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
-            points.Add(new HullPoint(phase, entry, row, atoms));
-        }
-
-        AddCornerPoints(space, points);
 
         // Canonical order (by id; a synthetic reference after an entry of the same id) makes every tie-break of the
-        // engine, and so every result, independent of the input order.
-        _points = points
-            .OrderBy(p => p.Phase.Id, StringComparer.Ordinal)
-            .ThenBy(p => p.Phase.IsSynthetic)
-            .ToArray();
-        _hull = LowerHull.Build(
-            _points.Select(p => p.Amounts).ToArray(),
-            _points.Select(p => p.FormationEnergyEvPerAtom).ToArray());
-        _vertexSet = [.. _hull.VertexPoints];
+        // engine, and so every result, independent of the input order. Ids are unique, so the order is total.
+        _points = WithCornerPoints(space, points);
+        Array.Sort(_points, CanonicalOrder);
+        var amounts = new long[_points.Length][];
+        var energies = new double[_points.Length];
+        for (int i = 0; i < _points.Length; i++)
+        {
+            amounts[i] = _points[i].Amounts;
+            energies[i] = _points[i].FormationEnergyEvPerAtom;
+        }
+
+        _hull = LowerHull.Build(amounts, energies);
+        _isVertex = new bool[_points.Length];
+        foreach (int v in _hull.VertexPoints)
+        {
+            _isVertex[v] = true;
+        }
 
         if (space is ComponentSpace.OverEndMembers)
         {
@@ -132,7 +137,7 @@ public sealed class SystemHull
             {
                 if (_points[v].IsPureComponent)
                 {
-                    _endMemberCornerEvPerAtom[Array.FindIndex(_points[v].Amounts, a => a != 0)] = _points[v].FormationEnergyEvPerAtom;
+                    _endMemberCornerEvPerAtom[_points[v].PureComponent] = _points[v].FormationEnergyEvPerAtom;
                 }
             }
         }
@@ -147,8 +152,52 @@ public sealed class SystemHull
             () => _entries.Value.ToDictionary(e => e.Id, StringComparer.Ordinal));
         _facets = new Lazy<IReadOnlyList<PhaseFacet>>(BuildFacets);
         _tieLines = new Lazy<IReadOnlyList<TieLine>>(BuildTieLines);
-        StablePhases = _hull.VertexPoints.Select(v => _points[v].Phase).ToArray();
+        var stable = new HullPhase[_hull.VertexPoints.Count];
+        for (int k = 0; k < stable.Length; k++)
+        {
+            stable[k] = _points[_hull.VertexPoints[k]].Phase;
+        }
+
+        StablePhases = stable;
     }
+
+    private static HullPoint[] MapInputs(
+        ComponentSpace space, IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs)
+    {
+        var points = new HullPoint[inputs.Count];
+        for (int k = 0; k < points.Length; k++)
+        {
+            (PhaseEntry entry, int row, double formation) = inputs[k];
+            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
+            {
+                throw new ThermoInputException(
+                    $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
+            }
+
+            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
+            points[k] = new HullPoint(phase, entry, row, atoms);
+        }
+
+        return points;
+    }
+
+    /// <summary>By id (ordinal; by rank where both points carry one), then a synthetic reference after an entry.</summary>
+    private static int CanonicalOrder(HullPoint a, HullPoint b)
+    {
+        if (a.SortRank >= 0 && b.SortRank >= 0)
+        {
+            return a.SortRank.CompareTo(b.SortRank);
+        }
+
+        int byId = string.CompareOrdinal(a.Phase.Id, b.Phase.Id);
+        return byId != 0 ? byId : a.Phase.IsSynthetic.CompareTo(b.Phase.IsSynthetic);
+    }
+
+    /// <summary>Number of points (entries and synthetic references) in canonical order.</summary>
+    internal int PointCount => _points.Length;
+
+    /// <summary>Row of the entry at canonical index <paramref name="i"/> (-1 for a synthetic reference).</summary>
+    internal int RowOfPoint(int i) => _points[i].RowIndex;
 
     /// <summary>The components (element symbols, or end-member formulas) in hull order.</summary>
     public IReadOnlyList<string> Components => _space.Names;
@@ -218,8 +267,8 @@ public sealed class SystemHull
         HullPoint point = _points[i];
         PhaseEntry entry = point.Entry ?? throw new InvalidOperationException("A synthetic reference has no stability record.");
         HullPosition position = PositionOf(i);
-        double above = _hull.EnergyAboveHull(i);
-        if (above <= HullTolerances.EnergyEvPerAtom)
+        double above = point.FormationEnergyEvPerAtom - position.HullEnergyEvPerAtom;
+        if (!(above > HullTolerances.EnergyEvPerAtom))
         {
             above = 0.0;
         }
@@ -245,14 +294,10 @@ public sealed class SystemHull
             fromEndMembers,
             point.Fractions,
             above,
-            _vertexSet.Contains(i),
+            _isVertex[i],
             BuildDecomposition(entry.Composition, point.ComponentAtoms, position),
             decompositionEnergy);
     }
-
-    /// <summary>Canonical indices of the points that are entries, for callers that report only some of them.</summary>
-    internal IEnumerable<(int PointIndex, int RowIndex)> EntryPoints() =>
-        Enumerable.Range(0, _points.Length).Where(i => _points[i].Entry is not null).Select(i => (i, _points[i].RowIndex));
 
     /// <summary>
     /// Decomposition energy computed the slow way, by rebuilding the whole hull without the entry's reduced
@@ -268,7 +313,7 @@ public sealed class SystemHull
         }
 
         int[] others = Enumerable.Range(0, _points.Length)
-            .Where(j => !string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+            .Where(j => !_points[j].HasSameCompositionAs(point))
             .ToArray();
         double hullWithout = HullEnergyOfSubset(others, point.Fractions);
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
@@ -277,7 +322,8 @@ public sealed class SystemHull
     private double DecompositionEnergy(int i)
     {
         HullPoint point = _points[i];
-        if (_decompositionEnergyByKey.TryGetValue(point.CompositionKey, out double known))
+        _decompositionEnergyByComposition ??= new Dictionary<long[], double>(AmountsComparer.Instance);
+        if (_decompositionEnergyByComposition.TryGetValue(point.Amounts, out double known))
         {
             return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - known);
         }
@@ -288,8 +334,17 @@ public sealed class SystemHull
         // So the hull energy at x_v without v needs only the star's other corners, the points located in the star,
         // and (to anchor the engine, which needs a pure point per component) the pure corners; adding any of the
         // remaining points could not lower it. This keeps the rebuild local instead of rebuilding the whole hull.
-        int vertex = _hull.VertexPoints.FirstOrDefault(
-            v => string.Equals(_points[v].CompositionKey, point.CompositionKey, StringComparison.Ordinal), -1);
+        int vertex = -1;
+        IReadOnlyList<int> vertices = _hull.VertexPoints;
+        for (int k = 0; k < vertices.Count; k++)
+        {
+            if (_points[vertices[k]].HasSameCompositionAs(point))
+            {
+                vertex = vertices[k];
+                break;
+            }
+        }
+
         double hullWithout;
         if (vertex < 0)
         {
@@ -299,30 +354,58 @@ public sealed class SystemHull
         else
         {
             IndexStars();
-            var subset = new SortedSet<int>(_pureCorners!);
-            foreach (int facet in _facetsOfVertex![vertex])
+            var inSubset = new bool[_points.Length];
+            int count = 0;
+            void Include(int j)
             {
-                foreach (int corner in _hull.Facets[facet].VertexPoints)
+                if (!inSubset[j])
                 {
-                    if (corner != vertex)
+                    inSubset[j] = true;
+                    count++;
+                }
+            }
+
+            foreach (int corner in _pureCorners!)
+            {
+                Include(corner);
+            }
+
+            for (int s = _starStart![vertex]; s < _starStart[vertex + 1]; s++)
+            {
+                int facet = _starFacets![s];
+                IReadOnlyList<int> corners = _hull.Facets[facet].VertexPoints;
+                for (int c = 0; c < corners.Count; c++)
+                {
+                    if (corners[c] != vertex)
                     {
-                        subset.Add(corner);
+                        Include(corners[c]);
                     }
                 }
 
-                foreach (int j in _pointsInFacet![facet])
+                for (int p = _facetPointStart![facet]; p < _facetPointStart[facet + 1]; p++)
                 {
-                    if (!string.Equals(_points[j].CompositionKey, point.CompositionKey, StringComparison.Ordinal))
+                    int j = _facetPoints![p];
+                    if (!_points[j].HasSameCompositionAs(point))
                     {
-                        subset.Add(j);
+                        Include(j);
                     }
                 }
             }
 
-            hullWithout = HullEnergyOfSubset(subset.ToArray(), point.Fractions);
+            // Ascending point order, as the engine's tie-breaks depend on it.
+            var subset = new int[count];
+            for (int j = 0, next = 0; j < inSubset.Length; j++)
+            {
+                if (inSubset[j])
+                {
+                    subset[next++] = j;
+                }
+            }
+
+            hullWithout = HullEnergyOfSubset(subset, point.Fractions);
         }
 
-        _decompositionEnergyByKey[point.CompositionKey] = hullWithout;
+        _decompositionEnergyByComposition[point.Amounts] = hullWithout;
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
     }
 
@@ -333,42 +416,94 @@ public sealed class SystemHull
 
     private double HullEnergyOfSubset(int[] subset, double[] fractions)
     {
-        LowerHull reduced = LowerHull.Build(
-            subset.Select(j => _points[j].Amounts).ToArray(),
-            subset.Select(j => _points[j].FormationEnergyEvPerAtom).ToArray());
-        return reduced.Locate(fractions).HullEnergyEvPerAtom;
+        var amounts = new long[subset.Length][];
+        var energies = new double[subset.Length];
+        for (int k = 0; k < subset.Length; k++)
+        {
+            amounts[k] = _points[subset[k]].Amounts;
+            energies[k] = _points[subset[k]].FormationEnergyEvPerAtom;
+        }
+
+        return LowerHull.Build(amounts, energies).Locate(fractions).HullEnergyEvPerAtom;
     }
 
     /// <summary>Indexes, once, the facets around each vertex and the non-vertex points located in each facet.</summary>
     private void IndexStars()
     {
-        if (_facetsOfVertex is not null)
+        if (_starStart is not null)
         {
             return;
         }
 
-        var facetsOfVertex = new List<int>[_points.Length];
-        var pointsInFacet = new List<int>[_hull.Facets.Count];
-        for (int f = 0; f < _hull.Facets.Count; f++)
+        IReadOnlyList<HullFacet> facets = _hull.Facets;
+        var starStart = new int[_points.Length + 1];
+        for (int f = 0; f < facets.Count; f++)
         {
-            pointsInFacet[f] = [];
-            foreach (int v in _hull.Facets[f].VertexPoints)
+            IReadOnlyList<int> corners = facets[f].VertexPoints;
+            for (int c = 0; c < corners.Count; c++)
             {
-                (facetsOfVertex[v] ??= []).Add(f);
+                starStart[corners[c] + 1]++;
             }
         }
 
+        var facetOfPoint = new int[_points.Length];
+        var facetPointStart = new int[facets.Count + 1];
         for (int j = 0; j < _points.Length; j++)
         {
-            if (!_vertexSet.Contains(j))
+            if (!_isVertex[j])
             {
-                pointsInFacet[PositionOf(j).FacetIndex].Add(j);
+                facetOfPoint[j] = PositionOf(j).FacetIndex;
+                facetPointStart[facetOfPoint[j] + 1]++;
             }
         }
 
-        _pureCorners = _hull.VertexPoints.Where(v => _points[v].IsPureComponent).ToArray();
-        _pointsInFacet = pointsInFacet;
-        _facetsOfVertex = facetsOfVertex;
+        for (int v = 0; v < _points.Length; v++)
+        {
+            starStart[v + 1] += starStart[v];
+        }
+
+        for (int f = 0; f < facets.Count; f++)
+        {
+            facetPointStart[f + 1] += facetPointStart[f];
+        }
+
+        // Fill in ascending facet and point order.
+        var starFacets = new int[starStart[_points.Length]];
+        var nextStar = (int[])starStart.Clone();
+        for (int f = 0; f < facets.Count; f++)
+        {
+            IReadOnlyList<int> corners = facets[f].VertexPoints;
+            for (int c = 0; c < corners.Count; c++)
+            {
+                starFacets[nextStar[corners[c]]++] = f;
+            }
+        }
+
+        var facetPoints = new int[facetPointStart[facets.Count]];
+        var nextPoint = (int[])facetPointStart.Clone();
+        for (int j = 0; j < _points.Length; j++)
+        {
+            if (!_isVertex[j])
+            {
+                facetPoints[nextPoint[facetOfPoint[j]]++] = j;
+            }
+        }
+
+        var pureCorners = new List<int>();
+        IReadOnlyList<int> vertices = _hull.VertexPoints;
+        for (int k = 0; k < vertices.Count; k++)
+        {
+            if (_points[vertices[k]].IsPureComponent)
+            {
+                pureCorners.Add(vertices[k]);
+            }
+        }
+
+        _pureCorners = pureCorners.ToArray();
+        _starFacets = starFacets;
+        _facetPointStart = facetPointStart;
+        _facetPoints = facetPoints;
+        _starStart = starStart;
     }
 
     private HullPosition PositionOf(int i)
@@ -396,7 +531,7 @@ public sealed class SystemHull
             total += a;
         }
 
-        return atoms.Select(a => (a / total).ToDouble()).ToArray();
+        return HullPoint.FractionsOf(atoms, total);
     }
 
     /// <summary>
@@ -416,11 +551,21 @@ public sealed class SystemHull
         var products = new List<(int Point, double AtomFraction, double FormulaUnits, Rational? Exact)>(vertices.Count);
 
         // Phases containing a component the target lacks can only carry weight 0 exactly.
-        int[] candidates = vertices.Where(v => WithinSupport(_points[v].ComponentAtoms, targetAtoms)).ToArray();
-        BigFraction[]? exact = ExactLinearAlgebra.Solve(candidates.Select(v => _points[v].ComponentAtoms).ToArray(), targetAtoms);
-        if (exact is not null && exact.All(c => c.Sign >= 0))
+        var candidates = new List<int>(vertices.Count);
+        var columns = new List<BigFraction[]>(vertices.Count);
+        for (int k = 0; k < vertices.Count; k++)
         {
-            for (int k = 0; k < candidates.Length; k++)
+            if (WithinSupport(_points[vertices[k]].ComponentAtoms, targetAtoms))
+            {
+                candidates.Add(vertices[k]);
+                columns.Add(_points[vertices[k]].ComponentAtoms);
+            }
+        }
+
+        BigFraction[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
+        if (exact is not null && Array.TrueForAll(exact, c => c.Sign >= 0))
+        {
+            for (int k = 0; k < candidates.Count; k++)
             {
                 if (exact[k].IsZero)
                 {
@@ -444,10 +589,15 @@ public sealed class SystemHull
             }
         }
 
-        DecompositionProduct[] ordered = products
-            .OrderBy(p => p.Point)
-            .Select(p => new DecompositionProduct(_points[p.Point].Phase, p.AtomFraction, p.FormulaUnits, p.Exact))
-            .ToArray();
+        // By point index, which follows the id order (each point appears once).
+        products.Sort((a, b) => a.Point.CompareTo(b.Point));
+        var ordered = new DecompositionProduct[products.Count];
+        for (int k = 0; k < ordered.Length; k++)
+        {
+            (int p, double atomFraction, double formulaUnits, Rational? coefficient) = products[k];
+            ordered[k] = new DecompositionProduct(_points[p].Phase, atomFraction, formulaUnits, coefficient);
+        }
+
         return new Decomposition(composition, position.HullEnergyEvPerAtom, ordered);
     }
 
@@ -464,11 +614,30 @@ public sealed class SystemHull
         return true;
     }
 
-    private static void AddCornerPoints(ComponentSpace space, List<HullPoint> points)
+    /// <summary>The points, followed by a synthetic reference for each element without a pure entry.</summary>
+    private static HullPoint[] WithCornerPoints(ComponentSpace space, HullPoint[] points)
     {
+        var hasPure = new bool[space.Names.Count];
+        foreach (HullPoint point in points)
+        {
+            if (point.IsPureComponent)
+            {
+                hasPure[point.PureComponent] = true;
+            }
+        }
+
+        int missing = hasPure.Count(has => !has);
+        if (missing == 0)
+        {
+            return points;
+        }
+
+        var all = new HullPoint[points.Length + missing];
+        points.CopyTo(all, 0);
+        int next = points.Length;
         for (int k = 0; k < space.Names.Count; k++)
         {
-            if (points.Any(p => p.IsPureComponent && p.Amounts[k] != 0))
+            if (hasPure[k])
             {
                 continue;
             }
@@ -484,8 +653,10 @@ public sealed class SystemHull
             Composition single = Composition.Parse(name);
             var atoms = new BigFraction[space.Names.Count];
             atoms[k] = BigFraction.One;
-            points.Add(new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0), null, -1, atoms));
+            all[next++] = new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0), null, -1, atoms);
         }
+
+        return all;
     }
 
     private IReadOnlyList<PhaseFacet> BuildFacets() =>

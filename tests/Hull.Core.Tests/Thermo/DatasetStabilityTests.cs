@@ -89,6 +89,63 @@ public sealed class DatasetStabilityTests
         Assert.Equal(entries.Length - 1, e.RowIndex);
     }
 
+    [Fact]
+    public void Fractional_amounts_and_a_subsystem_shared_by_several_hulls_match_own_system_hulls()
+    {
+        // Li–O sits in three ternary hulls, twice in the same columns (Li first, O last); compositions are written
+        // with fractional site amounts. Invented energies.
+        PhaseEntry[] entries =
+        [
+            Formation("Li", "Li", 0.0),
+            Formation("Co", "Co", 0.0),
+            Formation("Ni", "Ni", 0.0),
+            Formation("Mn", "Mn", 0.0),
+            Formation("O", "O", 0.0),
+            Formation("Li2O", "Li2O", -2.07),
+            Formation("Li2O2", "Li2O2", -1.64),
+            Formation("Li0.5O", "Li0.5O", -0.90),
+            Formation("CoO", "CoO", -1.24),
+            Formation("Co3O4", "Co3O4", -1.30),
+            Formation("LiCoO2", "LiCoO2", -1.80),
+            Formation("Li0.5CoO2", "Li0.5CoO2", -1.60),
+            Formation("NiO", "NiO", -1.20),
+            Formation("LiNiO2", "LiNiO2", -1.60),
+            Formation("Li0.75NiO2", "Li0.75NiO2", -1.55),
+            Formation("MnO", "MnO", -2.00),
+            Formation("Mn3O4", "Mn3O4", -2.10),
+            Formation("LiMn2O4", "LiMn2O4", -2.05),
+            Formation("Li0.5Mn2O4", "Li0.5Mn2O4", -1.90),
+        ];
+
+        DatasetStabilityResult result = DatasetStability.Analyze(entries);
+
+        Assert.Equal(["Co-Li-O", "Li-Mn-O", "Li-Ni-O"], result.HullSystems);
+        Assert.Equal("Co-Li-O", result.Entries[5].HullSystem); // Li2O: the first of the smallest hulls by name
+        AssertMatchesOwnSystemHulls(entries, result);
+    }
+
+    [Fact]
+    public void Dataset_entries_needing_amounts_beyond_64_bits_name_the_earliest_row()
+    {
+        // Arithmetic: with p = 2^35 + 1 and q = 2^35 + 3 (odd, two apart, so coprime), Co_{1/p} Fe_{(p-1)/p}
+        // Li_{1/q} O_{(q-1)/q} has two atoms per formula unit, but its whole-number form needs the amounts
+        // q, (p-1)q, p and (q-1)p, beyond 2^63.
+        long p = (1L << 35) + 1, q = (1L << 35) + 3;
+        Composition huge = Composition.FromAmounts(
+            ("Co", new Rational(1, p)), ("Fe", new Rational(p - 1, p)), ("Li", new Rational(1, q)), ("O", new Rational(q - 1, q)));
+        PhaseEntry[] entries =
+        [
+            .. SeveralSystems(),
+            new PhaseEntry("huge-1", huge, -0.5, EnergyBasis.FormationPerAtom),
+            new PhaseEntry("huge-2", huge, -0.6, EnergyBasis.FormationPerAtom),
+        ];
+
+        var e = Assert.Throws<ThermoInputException>(() => DatasetStability.Analyze(entries));
+        Assert.Equal("huge-1", e.EntryId);
+        Assert.Equal(entries.Length - 2, e.RowIndex);
+        Assert.Contains("beyond 64 bits", e.Message);
+    }
+
     /// <summary>Random compositions with small integer amounts over Li-Mn-Fe-P-O subsystems; a few lie below their hulls.</summary>
     internal static PhaseEntry[] RandomDataset(int seed, int count)
     {
