@@ -57,6 +57,9 @@ internal sealed class LowerHullBuilder
     /// <summary>Builds the hull of the candidates (representative points, in canonical order) and returns its lower facets.</summary>
     public List<int[]> Build(int[] pureComponentPoints, IReadOnlyList<int> candidates)
     {
+        // Start near the size small hulls need (a few facets per point and component), so the many small hulls of a
+        // dataset do not grow their storage step by step; large hulls still double as they go.
+        EnsureCapacity(Math.Min(1 << 16, 1 + _n + 2 * _n * candidates.Count));
         int first = NewFacet(pureComponentPoints, wallFace: -1);
         if (first < 0) throw new InvalidOperationException("The pure component points do not span the composition simplex.");
         for (int k = 0; k < _n; k++)
