@@ -15,6 +15,9 @@ public static class MachineInfo
         catch (IOException) { return "unknown"; }
     }
 
+    // An explicit static constructor makes StartLoad be captured at the first use of the class (program start).
+    static MachineInfo() { }
+
     /// <summary>The first three fields of /proc/loadavg.</summary>
     public static string LoadAverage()
     {

@@ -16,6 +16,8 @@ public sealed class HullCaseResult
     /// <summary>"ok", or why qconvex has no time (e.g. "no finish in 120 s", "exit 2").</summary>
     public string QconvexStatus { get; set; } = "not run";
     public int? QconvexFacets { get; set; }
+    /// <summary>The cap (ms) qconvex ran into, NaN if it finished.</summary>
+    public double QconvexCapMs { get; set; } = double.NaN;
     public int Vertices { get; set; }
     public int Facets { get; set; }
     public int OnHull { get; set; }
