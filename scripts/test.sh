@@ -19,7 +19,7 @@ fi
 log=$(mktemp)
 trap 'rm -f "$log"' EXIT
 set +e
-dotnet test Hull.sln --nologo 2>&1 | tee "$log"
+dotnet test Hull.sln -c Release --nologo 2>&1 | tee "$log"
 status=${PIPESTATUS[0]}
 set -e
 

@@ -29,6 +29,7 @@ internal sealed class LowerHullBuilder
     private int[] _vertices = [];
     private int[] _neighbors = [];
     private double[] _mu = [];
+    private byte[] _generation = [];
     private int[] _wallFace = [];
     private bool[] _alive = [];
     private List<int>?[] _outside = [];
@@ -147,6 +148,7 @@ internal sealed class LowerHullBuilder
             Array.Copy(_vertices, f * _n, slotBuffer, 0, _n);
             slotBuffer[slot] = apex;
             int nf = NewFacet(slotBuffer, _wallFace[f], _wallFace[f] < 0 ? _horizonMu.AsSpan(h * _n, _n) : default);
+            _generation[nf] = _wallFace[f] < 0 ? _horizonGeneration[h] : (byte)0;
             int outsideNeighbor = _neighbors[f * _n + slot];
             _neighbors[nf * _n + slot] = outsideNeighbor;
             ReplaceNeighbor(outsideNeighbor, f, nf);
@@ -206,6 +208,20 @@ internal sealed class LowerHullBuilder
 
     private readonly Dictionary<ulong, (int Facet, int Slot)> _ridges = new();
     private double[] _horizonMu = [];
+    private byte[] _horizonGeneration = [];
+
+    /// <summary>
+    /// Plane differences below this (eV/atom) are too close to decide a side from: ten times the energy tolerance,
+    /// far above the rounding of planes kept accurate by refactorising every <see cref="MaxPencilGeneration"/> steps.
+    /// </summary>
+    private const double PencilMarginEv = 10 * HullTolerances.EnergyEvPerAtom;
+
+    /// <summary>
+    /// Interpolated planes inherit their parents' rounding; after this many interpolations in a row a plane is solved
+    /// afresh, and so is one that would need a step beyond <see cref="MaxPencilStep"/> (extrapolation amplifies error).
+    /// </summary>
+    private const int MaxPencilGeneration = 48;
+    private const double MaxPencilStep = 4.0;
 
     /// <summary>Order-free 64-bit hash of a ridge's vertex set (a facet less one slot).</summary>
     private ulong RidgeHash(int facet, int skipSlot)
@@ -319,14 +335,19 @@ internal sealed class LowerHullBuilder
                 {
                     int g = _neighbors[f * _n + i];
                     if (_visitStamp[g] == _stamp) continue;
-                    Array.Copy(_vertices, f * _n, scratch, 0, _n);
-                    scratch[i] = apex;
-                    if (OrientationSign(scratch, _wallFace[f]) > 0)
+                    int decided = _wallFace[f] < 0 ? TryPencil(f, i, g, apex, horizon.Count) : TryWallPencil(f, i, g, apex);
+                    if (decided > 0) { horizon.Add((f, i)); continue; }
+                    if (decided == 0)
                     {
-                        // The orientation test left the factorised vertex matrix in _matrix: reuse it for the plane.
-                        if (_wallFace[f] < 0) SolveFromFactorization(scratch, horizon.Count);
-                        horizon.Add((f, i));
-                        continue;
+                        Array.Copy(_vertices, f * _n, scratch, 0, _n);
+                        scratch[i] = apex;
+                        if (OrientationSign(scratch, _wallFace[f]) > 0)
+                        {
+                            // The orientation test left the factorised vertex matrix in _matrix: reuse it for the plane.
+                            if (_wallFace[f] < 0) SolveFromFactorization(scratch, horizon.Count);
+                            horizon.Add((f, i));
+                            continue;
+                        }
                     }
                     grownFrom = f; grownTo = g;
                     break;
@@ -335,7 +356,7 @@ internal sealed class LowerHullBuilder
             }
             if (grownTo < 0) return;
             // The apex sits on or beyond this ridge in projection, so it lies below the neighbour too (up to rounding).
-            int lower = _wallFace[grownTo] >= 0 ? _neighbors[grownTo * _n + Array.IndexOf(_vertices, Infinity, grownTo * _n, _n) - grownTo * _n] : grownTo;
+            int lower = _wallFace[grownTo] >= 0 ? LowerFacetOfWall(grownTo) : grownTo;
             if (_visitStamp[lower] != _stamp)
             {
                 var queue = new Queue<int>();
@@ -350,9 +371,93 @@ internal sealed class LowerHullBuilder
         }
     }
 
+    /// <summary>
+    /// Decides the facet joining the apex to the ridge r between removed lower facet f (opposite slot) and kept
+    /// facet g without factorising, from the pencil of planes through r. Returns 1 (proper; its plane is stored for
+    /// horizon index h), -1 (improper: the apex is on g's side of r) or 0 (too close to call; factorise instead).
+    /// </summary>
+    /// <remarks>
+    /// Every plane through r is mu_f + t (mu_g - mu_f) (a wall's: mu_f + t e_k). The difference phi = (mu_g - mu_f).x
+    /// vanishes on r, so the apex lies on f's side exactly when phi at the apex and phi at g's far vertex differ in
+    /// sign, and t = depth_f / (depth_f - depth_g) puts the apex on the plane.
+    /// </remarks>
+    private int TryPencil(int f, int slot, int g, int apex, int h)
+    {
+        EnsureHorizonCapacity(h);
+        var mu = _horizonMu.AsSpan(h * _n, _n);
+        var muF = _mu.AsSpan(f * _n, _n);
+        double depthF = Depth(f, apex);
+        int face = _wallFace[g];
+        if (face >= 0)
+        {
+            // The apex is off this wall's face (else the wall would be removed), so the facet is proper.
+            double xk = _fractions[apex * _n + face];
+            muF.CopyTo(mu);
+            mu[face] -= depthF / xk;
+            _horizonGeneration[h] = (byte)(_generation[f] + 1);
+            return _horizonGeneration[h] > MaxPencilGeneration ? 0 : 1;
+        }
+        int far = -1;
+        for (int j = 0; j < _n; j++)
+        {
+            if (_neighbors[g * _n + j] == f) { far = _vertices[g * _n + j]; break; }
+        }
+        double phiApex = Depth(g, apex) - depthF;
+        double phiFar = -Depth(f, far);
+        if (Math.Abs(phiApex) <= PencilMarginEv || Math.Abs(phiFar) <= PencilMarginEv) return 0;
+        if ((phiApex > 0) == (phiFar > 0)) return -1;
+        double t = -depthF / phiApex;
+        // Interpolation (t <= 1) cannot amplify the parents' rounding; extrapolation can, so it counts more.
+        int generation = Math.Max(_generation[f], _generation[g]) + (t <= 1.0 ? 1 : 8);
+        if (t > MaxPencilStep || generation > MaxPencilGeneration) return 0;
+        var muG = _mu.AsSpan(g * _n, _n);
+        for (int k = 0; k < _n; k++) mu[k] = muF[k] + t * (muG[k] - muF[k]);
+        _horizonGeneration[h] = (byte)generation;
+        return 1;
+    }
+
+    /// <summary>
+    /// The same side test for a removed wall w on face k and a kept facet g across one of its ridges, inside face k:
+    /// the lower facets carrying w and g agree on the shared vertices, so their plane difference vanishes on the
+    /// ridge within the face. Returns 1, -1 or 0 as <see cref="TryPencil"/>; walls need no plane.
+    /// </summary>
+    private int TryWallPencil(int w, int slot, int g, int apex)
+    {
+        int face = _wallFace[w];
+        int gFace = _wallFace[g];
+        if (gFace < 0) return 0;
+        if (gFace != face) return _amounts[apex][gFace] > 0 ? 1 : 0;
+        int lowerW = LowerFacetOfWall(w), lowerG = LowerFacetOfWall(g);
+        int far = -1;
+        for (int j = 0; j < _n; j++)
+        {
+            if (_neighbors[g * _n + j] == w) { far = _vertices[g * _n + j]; break; }
+        }
+        if (far < 0) return 0;
+        double phiApex = Depth(lowerG, apex) - Depth(lowerW, apex);
+        double phiFar = Depth(lowerG, far) - Depth(lowerW, far);
+        if (Math.Abs(phiApex) <= PencilMarginEv || Math.Abs(phiFar) <= PencilMarginEv) return 0;
+        return (phiApex > 0) == (phiFar > 0) ? -1 : 1;
+    }
+
+    private int LowerFacetOfWall(int wall)
+    {
+        int infinitySlot = Array.IndexOf(_vertices, Infinity, wall * _n, _n) - wall * _n;
+        return _neighbors[wall * _n + infinitySlot];
+    }
+
+    private void EnsureHorizonCapacity(int h)
+    {
+        if (_horizonMu.Length >= (h + 1) * _n) return;
+        int capacity = Math.Max(64, 2 * (h + 1));
+        Array.Resize(ref _horizonMu, capacity * _n);
+        Array.Resize(ref _horizonGeneration, capacity);
+    }
+
     private void SolveFromFactorization(int[] vertices, int horizonIndex)
     {
-        if (_horizonMu.Length < (horizonIndex + 1) * _n) Array.Resize(ref _horizonMu, Math.Max(64 * _n, _horizonMu.Length * 2));
+        EnsureHorizonCapacity(horizonIndex);
+        _horizonGeneration[horizonIndex] = 0;
         var mu = _horizonMu.AsSpan(horizonIndex * _n, _n);
         if (_lastOrientationWasExact)
         {
@@ -475,6 +580,7 @@ internal sealed class LowerHullBuilder
         Array.Resize(ref _vertices, capacity * _n);
         Array.Resize(ref _neighbors, capacity * _n);
         Array.Resize(ref _mu, capacity * _n);
+        Array.Resize(ref _generation, capacity);
         Array.Resize(ref _wallFace, capacity);
         Array.Resize(ref _alive, capacity);
         Array.Resize(ref _outside, capacity);
