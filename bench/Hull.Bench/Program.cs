@@ -28,6 +28,12 @@ if (args[0] == "write-points")
     return 0;
 }
 
+if (args[0] == "dataset-once")
+{
+    // dataset-once dense|sparse [ENTRIES]: generate and analyse the dataset60 dataset once, for profiling by hand.
+    return Dataset60Suite.RunOnce(Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[1], ignoreCase: true), args.Length > 2 ? int.Parse(args[2]) : Dataset60Suite.Entries);
+}
+
 string suite = args[0];
 BenchOptions options;
 try

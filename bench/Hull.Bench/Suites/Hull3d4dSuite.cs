@@ -13,10 +13,11 @@ public static class Hull3d4dSuite
 
     public static string Run(BenchOptions o, string workDirectory)
     {
-        int inReps = o.Quick ? 1 : o.InProcessReps ?? 7;
-        int procReps = o.Quick ? 1 : o.ProcessReps ?? 5;
+        int inReps = o.Quick ? 1 : o.InProcessReps ?? 11;
+        int procReps = o.Quick ? 1 : o.ProcessReps ?? 7;
         int lp = o.LpSample ?? 10;
         var results = new List<HullCaseResult>();
+        double startupMs = HullCaseRunner.MeasureStartupMs(workDirectory, o.Quick ? 1 : 7);
         int caseNo = 0;
         foreach (int n in new[] { 3, 4 })
         {
@@ -38,6 +39,7 @@ public static class Hull3d4dSuite
             + $"Whole-process times (ours: this program's `solve-file` mode; qconvex: `{References.QconvexReference.CommandLine("IN", "OUT")}`) include start-up and parsing the same points from a text file; medians of {procReps} runs, interleaved ours/qconvex. "
             + $"qconvex computes the full convex hull (upper and lower) of the lifted points (n-1 fractions + energy), single-threaded. "
             + $"LP column: a seeded random sample of {lp} entries per case checked against SciPy HiGHS (each LP spans all 1e5 points).\n\n"
+            + $"Fixed cost of our whole process (start-up, JIT, trivial hull; median of 7 runs on a 3-point file): {startupMs:F0} ms.\n\n"
             + MarkdownReport.HullTable(results)
             + "\nTarget (ours no slower than qconvex's full hull, i.e. ratio ≥ 1):\n"
             + string.Concat(results.Select(r => string.Create(System.Globalization.CultureInfo.InvariantCulture,

@@ -63,7 +63,7 @@ public static class HullCaseRunner
             if (run.TimedOut)
             {
                 oursFinished = false;
-                result.Notes.Add($"ours did not finish within {oursCap.TotalSeconds:F0} s (whole process, peak {run.PeakMegabytes:F0} MB when stopped)");
+                result.Notes.Add($"ours did not finish within {oursCap.TotalSeconds:F0} s (whole process, stopped; its peak memory is not reported when killed)");
             }
             else if (!run.Succeeded)
             {
@@ -190,6 +190,27 @@ public static class HullCaseRunner
         }
         foreach (var f in new[] { oursFile, qhullFile }) File.Delete(f);
         return result;
+    }
+
+    /// <summary>
+    /// The fixed cost of a whole process of ours: median wall time (ms) of <paramref name="reps"/> solve-file runs on
+    /// a 2-component, 3-point file (runtime start-up, JIT of the path, a trivial hull).
+    /// </summary>
+    public static double MeasureStartupMs(string workDirectory, int reps)
+    {
+        string tiny = Path.Combine(workDirectory, "tiny.txt");
+        new PointSet(2, [[1, 0], [0, 1], [1, 1]], [0.0, 0.0, -0.5]).WriteAmountsFile(tiny);
+        var times = new List<double>();
+        for (int r = 0; r < reps; r++)
+        {
+            var run = ExternalRun.Run(OwnExecutable.Path, OwnExecutable.SolveFileArguments(tiny), TimeSpan.FromMinutes(1));
+            if (!run.Succeeded) throw new InvalidOperationException($"start-up run failed (exit {run.ExitCode}): {run.StandardError}");
+            times.Add(run.WallMilliseconds);
+        }
+        File.Delete(tiny);
+        double median = Stats.Median(times);
+        Console.WriteLine($"-- start-up: ours whole process on a 3-point file, median {median:F0} ms over {reps} ({Join(times)})");
+        return median;
     }
 
     /// <summary>All points when the sample covers them (sample &lt; 0 means all); otherwise a seeded uniform sample without replacement, sorted.</summary>
