@@ -27,8 +27,8 @@ public static class MarkdownReport
                 q,
                 Ratio(r.RatioToProcess, r),
                 Ratio(r.RatioToInProcess, r),
-                r.Vertices.ToString(CultureInfo.InvariantCulture),
-                r.Facets.ToString(CultureInfo.InvariantCulture),
+                Finished(r) ? r.Vertices.ToString(CultureInfo.InvariantCulture) : "—",
+                Finished(r) ? r.Facets.ToString(CultureInfo.InvariantCulture) : "—",
                 r.QconvexFacets?.ToString(CultureInfo.InvariantCulture) ?? "—",
                 F(r.PeakInProcessMb),
                 F(r.PeakProcessMb),
@@ -52,6 +52,8 @@ public static class MarkdownReport
         Console.WriteLine(content);
         Console.WriteLine($"(written to bench/results/{suite}.md)");
     }
+
+    private static bool Finished(HullCaseResult r) => r.InProcessReps > 0 || r.ProcessReps > 0;
 
     private static string Ratio(double v, HullCaseResult r) =>
         double.IsFinite(v) ? v.ToString("0.00", CultureInfo.InvariantCulture) + "×" : r.QconvexReps == 0 ? "—" : "n/a";
