@@ -1,1 +1,85 @@
-Console.WriteLine("benchmarks: under construction");
+using Hull.Bench;
+using Hull.Bench.Measure;
+using Hull.Bench.Suites;
+
+// Benchmarks of the hull engine beside outside references. Usage:
+//   dotnet run -c Release --project bench/Hull.Bench -- <hull3d4d|hull6d8d|dataset60> [options]
+//   Hull.Bench solve-file POINTS   (the whole-process mode the suites time)
+if (args.Length == 0)
+{
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|dataset60> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
+    return 2;
+}
+if (args[0] == OwnExecutable.SolveFileMode)
+{
+    if (args.Length != 2) { Console.Error.WriteLine("usage: Hull.Bench solve-file POINTS"); return 2; }
+    return OwnExecutable.SolveFile(args[1]);
+}
+
+if (args[0] == "write-points")
+{
+    // write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse SEED PATH: one generated case, for profiling by hand.
+    if (args.Length != 7) { Console.Error.WriteLine("usage: Hull.Bench write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse SEED PATH"); return 2; }
+    var dist = Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[4], ignoreCase: true);
+    var pts = Hull.Bench.Data.LatticeGenerator.Generate(int.Parse(args[1]), int.Parse(args[2]), int.Parse(args[3]), dist, int.Parse(args[5]));
+    pts.WriteAmountsFile(args[6]);
+    pts.WriteQhullFile(args[6] + ".qhull");
+    return 0;
+}
+
+if (args[0] == "dataset-once")
+{
+    // dataset-once dense|sparse [ENTRIES]: generate and analyse the dataset60 dataset once, for profiling by hand.
+    return Dataset60Suite.RunOnce(Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[1], ignoreCase: true), args.Length > 2 ? int.Parse(args[2]) : Dataset60Suite.Entries);
+}
+
+string suite = args[0];
+BenchOptions options;
+try
+{
+    options = BenchOptions.Parse(suite, args[1..]);
+}
+catch (ArgumentException e)
+{
+    Console.Error.WriteLine(e.Message);
+    return 2;
+}
+
+string repoRoot = FindRepoRoot();
+string work = Path.Combine(Path.GetTempPath(), $"hull-bench-{Environment.ProcessId}");
+Directory.CreateDirectory(work);
+Console.WriteLine($"machine: {MachineInfo.Describe()}");
+Console.WriteLine($"suite {suite}{(options.Quick ? " (QUICK smoke run: entries / 10, one repetition; not a result)" : "")}");
+var total = System.Diagnostics.Stopwatch.StartNew();
+try
+{
+    string report = suite switch
+    {
+        Hull3d4dSuite.Name => Hull3d4dSuite.Run(options, work),
+        Hull6d8dSuite.Name => Hull6d8dSuite.Run(options, work),
+        Dataset60Suite.Name => Dataset60Suite.Run(options, work),
+        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, dataset60)"),
+    };
+    report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";
+    MarkdownReport.Write(repoRoot, options.Quick ? suite + "-quick" : suite, report);
+    return 0;
+}
+catch (ArgumentException e)
+{
+    Console.Error.WriteLine(e.Message);
+    return 2;
+}
+finally
+{
+    Directory.Delete(work, recursive: true);
+}
+
+static string FindRepoRoot()
+{
+    for (var d = new DirectoryInfo(Directory.GetCurrentDirectory()); d is not null; d = d.Parent)
+    {
+        if (File.Exists(Path.Combine(d.FullName, "Hull.sln"))) return d.FullName;
+    }
+    throw new InvalidOperationException("run from inside the repository (Hull.sln not found above the current directory)");
+}

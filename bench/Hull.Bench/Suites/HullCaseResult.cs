@@ -1,0 +1,34 @@
+namespace Hull.Bench.Suites;
+
+/// <summary>Everything measured for one hull case; NaN / null where a measurement was not taken.</summary>
+public sealed class HullCaseResult
+{
+    public required string Name { get; init; }
+    public required int Entries { get; init; }
+    public required int Components { get; init; }
+    public required int DistinctCompositions { get; init; }
+    public double InProcessMedianMs { get; set; } = double.NaN;
+    public int InProcessReps { get; set; }
+    public double ProcessMedianMs { get; set; } = double.NaN;
+    public int ProcessReps { get; set; }
+    public double QconvexMedianMs { get; set; } = double.NaN;
+    public int QconvexReps { get; set; }
+    /// <summary>"ok", or why qconvex has no time (e.g. "no finish in 120 s", "exit 2").</summary>
+    public string QconvexStatus { get; set; } = "not run";
+    public int? QconvexFacets { get; set; }
+    /// <summary>The cap (ms) qconvex ran into, NaN if it finished.</summary>
+    public double QconvexCapMs { get; set; } = double.NaN;
+    public int Vertices { get; set; }
+    public int Facets { get; set; }
+    public int OnHull { get; set; }
+    public double PeakInProcessMb { get; set; } = double.NaN;
+    public double PeakProcessMb { get; set; } = double.NaN;
+    public double PeakQconvexMb { get; set; } = double.NaN;
+    public double LpMaxAbsDiff { get; set; } = double.NaN;
+    public int LpChecked { get; set; }
+    public double LpSeconds { get; set; } = double.NaN;
+    public List<string> Notes { get; } = [];
+
+    public double RatioToProcess => QconvexMedianMs / ProcessMedianMs;
+    public double RatioToInProcess => QconvexMedianMs / InProcessMedianMs;
+}
