@@ -35,7 +35,10 @@ read -r passed failed skipped < <(awk '
   }
   END { printf "%d %d %d\n", p, f, s }' "$log")
 
+# Problems first, so that the count line is always the last line printed.
+rc=$status
+if [ "$passed" -eq 0 ]; then echo "error: no test ran" >&2; rc=1; fi
+if [ "$skipped" -ne 0 ]; then echo "error: ${skipped} test(s) skipped; skips are not allowed" >&2; rc=1; fi
+if [ "$status" -ne 0 ] && [ "$failed" -eq 0 ]; then echo "error: the test run failed (build error or crashed test host)" >&2; fi
 echo "${passed} passed, ${failed} failed, ${skipped} skipped"
-if [ "$status" -ne 0 ]; then exit "$status"; fi
-if [ "$passed" -eq 0 ]; then echo "error: no test ran" >&2; exit 1; fi
-if [ "$skipped" -ne 0 ]; then echo "error: ${skipped} test(s) skipped; skips are not allowed" >&2; exit 1; fi
+exit "$rc"
