@@ -12,6 +12,10 @@ namespace Hull.Core.Geometry;
 /// not, the removed region grows across that ridge. That keeps the projected facets a true triangulation of the
 /// composition simplex whatever the rounding, which is what degenerate thermodynamic data needs: compositions on
 /// rational lattices, many points on one plane, subsystem points exactly on faces.
+///
+/// Most new facets need no factorisation: their plane lies in the pencil through their ridge and follows from the
+/// two neighbouring planes, which also tell on which side of the ridge the new point falls (see TryPencil). Only close
+/// calls go through a floating-point factorisation, and, when that is also too close, the exact integer determinant.
 /// </remarks>
 internal sealed class LowerHullBuilder
 {
