@@ -1,3 +1,5 @@
+using Hull.Core.Chemistry;
+
 namespace Hull.Core.Geometry;
 
 /// <summary>
@@ -28,7 +30,7 @@ internal sealed class DistinctCompositions
     public int Add(long[] row)
     {
         long g = 0;
-        foreach (long v in row) g = Gcd(g, v);
+        foreach (long v in row) g = Rational.Gcd(g, v);
         for (int k = 0; k < _n; k++) _scratch[k] = row[k] / g;
         var hc = new HashCode();
         foreach (long v in _scratch) hc.Add(v);
@@ -61,11 +63,5 @@ internal sealed class DistinctCompositions
             while (_slots[slot] >= 0) slot = (slot + 1) & mask;
             _slots[slot] = id;
         }
-    }
-
-    private static long Gcd(long a, long b)
-    {
-        while (b != 0) (a, b) = (b, a % b);
-        return Math.Abs(a);
     }
 }

@@ -598,37 +598,35 @@ internal sealed class LowerHullBuilder
     private List<int[]> LowerFacets()
     {
         var result = new List<int[]>();
-        _lowerIndex.Clear();
+        _internalIds.Clear();
+        if (_finalIndex.Length < _facetCount) _finalIndex = new int[_facetCount];
+        Array.Fill(_finalIndex, -1);
         for (int f = 0; f < _facetCount; f++)
         {
             if (!_alive[f] || _wallFace[f] >= 0) continue;
-            _lowerIndex[f] = result.Count;
+            _finalIndex[f] = result.Count;
+            _internalIds.Add(f);
             result.Add(_vertices.AsSpan(f * _n, _n).ToArray());
         }
         return result;
     }
 
-    private readonly Dictionary<int, int> _lowerIndex = new();
+    // Both directions between internal facet ids and the indices of the list LowerFacets returned last.
+    private int[] _finalIndex = [];
+    private readonly List<int> _internalIds = new();
 
     /// <summary>Neighbour of each final lower facet across each slot, as final indices; -1 across the domain boundary.</summary>
     public int[] LowerNeighbors()
     {
-        var result = new int[_lowerIndex.Count * _n];
-        foreach (var (f, index) in _lowerIndex)
+        var result = new int[_internalIds.Count * _n];
+        for (int index = 0; index < _internalIds.Count; index++)
         {
-            for (int i = 0; i < _n; i++)
-            {
-                int g = _neighbors[f * _n + i];
-                result[index * _n + i] = _lowerIndex.TryGetValue(g, out int gi) ? gi : -1;
-            }
+            int f = _internalIds[index];
+            for (int i = 0; i < _n; i++) result[index * _n + i] = _finalIndex[_neighbors[f * _n + i]];
         }
         return result;
     }
 
-    /// <summary>The internal facet id of each final lower facet, for handing back points in <see cref="Repair"/>.</summary>
-    public int InternalId(int finalIndex)
-    {
-        foreach (var (f, index) in _lowerIndex) if (index == finalIndex) return f;
-        return -1;
-    }
+    /// <summary>The internal facet id of a final lower facet, for handing back points in <see cref="Repair"/>.</summary>
+    public int InternalId(int finalIndex) => _internalIds[finalIndex];
 }
