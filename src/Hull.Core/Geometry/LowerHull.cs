@@ -86,7 +86,11 @@ public sealed class LowerHull
             for (int k = 0; k < n; k++)
             {
                 if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", nameof(amounts));
-                total = checked(total + row[k]);
+                if (row[k] > long.MaxValue - total)
+                {
+                    throw new ArgumentException($"Point {i}: the amounts add up past the 64-bit integer range; scale the formula down.", nameof(amounts));
+                }
+                total += row[k];
             }
             if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", nameof(amounts));
             for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;

@@ -26,6 +26,13 @@ public sealed class InputValidationTests
     }
 
     [Fact]
+    public void Amounts_past_the_integer_range_name_the_point()
+    {
+        var e = Refused([[1, 0], [0, 1], [long.MaxValue, 1]], [0, 0, 0]);
+        Assert.StartsWith("Point 2: the amounts add up past the 64-bit integer range", e.Message);
+    }
+
+    [Fact]
     public void Non_finite_energy_names_the_point()
     {
         var e = Refused([[1, 0], [1, 1], [0, 1]], [0, double.NaN, 0]);
