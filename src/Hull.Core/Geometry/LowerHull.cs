@@ -12,7 +12,7 @@ namespace Hull.Core.Geometry;
 /// remaining points in a canonical order (by composition, then energy), so the result does not depend on input
 /// order beyond that tie rule.
 /// </remarks>
-public sealed class LowerHull
+public sealed class LowerHull : IHullStability
 {
     private const int MaxRepairRounds = 8;
 
@@ -63,48 +63,9 @@ public sealed class LowerHull
     /// or a component without a pure point; the message names the point and component.</exception>
     public static LowerHull Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
     {
-        ArgumentNullException.ThrowIfNull(amounts);
-        ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
-        if (amounts.Count == 0) throw new ArgumentException("The hull needs at least one point.", nameof(amounts));
-        if (amounts.Count != energiesEvPerAtom.Count)
-        {
-            throw new ArgumentException($"{amounts.Count} amount rows but {energiesEvPerAtom.Count} energies.", nameof(energiesEvPerAtom));
-        }
-        int n = amounts[0]?.Length ?? 0;
-        if (n == 0) throw new ArgumentException("Point 0 has no components.", nameof(amounts));
-        int count = amounts.Count;
-        var fractions = new double[count * n];
-        var energies = new double[count];
-        var rows = new long[count][];
-        var compositionOf = new int[count];
-        var distinct = new DistinctCompositions(n, count);
-        for (int i = 0; i < count; i++)
-        {
-            var row = amounts[i] ?? throw new ArgumentException($"Point {i} has no amounts.", nameof(amounts));
-            if (row.Length != n) throw new ArgumentException($"Point {i} has {row.Length} components; point 0 has {n}.", nameof(amounts));
-            long total = 0;
-            for (int k = 0; k < n; k++)
-            {
-                if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", nameof(amounts));
-                if (row[k] > long.MaxValue - total)
-                {
-                    throw new ArgumentException($"Point {i}: the amounts add up past the 64-bit integer range; scale the formula down.", nameof(amounts));
-                }
-                total += row[k];
-            }
-            if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", nameof(amounts));
-            for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
-            double e = energiesEvPerAtom[i];
-            if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
-            energies[i] = e;
-            compositionOf[i] = distinct.Add(row);
-            // The reduced row has the same ratios, and is a private copy the caller cannot change later.
-            rows[i] = distinct.Reduced[compositionOf[i]];
-        }
-
-        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, out var candidates);
-        var hull = new LowerHull(n, fractions, energies, representative);
-        hull.Construct(rows, candidates);
+        var input = HullInput.Check(amounts, energiesEvPerAtom);
+        var hull = new LowerHull(input.ComponentCount, input.Fractions, input.Energies, input.Representative);
+        hull.Construct(input);
         return hull;
     }
 
@@ -166,43 +127,9 @@ public sealed class LowerHull
         return new HullPosition(facet, points.ToArray(), w, energy);
     }
 
-    private static int[] ChooseRepresentatives(int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, out int[] candidates)
+    private void Construct(HullInput input)
     {
-        var best = new int[reduced.Count];
-        Array.Fill(best, -1);
-        for (int i = 0; i < compositionOf.Length; i++)
-        {
-            int c = compositionOf[i];
-            // Strictly lower wins, so the lowest index stays among exact ties.
-            if (best[c] < 0 || energies[i] < energies[best[c]]) best[c] = i;
-        }
-        var representative = new int[compositionOf.Length];
-        for (int i = 0; i < compositionOf.Length; i++) representative[i] = best[compositionOf[i]];
-        candidates = best;
-        Array.Sort(candidates, (a, b) =>
-        {
-            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]]);
-            return c != 0 ? c : a.CompareTo(b);
-        });
-        return representative;
-    }
-
-    /// <summary>Orders compositions by their fractions, exactly (cross-multiplied with 128-bit integers).</summary>
-    private static int CompareLexicographic(long[] a, long[] b)
-    {
-        Int128 totalA = 0, totalB = 0;
-        foreach (long v in a) totalA += v;
-        foreach (long v in b) totalB += v;
-        for (int k = 0; k < a.Length; k++)
-        {
-            int c = ((Int128)a[k] * totalB).CompareTo((Int128)b[k] * totalA);
-            if (c != 0) return c;
-        }
-        return 0;
-    }
-
-    private void Construct(long[][] rows, int[] candidates)
-    {
+        int[] candidates = input.Candidates;
         if (_n == 1)
         {
             int best = candidates[0];
@@ -212,26 +139,8 @@ public sealed class LowerHull
             return;
         }
 
-        var pure = new int[_n];
-        var hasPure = new bool[_n];
-        foreach (int c in candidates)
-        {
-            int nonzero = -1, nonzeroCount = 0;
-            for (int k = 0; k < _n; k++)
-            {
-                if (rows[c][k] != 0) { nonzero = k; nonzeroCount++; }
-            }
-            if (nonzeroCount == 1) { pure[nonzero] = c; hasPure[nonzero] = true; }
-        }
-        for (int k = 0; k < _n; k++)
-        {
-            if (!hasPure[k])
-            {
-                throw new ArgumentException($"No point consists of component {k} alone; every component needs a pure end point to anchor the hull.");
-            }
-        }
-
-        var builder = new LowerHullBuilder(_n, rows, _fractions, _energies);
+        int[] pure = input.PureComponentPoints();
+        var builder = new LowerHullBuilder(_n, input.Rows, _fractions, _energies);
         var facets = builder.Build(pure, candidates);
         for (int round = 0; ; round++)
         {

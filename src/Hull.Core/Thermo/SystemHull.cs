@@ -20,7 +20,8 @@ public sealed class SystemHull
 {
     private readonly ComponentSpace _space;
     private readonly HullPoint[] _points;
-    private readonly LowerHull _hull;
+    private readonly IHullStability _hull;
+    private readonly Lazy<LowerHull> _facetHull;
     private readonly bool[] _isVertex;
     private readonly double[]? _endMemberCornerEvPerAtom;
     private readonly Lazy<IReadOnlyList<EntryStability>> _entries;
@@ -123,7 +124,10 @@ public sealed class SystemHull
             energies[i] = _points[i].FormationEnergyEvPerAtom;
         }
 
-        _hull = LowerHull.Build(amounts, energies);
+        _hull = HullStability.Build(amounts, energies);
+        // Facets are built on first use only: in many components they outnumber the points by far, and stability
+        // does not need them.
+        _facetHull = new Lazy<LowerHull>(() => _hull as LowerHull ?? LowerHull.Build(amounts, energies));
         _isVertex = new bool[_points.Length];
         foreach (int v in _hull.VertexPoints)
         {
@@ -322,6 +326,12 @@ public sealed class SystemHull
     private double DecompositionEnergy(int i)
     {
         HullPoint point = _points[i];
+        if (_hull is LinearProgramHull programs)
+        {
+            // That engine has solved the hull at every composition without the composition itself.
+            return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - programs.HullEnergyWithoutComposition(i)!.Value);
+        }
+
         _decompositionEnergyByComposition ??= new Dictionary<long[], double>(AmountsComparer.Instance);
         if (_decompositionEnergyByComposition.TryGetValue(point.Amounts, out double known))
         {
@@ -373,7 +383,7 @@ public sealed class SystemHull
             for (int s = _starStart![vertex]; s < _starStart[vertex + 1]; s++)
             {
                 int facet = _starFacets![s];
-                IReadOnlyList<int> corners = _hull.Facets[facet].VertexPoints;
+                IReadOnlyList<int> corners = _facetHull.Value.Facets[facet].VertexPoints;
                 for (int c = 0; c < corners.Count; c++)
                 {
                     if (corners[c] != vertex)
@@ -435,7 +445,7 @@ public sealed class SystemHull
             return;
         }
 
-        IReadOnlyList<HullFacet> facets = _hull.Facets;
+        IReadOnlyList<HullFacet> facets = _facetHull.Value.Facets;
         var starStart = new int[_points.Length + 1];
         for (int f = 0; f < facets.Count; f++)
         {
@@ -660,7 +670,7 @@ public sealed class SystemHull
     }
 
     private IReadOnlyList<PhaseFacet> BuildFacets() =>
-        _hull.Facets
+        _facetHull.Value.Facets
             .Select(f => new PhaseFacet(
                 f.VertexPoints.Order().Select(v => _points[v].Phase).ToArray(),
                 Components,
@@ -670,7 +680,7 @@ public sealed class SystemHull
     private IReadOnlyList<TieLine> BuildTieLines()
     {
         var pairs = new SortedSet<(int, int)>();
-        foreach (HullFacet facet in _hull.Facets)
+        foreach (HullFacet facet in _facetHull.Value.Facets)
         {
             int[] corners = facet.VertexPoints.Order().ToArray();
             for (int a = 0; a < corners.Length; a++)

@@ -1,0 +1,96 @@
+using System.Numerics;
+
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// The points a composition can decompose into: every representative point whose components are a subset of a
+/// given set (a support mask), with their fractions restricted to that set, stored one component row after another
+/// so that pricing all of them against a plane is a run of vector multiply-adds.
+/// </summary>
+internal sealed class ColumnBlock
+{
+    private ColumnBlock(ulong mask, int[] components, int[] points, double[] rows, double[] energies, int[] cornerColumns)
+    {
+        Mask = mask;
+        Components = components;
+        Points = points;
+        Rows = rows;
+        Energies = energies;
+        CornerColumns = cornerColumns;
+    }
+
+    /// <summary>The components of this block as a bit set.</summary>
+    public ulong Mask { get; }
+
+    /// <summary>The component index of each row, ascending.</summary>
+    public int[] Components { get; }
+
+    /// <summary>The input point of each column.</summary>
+    public int[] Points { get; }
+
+    /// <summary>Number of columns.</summary>
+    public int Count => Points.Length;
+
+    /// <summary>Row r's fractions are [r * Stride, r * Stride + Count).</summary>
+    public int Stride { get; private init; }
+
+    /// <summary>Fractions, row-major by component.</summary>
+    public double[] Rows { get; }
+
+    /// <summary>Energy per atom of each column.</summary>
+    public double[] Energies { get; }
+
+    /// <summary>For each row, the column of the pure point of that component.</summary>
+    public int[] CornerColumns { get; }
+
+    /// <summary>The first column of the points whose mask is exactly <see cref="Mask"/> (they are consecutive, in group order), or -1.</summary>
+    public int OwnGroupStart { get; private init; } = -1;
+
+    /// <summary>
+    /// Gathers the columns of <paramref name="mask"/> from the representative points grouped by their own masks.
+    /// </summary>
+    public static ColumnBlock Gather(ulong mask, IReadOnlyList<(ulong Mask, int[] Points)> groups, HullInput input)
+    {
+        int n = input.ComponentCount;
+        int count = 0;
+        foreach (var (m, points) in groups)
+        {
+            if ((m & ~mask) == 0) count += points.Length;
+        }
+        int k = BitOperations.PopCount(mask);
+        var components = new int[k];
+        for (int r = 0, c = 0; c < n; c++)
+        {
+            if ((mask & (1UL << c)) != 0) components[r++] = c;
+        }
+        int stride = count;
+        var rows = new double[k * stride];
+        var energies = new double[count];
+        var columnPoints = new int[count];
+        var corners = new int[k];
+        Array.Fill(corners, -1);
+        int j = 0, ownStart = -1;
+        foreach (var (m, points) in groups)
+        {
+            if ((m & ~mask) != 0) continue;
+            if (m == mask) ownStart = j;
+            bool pure = BitOperations.PopCount(m) == 1;
+            foreach (int p in points)
+            {
+                columnPoints[j] = p;
+                energies[j] = input.Energies[p];
+                for (int r = 0; r < k; r++) rows[r * stride + j] = input.Fractions[p * n + components[r]];
+                if (pure) corners[Array.IndexOf(components, BitOperations.TrailingZeroCount(m))] = j;
+                j++;
+            }
+        }
+        for (int r = 0; r < k; r++)
+        {
+            if (corners[r] < 0)
+            {
+                throw new ArgumentException($"No point consists of component {components[r]} alone; every component needs a pure end point to anchor the hull.");
+            }
+        }
+        return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { Stride = stride, OwnGroupStart = ownStart };
+    }
+}

@@ -1,0 +1,155 @@
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// The checked input of a hull computation: composition fractions and energies per point, the reduced amount row
+/// of each point's composition, and one representative per composition (the lowest energy; the lowest index among
+/// exact ties). Both hull engines start from it, so they accept and refuse exactly the same input.
+/// </summary>
+internal sealed class HullInput
+{
+    private HullInput(int componentCount, double[] fractions, double[] energies, long[][] rows, int[] compositionOf,
+        IReadOnlyList<long[]> reduced, int[] representative, int[] candidates)
+    {
+        ComponentCount = componentCount;
+        Fractions = fractions;
+        Energies = energies;
+        Rows = rows;
+        CompositionOf = compositionOf;
+        Reduced = reduced;
+        Representative = representative;
+        Candidates = candidates;
+    }
+
+    public int ComponentCount { get; }
+
+    /// <summary>Atom fractions, point-major: point i's fractions are [i * ComponentCount, (i + 1) * ComponentCount).</summary>
+    public double[] Fractions { get; }
+
+    /// <summary>Energy per atom of each point, eV/atom.</summary>
+    public double[] Energies { get; }
+
+    /// <summary>Each point's amounts reduced to lowest terms (shared between points of one composition).</summary>
+    public long[][] Rows { get; }
+
+    /// <summary>Composition id of each point (an index into <see cref="Reduced"/>).</summary>
+    public int[] CompositionOf { get; }
+
+    /// <summary>The reduced amount row of each distinct composition.</summary>
+    public IReadOnlyList<long[]> Reduced { get; }
+
+    /// <summary>For each point, the representative point of its composition.</summary>
+    public int[] Representative { get; }
+
+    /// <summary>The representative points, one per composition, ordered by composition (exact lexicographic fractions).</summary>
+    public int[] Candidates { get; }
+
+    /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, amounts summing past
+    /// 64 bits, or non-finite energies; the message names the point and component.</exception>
+    public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
+    {
+        ArgumentNullException.ThrowIfNull(amounts);
+        ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
+        if (amounts.Count == 0) throw new ArgumentException("The hull needs at least one point.", nameof(amounts));
+        if (amounts.Count != energiesEvPerAtom.Count)
+        {
+            throw new ArgumentException($"{amounts.Count} amount rows but {energiesEvPerAtom.Count} energies.", nameof(energiesEvPerAtom));
+        }
+        int n = amounts[0]?.Length ?? 0;
+        if (n == 0) throw new ArgumentException("Point 0 has no components.", nameof(amounts));
+        int count = amounts.Count;
+        var fractions = new double[count * n];
+        var energies = new double[count];
+        var rows = new long[count][];
+        var compositionOf = new int[count];
+        var distinct = new DistinctCompositions(n, count);
+        for (int i = 0; i < count; i++)
+        {
+            var row = amounts[i] ?? throw new ArgumentException($"Point {i} has no amounts.", nameof(amounts));
+            if (row.Length != n) throw new ArgumentException($"Point {i} has {row.Length} components; point 0 has {n}.", nameof(amounts));
+            long total = 0;
+            for (int k = 0; k < n; k++)
+            {
+                if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", nameof(amounts));
+                if (row[k] > long.MaxValue - total)
+                {
+                    throw new ArgumentException($"Point {i}: the amounts add up past the 64-bit integer range; scale the formula down.", nameof(amounts));
+                }
+                total += row[k];
+            }
+            if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", nameof(amounts));
+            for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
+            double e = energiesEvPerAtom[i];
+            if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
+            energies[i] = e;
+            compositionOf[i] = distinct.Add(row);
+            // The reduced row has the same ratios, and is a private copy the caller cannot change later.
+            rows[i] = distinct.Reduced[compositionOf[i]];
+        }
+
+        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, out var candidates);
+        return new HullInput(n, fractions, energies, rows, compositionOf, distinct.Reduced, representative, candidates);
+    }
+
+    /// <summary>
+    /// The pure point of each component (the representative of the composition made of that component alone).
+    /// </summary>
+    /// <exception cref="ArgumentException">A component has no pure point.</exception>
+    public int[] PureComponentPoints()
+    {
+        int n = ComponentCount;
+        var pure = new int[n];
+        var hasPure = new bool[n];
+        foreach (int c in Candidates)
+        {
+            int nonzero = -1, nonzeroCount = 0;
+            for (int k = 0; k < n; k++)
+            {
+                if (Rows[c][k] != 0) { nonzero = k; nonzeroCount++; }
+            }
+            if (nonzeroCount == 1) { pure[nonzero] = c; hasPure[nonzero] = true; }
+        }
+        for (int k = 0; k < n; k++)
+        {
+            if (!hasPure[k])
+            {
+                throw new ArgumentException($"No point consists of component {k} alone; every component needs a pure end point to anchor the hull.");
+            }
+        }
+        return pure;
+    }
+
+    private static int[] ChooseRepresentatives(int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, out int[] candidates)
+    {
+        var best = new int[reduced.Count];
+        Array.Fill(best, -1);
+        for (int i = 0; i < compositionOf.Length; i++)
+        {
+            int c = compositionOf[i];
+            // Strictly lower wins, so the lowest index stays among exact ties.
+            if (best[c] < 0 || energies[i] < energies[best[c]]) best[c] = i;
+        }
+        var representative = new int[compositionOf.Length];
+        for (int i = 0; i < compositionOf.Length; i++) representative[i] = best[compositionOf[i]];
+        candidates = best;
+        Array.Sort(candidates, (a, b) =>
+        {
+            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]]);
+            return c != 0 ? c : a.CompareTo(b);
+        });
+        return representative;
+    }
+
+    /// <summary>Orders compositions by their fractions, exactly (cross-multiplied with 128-bit integers).</summary>
+    private static int CompareLexicographic(long[] a, long[] b)
+    {
+        Int128 totalA = 0, totalB = 0;
+        foreach (long v in a) totalA += v;
+        foreach (long v in b) totalB += v;
+        for (int k = 0; k < a.Length; k++)
+        {
+            int c = ((Int128)a[k] * totalB).CompareTo((Int128)b[k] * totalA);
+            if (c != 0) return c;
+        }
+        return 0;
+    }
+}

@@ -1,0 +1,26 @@
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// What both hull engines answer: the stable points, every point's energy above the hull, and the hull energy and
+/// decomposition at any composition. <see cref="LowerHull"/> also has the facets.
+/// </summary>
+public interface IHullStability
+{
+    /// <summary>Number of components.</summary>
+    int ComponentCount { get; }
+
+    /// <summary>Number of input points.</summary>
+    int PointCount { get; }
+
+    /// <summary>Input indices of the points that are vertices of the lower hull, ascending.</summary>
+    IReadOnlyList<int> VertexPoints { get; }
+
+    /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
+    double EnergyAboveHull(int pointIndex);
+
+    /// <summary>Hull energy and decomposition at the composition of input point i.</summary>
+    HullPosition LocatePoint(int pointIndex);
+
+    /// <summary>Hull energy and decomposition at composition fractions (non-negative, summing to 1).</summary>
+    HullPosition Locate(ReadOnlySpan<double> fractions);
+}

@@ -1,0 +1,230 @@
+using System.Collections.Concurrent;
+using System.Numerics;
+
+namespace Hull.Core.Geometry;
+
+/// <summary>
+/// Energies above the hull, decompositions and stable points without building facets: for each distinct
+/// composition, one small linear program finds the hull energy there over all other compositions.
+/// </summary>
+/// <remarks>
+/// In many components the lower hull has far more facets than points (millions for a few thousand points in eight
+/// components), while stability questions need only the hull energy at each point. For a composition c the
+/// program "lowest Σ w_j E_j with Σ w_j x_j = x_c, w ≥ 0" over every other composition gives the hull energy at
+/// x_c without c; c is a hull vertex when its energy lies below that by more than
+/// <see cref="HullTolerances.EnergyEvPerAtom"/>, and otherwise the optimal columns are its decomposition. The
+/// same number, for a stable c, is its decomposition energy. Only compositions whose components are a subset of
+/// c's can take part (amounts are non-negative), so each program runs over c's own face of the simplex: a
+/// binary's program has two rows, whatever the number of components. Facets, when wanted, come from
+/// <see cref="LowerHull"/>. Representatives, tie rules and input checks are the same as there.
+/// </remarks>
+public sealed class LinearProgramHull : IHullStability
+{
+    /// <summary>Consecutive compositions (in composition order) solved in sequence, each starting from the previous optimum.</summary>
+    private const int ChunkSize = 32;
+
+    private readonly HullInput _input;
+    private readonly List<(ulong Mask, int[] Points)> _groups;
+    private readonly bool[] _isVertex;
+    private readonly double[] _hullEnergy;
+    private readonly double[] _hullEnergyWithout;
+    private readonly int[][] _decompositionPoints;
+    private readonly double[][] _decompositionWeights;
+    private readonly ConcurrentDictionary<ulong, ColumnBlock> _locateBlocks = new();
+
+    private LinearProgramHull(HullInput input, List<(ulong Mask, int[] Points)> groups)
+    {
+        _input = input;
+        _groups = groups;
+        int compositions = input.Reduced.Count;
+        _isVertex = new bool[input.Energies.Length];
+        _hullEnergy = new double[compositions];
+        _hullEnergyWithout = new double[compositions];
+        _decompositionPoints = new int[compositions][];
+        _decompositionWeights = new double[compositions][];
+        VertexPoints = [];
+    }
+
+    /// <summary>Number of components.</summary>
+    public int ComponentCount => _input.ComponentCount;
+
+    /// <summary>Number of input points.</summary>
+    public int PointCount => _input.Energies.Length;
+
+    /// <summary>Input indices of the points that are vertices of the lower hull, ascending.</summary>
+    public IReadOnlyList<int> VertexPoints { get; private set; }
+
+    /// <summary>The largest number of components this engine takes (components are kept as bits of a 64-bit set).</summary>
+    public const int MaxComponents = 64;
+
+    /// <summary>
+    /// Computes the hull energy at every point's composition. Same input as <see cref="LowerHull.Build"/>.
+    /// </summary>
+    /// <exception cref="ArgumentException">As <see cref="LowerHull.Build"/>; also more than <see cref="MaxComponents"/> components.</exception>
+    public static LinearProgramHull Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
+    {
+        var input = HullInput.Check(amounts, energiesEvPerAtom);
+        if (input.ComponentCount > MaxComponents)
+        {
+            throw new ArgumentException($"{input.ComponentCount} components; this engine takes at most {MaxComponents}.", nameof(amounts));
+        }
+        input.PureComponentPoints();
+        var hull = new LinearProgramHull(input, GroupByMask(input));
+        hull.SolveAll();
+        return hull;
+    }
+
+    /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
+    public double EnergyAboveHull(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        double above = _input.Energies[pointIndex] - _hullEnergy[_input.CompositionOf[pointIndex]];
+        return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
+    }
+
+    /// <summary>Hull energy and decomposition at the composition of input point i (no facet: index -1).</summary>
+    public HullPosition LocatePoint(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        int c = _input.CompositionOf[pointIndex];
+        return new HullPosition(-1, (int[])_decompositionPoints[c].Clone(), (double[])_decompositionWeights[c].Clone(), _hullEnergy[c]);
+    }
+
+    /// <summary>
+    /// The hull energy at point i's composition when every point of that composition is left out (eV/atom), or null
+    /// for a pure component, which nothing else can make. For a point on the hull, its energy minus this is its
+    /// decomposition energy.
+    /// </summary>
+    public double? HullEnergyWithoutComposition(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        double value = _hullEnergyWithout[_input.CompositionOf[pointIndex]];
+        return double.IsNaN(value) ? null : value;
+    }
+
+    /// <summary>Hull energy and decomposition at composition fractions (non-negative, summing to 1; no facet: index -1).</summary>
+    /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
+    public HullPosition Locate(ReadOnlySpan<double> fractions)
+    {
+        int n = ComponentCount;
+        if (fractions.Length != n) throw new ArgumentException($"Expected {n} fractions, got {fractions.Length}.", nameof(fractions));
+        double sum = 0;
+        ulong mask = 0;
+        for (int k = 0; k < n; k++)
+        {
+            if (!double.IsFinite(fractions[k]) || fractions[k] < 0) throw new ArgumentException($"Fraction {k} is {fractions[k]}; fractions must be finite and non-negative.", nameof(fractions));
+            sum += fractions[k];
+            if (fractions[k] > 0) mask |= 1UL << k;
+        }
+        // Fractions typed or computed by a caller carry rounding of order 1e-15 per term; 1e-9 accepts those and
+        // still rejects a composition that is genuinely off the simplex.
+        if (Math.Abs(sum - 1.0) > 1e-9) throw new ArgumentException($"Fractions sum to {sum}, not 1.", nameof(fractions));
+        var block = _locateBlocks.GetOrAdd(mask, m => ColumnBlock.Gather(m, _groups, _input));
+        int rows = block.Components.Length;
+        Span<double> x = stackalloc double[rows];
+        for (int r = 0; r < rows; r++) x[r] = fractions[block.Components[r]];
+        Span<int> basis = stackalloc int[rows];
+        Span<double> weights = stackalloc double[rows];
+        double energy = new BlockSimplex(rows).Solve(block, x, excluded: -1, basis, weights, warm: false);
+        var (points, fractionsOut) = Decomposition(block, basis, weights);
+        return new HullPosition(-1, points, fractionsOut, energy);
+    }
+
+    /// <summary>Representative points grouped by their component set, groups by mask, points in composition order.</summary>
+    private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input)
+    {
+        int n = input.ComponentCount;
+        var byMask = new Dictionary<ulong, List<int>>();
+        foreach (int p in input.Candidates)
+        {
+            ulong mask = 0;
+            long[] row = input.Rows[p];
+            for (int k = 0; k < n; k++) if (row[k] != 0) mask |= 1UL << k;
+            if (!byMask.TryGetValue(mask, out var list)) byMask[mask] = list = new List<int>();
+            list.Add(p);
+        }
+        return byMask.OrderBy(kv => kv.Key).Select(kv => (kv.Key, kv.Value.ToArray())).ToList();
+    }
+
+    private void SolveAll()
+    {
+        foreach (var (mask, points) in _groups)
+        {
+            if (BitOperations.PopCount(mask) == 1)
+            {
+                int p = points[0];
+                SetVertex(p);
+                _hullEnergyWithout[_input.CompositionOf[p]] = double.NaN;
+                continue;
+            }
+            var block = ColumnBlock.Gather(mask, _groups, _input);
+            int chunks = (points.Length + ChunkSize - 1) / ChunkSize;
+            int rows = block.Components.Length;
+            // Each chunk warm-starts from its own previous composition only, so the result (including which of
+            // several equal decompositions is reported) does not depend on how threads share the chunks.
+            Parallel.For(0, chunks, chunk =>
+            {
+                var solver = new BlockSimplex(rows);
+                var basis = new int[rows];
+                var weights = new double[rows];
+                var x = new double[rows];
+                bool warm = false;
+                int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
+                for (int q = chunk * ChunkSize; q < end; q++)
+                {
+                    int p = points[q];
+                    for (int r = 0; r < rows; r++) x[r] = _input.Fractions[p * ComponentCount + block.Components[r]];
+                    double without = solver.Solve(block, x, block.OwnGroupStart + q, basis, weights, warm);
+                    warm = true;
+                    Record(p, block, basis, weights, without);
+                }
+            });
+        }
+        var vertices = new List<int>();
+        for (int i = 0; i < _isVertex.Length; i++) if (_isVertex[i]) vertices.Add(i);
+        VertexPoints = vertices.AsReadOnly();
+    }
+
+    private void Record(int point, ColumnBlock block, int[] basis, double[] weights, double hullWithout)
+    {
+        int c = _input.CompositionOf[point];
+        _hullEnergyWithout[c] = hullWithout;
+        if (_input.Energies[point] < hullWithout - HullTolerances.EnergyEvPerAtom)
+        {
+            SetVertex(point);
+            return;
+        }
+        (_decompositionPoints[c], _decompositionWeights[c]) = Decomposition(block, basis, weights);
+        _hullEnergy[c] = hullWithout;
+    }
+
+    private void SetVertex(int point)
+    {
+        int c = _input.CompositionOf[point];
+        _isVertex[point] = true;
+        _hullEnergy[c] = _input.Energies[point];
+        _decompositionPoints[c] = [point];
+        _decompositionWeights[c] = [1.0];
+    }
+
+    /// <summary>The basis columns of positive weight as input points and atom fractions (renormalised to sum 1).</summary>
+    private static (int[] Points, double[] Weights) Decomposition(ColumnBlock block, ReadOnlySpan<int> basis, ReadOnlySpan<double> weights)
+    {
+        int kept = 0;
+        double total = 0;
+        for (int i = 0; i < basis.Length; i++)
+        {
+            if (weights[i] > HullTolerances.BarycentricWeight) { kept++; total += weights[i]; }
+        }
+        var points = new int[kept];
+        var fractions = new double[kept];
+        for (int i = 0, j = 0; i < basis.Length; i++)
+        {
+            if (weights[i] <= HullTolerances.BarycentricWeight) continue;
+            points[j] = block.Points[basis[i]];
+            fractions[j++] = weights[i] / total;
+        }
+        Array.Sort(points, fractions);
+        return (points, fractions);
+    }
+}
