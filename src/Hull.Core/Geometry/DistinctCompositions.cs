@@ -26,11 +26,19 @@ internal sealed class DistinctCompositions
     /// <summary>The reduced rows, indexed by composition id.</summary>
     public IReadOnlyList<long[]> Reduced => _reduced;
 
-    /// <summary>The id of the row's composition, adding it when new. The row must be non-negative and not all zero.</summary>
-    public int Add(long[] row)
+    /// <summary>
+    /// The id of the row's composition, adding it when new. The row must be non-negative and not all zero. A row
+    /// already in lowest terms is kept itself, without a copy, when <paramref name="rowIsImmutable"/> says that
+    /// nobody will change it.
+    /// </summary>
+    public int Add(long[] row, bool rowIsImmutable = false)
     {
         long g = 0;
-        foreach (long v in row) g = Rational.Gcd(g, v);
+        foreach (long v in row)
+        {
+            g = Rational.Gcd(g, v);
+            if (g == 1) break;
+        }
         for (int k = 0; k < _n; k++) _scratch[k] = row[k] / g;
         var hc = new HashCode();
         foreach (long v in _scratch) hc.Add(v);
@@ -42,7 +50,7 @@ internal sealed class DistinctCompositions
             if (id < 0)
             {
                 id = _reduced.Count;
-                _reduced.Add((long[])_scratch.Clone());
+                _reduced.Add(g == 1 && rowIsImmutable ? row : (long[])_scratch.Clone());
                 _hashes.Add(hash);
                 _slots[slot] = id;
                 if (_reduced.Count * 2 > _slots.Length) Grow();

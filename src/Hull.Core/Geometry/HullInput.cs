@@ -45,7 +45,10 @@ internal sealed class HullInput
 
     /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, amounts summing past
     /// 64 bits, or non-finite energies; the message names the point and component.</exception>
-    public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
+    /// <param name="amounts">Amount rows (copied where kept, unless <paramref name="rowsAreImmutable"/>).</param>
+    /// <param name="energiesEvPerAtom">Energy per atom of each point.</param>
+    /// <param name="rowsAreImmutable">The caller guarantees that no row will change (rows internal to the library).</param>
+    public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom, bool rowsAreImmutable = false)
     {
         ArgumentNullException.ThrowIfNull(amounts);
         ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
@@ -81,12 +84,12 @@ internal sealed class HullInput
             double e = energiesEvPerAtom[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
             energies[i] = e;
-            compositionOf[i] = distinct.Add(row);
+            compositionOf[i] = distinct.Add(row, rowsAreImmutable);
             // The reduced row has the same ratios, and is a private copy the caller cannot change later.
             rows[i] = distinct.Reduced[compositionOf[i]];
         }
 
-        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, out var candidates);
+        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, fractions, n, out var candidates);
         return new HullInput(n, fractions, energies, rows, compositionOf, distinct.Reduced, representative, candidates);
     }
 
@@ -118,7 +121,8 @@ internal sealed class HullInput
         return pure;
     }
 
-    private static int[] ChooseRepresentatives(int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, out int[] candidates)
+    private static int[] ChooseRepresentatives(
+        int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, double[] fractions, int n, out int[] candidates)
     {
         var best = new int[reduced.Count];
         Array.Fill(best, -1);
@@ -133,22 +137,35 @@ internal sealed class HullInput
         candidates = best;
         Array.Sort(candidates, (a, b) =>
         {
-            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]]);
+            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]], fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
             return c != 0 ? c : a.CompareTo(b);
         });
         return representative;
     }
 
-    /// <summary>Orders compositions by their fractions, exactly (cross-multiplied with 128-bit integers).</summary>
-    private static int CompareLexicographic(long[] a, long[] b)
+    /// <summary>
+    /// Orders compositions by their fractions, exactly: the rounded fractions decide where they differ clearly,
+    /// the amounts cross-multiplied in 128-bit integers decide the rest.
+    /// </summary>
+    private static int CompareLexicographic(long[] a, long[] b, ReadOnlySpan<double> fractionsA, ReadOnlySpan<double> fractionsB)
     {
-        Int128 totalA = 0, totalB = 0;
-        foreach (long v in a) totalA += v;
-        foreach (long v in b) totalB += v;
+        // Each fraction is within 1.2e-16 relative of its exact value, so a difference above 1e-12 has the right sign.
+        const double ClearDifference = 1e-12;
         for (int k = 0; k < a.Length; k++)
         {
-            int c = ((Int128)a[k] * totalB).CompareTo((Int128)b[k] * totalA);
-            if (c != 0) return c;
+            double d = fractionsA[k] - fractionsB[k];
+            if (d > ClearDifference) return 1;
+            if (d < -ClearDifference) return -1;
+            if (a[k] == 0 && b[k] == 0) continue;
+            Int128 totalA = 0, totalB = 0;
+            foreach (long v in a) totalA += v;
+            foreach (long v in b) totalB += v;
+            for (; k < a.Length; k++)
+            {
+                int c = ((Int128)a[k] * totalB).CompareTo((Int128)b[k] * totalA);
+                if (c != 0) return c;
+            }
+            return 0;
         }
         return 0;
     }

@@ -15,6 +15,9 @@ public interface IHullStability
     /// <summary>Input indices of the points that are vertices of the lower hull, ascending.</summary>
     IReadOnlyList<int> VertexPoints { get; }
 
+    /// <summary>Whether input point i is a vertex of the lower hull.</summary>
+    bool IsVertex(int pointIndex);
+
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     double EnergyAboveHull(int pointIndex);
 

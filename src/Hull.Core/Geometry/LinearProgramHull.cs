@@ -23,6 +23,12 @@ public sealed class LinearProgramHull : IHullStability
     /// <summary>Consecutive compositions (in composition order) solved in sequence, each starting from the previous optimum.</summary>
     private const int ChunkSize = 32;
 
+    /// <summary>
+    /// Pricing work (queries × columns × rows, multiply-adds) from which a group of compositions is solved on all
+    /// cores: about 1e7, some milliseconds, far above the cost of starting workers.
+    /// </summary>
+    private const long ParallelWork = 1L << 24;
+
     private readonly HullInput _input;
     private readonly List<(ulong Mask, int[] Points)> _groups;
     private readonly bool[] _isVertex;
@@ -32,7 +38,14 @@ public sealed class LinearProgramHull : IHullStability
     private readonly double[][] _decompositionWeights;
     private readonly ConcurrentDictionary<ulong, ColumnBlock> _locateBlocks = new();
 
-    private LinearProgramHull(HullInput input, List<(ulong Mask, int[] Points)> groups)
+    // On-demand mode only (see Prepare): which compositions are solved, and the state of the last solve.
+    private readonly bool[]? _solved;
+    private readonly Dictionary<ulong, ColumnBlock>? _blocks;
+    private readonly int[]? _columnInBlock;
+    private IReadOnlyList<int>? _vertexPoints;
+    private (ColumnBlock Block, BlockSimplex Solver, int[] Basis, double[] Weights, double[] X)? _last;
+
+    private LinearProgramHull(HullInput input, List<(ulong Mask, int[] Points)> groups, bool onDemand)
     {
         _input = input;
         _groups = groups;
@@ -42,7 +55,16 @@ public sealed class LinearProgramHull : IHullStability
         _hullEnergyWithout = new double[compositions];
         _decompositionPoints = new int[compositions][];
         _decompositionWeights = new double[compositions][];
-        VertexPoints = [];
+        if (onDemand)
+        {
+            _solved = new bool[compositions];
+            _blocks = new Dictionary<ulong, ColumnBlock>();
+            _columnInBlock = new int[input.Energies.Length];
+            foreach (var (_, points) in groups)
+            {
+                for (int q = 0; q < points.Length; q++) _columnInBlock[points[q]] = q;
+            }
+        }
     }
 
     /// <summary>Number of components.</summary>
@@ -52,41 +74,70 @@ public sealed class LinearProgramHull : IHullStability
     public int PointCount => _input.Energies.Length;
 
     /// <summary>Input indices of the points that are vertices of the lower hull, ascending.</summary>
-    public IReadOnlyList<int> VertexPoints { get; private set; }
+    public IReadOnlyList<int> VertexPoints
+    {
+        get
+        {
+            if (_vertexPoints is null)
+            {
+                if (_solved is not null)
+                {
+                    for (int p = 0; p < PointCount; p++) Solved(p);
+                }
+                var vertices = new List<int>();
+                for (int i = 0; i < _isVertex.Length; i++) if (_isVertex[i]) vertices.Add(i);
+                _vertexPoints = vertices.AsReadOnly();
+            }
+            return _vertexPoints;
+        }
+    }
 
     /// <summary>The largest number of components this engine takes (components are kept as bits of a 64-bit set).</summary>
     public const int MaxComponents = 64;
 
     /// <summary>
-    /// Computes the hull energy at every point's composition. Same input as <see cref="LowerHull.Build"/>.
+    /// Computes the hull energy at every point's composition. Same input as <see cref="LowerHull.Build(IReadOnlyList{long[]}, IReadOnlyList{double})"/>.
     /// </summary>
-    /// <exception cref="ArgumentException">As <see cref="LowerHull.Build"/>; also more than <see cref="MaxComponents"/> components.</exception>
+    /// <exception cref="ArgumentException">As <see cref="LowerHull.Build(IReadOnlyList{long[]}, IReadOnlyList{double})"/>; also more than <see cref="MaxComponents"/> components.</exception>
     public static LinearProgramHull Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
     {
-        var input = HullInput.Check(amounts, energiesEvPerAtom);
+        return Prepare(HullInput.Check(amounts, energiesEvPerAtom), onDemand: false);
+    }
+
+    /// <summary>
+    /// The engine over checked input. On demand, a composition is solved when first asked about (the many small
+    /// hulls of a dataset each report only some of their points); such an instance is for one thread only.
+    /// </summary>
+    internal static LinearProgramHull Prepare(HullInput input, bool onDemand)
+    {
         if (input.ComponentCount > MaxComponents)
         {
-            throw new ArgumentException($"{input.ComponentCount} components; this engine takes at most {MaxComponents}.", nameof(amounts));
+            throw new ArgumentException($"{input.ComponentCount} components; this engine takes at most {MaxComponents}.", "amounts");
         }
         input.PureComponentPoints();
-        var hull = new LinearProgramHull(input, GroupByMask(input));
-        hull.SolveAll();
+        var hull = new LinearProgramHull(input, GroupByMask(input), onDemand);
+        if (!onDemand) hull.SolveAll();
         return hull;
+    }
+
+    /// <summary>Whether input point i is a vertex of the lower hull.</summary>
+    public bool IsVertex(int pointIndex)
+    {
+        Solved(pointIndex);
+        return _isVertex[pointIndex];
     }
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     public double EnergyAboveHull(int pointIndex)
     {
-        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        double above = _input.Energies[pointIndex] - _hullEnergy[_input.CompositionOf[pointIndex]];
+        double above = _input.Energies[pointIndex] - _hullEnergy[Solved(pointIndex)];
         return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
     }
 
     /// <summary>Hull energy and decomposition at the composition of input point i (no facet: index -1).</summary>
     public HullPosition LocatePoint(int pointIndex)
     {
-        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        int c = _input.CompositionOf[pointIndex];
+        int c = Solved(pointIndex);
         return new HullPosition(-1, (int[])_decompositionPoints[c].Clone(), (double[])_decompositionWeights[c].Clone(), _hullEnergy[c]);
     }
 
@@ -97,8 +148,7 @@ public sealed class LinearProgramHull : IHullStability
     /// </summary>
     public double? HullEnergyWithoutComposition(int pointIndex)
     {
-        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        double value = _hullEnergyWithout[_input.CompositionOf[pointIndex]];
+        double value = _hullEnergyWithout[Solved(pointIndex)];
         return double.IsNaN(value) ? null : value;
     }
 
@@ -162,7 +212,7 @@ public sealed class LinearProgramHull : IHullStability
             int rows = block.Components.Length;
             // Each chunk warm-starts from its own previous composition only, so the result (including which of
             // several equal decompositions is reported) does not depend on how threads share the chunks.
-            Parallel.For(0, chunks, chunk =>
+            void SolveChunk(int chunk)
             {
                 var solver = new BlockSimplex(rows);
                 var basis = new int[rows];
@@ -178,11 +228,51 @@ public sealed class LinearProgramHull : IHullStability
                     warm = true;
                     Record(p, block, basis, weights, without);
                 }
-            });
+            }
+
+            // Small groups (the many small hulls of a dataset, already built in parallel one level up) run inline:
+            // handing them to the thread pool costs more than it saves and makes the outer workers spin.
+            if (chunks > 1 && (long)points.Length * block.Count * rows >= ParallelWork)
+            {
+                Parallel.For(0, chunks, SolveChunk);
+            }
+            else
+            {
+                for (int chunk = 0; chunk < chunks; chunk++) SolveChunk(chunk);
+            }
         }
-        var vertices = new List<int>();
-        for (int i = 0; i < _isVertex.Length; i++) if (_isVertex[i]) vertices.Add(i);
-        VertexPoints = vertices.AsReadOnly();
+    }
+
+    /// <summary>The composition id of input point i, solving it first in on-demand mode.</summary>
+    private int Solved(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        int c = _input.CompositionOf[pointIndex];
+        if (_solved is null || _solved[c]) return c;
+        int p = _input.Representative[pointIndex];
+        long[] row = _input.Rows[p];
+        ulong mask = 0;
+        for (int k = 0; k < row.Length; k++) if (row[k] != 0) mask |= 1UL << k;
+        if (BitOperations.PopCount(mask) == 1)
+        {
+            SetVertex(p);
+            _hullEnergyWithout[c] = double.NaN;
+        }
+        else
+        {
+            if (!_blocks!.TryGetValue(mask, out var block)) _blocks[mask] = block = ColumnBlock.Gather(mask, _groups, _input);
+            int rows = block.Components.Length;
+            // Consecutive questions tend to be about neighbouring compositions: start from the last optimum when
+            // it was over the same columns.
+            bool warm = _last is { } last && ReferenceEquals(last.Block, block);
+            if (!warm) _last = (block, new BlockSimplex(rows), new int[rows], new double[rows], new double[rows]);
+            var (_, solver, basis, weights, x) = _last!.Value;
+            for (int r = 0; r < rows; r++) x[r] = _input.Fractions[p * ComponentCount + block.Components[r]];
+            double without = solver.Solve(block, x, block.OwnGroupStart + _columnInBlock![p], basis, weights, warm);
+            Record(p, block, basis, weights, without);
+        }
+        _solved[c] = true;
+        return c;
     }
 
     private void Record(int point, ColumnBlock block, int[] basis, double[] weights, double hullWithout)

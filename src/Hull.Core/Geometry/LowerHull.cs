@@ -63,10 +63,21 @@ public sealed class LowerHull : IHullStability
     /// or a component without a pure point; the message names the point and component.</exception>
     public static LowerHull Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
     {
-        var input = HullInput.Check(amounts, energiesEvPerAtom);
+        return Build(HullInput.Check(amounts, energiesEvPerAtom));
+    }
+
+    internal static LowerHull Build(HullInput input)
+    {
         var hull = new LowerHull(input.ComponentCount, input.Fractions, input.Energies, input.Representative);
         hull.Construct(input);
         return hull;
+    }
+
+    /// <summary>Whether input point i is a vertex of the lower hull.</summary>
+    public bool IsVertex(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        return _isVertex[pointIndex];
     }
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>

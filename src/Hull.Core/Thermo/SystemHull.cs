@@ -22,12 +22,12 @@ public sealed class SystemHull
     private readonly HullPoint[] _points;
     private readonly IHullStability _hull;
     private readonly Lazy<LowerHull> _facetHull;
-    private readonly bool[] _isVertex;
     private readonly double[]? _endMemberCornerEvPerAtom;
     private readonly Lazy<IReadOnlyList<EntryStability>> _entries;
     private readonly Lazy<Dictionary<string, EntryStability>> _entryById;
     private readonly Lazy<IReadOnlyList<PhaseFacet>> _facets;
     private readonly Lazy<IReadOnlyList<TieLine>> _tieLines;
+    private readonly Lazy<IReadOnlyList<HullPhase>> _stablePhases;
 
     // Filled on demand by the single thread that computes entries (under _entries, or a dataset worker).
     private HullPosition?[]? _positions;
@@ -107,7 +107,12 @@ public sealed class SystemHull
     /// Builds the hull from the points of its entries, in any order; synthetic corners are added here. The hull
     /// takes the array over (it is sorted in place).
     /// </summary>
-    internal SystemHull(ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references)
+    /// <param name="space">The components.</param>
+    /// <param name="points">The entries' points (synthetic corners are added here).</param>
+    /// <param name="references">The elemental references used.</param>
+    /// <param name="onDemand">Work out each point's stability when first asked (a dataset's hull reports only some of
+    /// its points); such a hull is for one thread only.</param>
+    internal SystemHull(ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references, bool onDemand = false)
     {
         _space = space;
         References = references;
@@ -124,15 +129,12 @@ public sealed class SystemHull
             energies[i] = _points[i].FormationEnergyEvPerAtom;
         }
 
-        _hull = HullStability.Build(amounts, energies);
+        // Amount rows are the points' own immutable arrays.
+        var input = HullInput.Check(amounts, energies, rowsAreImmutable: true);
+        _hull = HullStability.Build(input, onDemand);
         // Facets are built on first use only: in many components they outnumber the points by far, and stability
         // does not need them.
-        _facetHull = new Lazy<LowerHull>(() => _hull as LowerHull ?? LowerHull.Build(amounts, energies));
-        _isVertex = new bool[_points.Length];
-        foreach (int v in _hull.VertexPoints)
-        {
-            _isVertex[v] = true;
-        }
+        _facetHull = new Lazy<LowerHull>(() => _hull as LowerHull ?? LowerHull.Build(input));
 
         if (space is ComponentSpace.OverEndMembers)
         {
@@ -156,13 +158,7 @@ public sealed class SystemHull
             () => _entries.Value.ToDictionary(e => e.Id, StringComparer.Ordinal));
         _facets = new Lazy<IReadOnlyList<PhaseFacet>>(BuildFacets);
         _tieLines = new Lazy<IReadOnlyList<TieLine>>(BuildTieLines);
-        var stable = new HullPhase[_hull.VertexPoints.Count];
-        for (int k = 0; k < stable.Length; k++)
-        {
-            stable[k] = _points[_hull.VertexPoints[k]].Phase;
-        }
-
-        StablePhases = stable;
+        _stablePhases = new Lazy<IReadOnlyList<HullPhase>>(() => _hull.VertexPoints.Select(v => _points[v].Phase).ToArray());
     }
 
     private static HullPoint[] MapInputs(
@@ -219,7 +215,7 @@ public sealed class SystemHull
     public IReadOnlyList<EntryStability> Entries => _entries.Value;
 
     /// <summary>The stable phases (hull vertices), sorted by id; synthetic references included and flagged.</summary>
-    public IReadOnlyList<HullPhase> StablePhases { get; }
+    public IReadOnlyList<HullPhase> StablePhases => _stablePhases.Value;
 
     /// <summary>The hull facets, each with its corner phases and chemical potentials.</summary>
     public IReadOnlyList<PhaseFacet> Facets => _facets.Value;
@@ -298,7 +294,7 @@ public sealed class SystemHull
             fromEndMembers,
             point.Fractions,
             above,
-            _isVertex[i],
+            _hull.IsVertex(i),
             BuildDecomposition(entry.Composition, point.ComponentAtoms, position),
             decompositionEnergy);
     }
@@ -460,7 +456,7 @@ public sealed class SystemHull
         var facetPointStart = new int[facets.Count + 1];
         for (int j = 0; j < _points.Length; j++)
         {
-            if (!_isVertex[j])
+            if (!_hull.IsVertex(j))
             {
                 facetOfPoint[j] = PositionOf(j).FacetIndex;
                 facetPointStart[facetOfPoint[j] + 1]++;
@@ -493,7 +489,7 @@ public sealed class SystemHull
         var nextPoint = (int[])facetPointStart.Clone();
         for (int j = 0; j < _points.Length; j++)
         {
-            if (!_isVertex[j])
+            if (!_hull.IsVertex(j))
             {
                 facetPoints[nextPoint[facetOfPoint[j]]++] = j;
             }
