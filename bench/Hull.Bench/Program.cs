@@ -4,17 +4,19 @@ using Hull.Bench.Suites;
 
 // Benchmarks of the hull engine beside outside references. Usage:
 //   dotnet run -c Release --project bench/Hull.Bench -- <hull3d4d|hull6d8d|dataset60> [options]
-//   Hull.Bench solve-file POINTS   (the whole-process mode the suites time)
+//   Hull.Bench solve-file POINTS   (Hull.Solve's job run by this JIT-compiled program, for comparison by hand;
+//                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
     Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|dataset60> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     return 2;
 }
-if (args[0] == OwnExecutable.SolveFileMode)
+if (args[0] == "solve-file")
 {
     if (args.Length != 2) { Console.Error.WriteLine("usage: Hull.Bench solve-file POINTS"); return 2; }
-    return OwnExecutable.SolveFile(args[1]);
+    Console.WriteLine(Hull.Solve.PointsFileSolver.SolveFile(args[1]).Summary.Format());
+    return 0;
 }
 
 if (args[0] == "write-points")
@@ -56,8 +58,8 @@ try
 {
     string report = suite switch
     {
-        Hull3d4dSuite.Name => Hull3d4dSuite.Run(options, work),
-        Hull6d8dSuite.Name => Hull6d8dSuite.Run(options, work),
+        Hull3d4dSuite.Name => Hull3d4dSuite.Run(options, work, repoRoot),
+        Hull6d8dSuite.Name => Hull6d8dSuite.Run(options, work, repoRoot),
         Dataset60Suite.Name => Dataset60Suite.Run(options, work),
         _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, dataset60)"),
     };
@@ -69,6 +71,12 @@ catch (ArgumentException e)
 {
     Console.Error.WriteLine(e.Message);
     return 2;
+}
+catch (InvalidOperationException e)
+{
+    // A reference tool or our own executable could not be built or run, or disagreed: the message says which.
+    Console.Error.WriteLine($"error: {e.Message}");
+    return 1;
 }
 finally
 {

@@ -5,7 +5,8 @@ namespace Hull.Bench.Data;
 
 /// <summary>
 /// Points of one chemical system for the hull benchmarks: exact integer amounts per component and an energy per
-/// atom (eV/atom). Also reads and writes the two text formats the whole-process runs parse.
+/// atom (eV/atom). Also writes the two text formats the whole-process runs parse (ours is read by
+/// Hull.Solve.PointsFileSolver.Read).
 /// </summary>
 public sealed class PointSet
 {
@@ -32,7 +33,7 @@ public sealed class PointSet
 
     /// <summary>
     /// Our own input format: a header line "components count", then one line per point with the integer amounts
-    /// and the energy per atom (round-trip decimal).
+    /// and the energy per atom (round-trip decimal), as Hull.Solve.PointsFileSolver.Read expects.
     /// </summary>
     public void WriteAmountsFile(string path)
     {
@@ -49,50 +50,6 @@ public sealed class PointSet
             }
             w.WriteLine(EnergiesEvPerAtom[i].ToString("R", CultureInfo.InvariantCulture));
         }
-    }
-
-    /// <summary>Reads <see cref="WriteAmountsFile"/>'s format; errors name the line and field.</summary>
-    public static PointSet ReadAmountsFile(string path)
-    {
-        using var r = new StreamReader(path, Encoding.UTF8, false, 1 << 16);
-        string header = r.ReadLine() ?? throw new FormatException($"{path}: empty file, expected 'components count'.");
-        var head = header.Split(' ', StringSplitOptions.RemoveEmptyEntries);
-        if (head.Length != 2
-            || !int.TryParse(head[0], NumberStyles.Integer, CultureInfo.InvariantCulture, out int n)
-            || !int.TryParse(head[1], NumberStyles.Integer, CultureInfo.InvariantCulture, out int count)
-            || n < 1 || count < 0)
-        {
-            throw new FormatException($"{path} line 1: expected 'components count', got '{header}'.");
-        }
-        var amounts = new long[count][];
-        var energies = new double[count];
-        for (int i = 0; i < count; i++)
-        {
-            int lineNo = i + 2;
-            string line = r.ReadLine() ?? throw new FormatException($"{path}: file ends at line {lineNo}; the header promised {count} points.");
-            var span = line.AsSpan();
-            var row = new long[n];
-            int field = 0;
-            foreach (var range in span.Split(' '))
-            {
-                var token = span[range];
-                if (token.IsEmpty) continue;
-                if (field < n)
-                {
-                    if (!long.TryParse(token, NumberStyles.Integer, CultureInfo.InvariantCulture, out row[field]))
-                        throw new FormatException($"{path} line {lineNo} field {field + 1}: '{token}' is not an integer amount.");
-                }
-                else if (field == n)
-                {
-                    if (!double.TryParse(token, NumberStyles.Float, CultureInfo.InvariantCulture, out energies[i]))
-                        throw new FormatException($"{path} line {lineNo} field {field + 1}: '{token}' is not a number (energy, eV/atom).");
-                }
-                field++;
-            }
-            if (field != n + 1) throw new FormatException($"{path} line {lineNo}: {field} fields, expected {n} amounts and an energy.");
-            amounts[i] = row;
-        }
-        return new PointSet(n, amounts, energies);
     }
 
     /// <summary>

@@ -4,6 +4,7 @@ using Hull.Bench.Data;
 using Hull.Bench.Measure;
 using Hull.Bench.References;
 using Hull.Core.Geometry;
+using Hull.Solve;
 
 namespace Hull.Bench.Suites;
 
@@ -19,9 +20,10 @@ public sealed record HullCasePlan(
     TimeSpan? OursCap = null);
 
 /// <summary>
-/// Runs one hull case: ours in-process (one untimed warm-up, then the timed repetitions of LowerHull.Build plus
-/// EnergyAboveHull for every point), ours as a whole process on a points file, qconvex as a whole process on the
-/// same points lifted, interleaved repetition by repetition so that machine noise hits both alike, and the LP check.
+/// Runs one hull case: ours in-process (one untimed warm-up, then the timed repetitions of
+/// <see cref="PointsFileSolver.Solve"/>: LowerHull.Build plus EnergyAboveHull for every point), ours as a whole
+/// process (the Native AOT Hull.Solve on a points file), qconvex as a whole process on the same points lifted,
+/// interleaved repetition by repetition so that machine noise hits both alike, and the LP check.
 /// </summary>
 public static class HullCaseRunner
 {
@@ -34,7 +36,8 @@ public static class HullCaseRunner
     /// </summary>
     public const double LongRunMs = 20_000;
 
-    public static HullCaseResult Run(HullCasePlan plan, string workDirectory, int seed)
+    /// <param name="ourExecutable">The published Native AOT solver (<see cref="NativeSolver.Publish"/>).</param>
+    public static HullCaseResult Run(HullCasePlan plan, string workDirectory, int seed, string ourExecutable)
     {
         var pts = plan.Points;
         var result = new HullCaseResult
@@ -51,6 +54,7 @@ public static class HullCaseRunner
         string qhullOut = Path.Combine(workDirectory, "qconvex.out");
         pts.WriteAmountsFile(oursFile);
         pts.WriteQhullFile(qhullFile);
+        CheckReadBack(oursFile, pts);
 
         var procTimes = new List<double>();
         var procPeaks = new List<double>();
@@ -58,7 +62,7 @@ public static class HullCaseRunner
         if (plan.OursCap is { } oursCap)
         {
             // A case that may not finish: one capped whole-process run decides whether ours is timed in-process at all.
-            var run = ExternalRun.Run(OwnExecutable.Path, OwnExecutable.SolveFileArguments(oursFile), oursCap);
+            var run = ExternalRun.Run(ourExecutable, NativeSolver.Arguments(oursFile), oursCap);
             result.PeakProcessMb = run.PeakMegabytes;
             if (run.TimedOut)
             {
@@ -80,11 +84,12 @@ public static class HullCaseRunner
         }
 
         double[] ours = [];
+        SolveSummary? inProcessSummary = null;
         if (plan.InProcessReps > 0 && oursFinished)
         {
             ProcessMemory.ResetPeak();
             var times = new List<double>();
-            var first = SolveInProcess(pts, out LowerHull hull);
+            var first = SolveInProcess(pts, out SolvedPoints solved);
             if (first > LongRunMs)
             {
                 // JIT warm-up is milliseconds; on a run this long the first run is the measurement.
@@ -94,16 +99,17 @@ public static class HullCaseRunner
             else
             {
                 Console.WriteLine($"   warm-up in-process run (not counted): {first:F1} ms");
-                for (int r = 0; r < plan.InProcessReps; r++) times.Add(SolveInProcess(pts, out hull));
+                for (int r = 0; r < plan.InProcessReps; r++) times.Add(SolveInProcess(pts, out solved));
             }
             result.PeakInProcessMb = ProcessMemory.PeakMegabytes();
             result.InProcessMedianMs = Stats.Median(times);
             result.InProcessReps = times.Count;
-            result.Vertices = hull.VertexPoints.Count;
-            result.Facets = hull.Facets.Count;
+            inProcessSummary = solved.Summary;
+            result.Vertices = solved.Summary.Vertices;
+            result.Facets = solved.Summary.Facets;
+            result.OnHull = solved.Summary.OnHull;
             ours = new double[pts.Count];
-            for (int i = 0; i < pts.Count; i++) ours[i] = hull.EnergyAboveHull(i);
-            result.OnHull = ours.Count(e => e == 0.0);
+            for (int i = 0; i < pts.Count; i++) ours[i] = solved.Hull.EnergyAboveHull(i);
             Console.WriteLine($"   in-process: median {result.InProcessMedianMs:F1} ms over {times.Count} ({Join(times)}); vertices {result.Vertices}, lower facets {result.Facets}, on hull {result.OnHull}, peak {result.PeakInProcessMb:F0} MB");
         }
 
@@ -115,9 +121,9 @@ public static class HullCaseRunner
         {
             if (!oursDone)
             {
-                var run = ExternalRun.Run(OwnExecutable.Path, OwnExecutable.SolveFileArguments(oursFile), TimeSpan.FromMinutes(10));
+                var run = ExternalRun.Run(ourExecutable, NativeSolver.Arguments(oursFile), TimeSpan.FromMinutes(10));
                 if (!run.Succeeded) throw new InvalidOperationException($"our whole-process run failed (exit {run.ExitCode}): {run.StandardError}");
-                CheckProcessSummary(run.StandardOutput, result, ours);
+                CheckProcessSummary(run.StandardOutput, result, inProcessSummary);
                 procTimes.Add(run.WallMilliseconds);
                 procPeaks.Add(run.PeakMegabytes);
                 if (run.WallMilliseconds > LongRunMs && procTimes.Count < plan.ProcessReps)
@@ -193,17 +199,17 @@ public static class HullCaseRunner
     }
 
     /// <summary>
-    /// The fixed cost of a whole process of ours: median wall time (ms) of <paramref name="reps"/> solve-file runs on
-    /// a 2-component, 3-point file (runtime start-up, JIT of the path, a trivial hull).
+    /// The fixed cost of a whole process of ours: median wall time (ms) of <paramref name="reps"/> runs of the
+    /// native solver on a 2-component, 3-point file (process and runtime start-up, a trivial hull, exit).
     /// </summary>
-    public static double MeasureStartupMs(string workDirectory, int reps)
+    public static double MeasureStartupMs(string ourExecutable, string workDirectory, int reps)
     {
         string tiny = Path.Combine(workDirectory, "tiny.txt");
         new PointSet(2, [[1, 0], [0, 1], [1, 1]], [0.0, 0.0, -0.5]).WriteAmountsFile(tiny);
         var times = new List<double>();
         for (int r = 0; r < reps; r++)
         {
-            var run = ExternalRun.Run(OwnExecutable.Path, OwnExecutable.SolveFileArguments(tiny), TimeSpan.FromMinutes(1));
+            var run = ExternalRun.Run(ourExecutable, NativeSolver.Arguments(tiny), TimeSpan.FromMinutes(1));
             if (!run.Succeeded) throw new InvalidOperationException($"start-up run failed (exit {run.ExitCode}): {run.StandardError}");
             times.Add(run.WallMilliseconds);
         }
@@ -222,41 +228,57 @@ public static class HullCaseRunner
         return all.Take(sample).Order().ToArray();
     }
 
-    /// <summary>Ours, timed: build the hull and compute every point's energy above hull.</summary>
-    public static double SolveInProcess(PointSet pts, out LowerHull hull)
+    /// <summary>Ours, timed: the same solve the native executable runs after parsing (build, every energy above hull).</summary>
+    public static double SolveInProcess(PointSet pts, out SolvedPoints solved)
     {
         var sw = Stopwatch.StartNew();
-        hull = LowerHull.Build(pts.Amounts, pts.EnergiesEvPerAtom);
-        double sum = 0;
-        for (int i = 0; i < pts.Count; i++) sum += hull.EnergyAboveHull(i);
+        solved = PointsFileSolver.Solve(pts.Amounts, pts.EnergiesEvPerAtom);
         sw.Stop();
-        GC.KeepAlive(sum);
         return sw.Elapsed.TotalMilliseconds;
+    }
+
+    /// <summary>
+    /// The points file the whole process parses must hold exactly the generated points (amounts and energies bit for
+    /// bit), so that both runs solve the same input; read here with the parser the executable uses.
+    /// </summary>
+    private static void CheckReadBack(string pointsFile, PointSet pts)
+    {
+        var back = PointsFileSolver.Read(pointsFile);
+        if (back.Count != pts.Count || back.Components != pts.Components)
+        {
+            throw new InvalidOperationException($"{pointsFile} reads back as {back.Count} points of {back.Components} components, written {pts.Count} of {pts.Components}");
+        }
+        for (int i = 0; i < pts.Count; i++)
+        {
+            if (!back.Amounts[i].AsSpan().SequenceEqual(pts.Amounts[i])
+                || BitConverter.DoubleToInt64Bits(back.EnergiesEvPerAtom[i]) != BitConverter.DoubleToInt64Bits(pts.EnergiesEvPerAtom[i]))
+            {
+                throw new InvalidOperationException($"{pointsFile} line {i + 2} reads back differently from the generated point {i}");
+            }
+        }
     }
 
     private static void SetSizes(string stdout, HullCaseResult result)
     {
-        var fields = Fields(stdout);
-        result.Vertices = int.Parse(fields["vertices"], CultureInfo.InvariantCulture);
-        result.Facets = int.Parse(fields["facets"], CultureInfo.InvariantCulture);
-        result.OnHull = int.Parse(fields["on_hull"], CultureInfo.InvariantCulture);
+        var summary = SolveSummary.Parse(stdout);
+        result.Vertices = summary.Vertices;
+        result.Facets = summary.Facets;
+        result.OnHull = summary.OnHull;
     }
 
-    private static Dictionary<string, string> Fields(string stdout) =>
-        stdout.Trim().Split(' ').Select(f => f.Split('=')).Where(p => p.Length == 2).ToDictionary(p => p[0], p => p[1]);
+    /// <summary>Relative tolerance on the summed energies above hull between the two runs (sums of 1e5 terms).</summary>
+    private const double SumAgreementRelative = 1e-6;
 
-    private static void CheckProcessSummary(string stdout, HullCaseResult result, double[] ours)
+    private static void CheckProcessSummary(string stdout, HullCaseResult result, SolveSummary? inProcess)
     {
         // The child prints "vertices=V facets=F on_hull=H sum_eah=S"; it must agree with the in-process run.
-        var fields = Fields(stdout);
-        if (ours.Length == 0) { SetSizes(stdout, result); return; }
-        int v = int.Parse(fields["vertices"], CultureInfo.InvariantCulture);
-        int f = int.Parse(fields["facets"], CultureInfo.InvariantCulture);
-        double s = double.Parse(fields["sum_eah"], CultureInfo.InvariantCulture);
-        double expected = ours.Sum();
-        if (v != result.Vertices || f != result.Facets || Math.Abs(s - expected) > 1e-6 * Math.Max(1, Math.Abs(expected)))
+        if (inProcess is not { } expected) { SetSizes(stdout, result); return; }
+        var got = SolveSummary.Parse(stdout);
+        double tolerance = SumAgreementRelative * Math.Max(1, Math.Abs(expected.SumEnergyAboveHullEvPerAtom));
+        if (got.Vertices != expected.Vertices || got.Facets != expected.Facets || got.OnHull != expected.OnHull
+            || Math.Abs(got.SumEnergyAboveHullEvPerAtom - expected.SumEnergyAboveHullEvPerAtom) > tolerance)
         {
-            throw new InvalidOperationException($"whole-process run disagrees with in-process: {stdout.Trim()} vs vertices={result.Vertices} facets={result.Facets} sum_eah={expected}");
+            throw new InvalidOperationException($"whole-process run disagrees with in-process: {stdout.Trim()} vs {expected.Format()}");
         }
     }
 
