@@ -27,19 +27,21 @@ public sealed class PointsFile
 }
 
 /// <summary>
-/// The one-line output of a solve: "vertices=V facets=F on_hull=H sum_eah=S" (S round-trip, eV/atom), which the
-/// bench compares between the whole process and the in-process run.
+/// The one-line output of a solve: "engine=E vertices=V facets=F on_hull=H sum_eah=S" (E "hull" or "programs";
+/// F "none" where the engine builds no facets; S round-trip, eV/atom), which the bench compares between the whole
+/// process and the in-process run.
 /// </summary>
-public readonly record struct SolveSummary(int Vertices, int Facets, int OnHull, double SumEnergyAboveHullEvPerAtom)
+public readonly record struct SolveSummary(string Engine, int Vertices, int? Facets, int OnHull, double SumEnergyAboveHullEvPerAtom)
 {
     public string Format() => string.Create(CultureInfo.InvariantCulture,
-        $"vertices={Vertices} facets={Facets} on_hull={OnHull} sum_eah={SumEnergyAboveHullEvPerAtom:R}");
+        $"engine={Engine} vertices={Vertices} facets={(Facets is int f ? f.ToString(CultureInfo.InvariantCulture) : "none")} on_hull={OnHull} sum_eah={SumEnergyAboveHullEvPerAtom:R}");
 
     /// <summary>Reads <see cref="Format"/>'s line back; throws FormatException naming what is missing.</summary>
     public static SolveSummary Parse(string line)
     {
         int? vertices = null, facets = null, onHull = null;
         double? sum = null;
+        string? engine = null, facetsText = null;
         foreach (string field in line.Trim().Split(' ', StringSplitOptions.RemoveEmptyEntries))
         {
             int eq = field.IndexOf('=');
@@ -48,21 +50,25 @@ public readonly record struct SolveSummary(int Vertices, int Facets, int OnHull,
             switch (key)
             {
                 case "vertices": vertices = int.Parse(value, NumberStyles.Integer, CultureInfo.InvariantCulture); break;
-                case "facets": facets = int.Parse(value, NumberStyles.Integer, CultureInfo.InvariantCulture); break;
+                case "engine": engine = value; break;
+                case "facets":
+                    facetsText = value;
+                    facets = value == "none" ? null : int.Parse(value, NumberStyles.Integer, CultureInfo.InvariantCulture);
+                    break;
                 case "on_hull": onHull = int.Parse(value, NumberStyles.Integer, CultureInfo.InvariantCulture); break;
                 case "sum_eah": sum = double.Parse(value, NumberStyles.Float, CultureInfo.InvariantCulture); break;
             }
         }
-        if (vertices is null || facets is null || onHull is null || sum is null)
+        if (engine is null || vertices is null || facetsText is null || onHull is null || sum is null)
         {
-            throw new FormatException($"expected 'vertices=V facets=F on_hull=H sum_eah=S', got '{line.Trim()}'");
+            throw new FormatException($"expected 'engine=E vertices=V facets=F on_hull=H sum_eah=S', got '{line.Trim()}'");
         }
-        return new SolveSummary(vertices.Value, facets.Value, onHull.Value, sum.Value);
+        return new SolveSummary(engine, vertices.Value, facets, onHull.Value, sum.Value);
     }
 }
 
 /// <summary>A built hull and its summary.</summary>
-public sealed record SolvedPoints(LowerHull Hull, SolveSummary Summary);
+public sealed record SolvedPoints(IHullStability Hull, SolveSummary Summary);
 
 /// <summary>Read, build, summarise.</summary>
 public static class PointsFileSolver
@@ -74,10 +80,13 @@ public static class PointsFileSolver
         return Solve(points.Amounts, points.EnergiesEvPerAtom);
     }
 
-    /// <summary>LowerHull.Build, then the energy above hull of every entry (summed, and counted where zero).</summary>
+    /// <summary>
+    /// HullStability.Build (the engine the library picks for the data), then the energy above hull of every entry
+    /// (summed, and counted where zero).
+    /// </summary>
     public static SolvedPoints Solve(long[][] amounts, double[] energiesEvPerAtom)
     {
-        var hull = LowerHull.Build(amounts, energiesEvPerAtom);
+        var hull = HullStability.Build(amounts, energiesEvPerAtom);
         double sum = 0;
         int onHull = 0;
         for (int i = 0; i < energiesEvPerAtom.Length; i++)
@@ -86,7 +95,10 @@ public static class PointsFileSolver
             sum += e;
             if (e == 0.0) onHull++;
         }
-        return new SolvedPoints(hull, new SolveSummary(hull.VertexPoints.Count, hull.Facets.Count, onHull, sum));
+        var summary = hull is LowerHull facets
+            ? new SolveSummary("hull", hull.VertexPoints.Count, facets.Facets.Count, onHull, sum)
+            : new SolveSummary("programs", hull.VertexPoints.Count, null, onHull, sum);
+        return new SolvedPoints(hull, summary);
     }
 
     /// <summary>

@@ -37,7 +37,7 @@ public static class Hull3d4dSuite
             }
         }
         var text = MarkdownReport.Header(Name, o.CommandLine)
-            + $"\nOurs in-process: one untimed warm-up run, then the median of {inReps} timed runs of LowerHull.Build + EnergyAboveHull for every entry (in-process times exclude parsing; LowerHull uses both cores for point location). "
+            + $"\nOurs in-process: one untimed warm-up run, then the median of {inReps} timed runs of HullStability.Build + EnergyAboveHull for every entry (the engine the library picks, named in the engine column: the incremental hull, or one linear program per composition for ≤ 4096 compositions or ≥ 6 components; in-process times exclude parsing; both engines use both cores). "
             + $"Whole-process times (ours: `Hull.Solve IN`, bench/Hull.Solve published with Native AOT from the same sources the in-process runs use; qconvex: `{References.QconvexReference.CommandLine("IN", "OUT")}`) include start-up and parsing the same points from a text file; medians of {procReps} runs, interleaved ours/qconvex. "
             + $"qconvex computes the full convex hull (upper and lower) of the lifted points (n-1 fractions + energy), single-threaded. "
             + $"LP column: a seeded random sample of {lp} entries per case checked against SciPy HiGHS (each LP spans all 1e5 points).\n\n"

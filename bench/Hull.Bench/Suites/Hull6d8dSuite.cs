@@ -52,7 +52,7 @@ public static class Hull6d8dSuite
         var sb = new StringBuilder();
         sb.Append(MarkdownReport.Header(Name, o.CommandLine));
         sb.AppendLine();
-        sb.AppendLine("Ours in-process: one untimed warm-up, then the median of the timed runs (count in brackets) of LowerHull.Build + EnergyAboveHull for every entry. "
+        sb.AppendLine("Ours in-process: one untimed warm-up, then the median of the timed runs (count in brackets) of HullStability.Build + EnergyAboveHull for every entry (the engine the library picks, named in the engine column: in 6 and more components one linear program per composition, which builds no facets). "
             + $"Whole-process: ours as `Hull.Solve IN` (bench/Hull.Solve published with Native AOT, same sources as the in-process runs) and `{References.QconvexReference.CommandLine("IN", "OUT")}` on the same points (lifted: n-1 fractions + energy), parsing included, interleaved; "
             + $"qconvex capped at {capSeconds} s per run; 8 components × 2e4 entries: ours first runs once as a whole process under the same cap, and is timed in-process only if that finished. "
             + $"Any run longer than {HullCaseRunner.LongRunMs / 1000:F0} s is not repeated, and in-process such a run is a single cold run without warm-up (noted below). "

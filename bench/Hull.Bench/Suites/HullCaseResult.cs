@@ -19,7 +19,10 @@ public sealed class HullCaseResult
     /// <summary>The cap (ms) qconvex ran into, NaN if it finished.</summary>
     public double QconvexCapMs { get; set; } = double.NaN;
     public int Vertices { get; set; }
-    public int Facets { get; set; }
+    /// <summary>Lower facets, null where the engine builds none (the program engine).</summary>
+    public int? Facets { get; set; }
+    /// <summary>"hull" (incremental lower hull) or "programs" (one linear program per composition).</summary>
+    public string Engine { get; set; } = "";
     public int OnHull { get; set; }
     public double PeakInProcessMb { get; set; } = double.NaN;
     public double PeakProcessMb { get; set; } = double.NaN;

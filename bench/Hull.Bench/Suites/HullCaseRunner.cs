@@ -21,7 +21,7 @@ public sealed record HullCasePlan(
 
 /// <summary>
 /// Runs one hull case: ours in-process (one untimed warm-up, then the timed repetitions of
-/// <see cref="PointsFileSolver.Solve"/>: LowerHull.Build plus EnergyAboveHull for every point), ours as a whole
+/// <see cref="PointsFileSolver.Solve"/>: HullStability.Build plus EnergyAboveHull for every point), ours as a whole
 /// process (the Native AOT Hull.Solve on a points file), qconvex as a whole process on the same points lifted,
 /// interleaved repetition by repetition so that machine noise hits both alike, and the LP check.
 /// </summary>
@@ -107,10 +107,11 @@ public static class HullCaseRunner
             inProcessSummary = solved.Summary;
             result.Vertices = solved.Summary.Vertices;
             result.Facets = solved.Summary.Facets;
+            result.Engine = solved.Summary.Engine;
             result.OnHull = solved.Summary.OnHull;
             ours = new double[pts.Count];
             for (int i = 0; i < pts.Count; i++) ours[i] = solved.Hull.EnergyAboveHull(i);
-            Console.WriteLine($"   in-process: median {result.InProcessMedianMs:F1} ms over {times.Count} ({Join(times)}); vertices {result.Vertices}, lower facets {result.Facets}, on hull {result.OnHull}, peak {result.PeakInProcessMb:F0} MB");
+            Console.WriteLine($"   in-process: median {result.InProcessMedianMs:F1} ms over {times.Count} ({Join(times)}); vertices {result.Vertices}, engine {result.Engine}, lower facets {result.Facets?.ToString() ?? "not built"}, on hull {result.OnHull}, peak {result.PeakInProcessMb:F0} MB");
         }
 
         var qTimes = new List<double>();
@@ -263,6 +264,7 @@ public static class HullCaseRunner
         var summary = SolveSummary.Parse(stdout);
         result.Vertices = summary.Vertices;
         result.Facets = summary.Facets;
+        result.Engine = summary.Engine;
         result.OnHull = summary.OnHull;
     }
 
@@ -271,11 +273,11 @@ public static class HullCaseRunner
 
     private static void CheckProcessSummary(string stdout, HullCaseResult result, SolveSummary? inProcess)
     {
-        // The child prints "vertices=V facets=F on_hull=H sum_eah=S"; it must agree with the in-process run.
+        // The child prints "engine=E vertices=V facets=F on_hull=H sum_eah=S"; it must agree with the in-process run.
         if (inProcess is not { } expected) { SetSizes(stdout, result); return; }
         var got = SolveSummary.Parse(stdout);
         double tolerance = SumAgreementRelative * Math.Max(1, Math.Abs(expected.SumEnergyAboveHullEvPerAtom));
-        if (got.Vertices != expected.Vertices || got.Facets != expected.Facets || got.OnHull != expected.OnHull
+        if (got.Engine != expected.Engine || got.Vertices != expected.Vertices || got.Facets != expected.Facets || got.OnHull != expected.OnHull
             || Math.Abs(got.SumEnergyAboveHullEvPerAtom - expected.SumEnergyAboveHullEvPerAtom) > tolerance)
         {
             throw new InvalidOperationException($"whole-process run disagrees with in-process: {stdout.Trim()} vs {expected.Format()}");

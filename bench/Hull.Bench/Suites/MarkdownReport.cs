@@ -10,8 +10,8 @@ public static class MarkdownReport
     public static string HullTable(IEnumerable<HullCaseResult> results)
     {
         var sb = new StringBuilder();
-        sb.AppendLine("| case | entries | components | distinct compositions | ours in-process median [ms] (reps) | ours whole-process median [ms] (reps) | qconvex median [ms] (reps) | ratio qconvex / ours whole-process | ratio qconvex / ours in-process | hull vertices | lower facets | qconvex full-hull facets | peak MB ours in-process | peak MB ours process | peak MB qconvex | LP max \\|diff\\| [eV/atom] (points checked) |");
-        sb.AppendLine("|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|");
+        sb.AppendLine("| case | entries | components | distinct compositions | ours in-process median [ms] (reps) | ours whole-process median [ms] (reps) | qconvex median [ms] (reps) | ratio qconvex / ours whole-process | ratio qconvex / ours in-process | engine | hull vertices | lower facets | qconvex full-hull facets | peak MB ours in-process | peak MB ours process | peak MB qconvex | LP max \\|diff\\| [eV/atom] (points checked) |");
+        sb.AppendLine("|---|---:|---:|---:|---:|---:|---:|---:|---:|---|---:|---:|---:|---:|---:|---:|---:|");
         foreach (var r in results)
         {
             string q = r.QconvexReps > 0 ? $"{F(r.QconvexMedianMs)} ({r.QconvexReps})" : r.QconvexStatus;
@@ -27,8 +27,9 @@ public static class MarkdownReport
                 q,
                 Ratio(r.RatioToProcess, r),
                 Ratio(r.RatioToInProcess, r),
+                Finished(r) ? r.Engine : "—",
                 Finished(r) ? r.Vertices.ToString(CultureInfo.InvariantCulture) : "—",
-                Finished(r) ? r.Facets.ToString(CultureInfo.InvariantCulture) : "—",
+                Finished(r) && r.Facets is int facets ? facets.ToString(CultureInfo.InvariantCulture) : "—",
                 r.QconvexFacets?.ToString(CultureInfo.InvariantCulture) ?? "—",
                 F(r.PeakInProcessMb),
                 F(r.PeakProcessMb),
