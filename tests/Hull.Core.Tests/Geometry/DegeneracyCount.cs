@@ -9,7 +9,7 @@ namespace Hull.Core.Tests.Geometry;
 /// </summary>
 internal sealed record DegeneracyCount(int Vertices, int OnHullNotVertex, int TwinsOnHull, int CoplanarOnHull)
 {
-    public static DegeneracyCount Of(PointSet set, LowerHull hull)
+    public static DegeneracyCount Of(PointSet set, IHullStability hull)
     {
         var vertices = hull.VertexPoints.ToHashSet();
         int onHull = 0, twins = 0, coplanar = 0;

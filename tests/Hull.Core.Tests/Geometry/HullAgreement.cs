@@ -8,11 +8,11 @@ namespace Hull.Core.Tests.Geometry;
 /// Compares a built hull with LP reference answers (hull energy at each query) and checks each decomposition on its
 /// own terms; collects every disagreement so that one failing run shows them all.
 /// </summary>
-internal sealed class HullAgreement(PointSet set, LowerHull hull)
+internal sealed class HullAgreement(PointSet set, IHullStability hull)
 {
     /// <summary>
     /// Agreement required between our energies and the LP references (eV/atom): the LPs are solved to 1e-10
-    /// feasibility (or exactly), our facet arithmetic loses about 1e-15 relative, so 1e-9 leaves margin for both
+    /// feasibility (or exactly), our facet arithmetic and simplex bases lose about 1e-15 relative, so 1e-9 leaves margin for both
     /// while staying far below any physical energy difference.
     /// </summary>
     public const double EnergyToleranceEvPerAtom = 1e-9;
@@ -118,6 +118,15 @@ internal sealed class HullAgreement(PointSet set, LowerHull hull)
     {
         if (_failures.Count == 0) return;
         Assert.Fail($"{context}: {_failures.Count} disagreement(s):\n" + string.Join("\n", _failures.Take(25)));
+    }
+
+    /// <summary>Fails when any engine's check found a disagreement, naming each engine that disagreed.</summary>
+    public static void AssertNone(string context, params (string Engine, HullAgreement Check)[] checks)
+    {
+        var failing = checks.Where(c => c.Check._failures.Count > 0).ToList();
+        if (failing.Count == 0) return;
+        Assert.Fail($"{context}: " + string.Join("\n", failing.Select(c =>
+            $"{c.Engine} disagreed {c.Check._failures.Count} time(s):\n  " + string.Join("\n  ", c.Check._failures.Take(25)))));
     }
 
     private static string Decomposition(HullPosition p) =>

@@ -4,11 +4,19 @@ namespace Hull.Core.Tests.Geometry;
 
 /// <summary>
 /// Bad input is refused with a message that says what is wrong and where (project rule: row and field named).
+/// Both hull engines refuse the same input with the same message and parameter name.
 /// </summary>
 public sealed class InputValidationTests
 {
-    private static ArgumentException Refused(long[][] amounts, double[] energies) =>
-        Assert.Throws<ArgumentException>(() => LowerHull.Build(amounts, energies));
+    /// <summary>What <see cref="LowerHull.Build"/> throws, after checking that <see cref="LinearProgramHull.Build"/> throws the same.</summary>
+    private static ArgumentException Refused(long[][] amounts, double[] energies)
+    {
+        var facets = Assert.Throws<ArgumentException>(() => LowerHull.Build(amounts, energies));
+        var programs = Assert.Throws<ArgumentException>(() => LinearProgramHull.Build(amounts, energies));
+        Assert.Equal(facets.Message, programs.Message);
+        Assert.Equal(facets.ParamName, programs.ParamName);
+        return facets;
+    }
 
     [Fact]
     public void Negative_amount_names_point_and_component()
@@ -64,12 +72,30 @@ public sealed class InputValidationTests
     }
 
     [Fact]
-    public void Locate_refuses_compositions_off_the_simplex()
+    public void More_components_than_the_program_engine_takes_are_refused()
     {
-        var hull = LowerHull.Build([[1, 0], [0, 1]], [0, 0]);
+        // 65 components, one pure point each: fine input, but component sets are 64-bit masks in that engine.
+        const int n = LinearProgramHull.MaxComponents + 1;
+        var amounts = Enumerable.Range(0, n).Select(k => { var a = new long[n]; a[k] = 1; return a; }).ToArray();
+        var e = Assert.Throws<ArgumentException>(() => LinearProgramHull.Build(amounts, new double[n]));
+        Assert.StartsWith("65 components; this engine takes at most 64.", e.Message);
+        Assert.Equal("amounts", e.ParamName);
+        // Exactly 64 is still taken.
+        var at64 = Enumerable.Range(0, n - 1).Select(k => { var a = new long[n - 1]; a[k] = 1; return a; }).ToArray();
+        Assert.Equal(n - 1, LinearProgramHull.Build(at64, new double[n - 1]).VertexPoints.Count);
+    }
+
+    [Theory]
+    [InlineData(HullEngine.Facets)]
+    [InlineData(HullEngine.Programs)]
+    public void Locate_refuses_compositions_off_the_simplex(string engine)
+    {
+        var hull = HullEngine.Build(engine, [[1, 0], [0, 1]], [0, 0]);
         Assert.StartsWith("Expected 2 fractions, got 3.", Assert.Throws<ArgumentException>(() => hull.Locate([0.2, 0.3, 0.5])).Message);
         Assert.StartsWith("Fraction 0 is -0.1", Assert.Throws<ArgumentException>(() => hull.Locate([-0.1, 1.1])).Message);
         Assert.StartsWith("Fractions sum to 0.9", Assert.Throws<ArgumentException>(() => hull.Locate([0.4, 0.5])).Message);
         Assert.Throws<ArgumentOutOfRangeException>(() => hull.LocatePoint(2));
+        Assert.Throws<ArgumentOutOfRangeException>(() => hull.LocatePoint(-1));
+        Assert.Throws<ArgumentOutOfRangeException>(() => hull.EnergyAboveHull(2));
     }
 }

@@ -18,24 +18,29 @@ public sealed class InvarianceTests(ITestOutputHelper output)
     private const double SameEnergyEvPerAtom = 1e-12;
 
     [Theory]
-    [InlineData(3, 300, 301)]
-    [InlineData(4, 300, 302)]
-    [InlineData(6, 300, 303)]
-    [InlineData(8, 300, 304)]
-    [InlineData(10, 250, 305)]
-    public void Shuffled_input_gives_the_same_hull(int components, int points, int seed)
+    [InlineData(3, 300, 301, HullEngine.Facets)]
+    [InlineData(4, 300, 302, HullEngine.Facets)]
+    [InlineData(6, 300, 303, HullEngine.Facets)]
+    [InlineData(8, 300, 304, HullEngine.Facets)]
+    [InlineData(10, 250, 305, HullEngine.Facets)]
+    [InlineData(3, 300, 301, HullEngine.Programs)]
+    [InlineData(4, 300, 302, HullEngine.Programs)]
+    [InlineData(6, 300, 303, HullEngine.Programs)]
+    [InlineData(8, 300, 304, HullEngine.Programs)]
+    [InlineData(10, 250, 305, HullEngine.Programs)]
+    public void Shuffled_input_gives_the_same_hull(int components, int points, int seed, string engine)
     {
         var set = DegenerateDataGenerator.Generate(components, points, seed);
         var clock = Stopwatch.StartNew();
-        var hull = LowerHull.Build(set.Amounts, set.EnergiesEvPerAtom);
-        output.WriteLine($"input order: build {clock.ElapsedMilliseconds} ms, {hull.Facets.Count} facets");
+        var hull = HullEngine.Build(engine, set.Amounts, set.EnergiesEvPerAtom);
+        output.WriteLine($"{engine}, input order: build {clock.ElapsedMilliseconds} ms{FacetCount(hull)}");
         var stable = StableSet(set, hull);
         for (int shuffle = 0; shuffle < 2; shuffle++)
         {
             var shuffled = set.Shuffled(seed * 10 + shuffle, out var order);
             clock.Restart();
-            var other = LowerHull.Build(shuffled.Amounts, shuffled.EnergiesEvPerAtom);
-            output.WriteLine($"shuffle {shuffle}: build {clock.ElapsedMilliseconds} ms, {other.Facets.Count} facets");
+            var other = HullEngine.Build(engine, shuffled.Amounts, shuffled.EnergiesEvPerAtom);
+            output.WriteLine($"shuffle {shuffle}: build {clock.ElapsedMilliseconds} ms{FacetCount(other)}");
             clock.Restart();
             Assert.Equal(stable, StableSet(shuffled, other));
             for (int j = 0; j < shuffled.Count; j++)
@@ -48,8 +53,57 @@ public sealed class InvarianceTests(ITestOutputHelper output)
         }
     }
 
+    /// <summary>
+    /// The program engine solves groups of compositions in parallel, each chunk warm-started from its own previous
+    /// optimum. Where several decompositions tie, which one is reported must still not depend on how threads
+    /// share the chunks: builds run alone and side by side on the same input must agree bit for bit. The general-
+    /// position set puts all its interior points in one group of compositions, so that group spans many chunks.
+    /// </summary>
+    [Theory]
+    [InlineData("degenerate", 8, 1000, 311)]
+    [InlineData("general position", 6, 1500, 312)]
+    public void Program_engine_results_do_not_depend_on_thread_scheduling(string kind, int components, int points, int seed)
+    {
+        var set = kind == "degenerate"
+            ? DegenerateDataGenerator.Generate(components, points, seed)
+            : GeneralPositionGenerator.Generate(components, points, seed);
+        var queries = RandomCompositions.Generate(components, 50, seed + 1);
+        var clock = Stopwatch.StartNew();
+        var alone = LinearProgramHull.Build(set.Amounts, set.EnergiesEvPerAtom);
+        output.WriteLine($"{kind}, {components} components, {set.Count} points: build alone {clock.ElapsedMilliseconds} ms");
+        clock.Restart();
+        // Three builds at once compete for the thread pool, so their chunks are scheduled differently from the first.
+        var together = Enumerable.Range(0, 3).AsParallel().WithDegreeOfParallelism(3)
+            .Select(_ => LinearProgramHull.Build(set.Amounts, set.EnergiesEvPerAtom)).ToArray();
+        output.WriteLine($"three builds side by side {clock.ElapsedMilliseconds} ms");
+        foreach (var other in together)
+        {
+            Assert.Equal(alone.VertexPoints, other.VertexPoints);
+            for (int i = 0; i < set.Count; i++)
+            {
+                AssertSame(alone.LocatePoint(i), other.LocatePoint(i), set.Describe(i));
+                Assert.Equal(alone.EnergyAboveHull(i), other.EnergyAboveHull(i));
+                Assert.Equal(alone.HullEnergyWithoutComposition(i), other.HullEnergyWithoutComposition(i));
+            }
+            foreach (var x in queries) AssertSame(alone.Locate(x), other.Locate(x), "a random composition");
+        }
+    }
+
+    private static void AssertSame(HullPosition expected, HullPosition actual, string where)
+    {
+        Assert.True(expected.VertexPoints.SequenceEqual(actual.VertexPoints)
+            && expected.AtomFractions.SequenceEqual(actual.AtomFractions)
+            && expected.HullEnergyEvPerAtom.Equals(actual.HullEnergyEvPerAtom),
+            $"{where}: {Describe(expected)} in one build, {Describe(actual)} in another");
+    }
+
+    private static string Describe(HullPosition p) =>
+        $"{p.HullEnergyEvPerAtom:R} = " + string.Join(" + ", p.VertexPoints.Select((v, i) => $"{p.AtomFractions[i]:R}*#{v}"));
+
+    private static string FacetCount(IHullStability hull) => hull is LowerHull facets ? $", {facets.Facets.Count} facets" : "";
+
     /// <summary>Hull vertices as (reduced composition, energy), sorted: independent of indices and amount scale.</summary>
-    private static List<string> StableSet(PointSet set, LowerHull hull) =>
+    private static List<string> StableSet(PointSet set, IHullStability hull) =>
         hull.VertexPoints.Select(i => $"{string.Join(":", Reduced(set.Amounts[i]))} {set.EnergiesEvPerAtom[i]:R}").Order(StringComparer.Ordinal).ToList();
 
     private static long[] Reduced(long[] a)

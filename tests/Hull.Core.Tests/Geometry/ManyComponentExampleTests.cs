@@ -8,16 +8,20 @@ public sealed class ManyComponentExampleTests
     private static long[] Pure(int n, int k) { var a = new long[n]; a[k] = 1; return a; }
 
     [Theory]
-    [InlineData(2)]
-    [InlineData(5)]
-    [InlineData(8)]
-    [InlineData(10)]
-    public void Pure_points_alone_give_the_flat_hull_at_zero(int n)
+    [InlineData(2, HullEngine.Facets)]
+    [InlineData(5, HullEngine.Facets)]
+    [InlineData(8, HullEngine.Facets)]
+    [InlineData(10, HullEngine.Facets)]
+    [InlineData(2, HullEngine.Programs)]
+    [InlineData(5, HullEngine.Programs)]
+    [InlineData(8, HullEngine.Programs)]
+    [InlineData(10, HullEngine.Programs)]
+    public void Pure_points_alone_give_the_flat_hull_at_zero(int n, string engine)
     {
         // Only the n pure points at 0 eV/atom: the hull is the single plane E = 0, every pure point a vertex, and
         // the equimolar composition decomposes into all n with 1/n of the atoms each (worked by hand).
         var amounts = Enumerable.Range(0, n).Select(k => Pure(n, k)).ToList();
-        var hull = LowerHull.Build(amounts, new double[n]);
+        var hull = HullEngine.Build(engine, amounts, new double[n]);
         Assert.Equal(Enumerable.Range(0, n), hull.VertexPoints);
         var x = Enumerable.Repeat(1.0 / n, n).ToArray();
         var at = hull.Locate(x);
@@ -27,12 +31,17 @@ public sealed class ManyComponentExampleTests
     }
 
     [Theory]
-    [InlineData(3)]
-    [InlineData(5)]
-    [InlineData(6)]
-    [InlineData(8)]
-    [InlineData(10)]
-    public void One_equimolar_compound_below_the_pure_points(int n)
+    [InlineData(3, HullEngine.Facets)]
+    [InlineData(5, HullEngine.Facets)]
+    [InlineData(6, HullEngine.Facets)]
+    [InlineData(8, HullEngine.Facets)]
+    [InlineData(10, HullEngine.Facets)]
+    [InlineData(3, HullEngine.Programs)]
+    [InlineData(5, HullEngine.Programs)]
+    [InlineData(6, HullEngine.Programs)]
+    [InlineData(8, HullEngine.Programs)]
+    [InlineData(10, HullEngine.Programs)]
+    public void One_equimolar_compound_below_the_pure_points(int n, string engine)
     {
         // n pure points at 0 and the equimolar compound (1, 1, ..., 1) at -1 eV/atom (worked by hand): the compound
         // is a vertex, the hull energy at the equimolar composition is -1, and at a composition halfway between the
@@ -40,7 +49,7 @@ public sealed class ManyComponentExampleTests
         var amounts = Enumerable.Range(0, n).Select(k => Pure(n, k)).Append(Enumerable.Repeat(1L, n).ToArray()).ToList();
         var energies = new double[n + 1];
         energies[n] = -1.0;
-        var hull = LowerHull.Build(amounts, energies);
+        var hull = HullEngine.Build(engine, amounts, energies);
         Assert.Equal(Enumerable.Range(0, n + 1), hull.VertexPoints);
         Assert.Equal(0.0, hull.EnergyAboveHull(n));
         Assert.Equal(-1.0, hull.Locate(Enumerable.Repeat(1.0 / n, n).ToArray()).HullEnergyEvPerAtom, 12);

@@ -6,7 +6,10 @@ using Xunit.Abstractions;
 
 namespace Hull.Core.Tests.Geometry;
 
-/// <summary>Our lower-hull vertices against the full convex hull computed by qconvex (Debian qhull-bin).</summary>
+/// <summary>
+/// Our lower-hull vertices (both engines) and facets (<see cref="LowerHull"/>) against the full convex hull
+/// computed by qconvex (Debian qhull-bin).
+/// </summary>
 public sealed class QhullVertexTests(ITestOutputHelper output)
 {
     /// <summary>
@@ -38,17 +41,15 @@ public sealed class QhullVertexTests(ITestOutputHelper output)
     public void Lower_hull_vertices_match_qconvex_in_general_position(int components, int points, int seed)
     {
         var set = GeneralPositionGenerator.Generate(components, points, seed);
-        var clock = Stopwatch.StartNew();
-        var hull = LowerHull.Build(set.Amounts, set.EnergiesEvPerAtom);
-        var ours = hull.VertexPoints.ToHashSet();
-        var buildTime = clock.Elapsed;
+        var engines = BothEngines.Build(set);
+        var hull = engines.Facets;
 
         // Lift each point to (x_1, ..., x_{n-1}, E): the first n-1 fractions are independent coordinates of the
         // composition simplex, the last fraction is 1 minus their sum.
         var lifted = Enumerable.Range(0, set.Count)
             .Select(i => set.Fractions(i).Take(components - 1).Append(set.EnergiesEvPerAtom[i]).ToArray())
             .ToList();
-        clock.Restart();
+        var clock = Stopwatch.StartNew();
         var facets = QconvexRunner.Facets(lifted);
         var referenceTime = clock.Elapsed;
 
@@ -56,13 +57,22 @@ public sealed class QhullVertexTests(ITestOutputHelper output)
         // down in energy; their vertices are the lower-hull vertices (the pure points are always among them).
         var lower = facets.Where(f => f.OutwardNormal[^1] < -VerticalNormalTolerance).ToList();
         var reference = lower.SelectMany(f => f.Vertices).ToHashSet();
-        output.WriteLine($"{components} components, {set.Count} points: {ours.Count} vertices, {facets.Count} qconvex facets "
-            + $"({lower.Count} lower); build {buildTime.TotalMilliseconds:F0} ms, qconvex {referenceTime.TotalMilliseconds:F0} ms");
+        output.WriteLine($"{components} components, {set.Count} points: {reference.Count} qconvex lower vertices, {facets.Count} qconvex facets "
+            + $"({lower.Count} lower); {engines.Timings}, qconvex {referenceTime.TotalMilliseconds:F0} ms");
 
-        var missing = reference.Except(ours).Order().Select(set.Describe).ToList();
-        var extra = ours.Except(reference).Order().Select(set.Describe).ToList();
-        Assert.True(missing.Count == 0 && extra.Count == 0,
-            $"qconvex lower-hull vertices we lack:\n{string.Join("\n", missing)}\nour vertices qconvex lacks:\n{string.Join("\n", extra)}");
+        // Both engines' vertices against the same qconvex run.
+        var disagreements = new List<string>();
+        foreach (var (name, engine) in engines.All)
+        {
+            var ours = engine.VertexPoints.ToHashSet();
+            var missing = reference.Except(ours).Order().Select(set.Describe).ToList();
+            var extra = ours.Except(reference).Order().Select(set.Describe).ToList();
+            if (missing.Count > 0 || extra.Count > 0)
+            {
+                disagreements.Add($"{name}: qconvex lower-hull vertices it lacks:\n{string.Join("\n", missing)}\nits vertices qconvex lacks:\n{string.Join("\n", extra)}");
+            }
+        }
+        Assert.True(disagreements.Count == 0, string.Join("\n", disagreements));
 
         // In general position the lower hull is a unique triangulation, so the facets themselves must agree.
         var ourFacets = hull.Facets.Select(f => FacetKey(f.VertexPoints)).ToHashSet();

@@ -35,4 +35,21 @@ public sealed class ReferenceRunnerTests
             ToolProcess.Run("sleep", ["30"], Path.GetTempPath(), TimeSpan.FromMilliseconds(300), "coreutils"));
         Assert.Contains("did not finish within", e.Message);
     }
+
+    [Fact]
+    public void Scipy_lp_leaves_out_excluded_points()
+    {
+        // Worked by hand: A and B at 0 eV/atom, AB (1:1) at -0.4. At x = (1/2, 1/2) the hull energy is -0.4 (all atoms
+        // in AB); with AB left out only A + B remain, half the atoms each, at 0.
+        long[][] amounts = [[1, 0], [0, 1], [1, 1]];
+        double[] energies = [0.0, 0.0, -0.4];
+        double[][] queries = [[0.5, 0.5], [0.5, 0.5]];
+        var answers = ScipyLpRunner.Solve(new HullLpProblem(amounts, energies, queries, [[], [2]]));
+        // SciPy linprog HiGHS, Debian python3-scipy
+        Assert.Equal(-0.4, answers[0].HullEnergyEvPerAtom, 9);
+        Assert.Equal([2], answers[0].Phases);
+        Assert.Equal(0.0, answers[1].HullEnergyEvPerAtom, 9);
+        Assert.Equal([0, 1], answers[1].Phases.Order());
+        Assert.Throws<ArgumentException>(() => GlpkLpRunner.Solve(new HullLpProblem(amounts, energies, queries, [[], [2]])));
+    }
 }

@@ -18,6 +18,8 @@ public static class GlpkLpRunner
     /// </param>
     public static IReadOnlyList<HullLpAnswer> Solve(HullLpProblem problem, bool exactCheck = true)
     {
+        // The MathProg model has no per-query exclusions; a problem that needs them goes to SciPy.
+        if (problem.HasExclusions) throw new ArgumentException("The GLPK reference does not take excluded points.", nameof(problem));
         string model = Path.Combine(AppContext.BaseDirectory, "References", ModelName);
         if (!File.Exists(model)) throw new ReferenceToolException($"The LP model {model} was not copied to the test output.");
         using var scratch = new ScratchFolder("glpk");

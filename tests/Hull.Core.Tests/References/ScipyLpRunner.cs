@@ -22,12 +22,17 @@ public static class ScipyLpRunner
 
     public static IReadOnlyList<HullLpAnswer> Solve(HullLpProblem problem)
     {
+        if (problem.ExcludedPerQuery is not null && problem.ExcludedPerQuery.Count != problem.Queries.Count)
+        {
+            throw new ArgumentException($"{problem.ExcludedPerQuery.Count} exclusion lists for {problem.Queries.Count} queries.", nameof(problem));
+        }
         string script = Path.Combine(AppContext.BaseDirectory, "References", ScriptName);
         if (!File.Exists(script)) throw new ReferenceToolException($"The LP script {script} was not copied to the test output.");
         using var scratch = new ScratchFolder("scipy");
         string input = scratch.File("problem.json");
         string output = scratch.File("answers.json");
-        File.WriteAllText(input, JsonSerializer.Serialize(new Problem(problem.Amounts, problem.EnergiesEvPerAtom, problem.Queries)));
+        File.WriteAllText(input, JsonSerializer.Serialize(new Problem(problem.Amounts, problem.EnergiesEvPerAtom, problem.Queries,
+            problem.ExcludedPerQuery ?? problem.Queries.Select(_ => Array.Empty<int>()).ToList())));
         ToolProcess.Run(Python, [script, input, output], scratch.Path, Timeout, "python3-scipy");
 
         Answers parsed;
@@ -58,7 +63,8 @@ public static class ScipyLpRunner
     private sealed record Problem(
         [property: JsonPropertyName("amounts")] IReadOnlyList<long[]> Amounts,
         [property: JsonPropertyName("energies")] IReadOnlyList<double> Energies,
-        [property: JsonPropertyName("queries")] IReadOnlyList<double[]> Queries);
+        [property: JsonPropertyName("queries")] IReadOnlyList<double[]> Queries,
+        [property: JsonPropertyName("excluded")] IReadOnlyList<int[]> Excluded);
 
     private sealed record Answers(
         [property: JsonPropertyName("scipy")] string Version,

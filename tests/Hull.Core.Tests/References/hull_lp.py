@@ -5,7 +5,8 @@ where x_j = amounts_j / sum(amounts_j) are the points' composition fractions and
 The optimum is the lower-hull energy at x_q and the lambdas with positive value are a decomposition into points.
 
 usage: python3 hull_lp.py problem.json answers.json
-problem.json: {"amounts": [[int, ...], ...], "energies": [float, ...], "queries": [[float, ...], ...]}
+problem.json: {"amounts": [[int, ...], ...], "energies": [float, ...], "queries": [[float, ...], ...],
+               "excluded": [[int, ...], ...]}   (optional; per query, points whose lambda is held at 0)
 answers.json: {"scipy": version, "answers": [{"hull_energy": float, "phases": [int], "weights": [float],
                "residual": float}, ...]}   (one answer per query, in order)
 """
@@ -36,10 +37,17 @@ def main():
         "primal_feasibility_tolerance": FEASIBILITY_TOLERANCE,
         "dual_feasibility_tolerance": FEASIBILITY_TOLERANCE,
     }
+    excluded = problem.get("excluded") or [[] for _ in problem["queries"]]
+    if len(excluded) != len(problem["queries"]):
+        sys.exit("one exclusion list per query expected")
     answers = []
     for index, query in enumerate(problem["queries"]):
         b_eq = np.array(query, dtype=np.float64)
-        result = linprog(energies, A_eq=a_eq, b_eq=b_eq, bounds=(0, None), method="highs", options=options)
+        # An excluded point keeps its column with upper bound 0, so indices and the residual stay those of all points.
+        bounds = [(0, None)] * len(energies)
+        for p in excluded[index]:
+            bounds[p] = (0, 0)
+        result = linprog(energies, A_eq=a_eq, b_eq=b_eq, bounds=bounds, method="highs", options=options)
         if result.status != 0:
             sys.exit(f"query {index}: linprog status {result.status}: {result.message}")
         lam = result.x
