@@ -57,15 +57,18 @@ internal sealed class BlockSimplex
 
     /// <summary>
     /// Solves the program at fractions <paramref name="x"/> (one value per row of the block, all positive or zero,
-    /// summing to 1) without column <paramref name="excluded"/> (-1 for none). <paramref name="basis"/> holds k
+    /// summing to 1) without column <paramref name="excluded"/> (-1 for none) and without the columns flagged in
+    /// <paramref name="excludedColumns"/> (if given; never a pure corner). <paramref name="basis"/> holds k
     /// columns: on entry a starting basis (if <paramref name="warm"/>, else overwritten by the pure corners), on
     /// exit the optimal one; <paramref name="weights"/> receives their weights. Returns the hull energy, eV/atom.
     /// </summary>
-    public double Solve(ColumnBlock block, ReadOnlySpan<double> x, int excluded, Span<int> basis, Span<double> weights, bool warm)
+    public double Solve(ColumnBlock block, ReadOnlySpan<double> x, int excluded, Span<int> basis, Span<double> weights, bool warm,
+        bool[]? excludedColumns = null)
     {
         int k = block.Components.Length;
         if (k > _maxRows) throw new ArgumentException($"The block has {k} rows; this solver was sized for {_maxRows}.");
-        if (warm && !(TryFactor(block, basis, k) && PrimalFeasible(x, k) && !Contains(basis, k, excluded)))
+        if (warm && !(TryFactor(block, basis, k) && PrimalFeasible(x, k) && !Contains(basis, k, excluded)
+            && (excludedColumns is null || !ContainsFlagged(basis, k, excludedColumns))))
         {
             warm = false;
         }
@@ -93,7 +96,9 @@ internal sealed class BlockSimplex
             SmallLinearSolver.SolveTransposed(_lu.AsSpan(0, k * k), k, _pivots.AsSpan(0, k), mu);
 
             bool bland = stall >= StallStepsBeforeBland;
-            int entering = bland ? FirstBelow(block, mu, excluded) : LowestBelow(block, mu, excluded);
+            int entering = bland || excludedColumns is not null
+                ? FirstOrLowestBelow(block, mu, excluded, excludedColumns, lowest: !bland)
+                : LowestBelow(block, mu, excluded);
             if (entering < 0) break;
 
             // Direction: B d = a_entering; the leaving column is the first weight to reach 0 along it.
@@ -139,6 +144,12 @@ internal sealed class BlockSimplex
     private static bool Contains(Span<int> basis, int k, int column)
     {
         for (int i = 0; i < k; i++) if (basis[i] == column) return true;
+        return false;
+    }
+
+    private static bool ContainsFlagged(Span<int> basis, int k, bool[] flagged)
+    {
+        for (int i = 0; i < k; i++) if (flagged[basis[i]]) return true;
         return false;
     }
 
@@ -237,18 +248,29 @@ internal sealed class BlockSimplex
         }
     }
 
-    /// <summary>The lowest-index column with reduced cost below −threshold, or -1 (Bland's rule).</summary>
-    private static int FirstBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded)
+    /// <summary>
+    /// With <paramref name="lowest"/>, the column of most negative reduced cost (Dantzig's rule), else the
+    /// lowest-index column (Bland's rule), below −threshold and not excluded; -1 if none. A plain scan: this path
+    /// serves the rare solves with excluded columns and the degenerate stretches.
+    /// </summary>
+    private static int FirstOrLowestBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns, bool lowest)
     {
         int k = mu.Length;
+        int best = -1;
+        double bestCost = -EnteringReducedCost;
         for (int j = 0; j < block.Count; j++)
         {
-            if (j == excluded) continue;
+            if (j == excluded || (excludedColumns is not null && excludedColumns[j])) continue;
             double cost = block.Energies[j];
             for (int r = 0; r < k; r++) cost -= mu[r] * block.Rows[r * block.Stride + j];
-            if (cost < -EnteringReducedCost) return j;
+            if (cost < bestCost)
+            {
+                if (!lowest) return j;
+                bestCost = cost;
+                best = j;
+            }
         }
-        return -1;
+        return best;
     }
 }
 

@@ -38,7 +38,9 @@ public sealed class LinearProgramHull : IHullStability
     private readonly double[][] _decompositionWeights;
     private readonly ConcurrentDictionary<ulong, ColumnBlock> _locateBlocks = new();
 
-    // On-demand mode only (see Prepare): which compositions are solved, and the state of the last solve.
+    // On-demand mode only (see Prepare): which compositions have their hull energy without themselves (and so
+    // their vertex status), which are fully solved (decomposition into vertices only), and the last solve's state.
+    private readonly bool[]? _valueSolved;
     private readonly bool[]? _solved;
     private readonly Dictionary<ulong, ColumnBlock>? _blocks;
     private readonly int[]? _columnInBlock;
@@ -58,6 +60,7 @@ public sealed class LinearProgramHull : IHullStability
         if (onDemand)
         {
             _solved = new bool[compositions];
+            _valueSolved = new bool[compositions];
             _blocks = new Dictionary<ulong, ColumnBlock>();
             _columnInBlock = new int[input.Energies.Length];
             foreach (var (_, points) in groups)
@@ -130,7 +133,8 @@ public sealed class LinearProgramHull : IHullStability
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     public double EnergyAboveHull(int pointIndex)
     {
-        double above = _input.Energies[pointIndex] - _hullEnergy[Solved(pointIndex)];
+        int c = Solved(pointIndex);
+        double above = _input.Energies[pointIndex] - _hullEnergy[c];
         return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
     }
 
@@ -177,6 +181,7 @@ public sealed class LinearProgramHull : IHullStability
         Span<double> weights = stackalloc double[rows];
         double energy = new BlockSimplex(rows).Solve(block, x, excluded: -1, basis, weights, warm: false);
         var (points, fractionsOut) = Decomposition(block, basis, weights);
+        if (!AllVertices(points)) (points, fractionsOut) = VerticesOnly(block, x, -1, points);
         return new HullPosition(-1, points, fractionsOut, energy);
     }
 
@@ -232,15 +237,75 @@ public sealed class LinearProgramHull : IHullStability
 
             // Small groups (the many small hulls of a dataset, already built in parallel one level up) run inline:
             // handing them to the thread pool costs more than it saves and makes the outer workers spin.
-            if (chunks > 1 && (long)points.Length * block.Count * rows >= ParallelWork)
+            bool parallel = chunks > 1 && (long)points.Length * block.Count * rows >= ParallelWork;
+            if (parallel) Parallel.For(0, chunks, SolveChunk);
+            else for (int chunk = 0; chunk < chunks; chunk++) SolveChunk(chunk);
+
+            // Every subset mask is numerically smaller, so all columns of this block now have their vertex status.
+            void FinishChunk(int chunk)
             {
-                Parallel.For(0, chunks, SolveChunk);
+                int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
+                for (int q = chunk * ChunkSize; q < end; q++) FinishDecomposition(points[q], block);
             }
-            else
-            {
-                for (int chunk = 0; chunk < chunks; chunk++) SolveChunk(chunk);
-            }
+            if (parallel) Parallel.For(0, chunks, FinishChunk);
+            else for (int chunk = 0; chunk < chunks; chunk++) FinishChunk(chunk);
         }
+    }
+
+    /// <summary>
+    /// Makes the decomposition of a non-vertex composition use vertices only. The optimal basis may contain a
+    /// point that lies exactly on the hull without being a vertex (an exact mixture of others); the program is
+    /// then solved again without such columns until none is left. The hull energy does not change (a mixture's
+    /// vertices give the same energy), only which equivalent phases are named.
+    /// </summary>
+    private void FinishDecomposition(int point, ColumnBlock block)
+    {
+        int c = _input.CompositionOf[point];
+        if (_isVertex[point] || AllVertices(_decompositionPoints[c])) return;
+        var x = new double[block.Components.Length];
+        for (int r = 0; r < x.Length; r++) x[r] = _input.Fractions[point * ComponentCount + block.Components[r]];
+        (_decompositionPoints[c], _decompositionWeights[c]) = VerticesOnly(block, x, point, _decompositionPoints[c]);
+    }
+
+    /// <summary>
+    /// Solves the program at x again without <paramref name="ownPoint"/> (-1: none) and without every non-vertex
+    /// column met in a decomposition, starting from <paramref name="decomposition"/>, until only vertices remain.
+    /// </summary>
+    private (int[] Points, double[] Fractions) VerticesOnly(ColumnBlock block, ReadOnlySpan<double> x, int ownPoint, int[] decomposition)
+    {
+        int rows = block.Components.Length;
+        var excluded = new bool[block.Count];
+        if (ownPoint >= 0) excluded[Array.IndexOf(block.Points, ownPoint)] = true;
+        var solver = new BlockSimplex(rows);
+        var basis = new int[rows];
+        var weights = new double[rows];
+        int[] current = decomposition;
+        // Each round excludes at least one more column, so this ends within the block's size.
+        for (int round = 0; round <= block.Count; round++)
+        {
+            foreach (int q in current)
+            {
+                if (!IsVertexColumn(q)) excluded[Array.IndexOf(block.Points, q)] = true;
+            }
+            solver.Solve(block, x, -1, basis, weights, warm: false, excluded);
+            var (points, fractions) = Decomposition(block, basis, weights);
+            if (AllVertices(points)) return (points, fractions);
+            current = points;
+        }
+        throw new InvalidOperationException("A decomposition into hull vertices did not settle.");
+    }
+
+    private bool AllVertices(int[] points)
+    {
+        foreach (int q in points) if (!IsVertexColumn(q)) return false;
+        return true;
+    }
+
+    /// <summary>Vertex status of a representative point, working it out first in on-demand mode.</summary>
+    private bool IsVertexColumn(int point)
+    {
+        if (_valueSolved is not null) SolveValue(point);
+        return _isVertex[point];
     }
 
     /// <summary>The composition id of input point i, solving it first in on-demand mode.</summary>
@@ -250,17 +315,35 @@ public sealed class LinearProgramHull : IHullStability
         int c = _input.CompositionOf[pointIndex];
         if (_solved is null || _solved[c]) return c;
         int p = _input.Representative[pointIndex];
+        ColumnBlock? block = SolveValue(p);
+        if (block is not null) FinishDecomposition(p, block);
+        _solved[c] = true;
+        return c;
+    }
+
+    /// <summary>
+    /// On demand: the hull energy at a representative point's composition without it, its vertex status and a
+    /// first decomposition. Returns the block of its components (null for a pure component).
+    /// </summary>
+    private ColumnBlock? SolveValue(int p)
+    {
+        int c = _input.CompositionOf[p];
         long[] row = _input.Rows[p];
         ulong mask = 0;
         for (int k = 0; k < row.Length; k++) if (row[k] != 0) mask |= 1UL << k;
         if (BitOperations.PopCount(mask) == 1)
         {
-            SetVertex(p);
-            _hullEnergyWithout[c] = double.NaN;
+            if (!_valueSolved![c])
+            {
+                SetVertex(p);
+                _hullEnergyWithout[c] = double.NaN;
+                _valueSolved[c] = true;
+            }
+            return null;
         }
-        else
+        if (!_blocks!.TryGetValue(mask, out var block)) _blocks[mask] = block = ColumnBlock.Gather(mask, _groups, _input);
+        if (!_valueSolved![c])
         {
-            if (!_blocks!.TryGetValue(mask, out var block)) _blocks[mask] = block = ColumnBlock.Gather(mask, _groups, _input);
             int rows = block.Components.Length;
             // Consecutive questions tend to be about neighbouring compositions: start from the last optimum when
             // it was over the same columns.
@@ -270,9 +353,9 @@ public sealed class LinearProgramHull : IHullStability
             for (int r = 0; r < rows; r++) x[r] = _input.Fractions[p * ComponentCount + block.Components[r]];
             double without = solver.Solve(block, x, block.OwnGroupStart + _columnInBlock![p], basis, weights, warm);
             Record(p, block, basis, weights, without);
+            _valueSolved[c] = true;
         }
-        _solved[c] = true;
-        return c;
+        return block;
     }
 
     private void Record(int point, ColumnBlock block, int[] basis, double[] weights, double hullWithout)
