@@ -10,8 +10,8 @@ namespace Hull.Core.Geometry;
 internal sealed class DistinctCompositions
 {
     private readonly int _n;
-    private readonly List<long[]> _reduced = new();
-    private readonly List<int> _hashes = new();
+    private readonly List<long[]> _reduced;
+    private readonly List<int> _hashes;
     private int[] _slots;
     private readonly long[] _scratch;
 
@@ -19,6 +19,9 @@ internal sealed class DistinctCompositions
     {
         _n = componentCount;
         _scratch = new long[componentCount];
+        // Most rows of a data set are distinct compositions: room for all from the start saves regrowing.
+        _reduced = new List<long[]>(expectedRows);
+        _hashes = new List<int>(expectedRows);
         _slots = new int[Math.Max(16, (int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Min(expectedRows, 1 << 20) * 2))];
         Array.Fill(_slots, -1);
     }

@@ -189,16 +189,28 @@ public sealed class LinearProgramHull : IHullStability
     private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input)
     {
         int n = input.ComponentCount;
-        var byMask = new Dictionary<ulong, List<int>>();
-        foreach (int p in input.Candidates)
+        int[] candidates = input.Candidates;
+        var masks = new ulong[candidates.Length];
+        for (int i = 0; i < candidates.Length; i++)
         {
-            ulong mask = 0;
-            long[] row = input.Rows[p];
-            for (int k = 0; k < n; k++) if (row[k] != 0) mask |= 1UL << k;
-            if (!byMask.TryGetValue(mask, out var list)) byMask[mask] = list = new List<int>();
-            list.Add(p);
+            long[] row = input.Rows[candidates[i]];
+            for (int k = 0; k < n; k++) if (row[k] != 0) masks[i] |= 1UL << k;
         }
-        return byMask.OrderBy(kv => kv.Key).Select(kv => (kv.Key, kv.Value.ToArray())).ToList();
+        // Stable order within a mask (composition order): sort positions by (mask, position).
+        var order = new int[candidates.Length];
+        for (int i = 0; i < order.Length; i++) order[i] = i;
+        Array.Sort(order, (a, b) => masks[a] != masks[b] ? masks[a].CompareTo(masks[b]) : a.CompareTo(b));
+        var groups = new List<(ulong Mask, int[] Points)>();
+        for (int start = 0; start < order.Length;)
+        {
+            int end = start;
+            while (end < order.Length && masks[order[end]] == masks[order[start]]) end++;
+            var points = new int[end - start];
+            for (int i = start; i < end; i++) points[i - start] = candidates[order[i]];
+            groups.Add((masks[order[start]], points));
+            start = end;
+        }
+        return groups;
     }
 
     private void SolveAll()

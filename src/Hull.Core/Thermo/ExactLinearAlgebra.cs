@@ -61,6 +61,18 @@ internal static class ExactLinearAlgebra
         return rank;
     }
 
+    private static BigFraction[]? SolveOne(BigFraction[] column, BigFraction[] target)
+    {
+        int pivot = Array.FindIndex(column, v => !v.IsZero);
+        if (pivot < 0) return null;
+        BigFraction c = target[pivot] / column[pivot];
+        for (int e = 0; e < target.Length; e++)
+        {
+            if (column[e] * c != target[e]) return null;
+        }
+        return [c];
+    }
+
     /// <summary>
     /// The coefficients c with sum_j c_j columns[j] = target, or null when the target is not in the span of the
     /// columns, or when the columns are linearly dependent (the answer would not be unique).
@@ -68,6 +80,12 @@ internal static class ExactLinearAlgebra
     public static BigFraction[]? Solve(IReadOnlyList<BigFraction[]> columns, BigFraction[] target)
     {
         int unknowns = columns.Count;
+        if (unknowns == 1)
+        {
+            // One column (a phase decomposing into itself, the most common case): a ratio, checked on every row.
+            return SolveOne(columns[0], target);
+        }
+
         int equations = target.Length;
         var matrix = new BigFraction[equations][];
         for (int e = 0; e < equations; e++)
