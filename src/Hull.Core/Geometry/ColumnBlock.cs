@@ -93,4 +93,51 @@ internal sealed class ColumnBlock
         }
         return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { Stride = stride, OwnGroupStart = ownStart };
     }
+
+    /// <summary>
+    /// A block over an explicit list of points, all made of <paramref name="components"/> only (ascending); the
+    /// list must hold the pure point of each of them. <see cref="Mask"/> is 0 when a component index is 64 or more.
+    /// </summary>
+    public static ColumnBlock FromPoints(int[] components, IReadOnlyList<int> points, HullInput input)
+    {
+        int n = input.ComponentCount;
+        int k = components.Length;
+        int count = points.Count;
+        ulong mask = 0;
+        bool wide = false;
+        foreach (int c in components)
+        {
+            if (c < 64) mask |= 1UL << c;
+            else wide = true;
+        }
+        if (wide) mask = 0;
+        var rows = new double[k * count];
+        var energies = new double[count];
+        var columnPoints = new int[count];
+        var corners = new int[k];
+        Array.Fill(corners, -1);
+        for (int j = 0; j < count; j++)
+        {
+            int p = points[j];
+            columnPoints[j] = p;
+            energies[j] = input.Energies[p];
+            int nonzero = -1, nonzeroCount = 0;
+            for (int c = 0; c < n; c++)
+            {
+                if (input.Rows[p][c] != 0) { nonzero = c; nonzeroCount++; }
+            }
+            for (int r = 0; r < k; r++) rows[r * count + j] = input.Fractions[p * n + components[r]];
+            if (nonzeroCount == 1)
+            {
+                int r = Array.BinarySearch(components, nonzero);
+                if (r < 0) throw new ArgumentException($"Point {p} consists of component {nonzero}, which is not in the block.", nameof(points));
+                corners[r] = j;
+            }
+        }
+        for (int r = 0; r < k; r++)
+        {
+            if (corners[r] < 0) throw new ArgumentException($"The block's points hold no pure point of component {components[r]}.", nameof(points));
+        }
+        return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { Stride = count };
+    }
 }

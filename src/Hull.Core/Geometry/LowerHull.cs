@@ -11,10 +11,33 @@ namespace Hull.Core.Geometry;
 /// energy (lowest index among exact ties) takes part; the others are placed against it. Construction runs on the
 /// remaining points in a canonical order (by composition, then energy), so the result does not depend on input
 /// order beyond that tie rule.
+/// <para>
+/// A point is a vertex when its energy lies below the hull of all points of other compositions by more than the
+/// tolerance; a point within the tolerance of the hull is on it (energy above hull 0) but no vertex, even when it is
+/// an exact mixture of vertices at their mixed energy. Incremental construction can keep such a point as a facet
+/// corner (when it came before the points it mixes), so every corner is checked against the hull without it
+/// (<see cref="ExtremeCornerCheck"/>) and, if any fails, the facets are rebuilt on the vertices alone: facet
+/// corners, and with them all decompositions, are vertices only.
+/// </para>
 /// </remarks>
 public sealed class LowerHull : IHullStability
 {
     private const int MaxRepairRounds = 8;
+
+    /// <summary>
+    /// Builds in all (the first, and rebuilds on the corners shown to be vertices). A rebuild has only known vertices
+    /// as corners unless a repair hands back a left-out point, which only a fault can cause, so two builds suffice
+    /// and more than a few mean a fault.
+    /// </summary>
+    private const int MaxCornerRounds = 4;
+
+    /// <summary>
+    /// How far a point left out of a rebuild may lie below the rebuilt hull (eV/atom). It lay within the tolerance of
+    /// the first hull, which lies within the tolerance of the hull without it (it was no corner, or no vertex), and
+    /// the rebuilt facets lie up to the tolerance above the exact hull of the points they were built from (every
+    /// point may be the tolerance below them): three tolerances, and a fourth for rounding.
+    /// </summary>
+    private const double LeftOutSlackEvPerAtom = 4 * HullTolerances.EnergyEvPerAtom;
 
     private readonly int _n;
     private readonly double[] _fractions;
@@ -151,19 +174,54 @@ public sealed class LowerHull : IHullStability
         }
 
         int[] pure = input.PureComponentPoints();
+        var knownVertex = new bool[_energies.Length];
+        var left = new bool[_energies.Length];
+        int[] building = candidates;
+        for (int round = 0; ; round++)
+        {
+            BuildAndRepair(input, pure, building, candidates, left);
+            var demoted = ExtremeCornerCheck.FindNonVertexCorners(input, _facetVertices, _facetLu, _facetPivots, _facetMu, _pointFacet, _isVertex, candidates, pure, knownVertex);
+            if (demoted.Count == 0) return;
+            if (round == MaxCornerRounds)
+            {
+                throw new InvalidOperationException(
+                    $"The hull could not be completed: {demoted.Count} points (first: point {demoted[0]}) remain facet corners but are no vertices after {MaxCornerRounds} rebuilds.");
+            }
+            // Build again on the corners shown to be vertices: the hull of the vertices is the hull of all points,
+            // and a vertex of all points is one of any subset, so no corner of the new facets can fail the check.
+            // Only a point handed back by the repairs (deeper than the slack below, which a fault alone can cause)
+            // becomes a new corner, and is checked in the next round.
+            foreach (int p in pure) knownVertex[p] = true;
+            foreach (int p in candidates) left[p] = !knownVertex[p];
+            building = candidates.Where(p => knownVertex[p]).ToArray();
+        }
+    }
+
+    /// <summary>
+    /// Builds the hull of the candidates not <paramref name="left"/> out, then locates every candidate and hands back
+    /// any still below it (construction can leave a few on degenerate data, rounding others) until none is. Points left out are handed back only when
+    /// nothing else is below and they are deeper than <see cref="LeftOutSlackEvPerAtom"/>.
+    /// </summary>
+    private void BuildAndRepair(HullInput input, int[] pure, int[] building, int[] candidates, bool[] left)
+    {
         var builder = new LowerHullBuilder(_n, input.Rows, _fractions, _energies);
-        var facets = builder.Build(pure, candidates);
+        var facets = builder.Build(pure, building);
         for (int round = 0; ; round++)
         {
             SetFacets(facets, builder.LowerNeighbors());
             var below = LocateCandidates(candidates);
-            if (below.Count == 0) break;
+            // A point left out may lie below a hull that is not complete yet; it is judged on the completed one.
+            var handBack = below.Where(b => !left[b.Point]).ToList();
+            if (handBack.Count == 0)
+            {
+                handBack = below.Where(b => _hullEnergy[b.Point] - _energies[b.Point] > LeftOutSlackEvPerAtom).ToList();
+            }
+            if (handBack.Count == 0) break;
             if (round == MaxRepairRounds)
             {
-                throw new InvalidOperationException($"The hull could not be completed: {below.Count} points remain below it after {MaxRepairRounds} repairs.");
+                throw new InvalidOperationException($"The hull could not be completed: {handBack.Count} points remain below it after {MaxRepairRounds} repairs.");
             }
-            var handBack = below.Select(b => (b.Point, builder.InternalId(b.Facet))).ToList();
-            facets = builder.Repair(handBack);
+            facets = builder.Repair(handBack.Select(b => (b.Point, builder.InternalId(b.Facet))).ToList());
         }
     }
 
