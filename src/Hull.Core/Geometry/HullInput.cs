@@ -17,7 +17,8 @@ internal sealed class HullInput
         CompositionOf = compositionOf;
         Reduced = reduced;
         Representative = representative;
-        Candidates = candidates;
+        CandidatesInInputOrder = candidates;
+        _sortedCandidates = new Lazy<int[]>(() => SortByComposition(candidates, compositionOf, reduced, fractions, componentCount));
     }
 
     public int ComponentCount { get; }
@@ -40,8 +41,16 @@ internal sealed class HullInput
     /// <summary>For each point, the representative point of its composition.</summary>
     public int[] Representative { get; }
 
+    private readonly Lazy<int[]> _sortedCandidates;
+
     /// <summary>The representative points, one per composition, ordered by composition (exact lexicographic fractions).</summary>
-    public int[] Candidates { get; }
+    public int[] Candidates => _sortedCandidates.Value;
+
+    /// <summary>
+    /// The representative points in the order their compositions first occur in the input: enough where the input
+    /// order is already canonical (a dataset's hulls), and cheaper than sorting.
+    /// </summary>
+    public int[] CandidatesInInputOrder { get; }
 
     /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, amounts summing past
     /// 64 bits, or non-finite energies; the message names the point and component.</exception>
@@ -89,7 +98,7 @@ internal sealed class HullInput
             rows[i] = distinct.Reduced[compositionOf[i]];
         }
 
-        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced, energies, fractions, n, out var candidates);
+        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced.Count, energies, out var candidates);
         return new HullInput(n, fractions, energies, rows, compositionOf, distinct.Reduced, representative, candidates);
     }
 
@@ -102,7 +111,7 @@ internal sealed class HullInput
         int n = ComponentCount;
         var pure = new int[n];
         var hasPure = new bool[n];
-        foreach (int c in Candidates)
+        foreach (int c in CandidatesInInputOrder)
         {
             int nonzero = -1, nonzeroCount = 0;
             for (int k = 0; k < n; k++)
@@ -121,10 +130,9 @@ internal sealed class HullInput
         return pure;
     }
 
-    private static int[] ChooseRepresentatives(
-        int[] compositionOf, IReadOnlyList<long[]> reduced, double[] energies, double[] fractions, int n, out int[] candidates)
+    private static int[] ChooseRepresentatives(int[] compositionOf, int compositions, double[] energies, out int[] candidates)
     {
-        var best = new int[reduced.Count];
+        var best = new int[compositions];
         Array.Fill(best, -1);
         for (int i = 0; i < compositionOf.Length; i++)
         {
@@ -135,12 +143,18 @@ internal sealed class HullInput
         var representative = new int[compositionOf.Length];
         for (int i = 0; i < compositionOf.Length; i++) representative[i] = best[compositionOf[i]];
         candidates = best;
-        Array.Sort(candidates, (a, b) =>
+        return representative;
+    }
+
+    private static int[] SortByComposition(int[] candidates, int[] compositionOf, IReadOnlyList<long[]> reduced, double[] fractions, int n)
+    {
+        var sorted = (int[])candidates.Clone();
+        Array.Sort(sorted, (a, b) =>
         {
             int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]], fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
             return c != 0 ? c : a.CompareTo(b);
         });
-        return representative;
+        return sorted;
     }
 
     /// <summary>

@@ -118,7 +118,9 @@ public sealed class LinearProgramHull : IHullStability
             throw new ArgumentException($"{input.ComponentCount} components; this engine takes at most {MaxComponents}.", "amounts");
         }
         input.PureComponentPoints();
-        var hull = new LinearProgramHull(input, GroupByMask(input), onDemand);
+        // On demand (a dataset's hull) the input order is already canonical; otherwise composition order makes the
+        // reported decompositions independent of the input order.
+        var hull = new LinearProgramHull(input, GroupByMask(input, inputOrder: onDemand), onDemand);
         if (!onDemand) hull.SolveAll();
         return hull;
     }
@@ -185,30 +187,46 @@ public sealed class LinearProgramHull : IHullStability
         return new HullPosition(-1, points, fractionsOut, energy);
     }
 
-    /// <summary>Representative points grouped by their component set, groups by mask, points in composition order.</summary>
-    private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input)
+    /// <summary>Representative points grouped by their component set, groups by mask, points in composition order (or input order).</summary>
+    private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input, bool inputOrder)
     {
         int n = input.ComponentCount;
-        int[] candidates = input.Candidates;
+        int[] candidates = inputOrder ? input.CandidatesInInputOrder : input.Candidates;
         var masks = new ulong[candidates.Length];
+        var groupOfMask = new Dictionary<ulong, int>(16);
+        var counts = new List<int>(16);
+        var groupOf = new int[candidates.Length];
         for (int i = 0; i < candidates.Length; i++)
         {
             long[] row = input.Rows[candidates[i]];
-            for (int k = 0; k < n; k++) if (row[k] != 0) masks[i] |= 1UL << k;
+            ulong mask = 0;
+            for (int k = 0; k < n; k++) if (row[k] != 0) mask |= 1UL << k;
+            masks[i] = mask;
+            if (!groupOfMask.TryGetValue(mask, out int g))
+            {
+                g = counts.Count;
+                groupOfMask.Add(mask, g);
+                counts.Add(0);
+            }
+            groupOf[i] = g;
+            counts[g]++;
         }
-        // Stable order within a mask (composition order): sort positions by (mask, position).
-        var order = new int[candidates.Length];
-        for (int i = 0; i < order.Length; i++) order[i] = i;
-        Array.Sort(order, (a, b) => masks[a] != masks[b] ? masks[a].CompareTo(masks[b]) : a.CompareTo(b));
-        var groups = new List<(ulong Mask, int[] Points)>();
-        for (int start = 0; start < order.Length;)
+        // Groups by ascending mask (every subset before its supersets); points keep their order within a group.
+        var ordered = groupOfMask.Keys.ToArray();
+        Array.Sort(ordered);
+        var groups = new List<(ulong Mask, int[] Points)>(ordered.Length);
+        var pointsOfGroup = new int[counts.Count][];
+        foreach (ulong mask in ordered)
         {
-            int end = start;
-            while (end < order.Length && masks[order[end]] == masks[order[start]]) end++;
-            var points = new int[end - start];
-            for (int i = start; i < end; i++) points[i - start] = candidates[order[i]];
-            groups.Add((masks[order[start]], points));
-            start = end;
+            int g = groupOfMask[mask];
+            pointsOfGroup[g] = new int[counts[g]];
+            groups.Add((mask, pointsOfGroup[g]));
+        }
+        var filled = new int[counts.Count];
+        for (int i = 0; i < candidates.Length; i++)
+        {
+            int g = groupOf[i];
+            pointsOfGroup[g][filled[g]++] = candidates[i];
         }
         return groups;
     }
