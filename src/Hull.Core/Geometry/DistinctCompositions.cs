@@ -9,10 +9,15 @@ namespace Hull.Core.Geometry;
 /// </summary>
 internal sealed class DistinctCompositions
 {
+    /// <summary>Table sizes start from this many compositions at most, and double as they fill.</summary>
+    private const int InitialCompositions = 4096;
+
     private readonly int _n;
     private readonly List<long[]> _reduced;
-    private readonly List<int> _hashes;
-    private int[] _slots;
+    // Open addressing: each slot packs a composition's hash (high half) and its id + 1 (low half; 0 = empty), so a
+    // probe reads one array; the reduced rows are also kept back to back, so a comparison reads one more.
+    private long[] _slots;
+    private long[] _flat;
     private readonly long[] _scratch;
 
     public DistinctCompositions(int componentCount, int expectedRows)
@@ -21,9 +26,9 @@ internal sealed class DistinctCompositions
         _scratch = new long[componentCount];
         // Most rows of a data set are distinct compositions: room for all from the start saves regrowing.
         _reduced = new List<long[]>(expectedRows);
-        _hashes = new List<int>(expectedRows);
-        _slots = new int[Math.Max(16, (int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Min(expectedRows, 1 << 20) * 2))];
-        Array.Fill(_slots, -1);
+        int start = Math.Min(Math.Max(expectedRows, 8), InitialCompositions);
+        _slots = new long[(int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)start * 2)];
+        _flat = new long[start * componentCount];
     }
 
     /// <summary>The reduced rows, indexed by composition id.</summary>
@@ -34,7 +39,13 @@ internal sealed class DistinctCompositions
     /// already in lowest terms is kept itself, without a copy, when <paramref name="rowIsImmutable"/> says that
     /// nobody will change it.
     /// </summary>
-    public int Add(long[] row, bool rowIsImmutable = false)
+    public int Add(long[] row, bool rowIsImmutable = false) => Add(row, rowIsImmutable ? row : null);
+
+    /// <summary>
+    /// As above for a row in any storage; <paramref name="keepable"/> is the row's own immutable array when it may be
+    /// kept instead of a copy, or null.
+    /// </summary>
+    public int Add(ReadOnlySpan<long> row, long[]? keepable)
     {
         long g = 0;
         foreach (long v in row)
@@ -42,37 +53,48 @@ internal sealed class DistinctCompositions
             g = Rational.Gcd(g, v);
             if (g == 1) break;
         }
-        for (int k = 0; k < _n; k++) _scratch[k] = row[k] / g;
-        var hc = new HashCode();
-        foreach (long v in _scratch) hc.Add(v);
-        int hash = hc.ToHashCode();
-        int mask = _slots.Length - 1;
-        for (int slot = hash & mask; ; slot = (slot + 1) & mask)
+        ulong h = 0x9E3779B97F4A7C15UL;
+        for (int k = 0; k < _n; k++)
         {
-            int id = _slots[slot];
-            if (id < 0)
+            long v = g == 1 ? row[k] : row[k] / g;
+            _scratch[k] = v;
+            h = (h ^ (ulong)v) * 0xBF58476D1CE4E5B9UL;
+            h ^= h >> 31;
+        }
+        uint hash = (uint)(h >> 32);
+        int mask = _slots.Length - 1;
+        for (int slot = (int)(hash & (uint)mask); ; slot = (slot + 1) & mask)
+        {
+            long entry = _slots[slot];
+            if (entry == 0)
             {
-                id = _reduced.Count;
-                _reduced.Add(g == 1 && rowIsImmutable ? row : (long[])_scratch.Clone());
-                _hashes.Add(hash);
-                _slots[slot] = id;
+                int id = _reduced.Count;
+                _reduced.Add(g == 1 && keepable is not null ? keepable : (long[])_scratch.Clone());
+                if ((id + 1) * _n > _flat.Length) Array.Resize(ref _flat, _flat.Length * 2);
+                _scratch.CopyTo(_flat, id * _n);
+                _slots[slot] = ((long)hash << 32) | (uint)(id + 1);
                 if (_reduced.Count * 2 > _slots.Length) Grow();
                 return id;
             }
-            if (_hashes[id] == hash && _reduced[id].AsSpan().SequenceEqual(_scratch)) return id;
+            if ((uint)((ulong)entry >> 32) == hash)
+            {
+                int id = (int)(uint)entry - 1;
+                if (_flat.AsSpan(id * _n, _n).SequenceEqual(_scratch)) return id;
+            }
         }
     }
 
     private void Grow()
     {
-        _slots = new int[_slots.Length * 2];
-        Array.Fill(_slots, -1);
+        var old = _slots;
+        _slots = new long[old.Length * 2];
         int mask = _slots.Length - 1;
-        for (int id = 0; id < _reduced.Count; id++)
+        foreach (long entry in old)
         {
-            int slot = _hashes[id] & mask;
-            while (_slots[slot] >= 0) slot = (slot + 1) & mask;
-            _slots[slot] = id;
+            if (entry == 0) continue;
+            int slot = (int)((uint)((ulong)entry >> 32) & (uint)mask);
+            while (_slots[slot] != 0) slot = (slot + 1) & mask;
+            _slots[slot] = entry;
         }
     }
 }

@@ -68,7 +68,62 @@ internal sealed class HullInput
         }
         int n = amounts[0]?.Length ?? 0;
         if (n == 0) throw new ArgumentException("Point 0 has no components.", nameof(amounts));
-        int count = amounts.Count;
+        return CheckRows(new JaggedRows(amounts, n, rowsAreImmutable), amounts.Count, n, energiesEvPerAtom);
+    }
+
+    /// <summary>
+    /// As <see cref="Check(IReadOnlyList{long[]}, IReadOnlyList{double}, bool)"/> for amounts stored row after row in
+    /// one array (<paramref name="componentCount"/> per point), which saves a large input one small array per point.
+    /// </summary>
+    public static HullInput Check(long[] amountsRowMajor, int componentCount, IReadOnlyList<double> energiesEvPerAtom)
+    {
+        ArgumentNullException.ThrowIfNull(amountsRowMajor);
+        ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
+        if (componentCount <= 0) throw new ArgumentException($"{componentCount} components; at least one is needed.", nameof(componentCount));
+        if (amountsRowMajor.Length % componentCount != 0)
+        {
+            throw new ArgumentException($"{amountsRowMajor.Length} amounts are not whole rows of {componentCount} components.", nameof(amountsRowMajor));
+        }
+        int count = amountsRowMajor.Length / componentCount;
+        if (count == 0) throw new ArgumentException("The hull needs at least one point.", nameof(amountsRowMajor));
+        if (count != energiesEvPerAtom.Count)
+        {
+            throw new ArgumentException($"{count} amount rows but {energiesEvPerAtom.Count} energies.", nameof(energiesEvPerAtom));
+        }
+        return CheckRows(new FlatRows(amountsRowMajor, componentCount), count, componentCount, energiesEvPerAtom);
+    }
+
+    /// <summary>Where the rows come from: one array per point, or one array for all.</summary>
+    private interface IRowSource
+    {
+        ReadOnlySpan<long> Row(int i);
+
+        /// <summary>The row's own array when it may be kept without a copy, else null.</summary>
+        long[]? Keepable(int i);
+    }
+
+    private readonly struct JaggedRows(IReadOnlyList<long[]> rows, int n, bool immutable) : IRowSource
+    {
+        public ReadOnlySpan<long> Row(int i)
+        {
+            var row = rows[i] ?? throw new ArgumentException($"Point {i} has no amounts.", "amounts");
+            if (row.Length != n) throw new ArgumentException($"Point {i} has {row.Length} components; point 0 has {n}.", "amounts");
+            return row;
+        }
+
+        public long[]? Keepable(int i) => immutable ? rows[i] : null;
+    }
+
+    private readonly struct FlatRows(long[] amounts, int n) : IRowSource
+    {
+        public ReadOnlySpan<long> Row(int i) => amounts.AsSpan(i * n, n);
+
+        public long[]? Keepable(int i) => null;
+    }
+
+    private static HullInput CheckRows<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom)
+        where TRows : struct, IRowSource
+    {
         var fractions = new double[count * n];
         var energies = new double[count];
         var rows = new long[count][];
@@ -76,24 +131,23 @@ internal sealed class HullInput
         var distinct = new DistinctCompositions(n, count);
         for (int i = 0; i < count; i++)
         {
-            var row = amounts[i] ?? throw new ArgumentException($"Point {i} has no amounts.", nameof(amounts));
-            if (row.Length != n) throw new ArgumentException($"Point {i} has {row.Length} components; point 0 has {n}.", nameof(amounts));
+            ReadOnlySpan<long> row = source.Row(i);
             long total = 0;
             for (int k = 0; k < n; k++)
             {
-                if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", nameof(amounts));
+                if (row[k] < 0) throw new ArgumentException($"Point {i}: amount of component {k} is negative ({row[k]}).", "amounts");
                 if (row[k] > long.MaxValue - total)
                 {
-                    throw new ArgumentException($"Point {i}: the amounts add up past the 64-bit integer range; scale the formula down.", nameof(amounts));
+                    throw new ArgumentException($"Point {i}: the amounts add up past the 64-bit integer range; scale the formula down.", "amounts");
                 }
                 total += row[k];
             }
-            if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", nameof(amounts));
+            if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", "amounts");
             for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
             double e = energiesEvPerAtom[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
             energies[i] = e;
-            compositionOf[i] = distinct.Add(row, rowsAreImmutable);
+            compositionOf[i] = distinct.Add(row, source.Keepable(i));
             // The reduced row has the same ratios, and is a private copy the caller cannot change later.
             rows[i] = distinct.Reduced[compositionOf[i]];
         }
@@ -148,14 +202,42 @@ internal sealed class HullInput
 
     private static int[] SortByComposition(int[] candidates, int[] compositionOf, IReadOnlyList<long[]> reduced, double[] fractions, int n)
     {
-        var sorted = (int[])candidates.Clone();
-        Array.Sort(sorted, (a, b) =>
+        var exact = Comparer<int>.Create((a, b) =>
         {
             int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]], fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
             return c != 0 ? c : a.CompareTo(b);
         });
+        // By each fraction as a number in turn (plain sorts of doubles), splitting into runs of values not clearly
+        // apart; between runs the rounded order is the exact one, and only what is left is compared exactly.
+        var sorted = (int[])candidates.Clone();
+        var keys = new double[sorted.Length];
+        SortRuns(0, sorted.Length, 0);
         return sorted;
+
+        void SortRuns(int from, int to, int component)
+        {
+            if (component == n)
+            {
+                Array.Sort(sorted, from, to - from, exact);
+                return;
+            }
+            for (int i = from; i < to; i++) keys[i] = fractions[sorted[i] * n + component];
+            Array.Sort(keys, sorted, from, to - from);
+            for (int start = from; start < to;)
+            {
+                int end = start + 1;
+                while (end < to && keys[end] - keys[end - 1] <= ClearDifference) end++;
+                if (end - start > 1) SortRuns(start, end, component + 1);
+                start = end;
+            }
+        }
     }
+
+    /// <summary>
+    /// Two rounded fractions further apart than this are in the right order: each is within 1.2e-16 relative of its
+    /// exact value.
+    /// </summary>
+    private const double ClearDifference = 1e-12;
 
     /// <summary>
     /// Orders compositions by their fractions, exactly: the rounded fractions decide where they differ clearly,
@@ -163,8 +245,6 @@ internal sealed class HullInput
     /// </summary>
     private static int CompareLexicographic(long[] a, long[] b, ReadOnlySpan<double> fractionsA, ReadOnlySpan<double> fractionsB)
     {
-        // Each fraction is within 1.2e-16 relative of its exact value, so a difference above 1e-12 has the right sign.
-        const double ClearDifference = 1e-12;
         for (int k = 0; k < a.Length; k++)
         {
             double d = fractionsA[k] - fractionsB[k];

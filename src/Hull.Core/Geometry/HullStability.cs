@@ -26,6 +26,13 @@ public static class HullStability
     public static IHullStability Build(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom) =>
         Build(HullInput.Check(amounts, energiesEvPerAtom), onDemand: false);
 
+    /// <summary>
+    /// As <see cref="Build(IReadOnlyList{long[]}, IReadOnlyList{double})"/> with the amounts stored row after row in
+    /// one array, <paramref name="componentCount"/> per point (a large input then needs no array per point).
+    /// </summary>
+    public static IHullStability Build(long[] amountsRowMajor, int componentCount, IReadOnlyList<double> energiesEvPerAtom) =>
+        Build(HullInput.Check(amountsRowMajor, componentCount, energiesEvPerAtom), onDemand: false);
+
     /// <summary>As the public overload; on demand, the program engine solves compositions when asked (one thread only).</summary>
     internal static IHullStability Build(HullInput input, bool onDemand)
     {
