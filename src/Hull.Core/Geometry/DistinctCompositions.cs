@@ -35,15 +35,9 @@ internal sealed class DistinctCompositions
     public IReadOnlyList<long[]> Reduced => _reduced;
 
     /// <summary>
-    /// The id of the row's composition, adding it when new. The row must be non-negative and not all zero. A row
-    /// already in lowest terms is kept itself, without a copy, when <paramref name="rowIsImmutable"/> says that
-    /// nobody will change it.
-    /// </summary>
-    public int Add(long[] row, bool rowIsImmutable = false) => Add(row, rowIsImmutable ? row : null);
-
-    /// <summary>
-    /// As above for a row in any storage; <paramref name="keepable"/> is the row's own immutable array when it may be
-    /// kept instead of a copy, or null.
+    /// The id of the row's composition, adding it when new. The row must be non-negative and not all zero.
+    /// <paramref name="keepable"/> is the row's own array when nobody will change it: a row already in lowest terms
+    /// is then kept itself instead of a copy. Null: always copy.
     /// </summary>
     public int Add(ReadOnlySpan<long> row, long[]? keepable)
     {
