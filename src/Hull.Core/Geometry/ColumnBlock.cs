@@ -32,7 +32,7 @@ internal sealed class ColumnBlock
     public int Count => Points.Length;
 
     /// <summary>Row r's fractions are [r * Stride, r * Stride + Count).</summary>
-    public int Stride { get; private init; }
+    public int Stride => Points.Length;
 
     /// <summary>Fractions, row-major by component.</summary>
     public double[] Rows { get; }
@@ -46,52 +46,32 @@ internal sealed class ColumnBlock
     /// <summary>The first column of the points whose mask is exactly <see cref="Mask"/> (they are consecutive, in group order), or -1.</summary>
     public int OwnGroupStart { get; private init; } = -1;
 
+    /// <summary>A composition's fractions (one per component of the whole space) restricted to this block's rows.</summary>
+    public void Restrict(ReadOnlySpan<double> fractions, Span<double> x)
+    {
+        for (int r = 0; r < Components.Length; r++) x[r] = fractions[Components[r]];
+    }
+
     /// <summary>
     /// Gathers the columns of <paramref name="mask"/> from the representative points grouped by their own masks.
     /// </summary>
     public static ColumnBlock Gather(ulong mask, IReadOnlyList<(ulong Mask, int[] Points)> groups, HullInput input)
     {
-        int n = input.ComponentCount;
-        int count = 0;
-        foreach (var (m, points) in groups)
+        var points = new List<int>();
+        int ownStart = -1;
+        foreach (var (m, groupPoints) in groups)
         {
-            if ((m & ~mask) == 0) count += points.Length;
+            if ((m & ~mask) != 0) continue;
+            if (m == mask) ownStart = points.Count;
+            points.AddRange(groupPoints);
         }
-        int k = BitOperations.PopCount(mask);
-        var components = new int[k];
-        for (int r = 0, c = 0; c < n; c++)
+        var components = new int[BitOperations.PopCount(mask)];
+        for (int r = 0, c = 0; r < components.Length; c++)
         {
             if ((mask & (1UL << c)) != 0) components[r++] = c;
         }
-        int stride = count;
-        var rows = new double[k * stride];
-        var energies = new double[count];
-        var columnPoints = new int[count];
-        var corners = new int[k];
-        Array.Fill(corners, -1);
-        int j = 0, ownStart = -1;
-        foreach (var (m, points) in groups)
-        {
-            if ((m & ~mask) != 0) continue;
-            if (m == mask) ownStart = j;
-            bool pure = BitOperations.PopCount(m) == 1;
-            foreach (int p in points)
-            {
-                columnPoints[j] = p;
-                energies[j] = input.Energies[p];
-                for (int r = 0; r < k; r++) rows[r * stride + j] = input.Fractions[p * n + components[r]];
-                if (pure) corners[Array.IndexOf(components, BitOperations.TrailingZeroCount(m))] = j;
-                j++;
-            }
-        }
-        for (int r = 0; r < k; r++)
-        {
-            if (corners[r] < 0)
-            {
-                throw new ArgumentException($"No point consists of component {components[r]} alone; every component needs a pure end point to anchor the hull.");
-            }
-        }
-        return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { Stride = stride, OwnGroupStart = ownStart };
+        return Make(mask, components, points, input, ownStart,
+            c => new ArgumentException($"No point consists of component {c} alone; every component needs a pure end point to anchor the hull."));
     }
 
     /// <summary>
@@ -100,9 +80,6 @@ internal sealed class ColumnBlock
     /// </summary>
     public static ColumnBlock FromPoints(int[] components, IReadOnlyList<int> points, HullInput input)
     {
-        int n = input.ComponentCount;
-        int k = components.Length;
-        int count = points.Count;
         ulong mask = 0;
         bool wide = false;
         foreach (int c in components)
@@ -110,7 +87,16 @@ internal sealed class ColumnBlock
             if (c < 64) mask |= 1UL << c;
             else wide = true;
         }
-        if (wide) mask = 0;
+        return Make(wide ? 0 : mask, components, points, input, ownStart: -1,
+            c => new ArgumentException($"The block's points hold no pure point of component {c}.", nameof(points)));
+    }
+
+    private static ColumnBlock Make(ulong mask, int[] components, IReadOnlyList<int> points, HullInput input, int ownStart,
+        Func<int, ArgumentException> missingCorner)
+    {
+        int n = input.ComponentCount;
+        int k = components.Length;
+        int count = points.Count;
         var rows = new double[k * count];
         var energies = new double[count];
         var columnPoints = new int[count];
@@ -130,14 +116,14 @@ internal sealed class ColumnBlock
             if (nonzeroCount == 1)
             {
                 int r = Array.BinarySearch(components, nonzero);
-                if (r < 0) throw new ArgumentException($"Point {p} consists of component {nonzero}, which is not in the block.", nameof(points));
+                if (r < 0) throw new ArgumentException($"Point {p} consists of component {nonzero}, which is not in the block.", "points");
                 corners[r] = j;
             }
         }
         for (int r = 0; r < k; r++)
         {
-            if (corners[r] < 0) throw new ArgumentException($"The block's points hold no pure point of component {components[r]}.", nameof(points));
+            if (corners[r] < 0) throw missingCorner(components[r]);
         }
-        return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { Stride = count };
+        return new ColumnBlock(mask, components, columnPoints, rows, energies, corners) { OwnGroupStart = ownStart };
     }
 }

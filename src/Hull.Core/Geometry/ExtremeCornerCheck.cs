@@ -39,7 +39,6 @@ internal static class ExtremeCornerCheck
     {
         int n = input.ComponentCount;
         int pointCount = input.Energies.Length;
-        int facetCount = facetVertices.Length / n;
 
         var toCheck = new List<int>();
         foreach (int p in candidates)
@@ -48,27 +47,8 @@ internal static class ExtremeCornerCheck
         }
         if (toCheck.Count == 0) return [];
 
-        // Star of each corner: the facets that contain it (compressed rows).
-        var starStart = new int[pointCount + 1];
-        foreach (int v in facetVertices) starStart[v + 1]++;
-        for (int i = 0; i < pointCount; i++) starStart[i + 1] += starStart[i];
-        var starFacets = new int[facetVertices.Length];
-        var fill = (int[])starStart.Clone();
-        for (int f = 0; f < facetCount; f++)
-        {
-            for (int i = 0; i < n; i++) starFacets[fill[facetVertices[f * n + i]]++] = f;
-        }
-
-        // The other candidates located in each facet.
-        var located = new int[facetCount + 1];
-        foreach (int p in candidates) if (!isCorner[p]) located[pointFacet[p] + 1]++;
-        for (int f = 0; f < facetCount; f++) located[f + 1] += located[f];
-        var locatedPoints = new int[located[facetCount]];
-        var locatedFill = (int[])located.Clone();
-        foreach (int p in candidates) if (!isCorner[p]) locatedPoints[locatedFill[pointFacet[p]]++] = p;
-
         var facets = new FacetTable(facetVertices, facetLu, facetPivots, facetMu);
-        var star = new StarIndex(starStart, starFacets, located, locatedPoints, pure);
+        var star = IndexStars(n, pointCount, facetVertices, pointFacet, isCorner, candidates, pure);
         int chunks = (toCheck.Count + Chunk - 1) / Chunk;
         var found = new List<int>[chunks];
         if (chunks == 1)
@@ -91,55 +71,79 @@ internal static class ExtremeCornerCheck
     private static List<int> CheckChunk(HullInput input, List<int> toCheck, int begin, int end, FacetTable facets,
         StarIndex star, bool[] knownVertex, Scratch scratch)
     {
-        int n = input.ComponentCount;
         var nonVertices = new List<int>();
+        for (int t = begin; t < end; t++)
+        {
+            int v = toCheck[t];
+            GatherStarColumns(input, v, facets.Vertices, star, scratch);
+            if (TiltedPlaneSeparates(input, v, star.Facets[star.Start[v]], facets, scratch.Columns, scratch))
+            {
+                knownVertex[v] = true;
+                continue;
+            }
+            if (input.Energies[v] < SolveWithout(input, v, scratch) - HullTolerances.EnergyEvPerAtom) knownVertex[v] = true;
+            else nonVertices.Add(v);
+        }
+        return nonVertices;
+    }
+
+    /// <summary>
+    /// The hull energy at corner v's composition without v (eV/atom), from the finished hull's stars: the optimum of
+    /// the program over the columns the class comment names.
+    /// </summary>
+    public static double HullEnergyWithout(HullInput input, int v, int[] facetVertices, StarIndex star, Scratch scratch)
+    {
+        GatherStarColumns(input, v, facetVertices, star, scratch);
+        return SolveWithout(input, v, scratch);
+    }
+
+    /// <summary>
+    /// Fills the scratch's columns with the points that can make x_v without v: the pure points of v's components,
+    /// the other corners of v's star and the points located in it, each once and only if made of v's components.
+    /// </summary>
+    private static void GatherStarColumns(HullInput input, int v, int[] facetVertices, StarIndex star, Scratch scratch)
+    {
+        int n = input.ComponentCount;
         var columns = scratch.Columns;
         var support = scratch.Support;
         var outside = scratch.Outside;
         int[] listedFor = scratch.ListedFor;
         double[] fractions = input.Fractions;
-        for (int t = begin; t < end; t++)
+        long[] own = input.Rows[v];
+        support.Clear();
+        outside.Clear();
+        for (int c = 0; c < n; c++) (own[c] != 0 ? support : outside).Add(c);
+
+        columns.Clear();
+        foreach (int c in support) Include(star.Pure[c]);
+        for (int s = star.Start[v]; s < star.Start[v + 1]; s++)
         {
-            int v = toCheck[t];
-            long[] own = input.Rows[v];
-            support.Clear();
-            outside.Clear();
-            for (int c = 0; c < n; c++) (own[c] != 0 ? support : outside).Add(c);
-
-            columns.Clear();
-            foreach (int c in support) Include(star.Pure[c]);
-            for (int s = star.Start[v]; s < star.Start[v + 1]; s++)
-            {
-                int f = star.Facets[s];
-                for (int i = 0; i < n; i++) Include(facets.Vertices[f * n + i]);
-                for (int q = star.Located[f]; q < star.Located[f + 1]; q++) Include(star.LocatedPoints[q]);
-            }
-
-            void Include(int p)
-            {
-                if (p == v || listedFor[p] == v) return;
-                listedFor[p] = v;
-                // Made of v's components only (a fraction is exactly 0 where the amount is).
-                foreach (int c in outside) if (fractions[p * n + c] != 0) return;
-                columns.Add(p);
-            }
-
-            if (TiltedPlaneSeparates(input, v, star.Facets[star.Start[v]], facets, columns, scratch))
-            {
-                knownVertex[v] = true;
-                continue;
-            }
-
-            int k = support.Count;
-            var components = support.ToArray();
-            var block = ColumnBlock.FromPoints(components, columns, input);
-            var x = scratch.X.AsSpan(0, k);
-            for (int r = 0; r < k; r++) x[r] = fractions[v * n + components[r]];
-            double without = scratch.Solver.Solve(block, x, excluded: -1, scratch.Basis.AsSpan(0, k), scratch.Weights.AsSpan(0, k), warm: false);
-            if (input.Energies[v] < without - HullTolerances.EnergyEvPerAtom) knownVertex[v] = true;
-            else nonVertices.Add(v);
+            int f = star.Facets[s];
+            for (int i = 0; i < n; i++) Include(facetVertices[f * n + i]);
+            for (int q = star.Located[f]; q < star.Located[f + 1]; q++) Include(star.LocatedPoints[q]);
         }
-        return nonVertices;
+        // A later gathering for the same corner must list its columns again.
+        foreach (int p in columns) listedFor[p] = -1;
+
+        void Include(int p)
+        {
+            if (p == v || listedFor[p] == v) return;
+            listedFor[p] = v;
+            // Made of v's components only (a fraction is exactly 0 where the amount is).
+            foreach (int c in outside) if (fractions[p * n + c] != 0) return;
+            columns.Add(p);
+        }
+    }
+
+    /// <summary>The program's optimum over the gathered columns at x_v.</summary>
+    private static double SolveWithout(HullInput input, int v, Scratch scratch)
+    {
+        int n = input.ComponentCount;
+        int k = scratch.Support.Count;
+        var block = ColumnBlock.FromPoints(scratch.Support.ToArray(), scratch.Columns, input);
+        var x = scratch.X.AsSpan(0, k);
+        block.Restrict(input.Fractions.AsSpan(v * n, n), x);
+        return scratch.Solver.Solve(block, x, excluded: -1, scratch.Basis.AsSpan(0, k), scratch.Weights.AsSpan(0, k), warm: false);
     }
 
     /// <summary>
@@ -203,10 +207,33 @@ internal static class ExtremeCornerCheck
     /// The facets that contain each point (compressed rows over points), the candidates located in each facet
     /// (compressed rows over facets), and the pure point of each component.
     /// </summary>
-    private sealed record StarIndex(int[] Start, int[] Facets, int[] Located, int[] LocatedPoints, int[] Pure);
+    public sealed record StarIndex(int[] Start, int[] Facets, int[] Located, int[] LocatedPoints, int[] Pure);
+
+    /// <summary>Indexes the stars of a finished hull and the non-corner candidates located in each facet.</summary>
+    public static StarIndex IndexStars(int n, int pointCount, int[] facetVertices, int[] pointFacet, bool[] isCorner, int[] candidates, int[] pure)
+    {
+        int facetCount = facetVertices.Length / n;
+        var starStart = new int[pointCount + 1];
+        foreach (int v in facetVertices) starStart[v + 1]++;
+        for (int i = 0; i < pointCount; i++) starStart[i + 1] += starStart[i];
+        var starFacets = new int[facetVertices.Length];
+        var fill = (int[])starStart.Clone();
+        for (int f = 0; f < facetCount; f++)
+        {
+            for (int i = 0; i < n; i++) starFacets[fill[facetVertices[f * n + i]]++] = f;
+        }
+
+        var located = new int[facetCount + 1];
+        foreach (int p in candidates) if (!isCorner[p]) located[pointFacet[p] + 1]++;
+        for (int f = 0; f < facetCount; f++) located[f + 1] += located[f];
+        var locatedPoints = new int[located[facetCount]];
+        var locatedFill = (int[])located.Clone();
+        foreach (int p in candidates) if (!isCorner[p]) locatedPoints[locatedFill[pointFacet[p]]++] = p;
+        return new StarIndex(starStart, starFacets, located, locatedPoints, pure);
+    }
 
     /// <summary>One worker's buffers.</summary>
-    private sealed class Scratch(HullInput input)
+    public sealed class Scratch(HullInput input)
     {
         public BlockSimplex Solver { get; } = new(input.ComponentCount);
         public int[] Basis { get; } = new int[input.ComponentCount];

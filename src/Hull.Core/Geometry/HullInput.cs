@@ -156,6 +156,22 @@ internal sealed class HullInput
         return new HullInput(n, fractions, energies, rows, compositionOf, distinct.Reduced, representative, candidates);
     }
 
+    /// <summary>Checks composition fractions asked about: one per component, finite, non-negative, summing to 1.</summary>
+    /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
+    public static void CheckFractions(ReadOnlySpan<double> fractions, int componentCount)
+    {
+        if (fractions.Length != componentCount) throw new ArgumentException($"Expected {componentCount} fractions, got {fractions.Length}.", nameof(fractions));
+        double sum = 0;
+        for (int k = 0; k < componentCount; k++)
+        {
+            if (!double.IsFinite(fractions[k]) || fractions[k] < 0) throw new ArgumentException($"Fraction {k} is {fractions[k]}; fractions must be finite and non-negative.", nameof(fractions));
+            sum += fractions[k];
+        }
+        // Fractions typed or computed by a caller carry rounding of order 1e-15 per term; 1e-9 accepts those and
+        // still rejects a composition that is genuinely off the simplex.
+        if (Math.Abs(sum - 1.0) > 1e-9) throw new ArgumentException($"Fractions sum to {sum}, not 1.", nameof(fractions));
+    }
+
     /// <summary>
     /// The pure point of each component (the representative of the composition made of that component alone).
     /// </summary>

@@ -21,6 +21,12 @@ public interface IHullStability
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     double EnergyAboveHull(int pointIndex);
 
+    /// <summary>
+    /// The hull energy at point i's composition with every point of that composition left out (eV/atom), or null for
+    /// a pure component; for a point on the hull, its energy minus this is its decomposition energy.
+    /// </summary>
+    double? HullEnergyWithoutComposition(int pointIndex);
+
     /// <summary>Hull energy and decomposition at the composition of input point i.</summary>
     HullPosition LocatePoint(int pointIndex);
 

@@ -162,23 +162,13 @@ public sealed class LinearProgramHull : IHullStability
     /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
     public HullPosition Locate(ReadOnlySpan<double> fractions)
     {
-        int n = ComponentCount;
-        if (fractions.Length != n) throw new ArgumentException($"Expected {n} fractions, got {fractions.Length}.", nameof(fractions));
-        double sum = 0;
+        HullInput.CheckFractions(fractions, ComponentCount);
         ulong mask = 0;
-        for (int k = 0; k < n; k++)
-        {
-            if (!double.IsFinite(fractions[k]) || fractions[k] < 0) throw new ArgumentException($"Fraction {k} is {fractions[k]}; fractions must be finite and non-negative.", nameof(fractions));
-            sum += fractions[k];
-            if (fractions[k] > 0) mask |= 1UL << k;
-        }
-        // Fractions typed or computed by a caller carry rounding of order 1e-15 per term; 1e-9 accepts those and
-        // still rejects a composition that is genuinely off the simplex.
-        if (Math.Abs(sum - 1.0) > 1e-9) throw new ArgumentException($"Fractions sum to {sum}, not 1.", nameof(fractions));
+        for (int k = 0; k < fractions.Length; k++) if (fractions[k] > 0) mask |= 1UL << k;
         var block = _locateBlocks.GetOrAdd(mask, m => ColumnBlock.Gather(m, _groups, _input));
         int rows = block.Components.Length;
         Span<double> x = stackalloc double[rows];
-        for (int r = 0; r < rows; r++) x[r] = fractions[block.Components[r]];
+        block.Restrict(fractions, x);
         Span<int> basis = stackalloc int[rows];
         Span<double> weights = stackalloc double[rows];
         double energy = new BlockSimplex(rows).Solve(block, x, excluded: -1, basis, weights, warm: false);
@@ -187,21 +177,26 @@ public sealed class LinearProgramHull : IHullStability
         return new HullPosition(-1, points, fractionsOut, energy);
     }
 
+    /// <summary>The components present in an amount row, as bits.</summary>
+    private static ulong MaskOf(long[] row)
+    {
+        ulong mask = 0;
+        for (int k = 0; k < row.Length; k++) if (row[k] != 0) mask |= 1UL << k;
+        return mask;
+    }
+
+    private ReadOnlySpan<double> FractionsOf(int point) => _input.Fractions.AsSpan(point * ComponentCount, ComponentCount);
+
     /// <summary>Representative points grouped by their component set, groups by mask, points in composition order (or input order).</summary>
     private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input, bool inputOrder)
     {
-        int n = input.ComponentCount;
         int[] candidates = inputOrder ? input.CandidatesInInputOrder : input.Candidates;
-        var masks = new ulong[candidates.Length];
         var groupOfMask = new Dictionary<ulong, int>(16);
         var counts = new List<int>(16);
         var groupOf = new int[candidates.Length];
         for (int i = 0; i < candidates.Length; i++)
         {
-            long[] row = input.Rows[candidates[i]];
-            ulong mask = 0;
-            for (int k = 0; k < n; k++) if (row[k] != 0) mask |= 1UL << k;
-            masks[i] = mask;
+            ulong mask = MaskOf(input.Rows[candidates[i]]);
             if (!groupOfMask.TryGetValue(mask, out int g))
             {
                 g = counts.Count;
@@ -258,7 +253,7 @@ public sealed class LinearProgramHull : IHullStability
                 for (int q = chunk * ChunkSize; q < end; q++)
                 {
                     int p = points[q];
-                    for (int r = 0; r < rows; r++) x[r] = _input.Fractions[p * ComponentCount + block.Components[r]];
+                    block.Restrict(FractionsOf(p), x);
                     double without = solver.Solve(block, x, block.OwnGroupStart + q, basis, weights, warm);
                     warm = true;
                     Record(p, block, basis, weights, without);
@@ -293,7 +288,7 @@ public sealed class LinearProgramHull : IHullStability
         int c = _input.CompositionOf[point];
         if (_isVertex[point] || AllVertices(_decompositionPoints[c])) return;
         var x = new double[block.Components.Length];
-        for (int r = 0; r < x.Length; r++) x[r] = _input.Fractions[point * ComponentCount + block.Components[r]];
+        block.Restrict(FractionsOf(point), x);
         (_decompositionPoints[c], _decompositionWeights[c]) = VerticesOnly(block, x, point, _decompositionPoints[c]);
     }
 
@@ -358,9 +353,7 @@ public sealed class LinearProgramHull : IHullStability
     private ColumnBlock? SolveValue(int p)
     {
         int c = _input.CompositionOf[p];
-        long[] row = _input.Rows[p];
-        ulong mask = 0;
-        for (int k = 0; k < row.Length; k++) if (row[k] != 0) mask |= 1UL << k;
+        ulong mask = MaskOf(_input.Rows[p]);
         if (BitOperations.PopCount(mask) == 1)
         {
             if (!_valueSolved![c])
@@ -380,7 +373,7 @@ public sealed class LinearProgramHull : IHullStability
             bool warm = _last is { } last && ReferenceEquals(last.Block, block);
             if (!warm) _last = (block, new BlockSimplex(rows), new int[rows], new double[rows], new double[rows]);
             var (_, solver, basis, weights, x) = _last!.Value;
-            for (int r = 0; r < rows; r++) x[r] = _input.Fractions[p * ComponentCount + block.Components[r]];
+            block.Restrict(FractionsOf(p), x);
             double without = solver.Solve(block, x, block.OwnGroupStart + _columnInBlock![p], basis, weights, warm);
             Record(p, block, basis, weights, without);
             _valueSolved[c] = true;

@@ -40,6 +40,10 @@ public sealed class LowerHull : IHullStability
     private const double LeftOutSlackEvPerAtom = 4 * HullTolerances.EnergyEvPerAtom;
 
     private readonly int _n;
+    private HullInput? _input;
+    // For HullEnergyWithoutComposition: the finished hull's stars (built on first use) and buffers of past calls.
+    private ExtremeCornerCheck.StarIndex? _stars;
+    private readonly System.Collections.Concurrent.ConcurrentBag<ExtremeCornerCheck.Scratch> _spareScratch = new();
     private readonly double[] _fractions;
     private readonly double[] _energies;
     private readonly int[] _representative;
@@ -93,7 +97,31 @@ public sealed class LowerHull : IHullStability
     {
         var hull = new LowerHull(input.ComponentCount, input.Fractions, input.Energies, input.Representative);
         hull.Construct(input);
+        hull._input = input;
         return hull;
+    }
+
+    /// <summary>
+    /// The hull energy at point i's composition when every point of that composition is left out (eV/atom), or null
+    /// for a pure component, which nothing else can make. For a point on the hull, its energy minus this is its
+    /// decomposition energy. Removing a composition that is no vertex leaves the hull as it is; removing a vertex
+    /// changes it only inside the vertex's star, so one small program over the star answers.
+    /// </summary>
+    public double? HullEnergyWithoutComposition(int pointIndex)
+    {
+        if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
+        int rep = _representative[pointIndex];
+        HullInput input = _input!;
+        long[] row = input.Rows[rep];
+        int present = 0;
+        foreach (long amount in row) if (amount != 0) present++;
+        if (present == 1) return null;
+        if (!_isVertex[rep]) return _hullEnergy[rep];
+        _stars ??= ExtremeCornerCheck.IndexStars(_n, _energies.Length, _facetVertices, _pointFacet, _isVertex, input.Candidates, input.PureComponentPoints());
+        var scratch = _spareScratch.TryTake(out var spare) ? spare : new ExtremeCornerCheck.Scratch(input);
+        double without = ExtremeCornerCheck.HullEnergyWithout(input, rep, _facetVertices, _stars, scratch);
+        _spareScratch.Add(scratch);
+        return without;
     }
 
     /// <summary>Whether input point i is a vertex of the lower hull.</summary>
@@ -125,16 +153,7 @@ public sealed class LowerHull : IHullStability
     /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
     public HullPosition Locate(ReadOnlySpan<double> fractions)
     {
-        if (fractions.Length != _n) throw new ArgumentException($"Expected {_n} fractions, got {fractions.Length}.", nameof(fractions));
-        double sum = 0;
-        for (int k = 0; k < _n; k++)
-        {
-            if (!double.IsFinite(fractions[k]) || fractions[k] < 0) throw new ArgumentException($"Fraction {k} is {fractions[k]}; fractions must be finite and non-negative.", nameof(fractions));
-            sum += fractions[k];
-        }
-        // Fractions typed or computed by a caller carry rounding of order 1e-15 per term; 1e-9 accepts those and
-        // still rejects a composition that is genuinely off the simplex.
-        if (Math.Abs(sum - 1.0) > 1e-9) throw new ArgumentException($"Fractions sum to {sum}, not 1.", nameof(fractions));
+        HullInput.CheckFractions(fractions, _n);
         Span<double> lambda = stackalloc double[_n];
         int facet = Walk(fractions, 0, lambda);
         return PositionIn(facet, fractions);

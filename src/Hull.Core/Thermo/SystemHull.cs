@@ -29,15 +29,6 @@ public sealed class SystemHull
     private readonly Lazy<IReadOnlyList<TieLine>> _tieLines;
     private readonly Lazy<IReadOnlyList<HullPhase>> _stablePhases;
 
-    // Filled on demand by the single thread that computes entries (under _entries, or a dataset worker).
-    private HullPosition?[]? _positions;
-    private int[]? _starStart;        // facets around vertex v: _starFacets[_starStart[v] .. _starStart[v + 1])
-    private int[]? _starFacets;
-    private int[]? _facetPointStart;  // non-vertex points located in facet f, likewise
-    private int[]? _facetPoints;
-    private int[]? _pureCorners;
-    private Dictionary<long[], double>? _decompositionEnergyByComposition;
-
     /// <summary>The hull of entries over elements (the union of the entries' elements unless given).</summary>
     /// <param name="entries">Entries whose elements lie in the system; ids unique.</param>
     /// <param name="references">Explicit elemental references (eV/atom) overriding the lowest pure-element entries.</param>
@@ -283,7 +274,7 @@ public sealed class SystemHull
     {
         HullPoint point = _points[i];
         PhaseEntry entry = point.Entry ?? throw new InvalidOperationException("A synthetic reference has no stability record.");
-        HullPosition position = PositionOf(i);
+        HullPosition position = _hull.LocatePoint(i);
         double above = point.FormationEnergyEvPerAtom - position.HullEnergyEvPerAtom;
         if (!(above > HullTolerances.EnergyEvPerAtom))
         {
@@ -336,101 +327,10 @@ public sealed class SystemHull
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
     }
 
-    private double DecompositionEnergy(int i)
-    {
-        HullPoint point = _points[i];
-        if (_hull is LinearProgramHull programs)
-        {
-            // That engine has solved the hull at every composition without the composition itself.
-            return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - programs.HullEnergyWithoutComposition(i)!.Value);
-        }
-
-        _decompositionEnergyByComposition ??= new Dictionary<long[], double>(AmountsComparer.Instance);
-        if (_decompositionEnergyByComposition.TryGetValue(point.Amounts, out double known))
-        {
-            return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - known);
-        }
-
-        // Removing a vertex v changes the hull only inside its star (the facets that contain v): elsewhere every old
-        // facet still supports all remaining points. A new facet over x_v cannot reach a point strictly outside the
-        // star either: near that point it would coincide with an old facet plane, which passes at or below e_v at x_v.
-        // So the hull energy at x_v without v needs only the star's other corners, the points located in the star,
-        // and (to anchor the engine, which needs a pure point per component) the pure corners; adding any of the
-        // remaining points could not lower it. This keeps the rebuild local instead of rebuilding the whole hull.
-        int vertex = -1;
-        IReadOnlyList<int> vertices = _hull.VertexPoints;
-        for (int k = 0; k < vertices.Count; k++)
-        {
-            if (_points[vertices[k]].HasSameCompositionAs(point))
-            {
-                vertex = vertices[k];
-                break;
-            }
-        }
-
-        double hullWithout;
-        if (vertex < 0)
-        {
-            // No vertex has this composition: removing its points leaves the hull as it is.
-            hullWithout = PositionOf(i).HullEnergyEvPerAtom;
-        }
-        else
-        {
-            IndexStars();
-            var inSubset = new bool[_points.Length];
-            int count = 0;
-            void Include(int j)
-            {
-                if (!inSubset[j])
-                {
-                    inSubset[j] = true;
-                    count++;
-                }
-            }
-
-            foreach (int corner in _pureCorners!)
-            {
-                Include(corner);
-            }
-
-            for (int s = _starStart![vertex]; s < _starStart[vertex + 1]; s++)
-            {
-                int facet = _starFacets![s];
-                IReadOnlyList<int> corners = _facetHull.Value.Facets[facet].VertexPoints;
-                for (int c = 0; c < corners.Count; c++)
-                {
-                    if (corners[c] != vertex)
-                    {
-                        Include(corners[c]);
-                    }
-                }
-
-                for (int p = _facetPointStart![facet]; p < _facetPointStart[facet + 1]; p++)
-                {
-                    int j = _facetPoints![p];
-                    if (!_points[j].HasSameCompositionAs(point))
-                    {
-                        Include(j);
-                    }
-                }
-            }
-
-            // Ascending point order, as the engine's tie-breaks depend on it.
-            var subset = new int[count];
-            for (int j = 0, next = 0; j < inSubset.Length; j++)
-            {
-                if (inSubset[j])
-                {
-                    subset[next++] = j;
-                }
-            }
-
-            hullWithout = HullEnergyOfSubset(subset, point.Fractions);
-        }
-
-        _decompositionEnergyByComposition[point.Amounts] = hullWithout;
-        return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
-    }
+    private double DecompositionEnergy(int i) =>
+        // Both engines know the hull at a composition without it (the program engine solved exactly that; the
+        // incremental hull answers from the vertex's star).
+        SnapDecompositionEnergy(_points[i].FormationEnergyEvPerAtom - _hull.HullEnergyWithoutComposition(i)!.Value);
 
     // An entry on the hull cannot lie above the hull without its composition; differences within the hull
     // tolerance are ties (an entry that only touches the hull), reported as exactly 0.
@@ -448,91 +348,6 @@ public sealed class SystemHull
         }
 
         return LowerHull.Build(amounts, energies).Locate(fractions).HullEnergyEvPerAtom;
-    }
-
-    /// <summary>Indexes, once, the facets around each vertex and the non-vertex points located in each facet.</summary>
-    private void IndexStars()
-    {
-        if (_starStart is not null)
-        {
-            return;
-        }
-
-        IReadOnlyList<HullFacet> facets = _facetHull.Value.Facets;
-        var starStart = new int[_points.Length + 1];
-        for (int f = 0; f < facets.Count; f++)
-        {
-            IReadOnlyList<int> corners = facets[f].VertexPoints;
-            for (int c = 0; c < corners.Count; c++)
-            {
-                starStart[corners[c] + 1]++;
-            }
-        }
-
-        var facetOfPoint = new int[_points.Length];
-        var facetPointStart = new int[facets.Count + 1];
-        for (int j = 0; j < _points.Length; j++)
-        {
-            if (!_hull.IsVertex(j))
-            {
-                facetOfPoint[j] = PositionOf(j).FacetIndex;
-                facetPointStart[facetOfPoint[j] + 1]++;
-            }
-        }
-
-        for (int v = 0; v < _points.Length; v++)
-        {
-            starStart[v + 1] += starStart[v];
-        }
-
-        for (int f = 0; f < facets.Count; f++)
-        {
-            facetPointStart[f + 1] += facetPointStart[f];
-        }
-
-        // Fill in ascending facet and point order.
-        var starFacets = new int[starStart[_points.Length]];
-        var nextStar = (int[])starStart.Clone();
-        for (int f = 0; f < facets.Count; f++)
-        {
-            IReadOnlyList<int> corners = facets[f].VertexPoints;
-            for (int c = 0; c < corners.Count; c++)
-            {
-                starFacets[nextStar[corners[c]]++] = f;
-            }
-        }
-
-        var facetPoints = new int[facetPointStart[facets.Count]];
-        var nextPoint = (int[])facetPointStart.Clone();
-        for (int j = 0; j < _points.Length; j++)
-        {
-            if (!_hull.IsVertex(j))
-            {
-                facetPoints[nextPoint[facetOfPoint[j]]++] = j;
-            }
-        }
-
-        var pureCorners = new List<int>();
-        IReadOnlyList<int> vertices = _hull.VertexPoints;
-        for (int k = 0; k < vertices.Count; k++)
-        {
-            if (_points[vertices[k]].IsPureComponent)
-            {
-                pureCorners.Add(vertices[k]);
-            }
-        }
-
-        _pureCorners = pureCorners.ToArray();
-        _starFacets = starFacets;
-        _facetPointStart = facetPointStart;
-        _facetPoints = facetPoints;
-        _starStart = starStart;
-    }
-
-    private HullPosition PositionOf(int i)
-    {
-        _positions ??= new HullPosition?[_points.Length];
-        return _positions[i] ??= _hull.LocatePoint(i);
     }
 
     private BigFraction[] MapQuery(Composition composition)
