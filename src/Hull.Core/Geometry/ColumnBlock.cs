@@ -107,10 +107,11 @@ internal sealed class ColumnBlock
             int p = points[j];
             columnPoints[j] = p;
             energies[j] = input.Energies[p];
+            var amounts = input.Row(p);
             int nonzero = -1, nonzeroCount = 0;
             for (int c = 0; c < n; c++)
             {
-                if (input.Rows[p][c] != 0) { nonzero = c; nonzeroCount++; }
+                if (amounts[c] != 0) { nonzero = c; nonzeroCount++; }
             }
             for (int r = 0; r < k; r++) rows[r * count + j] = input.Fractions[p * n + components[r]];
             if (nonzeroCount == 1)

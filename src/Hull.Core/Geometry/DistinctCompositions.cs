@@ -3,9 +3,9 @@ using Hull.Core.Chemistry;
 namespace Hull.Core.Geometry;
 
 /// <summary>
-/// Groups integer amount rows by composition (rows reduced by their greatest common divisor), allocating one
-/// reduced row per distinct composition rather than one per point: a dataset of 1e5 entries often holds only a
-/// few hundred compositions.
+/// Groups integer amount rows by composition (rows reduced by their greatest common divisor), storing one reduced
+/// row per distinct composition, back to back in one array: a dataset of 1e5 entries often holds only a few hundred
+/// compositions, and a large input then needs no small array per point or per composition.
 /// </summary>
 internal sealed class DistinctCompositions
 {
@@ -13,45 +13,45 @@ internal sealed class DistinctCompositions
     private const int InitialCompositions = 4096;
 
     private readonly int _n;
-    private readonly List<long[]> _reduced;
+    private int _count;
     // Open addressing: each slot packs a composition's hash (high half) and its id + 1 (low half; 0 = empty), so a
-    // probe reads one array; the reduced rows are also kept back to back, so a comparison reads one more.
+    // probe reads one array, and a comparison one more.
     private long[] _slots;
     private long[] _flat;
-    private readonly long[] _scratch;
 
     public DistinctCompositions(int componentCount, int expectedRows)
     {
         _n = componentCount;
-        _scratch = new long[componentCount];
-        // Most rows of a data set are distinct compositions: room for all from the start saves regrowing.
-        _reduced = new List<long[]>(expectedRows);
         int start = Math.Min(Math.Max(expectedRows, 8), InitialCompositions);
         _slots = new long[(int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)start * 2)];
         _flat = new long[start * componentCount];
     }
 
-    /// <summary>The reduced rows, indexed by composition id.</summary>
-    public IReadOnlyList<long[]> Reduced => _reduced;
+    /// <summary>Number of distinct compositions so far; ids run from 0 to Count - 1 in order of first occurrence.</summary>
+    public int Count => _count;
 
     /// <summary>
-    /// The id of the row's composition, adding it when new. The row must be non-negative and not all zero.
-    /// <paramref name="keepable"/> is the row's own array when nobody will change it: a row already in lowest terms
-    /// is then kept itself instead of a copy. Null: always copy.
+    /// The reduced rows, composition id c's at [c * n, (c + 1) * n); the array may be longer than Count rows.
+    /// Owned by this table: the caller must not change it.
     /// </summary>
-    public int Add(ReadOnlySpan<long> row, long[]? keepable)
+    public long[] ReducedRows => _flat;
+
+    /// <summary>The id of the row's composition, adding it when new. The row must be non-negative and not all zero.</summary>
+    public int Add(ReadOnlySpan<long> row)
     {
+        int n = _n;
         long g = 0;
         foreach (long v in row)
         {
             g = Rational.Gcd(g, v);
             if (g == 1) break;
         }
+        Span<long> reduced = stackalloc long[n];
         ulong h = 0x9E3779B97F4A7C15UL;
-        for (int k = 0; k < _n; k++)
+        for (int k = 0; k < n; k++)
         {
             long v = g == 1 ? row[k] : row[k] / g;
-            _scratch[k] = v;
+            reduced[k] = v;
             h = (h ^ (ulong)v) * 0xBF58476D1CE4E5B9UL;
             h ^= h >> 31;
         }
@@ -62,20 +62,28 @@ internal sealed class DistinctCompositions
             long entry = _slots[slot];
             if (entry == 0)
             {
-                int id = _reduced.Count;
-                _reduced.Add(g == 1 && keepable is not null ? keepable : (long[])_scratch.Clone());
-                if ((id + 1) * _n > _flat.Length) Array.Resize(ref _flat, _flat.Length * 2);
-                _scratch.CopyTo(_flat, id * _n);
+                int id = _count++;
+                if (_count * n > _flat.Length) Array.Resize(ref _flat, _flat.Length * 2);
+                reduced.CopyTo(_flat.AsSpan(id * n, n));
                 _slots[slot] = ((long)hash << 32) | (uint)(id + 1);
-                if (_reduced.Count * 2 > _slots.Length) Grow();
+                if (_count * 2 > _slots.Length) Grow();
                 return id;
             }
             if ((uint)((ulong)entry >> 32) == hash)
             {
                 int id = (int)(uint)entry - 1;
-                if (_flat.AsSpan(id * _n, _n).SequenceEqual(_scratch)) return id;
+                if (SameRow(_flat, id * n, reduced)) return id;
             }
         }
+    }
+
+    private static bool SameRow(long[] flat, int offset, ReadOnlySpan<long> row)
+    {
+        for (int k = 0; k < row.Length; k++)
+        {
+            if (flat[offset + k] != row[k]) return false;
+        }
+        return true;
     }
 
     private void Grow()

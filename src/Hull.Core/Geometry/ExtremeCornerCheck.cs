@@ -109,7 +109,7 @@ internal static class ExtremeCornerCheck
         var outside = scratch.Outside;
         int[] listedFor = scratch.ListedFor;
         double[] fractions = input.Fractions;
-        long[] own = input.Rows[v];
+        var own = input.Row(v);
         support.Clear();
         outside.Clear();
         for (int c = 0; c < n; c++) (own[c] != 0 ? support : outside).Add(c);

@@ -5,20 +5,24 @@ namespace Hull.Core.Geometry;
 /// of each point's composition, and one representative per composition (the lowest energy; the lowest index among
 /// exact ties). Both hull engines start from it, so they accept and refuse exactly the same input.
 /// </summary>
+/// <remarks>
+/// Amounts are kept once per distinct composition, rows back to back in one array, and no input array is kept:
+/// nothing the caller changes later reaches the engines.
+/// </remarks>
 internal sealed class HullInput
 {
-    private HullInput(int componentCount, double[] fractions, double[] energies, long[][] rows, int[] compositionOf,
-        IReadOnlyList<long[]> reduced, int[] representative, int[] candidates)
+    private HullInput(int componentCount, double[] fractions, double[] energies, int[] compositionOf,
+        long[] reducedRows, int compositionCount, int[] representative, int[] candidates)
     {
         ComponentCount = componentCount;
         Fractions = fractions;
         Energies = energies;
-        Rows = rows;
         CompositionOf = compositionOf;
-        Reduced = reduced;
+        _reducedRows = reducedRows;
+        CompositionCount = compositionCount;
         Representative = representative;
         CandidatesInInputOrder = candidates;
-        _sortedCandidates = new Lazy<int[]>(() => SortByComposition(candidates, compositionOf, reduced, fractions, componentCount));
+        _sortedCandidates = new Lazy<int[]>(() => SortByComposition(candidates, this));
     }
 
     public int ComponentCount { get; }
@@ -29,14 +33,21 @@ internal sealed class HullInput
     /// <summary>Energy per atom of each point, eV/atom.</summary>
     public double[] Energies { get; }
 
-    /// <summary>Each point's amounts reduced to lowest terms (shared between points of one composition).</summary>
-    public long[][] Rows { get; }
-
-    /// <summary>Composition id of each point (an index into <see cref="Reduced"/>).</summary>
+    /// <summary>Composition id of each point, from 0 to <see cref="CompositionCount"/> - 1 in order of first occurrence.</summary>
     public int[] CompositionOf { get; }
 
-    /// <summary>The reduced amount row of each distinct composition.</summary>
-    public IReadOnlyList<long[]> Reduced { get; }
+    /// <summary>Number of distinct compositions.</summary>
+    public int CompositionCount { get; }
+
+    // The amount rows of the distinct compositions in lowest terms, back to back: composition c's are
+    // [c * ComponentCount, (c + 1) * ComponentCount), with possibly unused room after the last.
+    private readonly long[] _reducedRows;
+
+    /// <summary>Point i's amounts reduced to lowest terms (the row of its composition).</summary>
+    public ReadOnlySpan<long> Row(int point) => _reducedRows.AsSpan(CompositionOf[point] * ComponentCount, ComponentCount);
+
+    /// <summary>Amount of component k in point i's reduced row.</summary>
+    public long Amount(int point, int component) => _reducedRows[CompositionOf[point] * ComponentCount + component];
 
     /// <summary>For each point, the representative point of its composition.</summary>
     public int[] Representative { get; }
@@ -54,10 +65,9 @@ internal sealed class HullInput
 
     /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, amounts summing past
     /// 64 bits, or non-finite energies; the message names the point and component.</exception>
-    /// <param name="amounts">Amount rows (copied where kept, unless <paramref name="rowsAreImmutable"/>).</param>
+    /// <param name="amounts">Amount rows, one per point.</param>
     /// <param name="energiesEvPerAtom">Energy per atom of each point.</param>
-    /// <param name="rowsAreImmutable">The caller guarantees that no row will change (rows internal to the library).</param>
-    public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom, bool rowsAreImmutable = false)
+    public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
     {
         ArgumentNullException.ThrowIfNull(amounts);
         ArgumentNullException.ThrowIfNull(energiesEvPerAtom);
@@ -68,11 +78,11 @@ internal sealed class HullInput
         }
         int n = amounts[0]?.Length ?? 0;
         if (n == 0) throw new ArgumentException("Point 0 has no components.", nameof(amounts));
-        return CheckRows(new JaggedRows(amounts, n, rowsAreImmutable), amounts.Count, n, energiesEvPerAtom);
+        return CheckRows(new JaggedRows(amounts, n), amounts.Count, n, energiesEvPerAtom);
     }
 
     /// <summary>
-    /// As <see cref="Check(IReadOnlyList{long[]}, IReadOnlyList{double}, bool)"/> for amounts stored row after row in
+    /// As <see cref="Check(IReadOnlyList{long[]}, IReadOnlyList{double})"/> for amounts stored row after row in
     /// one array (<paramref name="componentCount"/> per point), which saves a large input one small array per point.
     /// </summary>
     public static HullInput Check(long[] amountsRowMajor, int componentCount, IReadOnlyList<double> energiesEvPerAtom)
@@ -96,13 +106,14 @@ internal sealed class HullInput
     /// <summary>Where the rows come from: one array per point, or one array for all.</summary>
     private interface IRowSource
     {
+        /// <summary>Point i's row; throws ArgumentException naming the point when it has none or the wrong length.</summary>
         ReadOnlySpan<long> Row(int i);
 
-        /// <summary>The row's own array when it may be kept without a copy, else null.</summary>
-        long[]? Keepable(int i);
+        /// <summary>As <see cref="Row"/>, false instead of throwing.</summary>
+        bool TryRow(int i, out ReadOnlySpan<long> row);
     }
 
-    private readonly struct JaggedRows(IReadOnlyList<long[]> rows, int n, bool immutable) : IRowSource
+    private readonly struct JaggedRows(IReadOnlyList<long[]> rows, int n) : IRowSource
     {
         public ReadOnlySpan<long> Row(int i)
         {
@@ -111,24 +122,68 @@ internal sealed class HullInput
             return row;
         }
 
-        public long[]? Keepable(int i) => immutable ? rows[i] : null;
+        public bool TryRow(int i, out ReadOnlySpan<long> row)
+        {
+            var array = rows[i];
+            row = array;
+            return array is not null && array.Length == n;
+        }
     }
 
     private readonly struct FlatRows(long[] amounts, int n) : IRowSource
     {
         public ReadOnlySpan<long> Row(int i) => amounts.AsSpan(i * n, n);
 
-        public long[]? Keepable(int i) => null;
+        public bool TryRow(int i, out ReadOnlySpan<long> row)
+        {
+            row = amounts.AsSpan(i * n, n);
+            return true;
+        }
     }
+
+    /// <summary>
+    /// From this many points on, the checks and the grouping by composition run at the same time on two cores
+    /// (each takes about half of the work); below it, starting a second worker costs more than it saves, and the many
+    /// small hulls of a dataset are already built in parallel one level up.
+    /// </summary>
+    private const int TwoWorkersFromPoints = 16_384;
 
     private static HullInput CheckRows<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom)
         where TRows : struct, IRowSource
     {
         var fractions = new double[count * n];
         var energies = new double[count];
-        var rows = new long[count][];
         var compositionOf = new int[count];
         var distinct = new DistinctCompositions(n, count);
+        if (count >= TwoWorkersFromPoints && Environment.ProcessorCount > 1)
+        {
+            // Grouping reads the rows the checks read, so it runs beside them; it skips rows the checks refuse, and
+            // the checks' first error (the lowest point index, as in one pass) is the one reported.
+            var grouping = Task.Run(() => GroupCheckedRows(source, count, n, distinct, compositionOf));
+            try
+            {
+                CheckAndScale(source, count, n, energiesEvPerAtom, fractions, energies);
+            }
+            finally
+            {
+                grouping.Wait();
+            }
+        }
+        else
+        {
+            CheckAndScale(source, count, n, energiesEvPerAtom, fractions, energies);
+            GroupCheckedRows(source, count, n, distinct, compositionOf);
+        }
+
+        var representative = ChooseRepresentatives(compositionOf, distinct.Count, energies, out var candidates);
+        return new HullInput(n, fractions, energies, compositionOf, distinct.ReducedRows, distinct.Count, representative, candidates);
+    }
+
+    /// <summary>Checks every row and energy in point order, throwing for the first fault; fills fractions and energies.</summary>
+    private static void CheckAndScale<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom, double[] fractions, double[] energies)
+        where TRows : struct, IRowSource
+    {
+        double[]? energyArray = energiesEvPerAtom as double[];
         for (int i = 0; i < count; i++)
         {
             ReadOnlySpan<long> row = source.Row(i);
@@ -144,16 +199,31 @@ internal sealed class HullInput
             }
             if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", "amounts");
             for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
-            double e = energiesEvPerAtom[i];
+            double e = energyArray is null ? energiesEvPerAtom[i] : energyArray[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
             energies[i] = e;
-            compositionOf[i] = distinct.Add(row, source.Keepable(i));
-            // The reduced row has the same ratios, and is a private copy the caller cannot change later.
-            rows[i] = distinct.Reduced[compositionOf[i]];
         }
+    }
 
-        var representative = ChooseRepresentatives(compositionOf, distinct.Reduced.Count, energies, out var candidates);
-        return new HullInput(n, fractions, energies, rows, compositionOf, distinct.Reduced, representative, candidates);
+    /// <summary>
+    /// The composition id of every row, in point order. A row the checks refuse (missing, negative or all zero)
+    /// gets no id; its id is never read, as the checks throw.
+    /// </summary>
+    private static void GroupCheckedRows<TRows>(TRows source, int count, int n, DistinctCompositions distinct, int[] compositionOf)
+        where TRows : struct, IRowSource
+    {
+        for (int i = 0; i < count; i++)
+        {
+            compositionOf[i] = -1;
+            if (!source.TryRow(i, out var row)) continue;
+            bool positive = false, negative = false;
+            foreach (long v in row)
+            {
+                positive |= v > 0;
+                negative |= v < 0;
+            }
+            if (positive && !negative) compositionOf[i] = distinct.Add(row);
+        }
     }
 
     /// <summary>Checks composition fractions asked about: one per component, finite, non-negative, summing to 1.</summary>
@@ -183,10 +253,11 @@ internal sealed class HullInput
         var hasPure = new bool[n];
         foreach (int c in CandidatesInInputOrder)
         {
+            var row = Row(c);
             int nonzero = -1, nonzeroCount = 0;
             for (int k = 0; k < n; k++)
             {
-                if (Rows[c][k] != 0) { nonzero = k; nonzeroCount++; }
+                if (row[k] != 0) { nonzero = k; nonzeroCount++; }
             }
             if (nonzeroCount == 1) { pure[nonzero] = c; hasPure[nonzero] = true; }
         }
@@ -216,11 +287,13 @@ internal sealed class HullInput
         return representative;
     }
 
-    private static int[] SortByComposition(int[] candidates, int[] compositionOf, IReadOnlyList<long[]> reduced, double[] fractions, int n)
+    private static int[] SortByComposition(int[] candidates, HullInput input)
     {
+        int n = input.ComponentCount;
+        double[] fractions = input.Fractions;
         var exact = Comparer<int>.Create((a, b) =>
         {
-            int c = CompareLexicographic(reduced[compositionOf[a]], reduced[compositionOf[b]], fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
+            int c = CompareLexicographic(input.Row(a), input.Row(b), fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
             return c != 0 ? c : a.CompareTo(b);
         });
         // By each fraction as a number in turn (plain sorts of doubles), splitting into runs of values not clearly
@@ -259,7 +332,7 @@ internal sealed class HullInput
     /// Orders compositions by their fractions, exactly: the rounded fractions decide where they differ clearly,
     /// the amounts cross-multiplied in 128-bit integers decide the rest.
     /// </summary>
-    private static int CompareLexicographic(long[] a, long[] b, ReadOnlySpan<double> fractionsA, ReadOnlySpan<double> fractionsB)
+    private static int CompareLexicographic(ReadOnlySpan<long> a, ReadOnlySpan<long> b, ReadOnlySpan<double> fractionsA, ReadOnlySpan<double> fractionsB)
     {
         for (int k = 0; k < a.Length; k++)
         {

@@ -37,7 +37,7 @@ public static class HullStability
     internal static IHullStability Build(HullInput input, bool onDemand)
     {
         bool programs = input.ComponentCount <= LinearProgramHull.MaxComponents
-            && (input.ComponentCount >= LinearProgramFromComponents || input.Reduced.Count <= LinearProgramUpToCompositions);
+            && (input.ComponentCount >= LinearProgramFromComponents || input.CompositionCount <= LinearProgramUpToCompositions);
         return programs ? LinearProgramHull.Prepare(input, onDemand) : LowerHull.Build(input);
     }
 }

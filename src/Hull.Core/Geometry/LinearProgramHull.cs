@@ -51,7 +51,7 @@ public sealed class LinearProgramHull : IHullStability
     {
         _input = input;
         _groups = groups;
-        int compositions = input.Reduced.Count;
+        int compositions = input.CompositionCount;
         _isVertex = new bool[input.Energies.Length];
         _hullEnergy = new double[compositions];
         _hullEnergyWithout = new double[compositions];
@@ -178,7 +178,7 @@ public sealed class LinearProgramHull : IHullStability
     }
 
     /// <summary>The components present in an amount row, as bits.</summary>
-    private static ulong MaskOf(long[] row)
+    private static ulong MaskOf(ReadOnlySpan<long> row)
     {
         ulong mask = 0;
         for (int k = 0; k < row.Length; k++) if (row[k] != 0) mask |= 1UL << k;
@@ -196,7 +196,7 @@ public sealed class LinearProgramHull : IHullStability
         var groupOf = new int[candidates.Length];
         for (int i = 0; i < candidates.Length; i++)
         {
-            ulong mask = MaskOf(input.Rows[candidates[i]]);
+            ulong mask = MaskOf(input.Row(candidates[i]));
             if (!groupOfMask.TryGetValue(mask, out int g))
             {
                 g = counts.Count;
@@ -353,7 +353,7 @@ public sealed class LinearProgramHull : IHullStability
     private ColumnBlock? SolveValue(int p)
     {
         int c = _input.CompositionOf[p];
-        ulong mask = MaskOf(_input.Rows[p]);
+        ulong mask = MaskOf(_input.Row(p));
         if (BitOperations.PopCount(mask) == 1)
         {
             if (!_valueSolved![c])

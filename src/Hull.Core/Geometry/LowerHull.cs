@@ -112,7 +112,7 @@ public sealed class LowerHull : IHullStability
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
         int rep = _representative[pointIndex];
         HullInput input = _input!;
-        long[] row = input.Rows[rep];
+        var row = input.Row(rep);
         int present = 0;
         foreach (long amount in row) if (amount != 0) present++;
         if (present == 1) return null;
@@ -223,7 +223,7 @@ public sealed class LowerHull : IHullStability
     /// </summary>
     private void BuildAndRepair(HullInput input, int[] pure, int[] building, int[] candidates, bool[] left)
     {
-        var builder = new LowerHullBuilder(_n, input.Rows, _fractions, _energies);
+        var builder = new LowerHullBuilder(input);
         var facets = builder.Build(pure, building);
         for (int round = 0; ; round++)
         {

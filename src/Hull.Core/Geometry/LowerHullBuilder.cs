@@ -22,7 +22,7 @@ internal sealed class LowerHullBuilder
     private const int Infinity = -1;
 
     private readonly int _n;
-    private readonly long[][] _amounts;
+    private readonly HullInput _input;
     private readonly double[] _fractions;
     private readonly double[] _energies;
 
@@ -47,12 +47,12 @@ internal sealed class LowerHullBuilder
     private readonly int[] _pivots;
     private readonly long[] _exact;
 
-    public LowerHullBuilder(int componentCount, long[][] amounts, double[] fractions, double[] energies)
+    public LowerHullBuilder(HullInput input)
     {
-        _n = componentCount;
-        _amounts = amounts;
-        _fractions = fractions;
-        _energies = energies;
+        _n = input.ComponentCount;
+        _input = input;
+        _fractions = input.Fractions;
+        _energies = input.Energies;
         _matrix = new double[_n * _n];
         _pivots = new int[_n];
         _exact = new long[_n * _n];
@@ -195,10 +195,13 @@ internal sealed class LowerHullBuilder
             var set = _outside[f];
             _outside[f] = null;
             if (set is null) continue;
+            // The points of one removed facet lie close together: each climb starts where the previous one ended.
+            int from = climbFrom;
             foreach (int q in set)
             {
                 if (q == apex) continue;
-                int best = Ascend(climbFrom, q, out double bestDepth);
+                int best = Ascend(from, q, out double bestDepth);
+                from = best;
                 if (bestDepth <= HullTolerances.EnergyEvPerAtom) continue;
                 var target = _outside[best];
                 if (target is null)
@@ -317,7 +320,7 @@ internal sealed class LowerHullBuilder
         {
             int w = _neighbors[f * _n + i];
             int face = _wallFace[w];
-            if (face >= 0 && _amounts[apex][face] == 0 && _visitStamp[w] != _stamp)
+            if (face >= 0 && _input.Amount(apex, face) == 0 && _visitStamp[w] != _stamp)
             {
                 _visitStamp[w] = _stamp;
                 visible.Add(w);
@@ -433,7 +436,7 @@ internal sealed class LowerHullBuilder
         int face = _wallFace[w];
         int gFace = _wallFace[g];
         if (gFace < 0) return 0;
-        if (gFace != face) return _amounts[apex][gFace] > 0 ? 1 : 0;
+        if (gFace != face) return _input.Amount(apex, gFace) > 0 ? 1 : 0;
         int lowerW = LowerFacetOfWall(w), lowerG = LowerFacetOfWall(g);
         int far = -1;
         for (int j = 0; j < _n; j++)
@@ -515,7 +518,7 @@ internal sealed class LowerHullBuilder
                 if (k == wallFace) continue;
                 double x = _fractions[v * _n + k];
                 _matrix[r * size + c] = x;
-                _exact[r * size + c] = _amounts[v][k];
+                _exact[r * size + c] = _input.Amount(v, k);
                 norm2 += x * x;
                 c++;
             }

@@ -120,8 +120,7 @@ public sealed class SystemHull
             energies[i] = _points[i].FormationEnergyEvPerAtom;
         }
 
-        // Amount rows are the points' own immutable arrays.
-        var input = HullInput.Check(amounts, energies, rowsAreImmutable: true);
+        var input = HullInput.Check(amounts, energies);
         _hull = HullStability.Build(input, onDemand);
         // Facets are built on first use only: in many components they outnumber the points by far, and stability
         // does not need them.
