@@ -116,14 +116,22 @@ public static class PointsFileSolver
     }
 
     /// <summary>
+    /// From this many entries on, the two halves of the file are parsed at the same time on two cores (the second
+    /// worker first counts the lines of the first half, so it knows which entries its half holds).
+    /// </summary>
+    private const long TwoWorkersFromEntries = 16_384;
+
+    /// <summary>
     /// Reads a points file: a header line "components count", then one line per entry with the integer amounts of
     /// the components and the energy per atom (eV/atom), fields separated by spaces or tabs, lines ended by LF or
-    /// CRLF. Errors (FormatException) name the file, the line and the field.
+    /// CRLF. Errors (FormatException) name the file, the line and the field; of several faults, the first in the
+    /// file is reported.
     /// </summary>
     public static PointsFile Read(string path)
     {
-        using var stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan);
-        var lines = new LineReader(stream);
+        using var stream = OpenForReading(path);
+        long fileBytes = stream.Length;
+        var lines = new LineReader(stream, fileBytes);
         if (!lines.TryReadLine(out var header)) throw new FormatException($"{path}: empty file, expected 'components count'.");
         int pos = 0;
         if (!NextField(header, ref pos, out var f1) || !NextField(header, ref pos, out var f2) || NextField(header, ref pos, out _)
@@ -134,24 +142,126 @@ public static class PointsFileSolver
         }
         // Every entry line holds n + 1 fields of at least one byte and n separators: a count the file cannot hold is
         // refused here rather than after allocating room for it.
-        if ((double)count * (2 * n + 1) > stream.Length)
+        if ((double)count * (2 * n + 1) > fileBytes)
         {
-            throw new FormatException($"{path} line 1: the header promises {count} entries of {n} components, more than the file's {stream.Length} bytes can hold.");
+            throw new FormatException($"{path} line 1: the header promises {count} entries of {n} components, more than the file's {fileBytes} bytes can hold.");
         }
 
-        int components = (int)n;
-        var amounts = new long[count * components];
-        var energies = new double[count];
-        for (int i = 0; i < count; i++)
+        var body = new Body(path, (int)n, (int)count);
+        long bodyStart = lines.Position;
+        long split = count >= TwoWorkersFromEntries && Environment.ProcessorCount > 1 ? LineStartAfter(path, bodyStart + (fileBytes - bodyStart) / 2, fileBytes) : fileBytes;
+        if (split >= fileBytes)
         {
-            long lineNo = i + 2;
-            if (!lines.TryReadLine(out var line))
+            long entryLines = body.Parse(lines, firstLineNumber: 2);
+            body.CheckComplete(entryLines);
+            return body.Points;
+        }
+
+        // The second half on a worker, the first here. Each parse stops at its half's first fault; the first half's
+        // fault comes first in the file, so it is reported before the second's.
+        var second = Task.Run(() =>
+        {
+            using var secondStream = OpenForReading(path);
+            long firstHalfLines = CountLines(secondStream, bodyStart, split);
+            secondStream.Position = split;
+            return body.Parse(new LineReader(secondStream, fileBytes - split), firstLineNumber: 2 + firstHalfLines);
+        });
+        long firstLines;
+        try
+        {
+            stream.Position = bodyStart;
+            firstLines = body.Parse(new LineReader(stream, split - bodyStart), firstLineNumber: 2);
+        }
+        catch (FormatException)
+        {
+            // Let the worker finish before reporting: it reads the file, which the caller may delete next.
+            try { second.Wait(); } catch (AggregateException) { }
+            throw;
+        }
+        body.CheckComplete(firstLines + second.GetAwaiter().GetResult());
+        return body.Points;
+    }
+
+    private static FileStream OpenForReading(string path) =>
+        new(path, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan);
+
+    /// <summary>The offset just after the first LF at or after <paramref name="from"/> (the end when none).</summary>
+    private static long LineStartAfter(string path, long from, long end)
+    {
+        using var stream = OpenForReading(path);
+        stream.Position = from;
+        var buffer = new byte[4096];
+        for (long at = from; at < end;)
+        {
+            int read = stream.Read(buffer, 0, (int)Math.Min(buffer.Length, end - at));
+            if (read == 0) break;
+            int newline = buffer.AsSpan(0, read).IndexOf((byte)'\n');
+            if (newline >= 0) return at + newline + 1;
+            at += read;
+        }
+        return end;
+    }
+
+    /// <summary>Number of LFs in [from, to): the lines of a range that ends just after one.</summary>
+    private static long CountLines(Stream stream, long from, long to)
+    {
+        stream.Position = from;
+        var buffer = new byte[1 << 16];
+        long lines = 0;
+        for (long at = from; at < to;)
+        {
+            int read = stream.Read(buffer, 0, (int)Math.Min(buffer.Length, to - at));
+            if (read == 0) break;
+            lines += buffer.AsSpan(0, read).Count((byte)'\n');
+            at += read;
+        }
+        return lines;
+    }
+
+    /// <summary>The entries of a points file, filled by the parses of its line ranges.</summary>
+    private sealed class Body(string path, int components, int count)
+    {
+        private readonly long[] _amounts = new long[(long)count * components];
+        private readonly double[] _energies = new double[count];
+
+        public PointsFile Points => new(components, _amounts, _energies);
+
+        /// <summary>
+        /// Parses every line of <paramref name="lines"/>, the first being file line <paramref name="firstLineNumber"/>
+        /// (entry firstLineNumber − 2); returns the number of lines read. Lines after the promised entries must be blank.
+        /// </summary>
+        public long Parse(LineReader lines, long firstLineNumber)
+        {
+            long lineNo = firstLineNumber - 1;
+            while (lines.TryReadLine(out var line))
             {
-                throw new FormatException($"{path}: file ends at line {lineNo}; the header promised {count} entries.");
+                lineNo++;
+                long entry = lineNo - 2;
+                if (entry >= count)
+                {
+                    int p = 0;
+                    if (NextField(line, ref p, out _))
+                    {
+                        throw new FormatException($"{path} line {lineNo}: more entries than the header's count ({count}).");
+                    }
+                    continue;
+                }
+                ParseEntry(line, lineNo, (int)entry);
             }
-            var row = amounts.AsSpan((int)(i * components), components);
+            return lineNo - (firstLineNumber - 1);
+        }
+
+        /// <summary>Throws when the file's <paramref name="lines"/> after the header hold fewer entries than promised.</summary>
+        public void CheckComplete(long lines)
+        {
+            if (lines < count) throw new FormatException($"{path}: file ends at line {lines + 2}; the header promised {count} entries.");
+        }
+
+        private void ParseEntry(ReadOnlySpan<byte> line, long lineNo, int i)
+        {
+            var row = _amounts.AsSpan(i * components, components);
             int field = 0;
-            pos = 0;
+            int pos = 0;
             while (NextField(line, ref pos, out var token))
             {
                 if (field < components)
@@ -167,11 +277,11 @@ public static class PointsFileSolver
                 }
                 else if (field == components)
                 {
-                    if (!double.TryParse(token, NumberStyles.Float, CultureInfo.InvariantCulture, out energies[i]))
+                    if (!double.TryParse(token, NumberStyles.Float, CultureInfo.InvariantCulture, out _energies[i]))
                     {
                         throw new FormatException($"{path} line {lineNo} field {field + 1}: '{Show(token)}' is not a number (energy, eV/atom).");
                     }
-                    if (!double.IsFinite(energies[i]))
+                    if (!double.IsFinite(_energies[i]))
                     {
                         throw new FormatException($"{path} line {lineNo} field {field + 1}: energy '{Show(token)}' is not finite.");
                     }
@@ -183,15 +293,6 @@ public static class PointsFileSolver
                 throw new FormatException($"{path} line {lineNo}: {field} fields, expected {components} amounts and an energy.");
             }
         }
-        while (lines.TryReadLine(out var extra))
-        {
-            int p = 0;
-            if (NextField(extra, ref p, out _))
-            {
-                throw new FormatException($"{path} line {lines.LineNumber}: more entries than the header's count ({count}).");
-            }
-        }
-        return new PointsFile(components, amounts, energies);
     }
 
     /// <summary>The next field of <paramref name="line"/> from <paramref name="pos"/> on (spaces and tabs separate).</summary>
@@ -245,16 +346,21 @@ public static class PointsFileSolver
     /// Lines of a stream as byte spans into one growing buffer (valid until the next call), without a string per
     /// line. A UTF-8 byte order mark at the start is skipped and a CR before the LF dropped.
     /// </summary>
-    private sealed class LineReader(Stream stream)
+    private sealed class LineReader(Stream stream, long limitBytes)
     {
         private const int InitialBufferBytes = 1 << 16;
+        private readonly long _origin = stream.Position;
         private byte[] _buffer = new byte[InitialBufferBytes];
         private int _start;
         private int _end;
+        private long _consumed;
         private bool _endOfStream;
 
-        /// <summary>1-based number of the line last returned.</summary>
-        public long LineNumber { get; private set; }
+        /// <summary>Number of lines returned so far.</summary>
+        private long _lines;
+
+        /// <summary>The stream offset just after the last line returned.</summary>
+        public long Position => _origin + _consumed - (_end - _start);
 
         public bool TryReadLine(out ReadOnlySpan<byte> line)
         {
@@ -287,18 +393,20 @@ public static class PointsFileSolver
                     _start = 0;
                 }
                 if (_end == _buffer.Length) Array.Resize(ref _buffer, _buffer.Length * 2);
-                int read = stream.Read(_buffer, _end, _buffer.Length - _end);
+                int read = stream.Read(_buffer, _end, (int)Math.Min(_buffer.Length - _end, limitBytes - _consumed));
                 if (read == 0) _endOfStream = true;
                 _end += read;
+                _consumed += read;
             }
         }
 
         private ReadOnlySpan<byte> Complete(int start, int length)
         {
             var line = new ReadOnlySpan<byte>(_buffer, start, length);
-            if (LineNumber == 0 && line.StartsWith("\uFEFF"u8)) line = line[3..];
+            // A byte order mark can only start the file, whose first line is read from offset 0.
+            if (_lines == 0 && _origin == 0 && line.StartsWith("\uFEFF"u8)) line = line[3..];
             if (!line.IsEmpty && line[^1] == (byte)'\r') line = line[..^1];
-            LineNumber++;
+            _lines++;
             return line;
         }
     }
