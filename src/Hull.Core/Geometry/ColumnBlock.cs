@@ -113,7 +113,8 @@ internal sealed class ColumnBlock
             {
                 if (amounts[c] != 0) { nonzero = c; nonzeroCount++; }
             }
-            for (int r = 0; r < k; r++) rows[r * count + j] = input.Fractions[p * n + components[r]];
+            var x = input.FractionsOf(p);
+            for (int r = 0; r < k; r++) rows[r * count + j] = x[components[r]];
             if (nonzeroCount == 1)
             {
                 int r = Array.BinarySearch(components, nonzero);

@@ -4,8 +4,9 @@ namespace Hull.Core.Geometry;
 
 /// <summary>
 /// Groups integer amount rows by composition (rows reduced by their greatest common divisor), storing one reduced
-/// row per distinct composition, back to back in one array: a dataset of 1e5 entries often holds only a few hundred
-/// compositions, and a large input then needs no small array per point or per composition.
+/// row and its atom fractions per distinct composition, back to back in one array each: a dataset of 1e5 entries
+/// often holds only a few hundred compositions, and a large input then needs no small array per point or per
+/// composition.
 /// </summary>
 internal sealed class DistinctCompositions
 {
@@ -18,6 +19,7 @@ internal sealed class DistinctCompositions
     // probe reads one array, and a comparison one more.
     private long[] _slots;
     private long[] _flat;
+    private double[] _fractions;
 
     public DistinctCompositions(int componentCount, int expectedRows)
     {
@@ -25,6 +27,7 @@ internal sealed class DistinctCompositions
         int start = Math.Min(Math.Max(expectedRows, 8), InitialCompositions);
         _slots = new long[(int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)start * 2)];
         _flat = new long[start * componentCount];
+        _fractions = new double[start * componentCount];
     }
 
     /// <summary>Number of distinct compositions so far; ids run from 0 to Count - 1 in order of first occurrence.</summary>
@@ -35,6 +38,12 @@ internal sealed class DistinctCompositions
     /// Owned by this table: the caller must not change it.
     /// </summary>
     public long[] ReducedRows => _flat;
+
+    /// <summary>
+    /// The atom fractions of each composition (amount / total, each rounded once), laid out as <see cref="ReducedRows"/>.
+    /// Owned by this table: the caller must not change it.
+    /// </summary>
+    public double[] Fractions => _fractions;
 
     /// <summary>The id of the row's composition, adding it when new. The row must be non-negative and not all zero.</summary>
     public int Add(ReadOnlySpan<long> row)
@@ -63,8 +72,16 @@ internal sealed class DistinctCompositions
             if (entry == 0)
             {
                 int id = _count++;
-                if (_count * n > _flat.Length) Array.Resize(ref _flat, _flat.Length * 2);
+                if (_count * n > _flat.Length)
+                {
+                    Array.Resize(ref _flat, _flat.Length * 2);
+                    Array.Resize(ref _fractions, _fractions.Length * 2);
+                }
                 reduced.CopyTo(_flat.AsSpan(id * n, n));
+                // The input checks refuse totals past 64 bits; until they do (they may run beside this), wrapping is harmless.
+                long total = 0;
+                foreach (long v in reduced) total = unchecked(total + v);
+                for (int k = 0; k < n; k++) _fractions[id * n + k] = (double)reduced[k] / total;
                 _slots[slot] = ((long)hash << 32) | (uint)(id + 1);
                 if (_count * 2 > _slots.Length) Grow();
                 return id;

@@ -28,27 +28,27 @@ internal static class ExtremeCornerCheck
     /// <param name="facetLu">Each facet's factorised corner matrix (row r: fractions of corner r), n × n per facet.</param>
     /// <param name="facetPivots">The factorisations' pivots, n per facet.</param>
     /// <param name="facetMu">Each facet's plane (chemical potentials), n per facet.</param>
-    /// <param name="pointFacet">For each candidate, the facet it was located in.</param>
-    /// <param name="isCorner">Whether each point is a corner of some facet.</param>
+    /// <param name="compositionFacet">For each composition (by id), the facet its representative was located in.</param>
+    /// <param name="isCorner">Whether each composition's representative is a corner of some facet.</param>
     /// <param name="candidates">The representative points.</param>
     /// <param name="pure">The pure point of each component.</param>
-    /// <param name="knownVertex">Corners already shown to be vertices (updated).</param>
+    /// <param name="knownVertex">Compositions whose representative corner is already shown a vertex (updated).</param>
     public static List<int> FindNonVertexCorners(
         HullInput input, int[] facetVertices, double[] facetLu, int[] facetPivots, double[] facetMu,
-        int[] pointFacet, bool[] isCorner, int[] candidates, int[] pure, bool[] knownVertex)
+        int[] compositionFacet, bool[] isCorner, int[] candidates, int[] pure, bool[] knownVertex)
     {
-        int n = input.ComponentCount;
-        int pointCount = input.Energies.Length;
+        int[] compositionOf = input.CompositionOf;
 
         var toCheck = new List<int>();
         foreach (int p in candidates)
         {
-            if (isCorner[p] && !knownVertex[p] && Array.IndexOf(pure, p) < 0) toCheck.Add(p);
+            int c = compositionOf[p];
+            if (isCorner[c] && !knownVertex[c] && Array.IndexOf(pure, p) < 0) toCheck.Add(p);
         }
         if (toCheck.Count == 0) return [];
 
         var facets = new FacetTable(facetVertices, facetLu, facetPivots, facetMu);
-        var star = IndexStars(n, pointCount, facetVertices, pointFacet, isCorner, candidates, pure);
+        var star = IndexStars(input, facetVertices, compositionFacet, isCorner, candidates, pure);
         int chunks = (toCheck.Count + Chunk - 1) / Chunk;
         var found = new List<int>[chunks];
         if (chunks == 1)
@@ -75,13 +75,14 @@ internal static class ExtremeCornerCheck
         for (int t = begin; t < end; t++)
         {
             int v = toCheck[t];
+            int c = input.CompositionOf[v];
             GatherStarColumns(input, v, facets.Vertices, star, scratch);
-            if (TiltedPlaneSeparates(input, v, star.Facets[star.Start[v]], facets, scratch.Columns, scratch))
+            if (TiltedPlaneSeparates(input, v, star.Facets[star.Start[c]], facets, scratch.Columns, scratch))
             {
-                knownVertex[v] = true;
+                knownVertex[c] = true;
                 continue;
             }
-            if (input.Energies[v] < SolveWithout(input, v, scratch) - HullTolerances.EnergyEvPerAtom) knownVertex[v] = true;
+            if (input.Energies[v] < SolveWithout(input, v, scratch) - HullTolerances.EnergyEvPerAtom) knownVertex[c] = true;
             else nonVertices.Add(v);
         }
         return nonVertices;
@@ -108,29 +109,32 @@ internal static class ExtremeCornerCheck
         var support = scratch.Support;
         var outside = scratch.Outside;
         int[] listedFor = scratch.ListedFor;
-        double[] fractions = input.Fractions;
         var own = input.Row(v);
+        int[] compositionOf = input.CompositionOf;
         support.Clear();
         outside.Clear();
         for (int c = 0; c < n; c++) (own[c] != 0 ? support : outside).Add(c);
 
         columns.Clear();
         foreach (int c in support) Include(star.Pure[c]);
-        for (int s = star.Start[v]; s < star.Start[v + 1]; s++)
+        int vc = compositionOf[v];
+        for (int s = star.Start[vc]; s < star.Start[vc + 1]; s++)
         {
             int f = star.Facets[s];
             for (int i = 0; i < n; i++) Include(facetVertices[f * n + i]);
             for (int q = star.Located[f]; q < star.Located[f + 1]; q++) Include(star.LocatedPoints[q]);
         }
         // A later gathering for the same corner must list its columns again.
-        foreach (int p in columns) listedFor[p] = -1;
+        foreach (int p in columns) listedFor[compositionOf[p]] = -1;
 
         void Include(int p)
         {
-            if (p == v || listedFor[p] == v) return;
-            listedFor[p] = v;
+            int composition = compositionOf[p];
+            if (p == v || listedFor[composition] == v) return;
+            listedFor[composition] = v;
             // Made of v's components only (a fraction is exactly 0 where the amount is).
-            foreach (int c in outside) if (fractions[p * n + c] != 0) return;
+            var x = input.FractionsOf(p);
+            foreach (int c in outside) if (x[c] != 0) return;
             columns.Add(p);
         }
     }
@@ -142,7 +146,7 @@ internal static class ExtremeCornerCheck
         int k = scratch.Support.Count;
         var block = ColumnBlock.FromPoints(scratch.Support.ToArray(), scratch.Columns, input);
         var x = scratch.X.AsSpan(0, k);
-        block.Restrict(input.Fractions.AsSpan(v * n, n), x);
+        block.Restrict(input.FractionsOf(v), x);
         return scratch.Solver.Solve(block, x, excluded: -1, scratch.Basis.AsSpan(0, k), scratch.Weights.AsSpan(0, k), warm: false);
     }
 
@@ -170,7 +174,6 @@ internal static class ExtremeCornerCheck
         a[slot] = 1.0;
         SmallLinearSolver.Solve(facets.Lu.AsSpan(f * n * n, n * n), n, facets.Pivots.AsSpan(f * n, n), a);
         var mu = facets.Mu.AsSpan(f * n, n);
-        double[] fractions = input.Fractions;
         if (scratch.Lambda.Length < columns.Count)
         {
             scratch.Lambda = new double[2 * columns.Count];
@@ -183,9 +186,10 @@ internal static class ExtremeCornerCheck
         {
             int j = columns[i];
             double lambda = 0, gap = input.Energies[j];
+            var xj = input.FractionsOf(j);
             for (int k = 0; k < n; k++)
             {
-                double x = fractions[j * n + k];
+                double x = xj[k];
                 lambda += a[k] * x;
                 gap -= mu[k] * x;
             }
@@ -198,37 +202,49 @@ internal static class ExtremeCornerCheck
         double violation = 0;
         for (int i = 0; i < columns.Count; i++) violation = Math.Max(violation, t * lambdas[i] - gaps[i]);
         double atV = -input.Energies[v];
-        for (int k = 0; k < n; k++) atV += mu[k] * fractions[v * n + k];
+        var xv = input.FractionsOf(v);
+        for (int k = 0; k < n; k++) atV += mu[k] * xv[k];
         // The plane's value at x_v less E_v: (mu·x_v − E_v) + t λ_v(x_v), with λ_v(x_v) = 1.
         return atV + t - violation > HullTolerances.EnergyEvPerAtom + TiltRounding;
     }
 
     /// <summary>
-    /// The facets that contain each point (compressed rows over points), the candidates located in each facet
-    /// (compressed rows over facets), and the pure point of each component.
+    /// The facets that contain each corner (compressed rows over composition ids), the candidates located in each
+    /// facet (compressed rows over facets), and the pure point of each component.
     /// </summary>
     public sealed record StarIndex(int[] Start, int[] Facets, int[] Located, int[] LocatedPoints, int[] Pure);
 
     /// <summary>Indexes the stars of a finished hull and the non-corner candidates located in each facet.</summary>
-    public static StarIndex IndexStars(int n, int pointCount, int[] facetVertices, int[] pointFacet, bool[] isCorner, int[] candidates, int[] pure)
+    public static StarIndex IndexStars(HullInput input, int[] facetVertices, int[] compositionFacet, bool[] isCorner, int[] candidates, int[] pure)
     {
+        int n = input.ComponentCount;
+        int compositions = input.CompositionCount;
+        int[] compositionOf = input.CompositionOf;
         int facetCount = facetVertices.Length / n;
-        var starStart = new int[pointCount + 1];
-        foreach (int v in facetVertices) starStart[v + 1]++;
-        for (int i = 0; i < pointCount; i++) starStart[i + 1] += starStart[i];
+        var starStart = new int[compositions + 1];
+        foreach (int v in facetVertices) starStart[compositionOf[v] + 1]++;
+        for (int c = 0; c < compositions; c++) starStart[c + 1] += starStart[c];
         var starFacets = new int[facetVertices.Length];
         var fill = (int[])starStart.Clone();
         for (int f = 0; f < facetCount; f++)
         {
-            for (int i = 0; i < n; i++) starFacets[fill[facetVertices[f * n + i]]++] = f;
+            for (int i = 0; i < n; i++) starFacets[fill[compositionOf[facetVertices[f * n + i]]]++] = f;
         }
 
         var located = new int[facetCount + 1];
-        foreach (int p in candidates) if (!isCorner[p]) located[pointFacet[p] + 1]++;
+        foreach (int p in candidates)
+        {
+            int c = compositionOf[p];
+            if (!isCorner[c]) located[compositionFacet[c] + 1]++;
+        }
         for (int f = 0; f < facetCount; f++) located[f + 1] += located[f];
         var locatedPoints = new int[located[facetCount]];
         var locatedFill = (int[])located.Clone();
-        foreach (int p in candidates) if (!isCorner[p]) locatedPoints[locatedFill[pointFacet[p]]++] = p;
+        foreach (int p in candidates)
+        {
+            int c = compositionOf[p];
+            if (!isCorner[c]) locatedPoints[locatedFill[compositionFacet[c]]++] = p;
+        }
         return new StarIndex(starStart, starFacets, located, locatedPoints, pure);
     }
 
@@ -246,12 +262,12 @@ internal static class ExtremeCornerCheck
         public List<int> Support { get; } = new(input.ComponentCount);
         public List<int> Outside { get; } = new(input.ComponentCount);
 
-        /// <summary>For each point, the corner whose column list last took it (-1: none), so each is listed once.</summary>
-        public int[] ListedFor { get; } = NoneListed(input.Energies.Length);
+        /// <summary>For each composition, the corner whose column list last took it (-1: none), so each is listed once.</summary>
+        public int[] ListedFor { get; } = NoneListed(input.CompositionCount);
 
-        private static int[] NoneListed(int points)
+        private static int[] NoneListed(int compositions)
         {
-            var listed = new int[points];
+            var listed = new int[compositions];
             Array.Fill(listed, -1);
             return listed;
         }

@@ -1,34 +1,41 @@
 namespace Hull.Core.Geometry;
 
 /// <summary>
-/// The checked input of a hull computation: composition fractions and energies per point, the reduced amount row
-/// of each point's composition, and one representative per composition (the lowest energy; the lowest index among
-/// exact ties). Both hull engines start from it, so they accept and refuse exactly the same input.
+/// The checked input of a hull computation: the energy of each point, its composition's id, and per distinct
+/// composition the amount row in lowest terms, the atom fractions and one representative point (the lowest energy;
+/// the lowest index among exact ties). Both hull engines start from it, so they accept and refuse exactly the same
+/// input.
 /// </summary>
 /// <remarks>
-/// Amounts are kept once per distinct composition, rows back to back in one array, and no input array is kept:
-/// nothing the caller changes later reaches the engines.
+/// Amounts and fractions are kept once per distinct composition, rows back to back in one array each, and no input
+/// array is kept: nothing the caller changes later reaches the engines, and a large input with repeated
+/// compositions needs little memory.
 /// </remarks>
 internal sealed class HullInput
 {
-    private HullInput(int componentCount, double[] fractions, double[] energies, int[] compositionOf,
-        long[] reducedRows, int compositionCount, int[] representative, int[] candidates)
+    private HullInput(int componentCount, double[] energies, int[] compositionOf, int compositionCount,
+        long[] reducedRows, double[] compositionFractions, int[] candidates)
     {
         ComponentCount = componentCount;
-        Fractions = fractions;
         Energies = energies;
         CompositionOf = compositionOf;
-        _reducedRows = reducedRows;
         CompositionCount = compositionCount;
-        Representative = representative;
+        _reducedRows = reducedRows;
+        CompositionFractions = compositionFractions;
         CandidatesInInputOrder = candidates;
         _sortedCandidates = new Lazy<int[]>(() => SortByComposition(candidates, this));
     }
 
     public int ComponentCount { get; }
 
-    /// <summary>Atom fractions, point-major: point i's fractions are [i * ComponentCount, (i + 1) * ComponentCount).</summary>
-    public double[] Fractions { get; }
+    /// <summary>
+    /// Atom fractions of each composition: composition c's are [c * ComponentCount, (c + 1) * ComponentCount). May
+    /// hold unused room after the last.
+    /// </summary>
+    public double[] CompositionFractions { get; }
+
+    /// <summary>Atom fractions of point i (those of its composition).</summary>
+    public ReadOnlySpan<double> FractionsOf(int point) => CompositionFractions.AsSpan(CompositionOf[point] * ComponentCount, ComponentCount);
 
     /// <summary>Energy per atom of each point, eV/atom.</summary>
     public double[] Energies { get; }
@@ -49,8 +56,11 @@ internal sealed class HullInput
     /// <summary>Amount of component k in point i's reduced row.</summary>
     public long Amount(int point, int component) => _reducedRows[CompositionOf[point] * ComponentCount + component];
 
-    /// <summary>For each point, the representative point of its composition.</summary>
-    public int[] Representative { get; }
+    /// <summary>Amount of component k in composition c's reduced row.</summary>
+    public long CompositionAmount(int composition, int component) => _reducedRows[composition * ComponentCount + component];
+
+    /// <summary>The representative point of point i's composition.</summary>
+    public int RepresentativeOf(int point) => CandidatesInInputOrder[CompositionOf[point]];
 
     private readonly Lazy<int[]> _sortedCandidates;
 
@@ -58,8 +68,8 @@ internal sealed class HullInput
     public int[] Candidates => _sortedCandidates.Value;
 
     /// <summary>
-    /// The representative points in the order their compositions first occur in the input: enough where the input
-    /// order is already canonical (a dataset's hulls), and cheaper than sorting.
+    /// The representative points in the order their compositions first occur in the input, so indexed by composition
+    /// id: enough where the input order is already canonical (a dataset's hulls), and cheaper than sorting.
     /// </summary>
     public int[] CandidatesInInputOrder { get; }
 
@@ -151,7 +161,6 @@ internal sealed class HullInput
     private static HullInput CheckRows<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom)
         where TRows : struct, IRowSource
     {
-        var fractions = new double[count * n];
         var energies = new double[count];
         var compositionOf = new int[count];
         var distinct = new DistinctCompositions(n, count);
@@ -162,7 +171,7 @@ internal sealed class HullInput
             var grouping = Task.Run(() => GroupCheckedRows(source, count, n, distinct, compositionOf));
             try
             {
-                CheckAndScale(source, count, n, energiesEvPerAtom, fractions, energies);
+                CheckRowsAndEnergies(source, count, n, energiesEvPerAtom, energies);
             }
             finally
             {
@@ -171,16 +180,16 @@ internal sealed class HullInput
         }
         else
         {
-            CheckAndScale(source, count, n, energiesEvPerAtom, fractions, energies);
+            CheckRowsAndEnergies(source, count, n, energiesEvPerAtom, energies);
             GroupCheckedRows(source, count, n, distinct, compositionOf);
         }
 
-        var representative = ChooseRepresentatives(compositionOf, distinct.Count, energies, out var candidates);
-        return new HullInput(n, fractions, energies, compositionOf, distinct.ReducedRows, distinct.Count, representative, candidates);
+        var candidates = ChooseRepresentatives(compositionOf, distinct.Count, energies);
+        return new HullInput(n, energies, compositionOf, distinct.Count, distinct.ReducedRows, distinct.Fractions, candidates);
     }
 
-    /// <summary>Checks every row and energy in point order, throwing for the first fault; fills fractions and energies.</summary>
-    private static void CheckAndScale<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom, double[] fractions, double[] energies)
+    /// <summary>Checks every row and energy in point order, throwing for the first fault; copies the energies.</summary>
+    private static void CheckRowsAndEnergies<TRows>(TRows source, int count, int n, IReadOnlyList<double> energiesEvPerAtom, double[] energies)
         where TRows : struct, IRowSource
     {
         double[]? energyArray = energiesEvPerAtom as double[];
@@ -198,7 +207,6 @@ internal sealed class HullInput
                 total += row[k];
             }
             if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", "amounts");
-            for (int k = 0; k < n; k++) fractions[i * n + k] = (double)row[k] / total;
             double e = energyArray is null ? energiesEvPerAtom[i] : energyArray[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
             energies[i] = e;
@@ -271,7 +279,8 @@ internal sealed class HullInput
         return pure;
     }
 
-    private static int[] ChooseRepresentatives(int[] compositionOf, int compositions, double[] energies, out int[] candidates)
+    /// <summary>The representative point of each composition, indexed by composition id.</summary>
+    private static int[] ChooseRepresentatives(int[] compositionOf, int compositions, double[] energies)
     {
         var best = new int[compositions];
         Array.Fill(best, -1);
@@ -281,19 +290,15 @@ internal sealed class HullInput
             // Strictly lower wins, so the lowest index stays among exact ties.
             if (best[c] < 0 || energies[i] < energies[best[c]]) best[c] = i;
         }
-        var representative = new int[compositionOf.Length];
-        for (int i = 0; i < compositionOf.Length; i++) representative[i] = best[compositionOf[i]];
-        candidates = best;
-        return representative;
+        return best;
     }
 
     private static int[] SortByComposition(int[] candidates, HullInput input)
     {
         int n = input.ComponentCount;
-        double[] fractions = input.Fractions;
         var exact = Comparer<int>.Create((a, b) =>
         {
-            int c = CompareLexicographic(input.Row(a), input.Row(b), fractions.AsSpan(a * n, n), fractions.AsSpan(b * n, n));
+            int c = CompareLexicographic(input.Row(a), input.Row(b), input.FractionsOf(a), input.FractionsOf(b));
             return c != 0 ? c : a.CompareTo(b);
         });
         // By each fraction as a number in turn (plain sorts of doubles), splitting into runs of values not clearly
@@ -310,7 +315,7 @@ internal sealed class HullInput
                 Array.Sort(sorted, from, to - from, exact);
                 return;
             }
-            for (int i = from; i < to; i++) keys[i] = fractions[sorted[i] * n + component];
+            for (int i = from; i < to; i++) keys[i] = input.FractionsOf(sorted[i])[component];
             Array.Sort(keys, sorted, from, to - from);
             for (int start = from; start < to;)
             {

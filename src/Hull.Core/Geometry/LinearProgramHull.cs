@@ -185,8 +185,6 @@ public sealed class LinearProgramHull : IHullStability
         return mask;
     }
 
-    private ReadOnlySpan<double> FractionsOf(int point) => _input.Fractions.AsSpan(point * ComponentCount, ComponentCount);
-
     /// <summary>Representative points grouped by their component set, groups by mask, points in composition order (or input order).</summary>
     private static List<(ulong Mask, int[] Points)> GroupByMask(HullInput input, bool inputOrder)
     {
@@ -253,7 +251,7 @@ public sealed class LinearProgramHull : IHullStability
                 for (int q = chunk * ChunkSize; q < end; q++)
                 {
                     int p = points[q];
-                    block.Restrict(FractionsOf(p), x);
+                    block.Restrict(_input.FractionsOf(p), x);
                     double without = solver.Solve(block, x, block.OwnGroupStart + q, basis, weights, warm);
                     warm = true;
                     Record(p, block, basis, weights, without);
@@ -288,7 +286,7 @@ public sealed class LinearProgramHull : IHullStability
         int c = _input.CompositionOf[point];
         if (_isVertex[point] || AllVertices(_decompositionPoints[c])) return;
         var x = new double[block.Components.Length];
-        block.Restrict(FractionsOf(point), x);
+        block.Restrict(_input.FractionsOf(point), x);
         (_decompositionPoints[c], _decompositionWeights[c]) = VerticesOnly(block, x, point, _decompositionPoints[c]);
     }
 
@@ -339,7 +337,7 @@ public sealed class LinearProgramHull : IHullStability
         if ((uint)pointIndex >= (uint)PointCount) throw new ArgumentOutOfRangeException(nameof(pointIndex));
         int c = _input.CompositionOf[pointIndex];
         if (_solved is null || _solved[c]) return c;
-        int p = _input.Representative[pointIndex];
+        int p = _input.RepresentativeOf(pointIndex);
         ColumnBlock? block = SolveValue(p);
         if (block is not null) FinishDecomposition(p, block);
         _solved[c] = true;
@@ -373,7 +371,7 @@ public sealed class LinearProgramHull : IHullStability
             bool warm = _last is { } last && ReferenceEquals(last.Block, block);
             if (!warm) _last = (block, new BlockSimplex(rows), new int[rows], new double[rows], new double[rows]);
             var (_, solver, basis, weights, x) = _last!.Value;
-            block.Restrict(FractionsOf(p), x);
+            block.Restrict(_input.FractionsOf(p), x);
             double without = solver.Solve(block, x, block.OwnGroupStart + _columnInBlock![p], basis, weights, warm);
             Record(p, block, basis, weights, without);
             _valueSolved[c] = true;

@@ -40,31 +40,30 @@ public sealed class LowerHull : IHullStability
     private const double LeftOutSlackEvPerAtom = 4 * HullTolerances.EnergyEvPerAtom;
 
     private readonly int _n;
-    private HullInput? _input;
+    private readonly HullInput _input;
     // For HullEnergyWithoutComposition: the finished hull's stars (built on first use) and buffers of past calls.
     private ExtremeCornerCheck.StarIndex? _stars;
     private readonly System.Collections.Concurrent.ConcurrentBag<ExtremeCornerCheck.Scratch> _spareScratch = new();
-    private readonly double[] _fractions;
     private readonly double[] _energies;
-    private readonly int[] _representative;
-    private readonly bool[] _isVertex;
+    // Facet corners are representative points; the rest of the state is kept per composition (indexed by
+    // composition id), as only a composition's representative takes part.
     private int[] _facetVertices = [];
     private double[] _facetLu = [];
     private int[] _facetPivots = [];
     private int[] _facetNeighbors = [];
     private double[] _facetMu = [];
-    private readonly int[] _pointFacet;
+    private readonly bool[] _isVertex;
+    private readonly int[] _compositionFacet;
     private readonly double[] _hullEnergy;
 
-    private LowerHull(int n, double[] fractions, double[] energies, int[] representative)
+    private LowerHull(HullInput input)
     {
-        _n = n;
-        _fractions = fractions;
-        _energies = energies;
-        _representative = representative;
-        _isVertex = new bool[energies.Length];
-        _pointFacet = new int[energies.Length];
-        _hullEnergy = new double[energies.Length];
+        _n = input.ComponentCount;
+        _input = input;
+        _energies = input.Energies;
+        _isVertex = new bool[input.CompositionCount];
+        _compositionFacet = new int[input.CompositionCount];
+        _hullEnergy = new double[input.CompositionCount];
         Facets = [];
         VertexPoints = [];
     }
@@ -95,9 +94,8 @@ public sealed class LowerHull : IHullStability
 
     internal static LowerHull Build(HullInput input)
     {
-        var hull = new LowerHull(input.ComponentCount, input.Fractions, input.Energies, input.Representative);
-        hull.Construct(input);
-        hull._input = input;
+        var hull = new LowerHull(input);
+        hull.Construct();
         return hull;
     }
 
@@ -110,14 +108,15 @@ public sealed class LowerHull : IHullStability
     public double? HullEnergyWithoutComposition(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        int rep = _representative[pointIndex];
-        HullInput input = _input!;
+        HullInput input = _input;
+        int c = input.CompositionOf[pointIndex];
+        int rep = input.CandidatesInInputOrder[c];
         var row = input.Row(rep);
         int present = 0;
         foreach (long amount in row) if (amount != 0) present++;
         if (present == 1) return null;
-        if (!_isVertex[rep]) return _hullEnergy[rep];
-        _stars ??= ExtremeCornerCheck.IndexStars(_n, _energies.Length, _facetVertices, _pointFacet, _isVertex, input.Candidates, input.PureComponentPoints());
+        if (!_isVertex[c]) return _hullEnergy[c];
+        _stars ??= ExtremeCornerCheck.IndexStars(input, _facetVertices, _compositionFacet, _isVertex, input.Candidates, input.PureComponentPoints());
         var scratch = _spareScratch.TryTake(out var spare) ? spare : new ExtremeCornerCheck.Scratch(input);
         double without = ExtremeCornerCheck.HullEnergyWithout(input, rep, _facetVertices, _stars, scratch);
         _spareScratch.Add(scratch);
@@ -128,14 +127,15 @@ public sealed class LowerHull : IHullStability
     public bool IsVertex(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        return _isVertex[pointIndex];
+        int c = _input.CompositionOf[pointIndex];
+        return _isVertex[c] && _input.CandidatesInInputOrder[c] == pointIndex;
     }
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
     public double EnergyAboveHull(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        double above = _energies[pointIndex] - _hullEnergy[_representative[pointIndex]];
+        double above = _energies[pointIndex] - _hullEnergy[_input.CompositionOf[pointIndex]];
         return above > HullTolerances.EnergyEvPerAtom ? above : 0.0;
     }
 
@@ -143,10 +143,14 @@ public sealed class LowerHull : IHullStability
     public HullPosition LocatePoint(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
-        int rep = _representative[pointIndex];
-        int facet = _pointFacet[rep];
-        if (_isVertex[rep]) return new HullPosition(facet, [rep], [1.0], _energies[rep]);
-        return PositionIn(facet, _fractions.AsSpan(rep * _n, _n));
+        int c = _input.CompositionOf[pointIndex];
+        int facet = _compositionFacet[c];
+        if (_isVertex[c])
+        {
+            int rep = _input.CandidatesInInputOrder[c];
+            return new HullPosition(facet, [rep], [1.0], _energies[rep]);
+        }
+        return PositionIn(facet, _input.FractionsOf(pointIndex));
     }
 
     /// <summary>Hull energy and decomposition at composition fractions (non-negative, summing to 1).</summary>
@@ -180,26 +184,28 @@ public sealed class LowerHull : IHullStability
         return new HullPosition(facet, points.ToArray(), w, energy);
     }
 
-    private void Construct(HullInput input)
+    private void Construct()
     {
+        HullInput input = _input;
         int[] candidates = input.Candidates;
         if (_n == 1)
         {
             int best = candidates[0];
             SetFacets([[best]], [-1]);
-            _pointFacet[best] = 0;
-            _hullEnergy[best] = _energies[best];
+            _compositionFacet[0] = 0;
+            _hullEnergy[0] = _energies[best];
             return;
         }
 
         int[] pure = input.PureComponentPoints();
-        var knownVertex = new bool[_energies.Length];
-        var left = new bool[_energies.Length];
+        // Per composition, as the hull state.
+        var knownVertex = new bool[input.CompositionCount];
+        var left = new bool[input.CompositionCount];
         int[] building = candidates;
         for (int round = 0; ; round++)
         {
             BuildAndRepair(input, pure, building, candidates, left);
-            var demoted = ExtremeCornerCheck.FindNonVertexCorners(input, _facetVertices, _facetLu, _facetPivots, _facetMu, _pointFacet, _isVertex, candidates, pure, knownVertex);
+            var demoted = ExtremeCornerCheck.FindNonVertexCorners(input, _facetVertices, _facetLu, _facetPivots, _facetMu, _compositionFacet, _isVertex, candidates, pure, knownVertex);
             if (demoted.Count == 0) return;
             if (round == MaxCornerRounds)
             {
@@ -210,9 +216,10 @@ public sealed class LowerHull : IHullStability
             // and a vertex of all points is one of any subset, so no corner of the new facets can fail the check.
             // Only a point handed back by the repairs (deeper than the slack below, which a fault alone can cause)
             // becomes a new corner, and is checked in the next round.
-            foreach (int p in pure) knownVertex[p] = true;
-            foreach (int p in candidates) left[p] = !knownVertex[p];
-            building = candidates.Where(p => knownVertex[p]).ToArray();
+            int[] compositionOf = input.CompositionOf;
+            foreach (int p in pure) knownVertex[compositionOf[p]] = true;
+            foreach (int p in candidates) left[compositionOf[p]] = !knownVertex[compositionOf[p]];
+            building = candidates.Where(p => knownVertex[compositionOf[p]]).ToArray();
         }
     }
 
@@ -230,10 +237,11 @@ public sealed class LowerHull : IHullStability
             SetFacets(facets, builder.LowerNeighbors());
             var below = LocateCandidates(candidates);
             // A point left out may lie below a hull that is not complete yet; it is judged on the completed one.
-            var handBack = below.Where(b => !left[b.Point]).ToList();
+            int[] compositionOf = input.CompositionOf;
+            var handBack = below.Where(b => !left[compositionOf[b.Point]]).ToList();
             if (handBack.Count == 0)
             {
-                handBack = below.Where(b => _hullEnergy[b.Point] - _energies[b.Point] > LeftOutSlackEvPerAtom).ToList();
+                handBack = below.Where(b => _hullEnergy[compositionOf[b.Point]] - _energies[b.Point] > LeftOutSlackEvPerAtom).ToList();
             }
             if (handBack.Count == 0) break;
             if (round == MaxRepairRounds)
@@ -262,9 +270,9 @@ public sealed class LowerHull : IHullStability
             var mu = _facetMu.AsSpan(i * _n, _n);
             for (int r = 0; r < _n; r++)
             {
-                _fractions.AsSpan(verts[r] * _n, _n).CopyTo(lu.Slice(r * _n, _n));
+                _input.FractionsOf(verts[r]).CopyTo(lu.Slice(r * _n, _n));
                 mu[r] = _energies[verts[r]];
-                _isVertex[verts[r]] = true;
+                _isVertex[_input.CompositionOf[verts[r]]] = true;
             }
             SmallLinearSolver.Factorize(lu, _n, _facetPivots.AsSpan(i * _n, _n));
             SmallLinearSolver.Solve(lu, _n, _facetPivots.AsSpan(i * _n, _n), mu);
@@ -272,7 +280,8 @@ public sealed class LowerHull : IHullStability
         }
         Facets = Array.AsReadOnly(list);
         var vertices = new List<int>();
-        for (int i = 0; i < _isVertex.Length; i++) if (_isVertex[i]) vertices.Add(i);
+        for (int c = 0; c < _isVertex.Length; c++) if (_isVertex[c]) vertices.Add(_input.CandidatesInInputOrder[c]);
+        vertices.Sort();
         VertexPoints = vertices.AsReadOnly();
     }
 
@@ -306,13 +315,14 @@ public sealed class LowerHull : IHullStability
         for (int i = begin; i < end; i++)
         {
             int p = candidates[i];
-            var x = _fractions.AsSpan(p * _n, _n);
-            facet = _isVertex[p] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
-            _pointFacet[p] = facet;
-            if (_isVertex[p]) { _hullEnergy[p] = _energies[p]; continue; }
+            int c = _input.CompositionOf[p];
+            var x = _input.FractionsOf(p);
+            facet = _isVertex[c] ? FacetWithVertex(p, x, facet, lambda) : Walk(x, facet, lambda);
+            _compositionFacet[c] = facet;
+            if (_isVertex[c]) { _hullEnergy[c] = _energies[p]; continue; }
             double hull = 0;
             for (int k = 0; k < _n; k++) hull += _facetMu[facet * _n + k] * x[k];
-            _hullEnergy[p] = hull;
+            _hullEnergy[c] = hull;
             if (_energies[p] < hull - HullTolerances.EnergyEvPerAtom) found.Add((p, facet));
         }
         return found;

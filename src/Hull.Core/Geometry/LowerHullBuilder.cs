@@ -21,6 +21,8 @@ internal sealed class LowerHullBuilder
 {
     private const int Infinity = -1;
 
+    // Inside the builder a point is a composition id (its representative stands for it): fractions, amounts and
+    // energies are read from tables per composition, and ids are turned back into points on the way out.
     private readonly int _n;
     private readonly HullInput _input;
     private readonly double[] _fractions;
@@ -51,24 +53,33 @@ internal sealed class LowerHullBuilder
     {
         _n = input.ComponentCount;
         _input = input;
-        _fractions = input.Fractions;
-        _energies = input.Energies;
+        _fractions = input.CompositionFractions;
+        _energies = new double[input.CompositionCount];
+        for (int c = 0; c < _energies.Length; c++) _energies[c] = input.Energies[input.CandidatesInInputOrder[c]];
         _matrix = new double[_n * _n];
         _pivots = new int[_n];
         _exact = new long[_n * _n];
     }
 
-    /// <summary>Builds the hull of the candidates (representative points, in canonical order) and returns its lower facets.</summary>
-    public List<int[]> Build(int[] pureComponentPoints, IReadOnlyList<int> candidates)
+    /// <summary>
+    /// Builds the hull of the candidates (representative points, in canonical order) and returns its lower facets
+    /// (corners as points).
+    /// </summary>
+    public List<int[]> Build(int[] pureComponentPoints, IReadOnlyList<int> candidatePoints)
     {
+        int[] compositionOf = _input.CompositionOf;
+        int[] pureComponents = Array.ConvertAll(pureComponentPoints, p => compositionOf[p]);
+        var candidates = new int[candidatePoints.Count];
+        for (int i = 0; i < candidates.Length; i++) candidates[i] = compositionOf[candidatePoints[i]];
+
         // Start near the size small hulls need (a few facets per point and component), so the many small hulls of a
         // dataset do not grow their storage step by step; large hulls still double as they go.
-        EnsureCapacity(Math.Min(1 << 16, 1 + _n + 2 * _n * candidates.Count));
-        int first = NewFacet(pureComponentPoints, wallFace: -1);
+        EnsureCapacity(Math.Min(1 << 16, 1 + _n + 2 * _n * candidates.Length));
+        int first = NewFacet(pureComponents, wallFace: -1);
         if (first < 0) throw new InvalidOperationException("The pure component points do not span the composition simplex.");
         for (int k = 0; k < _n; k++)
         {
-            var wall = (int[])pureComponentPoints.Clone();
+            var wall = (int[])pureComponents.Clone();
             wall[k] = Infinity;
             NewFacet(wall, wallFace: k);
         }
@@ -79,7 +90,7 @@ internal sealed class LowerHullBuilder
             for (int j = 0; j < _n; j++) _neighbors[(1 + k) * _n + j] = j == k ? 0 : 1 + j;
         }
 
-        var pure = new HashSet<int>(pureComponentPoints);
+        var pure = new HashSet<int>(pureComponents);
         var initial = new List<int>();
         foreach (int q in candidates)
         {
@@ -93,8 +104,9 @@ internal sealed class LowerHullBuilder
     /// <summary>Adds points found below the hull after construction (only rounding can leave any) and rebuilds.</summary>
     public List<int[]> Repair(IReadOnlyList<(int Point, int Facet)> below)
     {
-        foreach (var (point, facet) in below)
+        foreach (var (representative, facet) in below)
         {
+            int point = _input.CompositionOf[representative];
             int f = FindAliveLowerFacetBelow(point, facet);
             if (f < 0) continue;
             (_outside[f] ??= new List<int>()).Add(point);
@@ -168,7 +180,7 @@ internal sealed class LowerHullBuilder
                 {
                     if (!SameRidge(nf, i, other.Facet, other.Slot))
                     {
-                        throw new InvalidOperationException($"Internal error: ridge hash collision while adding point {apex}.");
+                        throw new InvalidOperationException($"Internal error: ridge hash collision while adding point {PointOf(apex)}.");
                     }
                     _neighbors[nf * _n + i] = other.Facet;
                     _neighbors[other.Facet * _n + other.Slot] = nf;
@@ -181,7 +193,7 @@ internal sealed class LowerHullBuilder
         }
         if (_ridges.Count != 0)
         {
-            throw new InvalidOperationException($"Internal error: {_ridges.Count} unmatched ridges while adding point {apex}.");
+            throw new InvalidOperationException($"Internal error: {_ridges.Count} unmatched ridges while adding point {PointOf(apex)}.");
         }
 
         foreach (int f in visible) _alive[f] = false;
@@ -206,15 +218,21 @@ internal sealed class LowerHullBuilder
                 var target = _outside[best];
                 if (target is null)
                 {
-                    target = new List<int>();
+                    target = _spareSets.Count > 0 ? _spareSets.Pop() : new List<int>();
                     _outside[best] = target;
                     _pending.Enqueue(best);
                 }
                 target.Add(q);
             }
+            set.Clear();
+            _spareSets.Push(set);
         }
         foreach (int f in visible) _freeFacets.Push(f);
     }
+
+    // Emptied outside sets, reused with their capacity: a set moves on at every insertion below its facet, and
+    // fresh lists would keep claiming (and zeroing) new memory.
+    private readonly Stack<List<int>> _spareSets = new();
 
     private readonly Dictionary<ulong, (int Facet, int Slot)> _ridges = new();
     private double[] _horizonMu = [];
@@ -320,7 +338,7 @@ internal sealed class LowerHullBuilder
         {
             int w = _neighbors[f * _n + i];
             int face = _wallFace[w];
-            if (face >= 0 && _input.Amount(apex, face) == 0 && _visitStamp[w] != _stamp)
+            if (face >= 0 && _input.CompositionAmount(apex, face) == 0 && _visitStamp[w] != _stamp)
             {
                 _visitStamp[w] = _stamp;
                 visible.Add(w);
@@ -376,7 +394,7 @@ internal sealed class LowerHullBuilder
             {
                 // A wall whose face does not hold the apex cannot be removed: the new facet there is a lower facet
                 // and is always proper, so reaching this means the facet data are inconsistent.
-                throw new InvalidOperationException($"Internal error: cannot remove wall {grownTo} (from facet {grownFrom}) for point {apex}.");
+                throw new InvalidOperationException($"Internal error: cannot remove wall {grownTo} (from facet {grownFrom}) for point {PointOf(apex)}.");
             }
         }
     }
@@ -436,7 +454,7 @@ internal sealed class LowerHullBuilder
         int face = _wallFace[w];
         int gFace = _wallFace[g];
         if (gFace < 0) return 0;
-        if (gFace != face) return _input.Amount(apex, gFace) > 0 ? 1 : 0;
+        if (gFace != face) return _input.CompositionAmount(apex, gFace) > 0 ? 1 : 0;
         int lowerW = LowerFacetOfWall(w), lowerG = LowerFacetOfWall(g);
         int far = -1;
         for (int j = 0; j < _n; j++)
@@ -518,7 +536,7 @@ internal sealed class LowerHullBuilder
                 if (k == wallFace) continue;
                 double x = _fractions[v * _n + k];
                 _matrix[r * size + c] = x;
-                _exact[r * size + c] = _input.Amount(v, k);
+                _exact[r * size + c] = _input.CompositionAmount(v, k);
                 norm2 += x * x;
                 c++;
             }
@@ -609,7 +627,9 @@ internal sealed class LowerHullBuilder
             if (!_alive[f] || _wallFace[f] >= 0) continue;
             _finalIndex[f] = result.Count;
             _internalIds.Add(f);
-            result.Add(_vertices.AsSpan(f * _n, _n).ToArray());
+            var corners = new int[_n];
+            for (int i = 0; i < _n; i++) corners[i] = PointOf(_vertices[f * _n + i]);
+            result.Add(corners);
         }
         return result;
     }
@@ -617,6 +637,9 @@ internal sealed class LowerHullBuilder
     // Both directions between internal facet ids and the indices of the list LowerFacets returned last.
     private int[] _finalIndex = [];
     private readonly List<int> _internalIds = new();
+
+    /// <summary>The representative point of a composition id.</summary>
+    private int PointOf(int composition) => _input.CandidatesInInputOrder[composition];
 
     /// <summary>Neighbour of each final lower facet across each slot, as final indices; -1 across the domain boundary.</summary>
     public int[] LowerNeighbors()
