@@ -10,24 +10,28 @@ namespace Hull.Core.Geometry;
 /// </summary>
 internal sealed class DistinctCompositions
 {
-    /// <summary>Table sizes start from this many compositions at most, and double as they fill.</summary>
+    /// <summary>The hash table starts with room for this many compositions at most, and doubles as it fills.</summary>
     private const int InitialCompositions = 4096;
 
     private readonly int _n;
     private int _count;
-    // Open addressing: each slot packs a composition's hash (high half) and its id + 1 (low half; 0 = empty), so a
-    // probe reads one array, and a comparison one more.
-    private long[] _slots;
+    // Open addressing: a slot holds a composition's id + 1 (0 = empty); each composition's hash is kept beside its
+    // row, so a probe compares hashes before rows. Slots are touched all over, so they start small and grow; the
+    // per-composition arrays get room for one composition per row from the start, as memory never written costs
+    // nothing, and growing would copy them.
+    private int[] _slots;
+    private uint[] _hashes;
     private long[] _flat;
     private double[] _fractions;
 
     public DistinctCompositions(int componentCount, int expectedRows)
     {
         _n = componentCount;
-        int start = Math.Min(Math.Max(expectedRows, 8), InitialCompositions);
-        _slots = new long[(int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)start * 2)];
-        _flat = new long[start * componentCount];
-        _fractions = new double[start * componentCount];
+        int rows = Math.Max(expectedRows, 8);
+        _slots = new int[(int)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Min(rows, InitialCompositions) * 2)];
+        _hashes = new uint[rows];
+        _flat = new long[rows * componentCount];
+        _fractions = new double[rows * componentCount];
     }
 
     /// <summary>Number of distinct compositions so far; ids run from 0 to Count - 1 in order of first occurrence.</summary>
@@ -68,29 +72,27 @@ internal sealed class DistinctCompositions
         int mask = _slots.Length - 1;
         for (int slot = (int)(hash & (uint)mask); ; slot = (slot + 1) & mask)
         {
-            long entry = _slots[slot];
+            int entry = _slots[slot];
             if (entry == 0)
             {
                 int id = _count++;
-                if (_count * n > _flat.Length)
+                if (_count > _hashes.Length)
                 {
+                    Array.Resize(ref _hashes, _hashes.Length * 2);
                     Array.Resize(ref _flat, _flat.Length * 2);
                     Array.Resize(ref _fractions, _fractions.Length * 2);
                 }
+                _hashes[id] = hash;
                 reduced.CopyTo(_flat.AsSpan(id * n, n));
                 // The input checks refuse totals past 64 bits; until they do (they may run beside this), wrapping is harmless.
                 long total = 0;
                 foreach (long v in reduced) total = unchecked(total + v);
                 for (int k = 0; k < n; k++) _fractions[id * n + k] = (double)reduced[k] / total;
-                _slots[slot] = ((long)hash << 32) | (uint)(id + 1);
+                _slots[slot] = id + 1;
                 if (_count * 2 > _slots.Length) Grow();
                 return id;
             }
-            if ((uint)((ulong)entry >> 32) == hash)
-            {
-                int id = (int)(uint)entry - 1;
-                if (SameRow(_flat, id * n, reduced)) return id;
-            }
+            if (_hashes[entry - 1] == hash && SameRow(_flat, (entry - 1) * n, reduced)) return entry - 1;
         }
     }
 
@@ -105,15 +107,13 @@ internal sealed class DistinctCompositions
 
     private void Grow()
     {
-        var old = _slots;
-        _slots = new long[old.Length * 2];
+        _slots = new int[_slots.Length * 2];
         int mask = _slots.Length - 1;
-        foreach (long entry in old)
+        for (int id = 0; id < _count; id++)
         {
-            if (entry == 0) continue;
-            int slot = (int)((uint)((ulong)entry >> 32) & (uint)mask);
+            int slot = (int)(_hashes[id] & (uint)mask);
             while (_slots[slot] != 0) slot = (slot + 1) & mask;
-            _slots[slot] = entry;
+            _slots[slot] = id + 1;
         }
     }
 }

@@ -38,7 +38,11 @@ internal sealed class LowerHullBuilder
     private byte[] _generation = [];
     private int[] _wallFace = [];
     private bool[] _alive = [];
-    private List<int>?[] _outside = [];
+    // Outside sets: the points below each facet, as a list threaded through the points (head and tail per facet,
+    // -1 when empty; the next point per point), so moving points between sets allocates nothing.
+    private int[] _outsideHead = [];
+    private int[] _outsideTail = [];
+    private readonly int[] _nextOutside;
     private int[] _visitStamp = [];
     private int _stamp;
 
@@ -55,6 +59,7 @@ internal sealed class LowerHullBuilder
         _input = input;
         _fractions = input.CompositionFractions;
         _energies = new double[input.CompositionCount];
+        _nextOutside = new int[input.CompositionCount];
         for (int c = 0; c < _energies.Length; c++) _energies[c] = input.Energies[input.CandidatesInInputOrder[c]];
         _matrix = new double[_n * _n];
         _pivots = new int[_n];
@@ -91,12 +96,11 @@ internal sealed class LowerHullBuilder
         }
 
         var pure = new HashSet<int>(pureComponents);
-        var initial = new List<int>();
         foreach (int q in candidates)
         {
-            if (!pure.Contains(q) && Depth(0, q) > HullTolerances.EnergyEvPerAtom) initial.Add(q);
+            if (!pure.Contains(q) && Depth(0, q) > HullTolerances.EnergyEvPerAtom) AppendOutside(0, q);
         }
-        if (initial.Count > 0) { _outside[0] = initial; _pending.Enqueue(0); }
+        if (_outsideHead[0] >= 0) _pending.Enqueue(0);
         Run();
         return LowerFacets();
     }
@@ -109,7 +113,7 @@ internal sealed class LowerHullBuilder
             int point = _input.CompositionOf[representative];
             int f = FindAliveLowerFacetBelow(point, facet);
             if (f < 0) continue;
-            (_outside[f] ??= new List<int>()).Add(point);
+            AppendOutside(f, point);
             _pending.Enqueue(f);
         }
         Run();
@@ -138,14 +142,14 @@ internal sealed class LowerHullBuilder
         while (_pending.Count > 0)
         {
             int f = _pending.Dequeue();
-            var set = _outside[f];
-            if (!_alive[f] || set is null || set.Count == 0) continue;
-            int apex = set[0];
+            int head = _outsideHead[f];
+            if (!_alive[f] || head < 0) continue;
+            int apex = head;
             double deepest = Depth(f, apex);
-            for (int i = 1; i < set.Count; i++)
+            for (int q = _nextOutside[head]; q >= 0; q = _nextOutside[q])
             {
-                double d = Depth(f, set[i]);
-                if (d > deepest) { deepest = d; apex = set[i]; }
+                double d = Depth(f, q);
+                if (d > deepest) { deepest = d; apex = q; }
             }
             AddPoint(f, apex, visible, horizon, created);
         }
@@ -204,35 +208,36 @@ internal sealed class LowerHullBuilder
         }
         foreach (int f in visible)
         {
-            var set = _outside[f];
-            _outside[f] = null;
-            if (set is null) continue;
+            int q = _outsideHead[f];
+            _outsideHead[f] = -1;
             // The points of one removed facet lie close together: each climb starts where the previous one ended.
             int from = climbFrom;
-            foreach (int q in set)
+            while (q >= 0)
             {
-                if (q == apex) continue;
-                int best = Ascend(from, q, out double bestDepth);
-                from = best;
-                if (bestDepth <= HullTolerances.EnergyEvPerAtom) continue;
-                var target = _outside[best];
-                if (target is null)
+                int next = _nextOutside[q];
+                if (q != apex)
                 {
-                    target = _spareSets.Count > 0 ? _spareSets.Pop() : new List<int>();
-                    _outside[best] = target;
-                    _pending.Enqueue(best);
+                    int best = Ascend(from, q, out double bestDepth);
+                    from = best;
+                    if (bestDepth > HullTolerances.EnergyEvPerAtom)
+                    {
+                        if (_outsideHead[best] < 0) _pending.Enqueue(best);
+                        AppendOutside(best, q);
+                    }
                 }
-                target.Add(q);
+                q = next;
             }
-            set.Clear();
-            _spareSets.Push(set);
         }
         foreach (int f in visible) _freeFacets.Push(f);
     }
 
-    // Emptied outside sets, reused with their capacity: a set moves on at every insertion below its facet, and
-    // fresh lists would keep claiming (and zeroing) new memory.
-    private readonly Stack<List<int>> _spareSets = new();
+    private void AppendOutside(int facet, int point)
+    {
+        _nextOutside[point] = -1;
+        if (_outsideHead[facet] < 0) _outsideHead[facet] = point;
+        else _nextOutside[_outsideTail[facet]] = point;
+        _outsideTail[facet] = point;
+    }
 
     private readonly Dictionary<ulong, (int Facet, int Slot)> _ridges = new();
     private double[] _horizonMu = [];
@@ -584,7 +589,7 @@ internal sealed class LowerHullBuilder
         Array.Copy(vertices, 0, _vertices, f * _n, _n);
         _wallFace[f] = wallFace;
         _alive[f] = true;
-        _outside[f] = null;
+        _outsideHead[f] = -1;
         _visitStamp[f] = 0;
         return f;
     }
@@ -611,7 +616,8 @@ internal sealed class LowerHullBuilder
         Array.Resize(ref _generation, capacity);
         Array.Resize(ref _wallFace, capacity);
         Array.Resize(ref _alive, capacity);
-        Array.Resize(ref _outside, capacity);
+        Array.Resize(ref _outsideHead, capacity);
+        Array.Resize(ref _outsideTail, capacity);
         Array.Resize(ref _visitStamp, capacity);
     }
 
