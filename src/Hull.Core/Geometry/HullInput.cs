@@ -53,9 +53,6 @@ internal sealed class HullInput
     /// <summary>Point i's amounts reduced to lowest terms (the row of its composition).</summary>
     public ReadOnlySpan<long> Row(int point) => _reducedRows.AsSpan(CompositionOf[point] * ComponentCount, ComponentCount);
 
-    /// <summary>Amount of component k in point i's reduced row.</summary>
-    public long Amount(int point, int component) => _reducedRows[CompositionOf[point] * ComponentCount + component];
-
     /// <summary>Amount of component k in composition c's reduced row.</summary>
     public long CompositionAmount(int composition, int component) => _reducedRows[composition * ComponentCount + component];
 
@@ -152,9 +149,9 @@ internal sealed class HullInput
     }
 
     /// <summary>
-    /// From this many points on, the checks and the grouping by composition run at the same time on two cores
-    /// (each takes about half of the work); below it, starting a second worker costs more than it saves, and the many
-    /// small hulls of a dataset are already built in parallel one level up.
+    /// From this many points on, the checks and the grouping by composition run at the same time on two cores; below
+    /// it, starting a second worker costs more than it saves, and the many small hulls of a dataset are already built
+    /// in parallel one level up.
     /// </summary>
     private const int TwoWorkersFromPoints = 16_384;
 
@@ -168,7 +165,7 @@ internal sealed class HullInput
         {
             // Grouping reads the rows the checks read, so it runs beside them; it skips rows the checks refuse, and
             // the checks' first error (the lowest point index, as in one pass) is the one reported.
-            var grouping = Task.Run(() => GroupCheckedRows(source, count, n, distinct, compositionOf));
+            var grouping = Task.Run(() => GroupCheckedRows(source, count, distinct, compositionOf));
             try
             {
                 CheckRowsAndEnergies(source, count, n, energiesEvPerAtom, energies);
@@ -181,7 +178,7 @@ internal sealed class HullInput
         else
         {
             CheckRowsAndEnergies(source, count, n, energiesEvPerAtom, energies);
-            GroupCheckedRows(source, count, n, distinct, compositionOf);
+            GroupCheckedRows(source, count, distinct, compositionOf);
         }
 
         var candidates = ChooseRepresentatives(compositionOf, distinct.Count, energies);
@@ -217,7 +214,7 @@ internal sealed class HullInput
     /// The composition id of every row, in point order. A row the checks refuse (missing, negative or all zero)
     /// gets no id; its id is never read, as the checks throw.
     /// </summary>
-    private static void GroupCheckedRows<TRows>(TRows source, int count, int n, DistinctCompositions distinct, int[] compositionOf)
+    private static void GroupCheckedRows<TRows>(TRows source, int count, DistinctCompositions distinct, int[] compositionOf)
         where TRows : struct, IRowSource
     {
         for (int i = 0; i < count; i++)
