@@ -81,6 +81,59 @@ public sealed class LowerHull : IHullStability
     public IReadOnlyList<HullFacet> Facets { get; private set; }
 
     /// <summary>
+    /// The faces of the lower hull: the facets grouped by plane, each face given by its corner points, ascending.
+    /// Where more than one point per component lies on one plane of the hull (stable phases exactly coplanar, such
+    /// as four phases on one plane of a ternary), the facets triangulate that face and one diagonal is as good as the
+    /// other; a face lists all its corners, whichever triangulation was built. Faces come in the order of their first
+    /// facet.
+    /// </summary>
+    /// <remarks>
+    /// Two neighbouring facets share a plane when the corner of one opposite their common ridge lies on the other's
+    /// plane within <see cref="HullTolerances.EnergyEvPerAtom"/> (the tolerance that puts points on the hull); a face
+    /// is a connected group of such facets. On a convex hull all facets on one supporting plane are connected.
+    /// </remarks>
+    public IReadOnlyList<IReadOnlyList<int>> CoplanarFaces()
+    {
+        int count = Facets.Count;
+        var parent = new int[count];
+        for (int f = 0; f < count; f++) parent[f] = f;
+        int Root(int f)
+        {
+            while (parent[f] != f) f = parent[f] = parent[parent[f]];
+            return f;
+        }
+        for (int f = 0; f < count; f++)
+        {
+            for (int i = 0; i < _n; i++)
+            {
+                int g = _facetNeighbors[f * _n + i];
+                if (g <= f) continue;
+                int far = -1;
+                for (int j = 0; j < _n; j++)
+                {
+                    if (_facetNeighbors[g * _n + j] == f) { far = _facetVertices[g * _n + j]; break; }
+                }
+                if (far < 0) continue;
+                var x = _input.FractionsOf(far);
+                double plane = 0;
+                for (int k = 0; k < _n; k++) plane += _facetMu[f * _n + k] * x[k];
+                if (Math.Abs(_energies[far] - plane) > HullTolerances.EnergyEvPerAtom) continue;
+                int a = Root(f), b = Root(g);
+                if (a != b) parent[Math.Max(a, b)] = Math.Min(a, b);
+            }
+        }
+        var corners = new SortedSet<int>?[count];
+        var order = new List<int>();
+        for (int f = 0; f < count; f++)
+        {
+            int r = Root(f);
+            if (corners[r] is null) { corners[r] = []; order.Add(r); }
+            for (int i = 0; i < _n; i++) corners[r]!.Add(_facetVertices[f * _n + i]);
+        }
+        return order.Select(r => (IReadOnlyList<int>)corners[r]!.ToArray()).ToArray();
+    }
+
+    /// <summary>
     /// Builds the lower hull. <paramref name="amounts"/>[i][k] is the non-negative integer amount of component k in
     /// point i (only ratios matter); <paramref name="energiesEvPerAtom"/>[i] its energy per atom. Every component
     /// needs a point made of it alone.

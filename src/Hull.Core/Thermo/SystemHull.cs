@@ -227,7 +227,10 @@ public sealed class SystemHull
     /// <summary>The hull facets, each with its corner phases and chemical potentials.</summary>
     public IReadOnlyList<PhaseFacet> Facets => _facets.Value;
 
-    /// <summary>Pairs of stable phases sharing a facet, without repeats, sorted by the first then the second id.</summary>
+    /// <summary>
+    /// Pairs of stable phases that coexist: both corners of one face of the hull (a facet, or facets exactly on one
+    /// plane), without repeats, sorted by the first then the second id.
+    /// </summary>
     public IReadOnlyList<TieLine> TieLines => _tieLines.Value;
 
     /// <summary>The stability of the entry with the given id.</summary>
@@ -507,12 +510,13 @@ public sealed class SystemHull
     private IReadOnlyList<TieLine> BuildTieLines()
     {
         var pairs = new SortedSet<(int, int)>();
-        foreach (HullFacet facet in _facetHull.Value.Facets)
+        // Per face, not per facet: phases exactly coplanar on the hull all coexist, whichever diagonal the
+        // triangulation drew between them.
+        foreach (IReadOnlyList<int> corners in _facetHull.Value.CoplanarFaces())
         {
-            int[] corners = facet.VertexPoints.Order().ToArray();
-            for (int a = 0; a < corners.Length; a++)
+            for (int a = 0; a < corners.Count; a++)
             {
-                for (int b = a + 1; b < corners.Length; b++)
+                for (int b = a + 1; b < corners.Count; b++)
                 {
                     pairs.Add((corners[a], corners[b]));
                 }

@@ -182,11 +182,12 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
                 if (below < -HullAgreement.EnergyToleranceEvPerAtom) failures.Add($"facet {string.Join("-", facet.Phases.Select(p => p.Id))}: entry {s.Id} lies {-below:R} below its plane");
             }
         }
-        // Tie-lines are the pairs of phases that share a facet, each once.
+        // Every pair of phases that share a facet is a tie-line, each listed once (phases exactly coplanar add the
+        // pairs of their face; TieLineTests checks the exact set against an LP).
         var pairs = facets.SelectMany(f => f.Phases.SelectMany(a => f.Phases.Where(b => string.CompareOrdinal(a.Id, b.Id) < 0).Select(b => (a.Id, b.Id)))).ToHashSet();
         var listed = tieLines.Select(t => (t.First.Id, t.Second.Id)).ToList();
         Assert.Equal(listed.Count, listed.Distinct().Count());
-        Assert.True(pairs.SetEquals(listed), $"{pairs.Except(listed).Count()} facet pairs missing from the tie-lines, {listed.Except(pairs).Count()} tie-lines not on a facet");
+        Assert.True(pairs.IsSubsetOf(listed), $"{pairs.Except(listed).Count()} facet pairs missing from the tie-lines");
         Assert.True(failures.Count == 0, $"{failures.Count} disagreement(s):\n" + string.Join("\n", failures.Take(25)));
     }
 
@@ -197,12 +198,6 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
     private static (PhaseEntry[] Entries, PointSet Set) Entries(int elements, int points, int seed)
     {
         var set = DegenerateDataGenerator.Generate(elements, points, seed);
-        var symbols = Elements.Take(elements).ToArray();
-        var entries = Enumerable.Range(0, set.Count).Select(i => new PhaseEntry(
-            $"p{i:D3}",
-            Composition.FromAmounts(symbols.Zip(set.Amounts[i]).Where(z => z.Second > 0).Select(z => (z.First, new Rational(z.Second, 1))).ToArray()),
-            set.EnergiesEvPerAtom[i],
-            EnergyBasis.FormationPerAtom)).ToArray();
-        return (entries, set);
+        return (set.AsFormationEntries(Elements.Take(elements).ToArray(), i => $"p{i:D3}"), set);
     }
 }
