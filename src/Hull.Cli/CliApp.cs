@@ -65,10 +65,10 @@ public static class CliApp
                 return ExitCodes.InputFile;
             case ImportRunner.BatchRefusedException refused:
                 context.Err.WriteLine($"hull: {refused.Message}");
-                return RpcFailure.ExitCodeOf(refused.Cause.StatusCode);
+                return RpcFailure.ExitCodeOf(refused.Cause);
             case RpcException rpc:
                 context.Err.WriteLine($"hull: {RpcFailure.Describe(rpc, context.ServerAddress)}");
-                return RpcFailure.ExitCodeOf(rpc.StatusCode);
+                return RpcFailure.ExitCodeOf(rpc);
             case OperationCanceledException:
                 context.Err.WriteLine("hull: cancelled");
                 return ExitCodes.InternalError;

@@ -17,7 +17,7 @@ public static class ExitCodes
     /// <summary>An input file is missing, unreadable, or not in the documented layout (the message names file, line, column).</summary>
     public const int InputFile = 3;
 
-    /// <summary>The server could not be reached (nothing listening, wrong address, TLS mismatch).</summary>
+    /// <summary>The server could not be reached (nothing listening, wrong address, TLS mismatch, untrusted certificate).</summary>
     public const int ServerUnreachable = 4;
 
     /// <summary>The server refused the request: invalid argument, failed precondition, already exists, limit exceeded.</summary>

@@ -18,15 +18,21 @@ public sealed class HullConnection : IDisposable
     private readonly string? _token;
     private readonly TimeSpan _timeout;
 
-    public HullConnection(Uri address, string? token, TimeSpan timeout)
+    /// <param name="address">The server, http:// or https://.</param>
+    /// <param name="token">Bearer token sent with every call, or null.</param>
+    /// <param name="timeout">Deadline of each call.</param>
+    /// <param name="trust">Certificates trusted for an https:// server besides the system's, or null.</param>
+    public HullConnection(Uri address, string? token, TimeSpan timeout, ServerTrust? trust = null)
     {
         Address = address;
         _token = token;
         _timeout = timeout;
+        var handler = new SocketsHttpHandler { ConnectTimeout = ConnectTimeout, EnableMultipleHttp2Connections = true };
+        if (trust is not null) handler.SslOptions.RemoteCertificateValidationCallback = (_, certificate, chain, errors) => trust.Validate(certificate, chain, errors);
         _channel = GrpcChannel.ForAddress(address, new GrpcChannelOptions
         {
             MaxReceiveMessageSize = MaxReceiveMessageBytes,
-            HttpHandler = new SocketsHttpHandler { ConnectTimeout = ConnectTimeout, EnableMultipleHttp2Connections = true },
+            HttpHandler = handler,
         });
         Datasets = new DatasetService.DatasetServiceClient(_channel);
         Stability = new StabilityService.StabilityServiceClient(_channel);

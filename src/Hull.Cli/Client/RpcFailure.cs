@@ -6,6 +6,12 @@ namespace Hull.Cli.Client;
 /// <summary>Turns a failed call into the exit code and a message that says what the server objected to.</summary>
 public static class RpcFailure
 {
+    /// <summary>
+    /// The exit code of a failed call. A refused server certificate counts as unreachable whatever status the client
+    /// library gave it (it reports a failed handshake as Internal).
+    /// </summary>
+    public static int ExitCodeOf(RpcException error) => IsCertificateFailure(error) ? ExitCodes.ServerUnreachable : ExitCodeOf(error.StatusCode);
+
     public static int ExitCodeOf(StatusCode code) => code switch
     {
         StatusCode.Unavailable => ExitCodes.ServerUnreachable,
@@ -21,8 +27,24 @@ public static class RpcFailure
     public static IReadOnlyList<BadRequest.Types.FieldViolation> ViolationsOf(RpcException error) =>
         error.GetRpcStatus()?.GetDetail<BadRequest>()?.FieldViolations.ToArray() ?? [];
 
+    /// <summary>Whether the call failed in the TLS handshake because the server's certificate was refused.</summary>
+    private static bool IsCertificateFailure(RpcException error)
+    {
+        for (Exception? e = error.Status.DebugException; e is not null; e = e.InnerException)
+        {
+            if (e is System.Security.Authentication.AuthenticationException) return true;
+        }
+        return false;
+    }
+
     public static string Describe(RpcException error, Uri address)
     {
+        if (IsCertificateFailure(error))
+        {
+            return $"the hull server at {address} presented a certificate this client does not trust: {error.Status.Detail}. " +
+                   "For a private CA or a self-signed server certificate, pass its PEM file with --ca-file (or HULL_CA_FILE).";
+        }
+
         if (error.StatusCode == StatusCode.Unavailable)
         {
             return $"cannot reach the hull server at {address}: {error.Status.Detail}. " +

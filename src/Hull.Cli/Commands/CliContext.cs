@@ -29,7 +29,19 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     /// <summary>The connection to --server, opened on first use.</summary>
     public HullConnection Server => _connection ??= new HullConnection(
-        ServerAddress, Parse.GetValue(options.Token), TimeSpan.FromSeconds(Parse.GetValue(options.TimeoutSeconds)));
+        ServerAddress, Parse.GetValue(options.Token), TimeSpan.FromSeconds(Parse.GetValue(options.TimeoutSeconds)), Trust());
+
+    /// <summary>The --ca-file certificates, or null; only an https:// server has certificates to check.</summary>
+    private ServerTrust? Trust()
+    {
+        string? path = Parse.GetValue(options.CaFile);
+        if (path is null) return null;
+        if (ServerAddress.Scheme != Uri.UriSchemeHttps)
+        {
+            throw new UsageException($"--ca-file applies to https:// servers; {ServerAddress} is plain http");
+        }
+        return ServerTrust.Load(path);
+    }
 
     /// <summary>Prints a table in the chosen text format, or the message as JSON.</summary>
     public void Emit(Google.Protobuf.IMessage message, Func<Table> table, string? caption = null)

@@ -11,6 +11,7 @@ public sealed class GlobalOptions
 
     public const string ServerVariable = "HULL_SERVER";
     public const string TokenVariable = "HULL_TOKEN";
+    public const string CaFileVariable = "HULL_CA_FILE";
 
     /// <summary>Seconds one call may take by default: room for a 10,000-row import batch or a first hull build.</summary>
     public const double DefaultTimeoutSeconds = 120;
@@ -39,6 +40,13 @@ public sealed class GlobalOptions
         DefaultValueFactory = _ => Environment.GetEnvironmentVariable(TokenVariable) is { Length: > 0 } token ? token : null,
     };
 
+    public Option<string?> CaFile { get; } = new("--ca-file")
+    {
+        Description = $"PEM certificates to trust for an https:// server besides the system's: a private CA, or the server's self-signed certificate (default: ${CaFileVariable})",
+        Recursive = true,
+        DefaultValueFactory = _ => Environment.GetEnvironmentVariable(CaFileVariable) is { Length: > 0 } path ? path : null,
+    };
+
     public Option<bool> Json { get; } = new("--json") { Description = "print JSON (the server's messages, .proto field names)", Recursive = true };
 
     public Option<bool> Csv { get; } = new("--csv") { Description = "print CSV", Recursive = true };
@@ -63,5 +71,5 @@ public sealed class GlobalOptions
         },
     };
 
-    public IEnumerable<Option> All => [Server, Token, Json, Csv, Quiet, TimeoutSeconds];
+    public IEnumerable<Option> All => [Server, Token, CaFile, Json, Csv, Quiet, TimeoutSeconds];
 }
