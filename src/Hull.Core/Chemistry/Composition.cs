@@ -10,7 +10,9 @@ namespace Hull.Core.Chemistry;
 /// </summary>
 /// <remarks>
 /// Equality is by exact amounts: Li2O2 and LiO are different compositions with the same
-/// <see cref="Reduced"/> form (see <see cref="HasSameProportions"/>).
+/// <see cref="Reduced"/> form (see <see cref="HasSameProportions"/>). A parsed composition also remembers the order
+/// in which its elements were written, for display only (<see cref="Formula"/>: LiCoO2 stays LiCoO2); it takes no
+/// part in equality.
 /// </remarks>
 public sealed class Composition : IEquatable<Composition>
 {
@@ -18,12 +20,16 @@ public sealed class Composition : IEquatable<Composition>
     private readonly string[] _elements;
     private readonly IReadOnlyList<string> _elementsView;
     private readonly int _hashCode;
+    // The elements in the order written (parsed compositions and those derived from them), or null: Hill order.
+    private readonly string[]? _writtenOrder;
     private Reduction? _reduction;
     private string? _formula;
+    private string? _hillFormula;
 
-    private Composition(ImmutableSortedDictionary<string, Rational> amounts)
+    private Composition(ImmutableSortedDictionary<string, Rational> amounts, string[]? writtenOrder = null)
     {
         _amounts = amounts;
+        _writtenOrder = writtenOrder;
         _elements = [.. amounts.Keys];
         _elementsView = Array.AsReadOnly(_elements);
         Rational atoms = Rational.Zero;
@@ -68,14 +74,20 @@ public sealed class Composition : IEquatable<Composition>
     public Rational ReductionFactor => GetReduction().Factor;
 
     /// <summary>
-    /// The formula text. Order: carbon first and hydrogen second when carbon is present, every other element
-    /// in alphabetical symbol order (without carbon, all elements alphabetically, H included) — the Hill order
-    /// used for formula indexes. An amount of 1 is left out; whole amounts are written as integers; other
-    /// amounts as exact decimals when they need at most <see cref="MaxDecimalPlacesInFormula"/> places
-    /// ("0.5", "0.125"), otherwise as fractions ("1/3"). <see cref="Parse"/> reads it back to an equal
-    /// composition.
+    /// The formula text, elements in the order they were written when the composition was parsed (brackets and
+    /// adducts flattened: Ca(OH)2 → CaO2H2, CuSO4·5H2O → CuSO9H10), otherwise in <see cref="HillFormula"/>'s order.
+    /// An amount of 1 is left out; whole amounts are written as integers; other amounts as exact decimals when they
+    /// need at most <see cref="MaxDecimalPlacesInFormula"/> places ("0.5", "0.125"), otherwise as fractions ("1/3").
+    /// <see cref="Parse"/> reads it back to an equal composition.
     /// </summary>
-    public string Formula => _formula ??= FormatFormula();
+    public string Formula => _formula ??= FormatFormula(_writtenOrder ?? HillOrder());
+
+    /// <summary>
+    /// The formula in Hill order, the order of formula indexes: carbon first and hydrogen second when carbon is
+    /// present, every other element in alphabetical symbol order (without carbon, all elements alphabetically, H
+    /// included). Equal compositions have equal Hill formulas, whatever order they were written in.
+    /// </summary>
+    public string HillFormula => _hillFormula ??= FormatFormula(HillOrder());
 
     /// <summary>The formula of <see cref="Reduced"/>.</summary>
     public string ReducedFormula => Reduced.Formula;
@@ -150,8 +162,8 @@ public sealed class Composition : IEquatable<Composition>
     public static Composition OfElement(string symbol) => FromAmounts((symbol, Rational.One));
 
     /// <summary>Used by the parser, which has already checked symbols and signs.</summary>
-    internal static Composition FromValidatedAmounts(Dictionary<string, Rational> amounts) =>
-        new(amounts.ToImmutableSortedDictionary(StringComparer.Ordinal));
+    internal static Composition FromValidatedAmounts(Dictionary<string, Rational> amounts, IReadOnlyList<string> writtenOrder) =>
+        new(amounts.ToImmutableSortedDictionary(StringComparer.Ordinal), [.. writtenOrder]);
 
     /// <summary>The amount of <paramref name="symbol"/> per formula unit; zero when absent.</summary>
     /// <exception cref="ArgumentException">When <paramref name="symbol"/> is not an element symbol.</exception>
@@ -196,7 +208,7 @@ public sealed class Composition : IEquatable<Composition>
             builder.Add(symbol, amount * factor);
         }
 
-        return new Composition(builder.ToImmutable());
+        return new Composition(builder.ToImmutable(), _writtenOrder);
     }
 
     /// <summary>True when both have the same element proportions (equal <see cref="Reduced"/> forms).</summary>
@@ -242,7 +254,11 @@ public sealed class Composition : IEquatable<Composition>
             builder[symbol] = builder.TryGetValue(symbol, out Rational existing) ? existing + amount : amount;
         }
 
-        return new Composition(builder.ToImmutable());
+        // Written order survives when either side has one: the left's elements first, then the right's new ones.
+        string[]? order = left._writtenOrder is null && right._writtenOrder is null
+            ? null
+            : [.. left.DisplayOrder().Concat(right.DisplayOrder()).Distinct(StringComparer.Ordinal)];
+        return new Composition(builder.ToImmutable(), order);
     }
 
     public static bool operator ==(Composition? left, Composition? right) =>
@@ -343,7 +359,7 @@ public sealed class Composition : IEquatable<Composition>
             throw new OverflowException($"The reduction factor of {Formula} does not fit in a 64-bit fraction.");
         }
 
-        Composition reduced = new(builder.ToImmutable());
+        Composition reduced = new(builder.ToImmutable(), _writtenOrder);
         Reduction result;
         if (reduced.Equals(this))
         {
@@ -360,10 +376,10 @@ public sealed class Composition : IEquatable<Composition>
         return result;
     }
 
-    private string FormatFormula()
+    private string FormatFormula(IEnumerable<string> order)
     {
         var text = new System.Text.StringBuilder();
-        foreach (string symbol in FormulaOrder())
+        foreach (string symbol in order)
         {
             text.Append(symbol);
             text.Append(FormatAmount(_amounts[symbol]));
@@ -372,7 +388,9 @@ public sealed class Composition : IEquatable<Composition>
         return text.ToString();
     }
 
-    private IEnumerable<string> FormulaOrder()
+    private IEnumerable<string> DisplayOrder() => _writtenOrder ?? HillOrder();
+
+    private IEnumerable<string> HillOrder()
     {
         if (!_amounts.ContainsKey("C"))
         {

@@ -37,7 +37,7 @@ public static class FormulaParser
     {
         ArgumentNullException.ThrowIfNull(text);
         var reader = new Reader(text);
-        return Composition.FromValidatedAmounts(reader.ReadFormula());
+        return Composition.FromValidatedAmounts(reader.ReadFormula(), reader.WrittenOrder);
     }
 
     /// <summary>Parses <paramref name="text"/>; false with the error when it is not a formula (or null).</summary>
@@ -83,6 +83,10 @@ public static class FormulaParser
     private sealed class Reader(string text)
     {
         private int _pos;
+        private readonly List<string> _writtenOrder = [];
+
+        /// <summary>The element symbols in the order they first appear in the text.</summary>
+        public IReadOnlyList<string> WrittenOrder => _writtenOrder;
 
         private bool AtEnd => _pos >= text.Length;
 
@@ -177,6 +181,7 @@ public static class FormulaParser
 
                     Rational amount = ReadOptionalAmount();
                     Add(amounts, symbol, amount, start);
+                    if (!_writtenOrder.Contains(symbol)) _writtenOrder.Add(symbol);
                 }
                 else if (c is '(' or '[')
                 {

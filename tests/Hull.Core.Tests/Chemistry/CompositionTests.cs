@@ -38,27 +38,49 @@ public class CompositionTests
 
     [Theory]
     // Hill order: C, then H, then the rest alphabetically; without C, all alphabetically. // common practice
-    [InlineData("H2O", "H2O")]
-    [InlineData("OH2", "H2O")]
-    [InlineData("NaCl", "ClNa")]
-    [InlineData("CH3CH2OH", "C2H6O")]
-    [InlineData("BrCH3", "CH3Br")]
-    [InlineData("Li2CO3", "CLi2O3")]
-    [InlineData("NH4Cl", "ClH4N")]
-    [InlineData("LiCoO2", "CoLiO2")]
-    [InlineData("Li0.5CoO2", "CoLi0.5O2")]
-    [InlineData("LiNi1/3Mn1/3Co1/3O2", "Co1/3LiMn1/3Ni1/3O2")]
-    [InlineData("H1/1024O", "H1/1024O")]
-    [InlineData("H0.000125O", "H0.000125O")]
-    [InlineData("Fe4/2O3", "Fe2O3")]
-    [InlineData("Fe2.50O", "Fe2.5O")]
-    [InlineData("CuSO4·5H2O", "CuH10O9S")]
-    public void Formula_uses_the_documented_order_and_amount_notation(string input, string formula)
+    // Formula keeps the order the elements were first written in (brackets and adducts flattened).
+    [InlineData("H2O", "H2O", "H2O")]
+    [InlineData("OH2", "OH2", "H2O")]
+    [InlineData("NaCl", "NaCl", "ClNa")]
+    [InlineData("CH3CH2OH", "C2H6O", "C2H6O")]
+    [InlineData("BrCH3", "BrCH3", "CH3Br")]
+    [InlineData("Li2CO3", "Li2CO3", "CLi2O3")]
+    [InlineData("NH4Cl", "NH4Cl", "ClH4N")]
+    [InlineData("LiCoO2", "LiCoO2", "CoLiO2")]
+    [InlineData("Li0.5CoO2", "Li0.5CoO2", "CoLi0.5O2")]
+    [InlineData("LiNi1/3Mn1/3Co1/3O2", "LiNi1/3Mn1/3Co1/3O2", "Co1/3LiMn1/3Ni1/3O2")]
+    [InlineData("H1/1024O", "H1/1024O", "H1/1024O")]
+    [InlineData("H0.000125O", "H0.000125O", "H0.000125O")]
+    [InlineData("Fe4/2O3", "Fe2O3", "Fe2O3")]
+    [InlineData("Fe2.50O", "Fe2.5O", "Fe2.5O")]
+    [InlineData("Ca(OH)2", "CaO2H2", "CaH2O2")]
+    [InlineData("CuSO4·5H2O", "CuSO9H10", "CuH10O9S")]
+    public void Formula_uses_the_documented_order_and_amount_notation(string input, string formula, string hill)
     {
         Composition composition = Composition.Parse(input);
         Assert.Equal(formula, composition.Formula);
         Assert.Equal(formula, composition.ToString());
+        Assert.Equal(hill, composition.HillFormula);
         Assert.Equal(composition, Composition.Parse(composition.Formula));
+        Assert.Equal(composition, Composition.Parse(composition.HillFormula));
+        // Written order is for display: compositions written in another order are equal, with one Hill formula.
+        Composition hillWritten = Composition.Parse(hill);
+        Assert.Equal(composition, hillWritten);
+        Assert.Equal(composition.GetHashCode(), hillWritten.GetHashCode());
+        Assert.Equal(hill, hillWritten.Formula);
+    }
+
+    [Fact]
+    public void Written_order_survives_reduction_scaling_and_sums_and_amounts_alone_give_hill_order()
+    {
+        Composition lco = Composition.Parse("Li2Co2O4");
+        Assert.Equal("LiCoO2", lco.Reduced.Formula);
+        Assert.Equal("Li2Co2O4", lco.Scale(new Rational(1, 1)).Formula);
+        Assert.Equal("Li4Co4O8", lco.Scale(new Rational(2, 1)).Formula);
+        Assert.Equal("Li2Co2O5", (lco + Composition.Parse("O")).Formula);
+        // The left side's order first, then the right side's new elements in their own order.
+        Assert.Equal("LiCoO2Ni", (Composition.Parse("LiCoO2") + Composition.FromAmounts(("Ni", Rational.One))).Formula);
+        Assert.Equal("CoLiO2", Composition.FromAmounts(("Li", Rational.One), ("Co", Rational.One), ("O", new Rational(2, 1))).Formula);
     }
 
     [Theory]

@@ -37,6 +37,6 @@ public class MolarMassTests
         InvalidOperationException error =
             Assert.Throws<InvalidOperationException>(() => Composition.Parse("Tc2O7").MolarMassGramsPerMole);
         Assert.Contains("Technetium (Tc)", error.Message);
-        Assert.Contains("O7Tc2", error.Message);
+        Assert.Contains("Tc2O7", error.Message);
     }
 }

@@ -160,9 +160,9 @@ public sealed class ThermoInputErrorTests
         var dependent = Assert.Throws<ThermoInputException>(() => new EndMemberBasis([licoo2, coo, Composition.Parse("LiO")], ["LiCoO2", "CoO", "LiO"]));
         Assert.Contains("LiO (end-member 2) is a combination of LiCoO2, CoO", dependent.Message);
 
-        // Unnamed end-members go by their formulas (Hill order: CoLiO2).
+        // Unnamed end-members go by their formulas, as written.
         var unnamed = Assert.Throws<ThermoInputException>(() => new EndMemberBasis([licoo2, Composition.Parse("Li2Co2O4")]));
-        Assert.Contains("Co2Li2O4 (end-member 1) is a combination of CoLiO2", unnamed.Message);
+        Assert.Contains("Li2Co2O4 (end-member 1) is a combination of LiCoO2", unnamed.Message);
         var names = Assert.Throws<ThermoInputException>(() => new EndMemberBasis([licoo2, coo], ["cathode", "cathode"]));
         Assert.Contains("'cathode' is used twice", names.Message);
 
