@@ -149,7 +149,7 @@ public static class PointsFileSolver
 
         var body = new Body(path, (int)n, (int)count);
         long bodyStart = lines.Position;
-        long split = count >= TwoWorkersFromEntries && Environment.ProcessorCount > 1 ? LineStartAfter(path, bodyStart + (fileBytes - bodyStart) / 2, fileBytes) : fileBytes;
+        long split = count >= TwoWorkersFromEntries && Environment.ProcessorCount > 1 ? LineStartAfter(stream, bodyStart + (fileBytes - bodyStart) / 2, fileBytes) : fileBytes;
         if (split >= fileBytes)
         {
             long entryLines = body.Parse(lines, firstLineNumber: 2);
@@ -185,10 +185,9 @@ public static class PointsFileSolver
     private static FileStream OpenForReading(string path) =>
         new(path, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan);
 
-    /// <summary>The offset just after the first LF at or after <paramref name="from"/> (the end when none).</summary>
-    private static long LineStartAfter(string path, long from, long end)
+    /// <summary>The offset just after the first LF at or after <paramref name="from"/> (the end when none); moves the stream.</summary>
+    private static long LineStartAfter(Stream stream, long from, long end)
     {
-        using var stream = OpenForReading(path);
         stream.Position = from;
         var buffer = new byte[4096];
         for (long at = from; at < end;)

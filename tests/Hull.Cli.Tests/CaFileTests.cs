@@ -109,6 +109,10 @@ public sealed class CaFileTests : IAsyncLifetime
         Assert.Equal(ExitCodes.InputFile, absent.ExitCode);
         Assert.Contains(missing, absent.Err);
 
+        var blank = await CliRun.RunAsync("datasets", "list", "--server", Https, "--ca-file", "");
+        Assert.Equal(ExitCodes.InputFile, blank.ExitCode);
+        Assert.Contains("cannot read the certificate file", blank.Err);
+
         string empty = Path.Combine(_folder, "empty.pem");
         await File.WriteAllTextAsync(empty, "not a certificate\n");
         var noCertificate = await CliRun.RunAsync("datasets", "list", "--server", Https, "--ca-file", empty);

@@ -12,7 +12,7 @@ public static class RpcFailure
     /// </summary>
     public static int ExitCodeOf(RpcException error) => IsCertificateFailure(error) ? ExitCodes.ServerUnreachable : ExitCodeOf(error.StatusCode);
 
-    public static int ExitCodeOf(StatusCode code) => code switch
+    private static int ExitCodeOf(StatusCode code) => code switch
     {
         StatusCode.Unavailable => ExitCodes.ServerUnreachable,
         StatusCode.InvalidArgument or StatusCode.FailedPrecondition or StatusCode.AlreadyExists

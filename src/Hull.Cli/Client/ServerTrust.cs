@@ -24,7 +24,7 @@ public sealed class ServerTrust
         {
             anchors.ImportFromPemFile(path);
         }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException or ArgumentException)
         {
             throw new InputFileException(path, null, $"cannot read the certificate file: {e.Message}", e);
         }

@@ -283,6 +283,7 @@ public sealed class LowerHull : IHullStability
     /// </summary>
     private void BuildAndRepair(HullInput input, int[] pure, int[] building, int[] candidates, bool[] left)
     {
+        int[] compositionOf = input.CompositionOf;
         var builder = new LowerHullBuilder(input);
         var facets = builder.Build(pure, building);
         for (int round = 0; ; round++)
@@ -290,7 +291,6 @@ public sealed class LowerHull : IHullStability
             SetFacets(facets, builder.LowerNeighbors());
             var below = LocateCandidates(candidates);
             // A point left out may lie below a hull that is not complete yet; it is judged on the completed one.
-            int[] compositionOf = input.CompositionOf;
             var handBack = below.Where(b => !left[compositionOf[b.Point]]).ToList();
             if (handBack.Count == 0)
             {
