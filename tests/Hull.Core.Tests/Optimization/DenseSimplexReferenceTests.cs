@@ -12,11 +12,17 @@ namespace Hull.Core.Tests.Optimization;
 public sealed class DenseSimplexReferenceTests(ITestOutputHelper output)
 {
     private static List<(string Name, LinearProgram Program)> RandomSet() =>
-        Enumerable.Range(0, 40).Select(s => ($"random {s}", ProgramGenerator.Random(2 + s % 11, 2 + (s * 7) % 19, 1000 + s))).ToList();
+        Enumerable.Range(0, 40).Select(s => ($"random {s}", ProgramGenerator.Random(2 + s % 11, 2 + (s * 7) % 19, 1000 + s)))
+            // Larger ones take more pivots than the refactorisation interval, so drift and refreshes are exercised.
+            .Concat(Enumerable.Range(0, 4).Select(s => ($"random large {s}", ProgramGenerator.Random(30 + 5 * s, 60 + 10 * s, 1100 + s))))
+            .ToList();
 
     private static List<(string Name, LinearProgram Program)> DegenerateSet() =>
         Enumerable.Range(0, 30).Select(s => ($"degenerate {s}", ProgramGenerator.Degenerate(3 + s % 10, 3 + (s * 5) % 17, 2000 + s)))
             .Concat(Enumerable.Range(0, 8).Select(s => ($"transportation {s}", ProgramGenerator.Transportation(2 + s % 4, 2 + (s * 3) % 5, 3000 + s))))
+            .Concat(Enumerable.Range(0, 4).Select(s => ($"degenerate large {s}", ProgramGenerator.Degenerate(30 + 5 * s, 60 + 10 * s, 2100 + s))))
+            .Concat(Enumerable.Range(0, 2).Select(s => ($"transportation large {s}", ProgramGenerator.Transportation(8 + s, 10 + s, 3100 + s))))
+            .Concat(Enumerable.Range(0, 4).Select(s => ($"stalling {s}", ProgramGenerator.Stalling(40 + 10 * s, 30 + 5 * s, 3200 + s))))
             .Append(("Beale's cycling example", ProgramGenerator.BealeCycling()))
             .ToList();
 
@@ -70,15 +76,16 @@ public sealed class DenseSimplexReferenceTests(ITestOutputHelper output)
         var answers = ScipyGeneralLpRunner.Solve(set.Select(s => s.Program).ToList());
         var comparison = new ReferenceComparison();
         var statuses = new Dictionary<LinearProgramStatus, int>();
-        int iterations = 0;
+        int iterations = 0, most = 0;
         for (int k = 0; k < set.Count; k++)
         {
             var result = DenseSimplex.Solve(set[k].Program);
             statuses[result.Status] = statuses.GetValueOrDefault(result.Status) + 1;
             iterations += result.Iterations;
+            most = Math.Max(most, result.Iterations);
             comparison.Compare(set[k].Name, set[k].Program, result, answers[k], "SciPy HiGHS");
         }
-        output.WriteLine($"{set.Count} programs ({string.Join(", ", statuses.Select(s => $"{s.Value} {s.Key}"))}), {iterations} iterations; vectors compared on "
+        output.WriteLine($"{set.Count} programs ({string.Join(", ", statuses.Select(s => $"{s.Value} {s.Key}"))}), {iterations} iterations (at most {most}); vectors compared on "
             + $"{comparison.UniquePrimalCompared} unique primal and {comparison.UniqueDualCompared} unique dual optima");
         Assert.True(comparison.Problems.Count == 0, string.Join("\n", comparison.Problems));
         return comparison;

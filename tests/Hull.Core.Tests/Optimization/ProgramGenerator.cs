@@ -164,6 +164,21 @@ internal static class ProgramGenerator
     }
 
     /// <summary>
+    /// Many homogeneous inequalities through the origin (integer coefficients in {-1..1}, a·x ≤ 0) with boxed
+    /// columns x in [0, 1] and a profit for every column: the start x = 0 is a vertex where every row is tight, so
+    /// the simplex method takes long runs of degenerate pivots there before it can move.
+    /// </summary>
+    public static LinearProgram Stalling(int rows, int columns, int seed)
+    {
+        var rng = new Random(seed);
+        var a = new double[rows, columns];
+        for (int i = 0; i < rows; i++) for (int j = 0; j < columns; j++) a[i, j] = rng.Next(-1, 2);
+        var c = Enumerable.Range(0, columns).Select(_ => (double)rng.Next(1, 3)).ToArray();
+        return new LinearProgram(ObjectiveSense.Maximize, c, a, Enumerable.Repeat(-Inf, rows).ToArray(), new double[rows],
+            new double[columns], Enumerable.Repeat(1.0, columns).ToArray());
+    }
+
+    /// <summary>
     /// Beale's example, on which the largest-coefficient rule with a lowest-index ratio tie-break cycles (from
     /// memory): min −3/4 x0 + 20 x1 − 1/2 x2 + 6 x3 subject to 1/4 x0 − 8 x1 − x2 + 9 x3 ≤ 0,
     /// 1/2 x0 − 12 x1 − 1/2 x2 + 3 x3 ≤ 0, x2 ≤ 1, x ≥ 0; optimum −5/4 at x = (1, 0, 1, 0).
