@@ -72,6 +72,12 @@ public sealed class LinearProgramResult
     /// <summary>Of <see cref="Iterations"/>, those spent reaching a feasible basis.</summary>
     public int FeasibilityIterations { get; internal init; }
 
+    /// <summary>Of <see cref="Iterations"/>, those that did not improve the objective of their phase (degenerate pivots).</summary>
+    public int DegenerateIterations { get; internal init; }
+
+    /// <summary>Of <see cref="Iterations"/>, those chosen by Bland's rule after a run of degenerate pivots (the anti-cycling safeguard).</summary>
+    public int BlandIterations { get; internal init; }
+
     /// <summary>Whether the starting basis given was used (false: none given, or set aside as singular or not square).</summary>
     public bool WarmStartUsed { get; internal init; }
 

@@ -31,6 +31,8 @@ internal sealed class SimplexRun
     private readonly double[] _d;
     private readonly double[] _alpha;
     private readonly double[] _rhs;
+    private int _degenerateIterations;
+    private int _blandIterations;
 
     public SimplexRun(LinearProgram program, int limit)
     {
@@ -66,6 +68,7 @@ internal sealed class SimplexRun
         if (!warm) ColdStart();
 
         int iterations = 0, feasibilityIterations = 0, degenerateSteps = 0;
+        _degenerateIterations = _blandIterations = 0;
         while (true)
         {
             bool infeasible = SetPhaseCosts();
@@ -115,7 +118,10 @@ internal sealed class SimplexRun
             Apply(entering, direction, leaving, step, flip, leavesAtUpper);
             iterations++;
             if (infeasible) feasibilityIterations++;
-            degenerateSteps = improvement <= NegligibleImprovement ? degenerateSteps + 1 : 0;
+            if (bland) _blandIterations++;
+            bool degenerate = improvement <= NegligibleImprovement;
+            if (degenerate) _degenerateIterations++;
+            degenerateSteps = degenerate ? degenerateSteps + 1 : 0;
             if (_inverse.UpdatesSinceRefactor >= SimplexTolerances.RefactorInterval && !Refactor())
             {
                 return Failed(iterations, feasibilityIterations, warm);
@@ -500,6 +506,8 @@ internal sealed class SimplexRun
             AreDualsValid = optimal,
             Iterations = iterations,
             FeasibilityIterations = feasibilityIterations,
+            DegenerateIterations = _degenerateIterations,
+            BlandIterations = _blandIterations,
             WarmStartUsed = warm,
             Basis = basis,
             MaxPrimalViolation = primalViolation,

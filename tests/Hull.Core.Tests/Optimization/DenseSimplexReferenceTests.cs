@@ -76,16 +76,22 @@ public sealed class DenseSimplexReferenceTests(ITestOutputHelper output)
         var answers = ScipyGeneralLpRunner.Solve(set.Select(s => s.Program).ToList());
         var comparison = new ReferenceComparison();
         var statuses = new Dictionary<LinearProgramStatus, int>();
-        int iterations = 0, most = 0;
+        int iterations = 0, most = 0, degenerate = 0, bland = 0;
         for (int k = 0; k < set.Count; k++)
         {
             var result = DenseSimplex.Solve(set[k].Program);
             statuses[result.Status] = statuses.GetValueOrDefault(result.Status) + 1;
             iterations += result.Iterations;
             most = Math.Max(most, result.Iterations);
+            degenerate += result.DegenerateIterations;
+            bland += result.BlandIterations;
+            if (set[k].Name.StartsWith("stalling", StringComparison.Ordinal) && result.BlandIterations == 0)
+            {
+                comparison.Problems.Add($"{set[k].Name}: built to stall, but Bland's rule never took over ({result.DegenerateIterations} degenerate of {result.Iterations})");
+            }
             comparison.Compare(set[k].Name, set[k].Program, result, answers[k], "SciPy HiGHS");
         }
-        output.WriteLine($"{set.Count} programs ({string.Join(", ", statuses.Select(s => $"{s.Value} {s.Key}"))}), {iterations} iterations (at most {most}); vectors compared on "
+        output.WriteLine($"{set.Count} programs ({string.Join(", ", statuses.Select(s => $"{s.Value} {s.Key}"))}), {iterations} iterations (at most {most}; {degenerate} degenerate, {bland} by Bland's rule); vectors compared on "
             + $"{comparison.UniquePrimalCompared} unique primal and {comparison.UniqueDualCompared} unique dual optima");
         Assert.True(comparison.Problems.Count == 0, string.Join("\n", comparison.Problems));
         return comparison;
