@@ -30,6 +30,26 @@ public sealed class DenseSimplexBehaviourTests
         Assert.Equal([BasisStatus.Basic, BasisStatus.AtUpper, BasisStatus.AtUpper], r.Basis!.RowStatuses.ToArray());
     }
 
+    /// <summary>
+    /// The example of DEVELOPERS.md, solved by hand: x − y = 1/2 and x + y ≥ 1 leave obj = x + 2y = 3y + 1/2 with
+    /// y ≥ 1/4, so (x, y) = (3/4, 1/4) and 5/4; in general x = (b0 + e)/2, y = (b0 − e)/2 and obj = 3/2 b0 − 1/2 e,
+    /// so the duals are 3/2 (row at its lower bound) and −1/2 (the equality).
+    /// </summary>
+    [Fact]
+    public void Documented_example_gives_the_hand_solution()
+    {
+        var b = new LinearProgramBuilder(ObjectiveSense.Minimize);
+        int x = b.AddColumn(cost: 1.0);
+        int y = b.AddColumn(cost: 2.0, lower: double.NegativeInfinity);
+        b.AddRow([(x, 1.0), (y, 1.0)], lower: 1.0, upper: double.PositiveInfinity);
+        b.AddEquality([(x, 1.0), (y, -1.0)], rhs: 0.5);
+        var r = DenseSimplex.Solve(b.Build());
+        Assert.Equal(LinearProgramStatus.Optimal, r.Status);
+        Assert.Equal(1.25, r.ObjectiveValue, 12);
+        Assert.Equal([0.75, 0.25], r.ColumnValues.Select(v => Math.Round(v, 12)));
+        Assert.Equal([1.5, -0.5], r.RowDuals.Select(v => Math.Round(v, 12)));
+    }
+
     [Fact]
     public void Beales_cycling_example_terminates_at_its_optimum()
     {
