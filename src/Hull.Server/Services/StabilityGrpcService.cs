@@ -88,7 +88,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 FormationEnergyEvPerAtom = assessed.FormationEnergyEvPerAtom,
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
-                IsStable = assessed.IsStable,
+                IsOnOrBelowHull = assessed.IsOnOrBelowHull,
                 Decomposition = WireMapping.ToWire(assessed.Decomposition),
             });
         }
@@ -255,7 +255,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             }
         }
 
-        var references = new ElementalReferences(hull.References.Select(r => KeyValuePair.Create(r.Symbol, r.EvPerAtom)));
+        var references = new ElementalReferences(hull.References.Select(r => KeyValuePair.Create(r.Symbol, r.TotalEnergyEvPerAtom)));
         return FormationEnergies.Compute([entry], references).FormationEnergiesEvPerAtom[0];
     }
 }
