@@ -46,5 +46,5 @@ public interface IHullStability
     /// of the final basis of its program. The set of all of them is the composition's chemical-potential window.
     /// </remarks>
     /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
-    double[] ChemicalPotentialsAt(ReadOnlySpan<double> fractions);
+    double[] ChemicalPotentialsEvPerAtomAt(ReadOnlySpan<double> fractions);
 }

@@ -180,14 +180,14 @@ public sealed class LinearProgramHull : IHullStability
     /// <summary>
     /// Chemical potentials (eV/atom, one per component) at these fractions: the dual of the hull program over all
     /// components and every composition, i.e. the plane through its optimal basis (a lower-hull facet holding the
-    /// fractions; where several do, the one the simplex method ended on). See <see cref="IHullStability.ChemicalPotentialsAt"/>.
+    /// fractions; where several do, the one the simplex method ended on). See <see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>.
     /// </summary>
     /// <remarks>
     /// The program runs over all components even when some fractions are zero: restricted to the composition's own
     /// face it would leave the potentials of the absent components undetermined.
     /// </remarks>
     /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
-    public double[] ChemicalPotentialsAt(ReadOnlySpan<double> fractions)
+    public double[] ChemicalPotentialsEvPerAtomAt(ReadOnlySpan<double> fractions)
     {
         HullInput.CheckFractions(fractions, ComponentCount);
         int n = ComponentCount;

@@ -216,9 +216,9 @@ public sealed class LowerHull : IHullStability
         return PositionIn(facet, fractions);
     }
 
-    /// <summary>Chemical potentials (eV/atom, one per component) of the facet that holds these fractions; see <see cref="IHullStability.ChemicalPotentialsAt"/>.</summary>
+    /// <summary>Chemical potentials (eV/atom, one per component) of the facet that holds these fractions; see <see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>.</summary>
     /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
-    public double[] ChemicalPotentialsAt(ReadOnlySpan<double> fractions)
+    public double[] ChemicalPotentialsEvPerAtomAt(ReadOnlySpan<double> fractions)
     {
         HullInput.CheckFractions(fractions, _n);
         Span<double> lambda = stackalloc double[_n];

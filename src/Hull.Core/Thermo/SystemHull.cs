@@ -255,11 +255,11 @@ public sealed class SystemHull
     /// component's own corner are 0), those of a hull facet that holds the composition, so that the hull energy there
     /// is Σ_k mu_k x_k. Unique inside a facet; where facets meet (a tie-line, a stable phase, the edge of the system)
     /// one facet's, and the set of all of them is the composition's chemical-potential window
-    /// (<see cref="IHullStability.ChemicalPotentialsAt"/>).
+    /// (<see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>).
     /// </summary>
     /// <exception cref="ThermoInputException">When the composition lies outside the system.</exception>
-    public IReadOnlyList<double> ChemicalPotentialsAt(Composition composition) =>
-        Array.AsReadOnly(_hull.ChemicalPotentialsAt(FractionsOf(MapQuery(composition))));
+    public IReadOnlyList<double> ChemicalPotentialsEvPerAtomAt(Composition composition) =>
+        Array.AsReadOnly(_hull.ChemicalPotentialsEvPerAtomAt(FractionsOf(MapQuery(composition))));
 
     /// <summary>The hull energy (formation energy of the hull, eV/atom) at any composition of the system.</summary>
     public double HullEnergyEvPerAtomAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;

@@ -7,7 +7,7 @@ using Xunit.Abstractions;
 namespace Hull.Core.Tests.Geometry;
 
 /// <summary>
-/// The hull program's dual, <see cref="IHullStability.ChemicalPotentialsAt"/>, on both engines: against the facet
+/// The hull program's dual, <see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>, on both engines: against the facet
 /// planes of qconvex (Debian qhull-bin) in general position, against SciPy HiGHS's equality marginals
 /// (<c>res.eqlin.marginals</c>, Debian python3-scipy) where the dual is unique, and always against the conditions
 /// that make it a dual optimum (every point on or above the plane, the plane through the hull energy).
@@ -53,7 +53,7 @@ public sealed class ChemicalPotentialTests(ITestOutputHelper output)
             if (holding.Count == 1) unique++;
             foreach (var (name, hull) in engines.All)
             {
-                var mu = hull.ChemicalPotentialsAt(x);
+                var mu = hull.ChemicalPotentialsEvPerAtomAt(x);
                 // Where several facets hold x (on a shared edge, on the simplex boundary) any of them is a valid answer.
                 if (!holding.Any(plane => plane.Zip(mu).All(p => Math.Abs(p.First - p.Second) <= PotentialTolerance)))
                 {
@@ -89,7 +89,7 @@ public sealed class ChemicalPotentialTests(ITestOutputHelper output)
             if (unique) compared++;
             foreach (var (name, hull) in engines.All)
             {
-                var mu = hull.ChemicalPotentialsAt(x);
+                var mu = hull.ChemicalPotentialsEvPerAtomAt(x);
                 string where = $"{name}, query {q}";
                 double onPlane = mu.Zip(x).Sum(p => p.First * p.Second);
                 if (Math.Abs(onPlane - reference.HullEnergyEvPerAtom) > PotentialTolerance) problems.Add($"{where}: mu·x = {onPlane:R}, hull energy {reference.HullEnergyEvPerAtom:R}");
@@ -133,7 +133,7 @@ public sealed class ChemicalPotentialTests(ITestOutputHelper output)
             if (basic.Count == 4 && basic.All(j => result.ColumnValues[j] > ClearWeight))
             {
                 compared++;
-                var mu = hull.ChemicalPotentialsAt(x);
+                var mu = hull.ChemicalPotentialsEvPerAtomAt(x);
                 for (int k = 0; k < 4; k++) Assert.Equal(mu[k], result.RowDuals[k], 9);
             }
         }

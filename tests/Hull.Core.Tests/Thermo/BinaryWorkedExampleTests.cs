@@ -276,7 +276,7 @@ public sealed class BinaryWorkedExampleTests
     public void Chemical_potentials_are_those_of_the_facet_holding_the_composition(string formula, double muAl, double muNi)
     {
         SystemHull hull = SystemHull.OverElements(FormationSet());
-        IReadOnlyList<double> mu = hull.ChemicalPotentialsAt(Composition.Parse(formula));
+        IReadOnlyList<double> mu = hull.ChemicalPotentialsEvPerAtomAt(Composition.Parse(formula));
         Assert.Equal(2, mu.Count);
         Assert.Equal(muAl, mu[0], Tolerance);
         Assert.Equal(muNi, mu[1], Tolerance);
@@ -286,7 +286,7 @@ public sealed class BinaryWorkedExampleTests
     public void Chemical_potentials_outside_the_system_are_refused()
     {
         SystemHull hull = SystemHull.OverElements(FormationSet());
-        var e = Assert.Throws<ThermoInputException>(() => hull.ChemicalPotentialsAt(Composition.Parse("AlO")));
+        var e = Assert.Throws<ThermoInputException>(() => hull.ChemicalPotentialsEvPerAtomAt(Composition.Parse("AlO")));
         Assert.Contains("AlO", e.Message);
     }
 }
