@@ -74,7 +74,7 @@ public sealed class VersionSnapshot
             }
 
             formulas[i] = row.Formula;
-            entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.ToThermo(row.Basis));
+            entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.BasisOf(row));
         }
 
         return new VersionSnapshot(version, entries, formulas);

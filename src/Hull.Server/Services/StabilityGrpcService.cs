@@ -59,11 +59,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 violations.Add(new($"candidates[{i}].energy_ev", $"the energy is {candidate.EnergyEv}; energies must be finite numbers of eV"));
             }
 
-            if (BatchValidation.TryMapBasis(candidate.Basis, out Store.EnergyBasis storeBasis))
-            {
-                bases[i] = WireMapping.ToThermo(storeBasis);
-            }
-            else
+            if (!WireMapping.TryFromWire(candidate.Basis, out bases[i]))
             {
                 violations.Add(new($"candidates[{i}].basis", BatchValidation.BasisProblem(candidate.Basis)));
             }
