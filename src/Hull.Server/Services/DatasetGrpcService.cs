@@ -132,6 +132,6 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
 
     private static void RequireName(string name, string field)
     {
-        if (DatasetName.Check(name) is { } problem) throw RpcErrors.InvalidArgument(field, problem);
+        if (DatasetName.Check(name) is { } problem) throw RpcErrors.InvalidArgument(field, problem, ErrorReasons.InvalidDatasetName);
     }
 }

@@ -90,12 +90,12 @@ public static class BatchValidation
         if (violations.Count > 0)
         {
             var all = violations.Concat(limitViolations).ToList();
-            throw RpcErrors.InvalidArgument(Summarize("the batch was refused; nothing was written", all), all);
+            throw RpcErrors.InvalidArgument(Summarize("the batch was refused; nothing was written", all), all, ErrorReasons.InvalidEntry);
         }
 
         if (limitViolations.Count > 0)
         {
-            throw RpcErrors.WithViolations(Grpc.Core.StatusCode.ResourceExhausted,
+            throw RpcErrors.LimitExceeded("max_components_per_system", limits.MaxComponentsPerSystem,
                 Summarize("the batch was refused; nothing was written", limitViolations), limitViolations);
         }
 
