@@ -189,6 +189,30 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task List_commands_follow_every_page()
+    {
+        var (server, folder) = await CliRun.StartServerAsync();
+        try
+        {
+            string address = server.Address.ToString();
+            foreach (string name in new[] { "p-c", "p-a", "p-b" })
+            {
+                Assert.Equal(ExitCodes.Ok, (await CliRun.RunAsync("datasets", "create", name, "--server", address)).ExitCode);
+            }
+
+            var listed = await CliRun.RunAsync("datasets", "list", "--page-size", "1", "--json", "--server", address);
+            Assert.Equal(ExitCodes.Ok, listed.ExitCode);
+            using var json = System.Text.Json.JsonDocument.Parse(listed.Out);
+            Assert.Equal(["p-a", "p-b", "p-c"], json.RootElement.GetProperty("datasets").EnumerateArray().Select(d => d.GetProperty("name").GetString()));
+        }
+        finally
+        {
+            await server.StopAsync();
+            Directory.Delete(folder, recursive: true);
+        }
+    }
+
+    [Fact]
     public async Task Write_commands_without_the_token_exit_with_not_authorized()
     {
         var (server, folder) = await CliRun.StartServerAsync(token: "t0ken");

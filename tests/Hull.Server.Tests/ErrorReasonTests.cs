@@ -68,6 +68,14 @@ public sealed class ErrorReasonTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task Invalid_page_token()
+    {
+        var e = await Refused(async () => await C.Datasets.ListDatasetsAsync(new ListDatasetsRequest { PageToken = "not-a-token" }, C.Call()));
+        InfoOf(e, StatusCode.InvalidArgument, ErrorReasons.InvalidPageToken);
+        Assert.Equal("page_token", Assert.Single(DetailOf<BadRequest>(e).FieldViolations).Field);
+    }
+
+    [Fact]
     public async Task Dataset_not_found()
     {
         var e = await Refused(async () => await C.Stability.GetStablePhasesAsync(new GetStablePhasesRequest { Dataset = "nope" }, C.Call()));
