@@ -48,7 +48,7 @@ public sealed class ChemicalPotentialTests(ITestOutputHelper output)
         int unique = 0;
         foreach (var x in queries)
         {
-            var holding = lower.Where(f => MinBarycentric(set, f.Vertices, x) >= -InsideFacet).Select(f => Plane(f, components)).ToList();
+            var holding = lower.Where(f => MinBarycentric(set, f.Vertices, x) >= -InsideFacet).Select(f => f.ChemicalPotentials()).ToList();
             if (holding.Count == 0) { problems.Add($"no qconvex facet holds ({string.Join(", ", x)})"); continue; }
             if (holding.Count == 1) unique++;
             foreach (var (name, hull) in engines.All)
@@ -140,14 +140,7 @@ public sealed class ChemicalPotentialTests(ITestOutputHelper output)
         Assert.True(compared >= 10, $"only {compared} unique duals");
     }
 
-    /// <summary>Potentials of a qconvex facet plane: mu_n = −offset / n_E, mu_k = −(offset + n_k) / n_E (qconvex manual, 'n').</summary>
-    private static double[] Plane(QhullFacet f, int components)
-    {
-        double nE = f.OutwardNormal[^1];
-        return Enumerable.Range(0, components).Select(k => k == components - 1 ? -f.Offset / nE : -(f.Offset + f.OutwardNormal[k]) / nE).ToArray();
-    }
-
-    /// <summary>The smallest barycentric weight of x in the facet with these vertices (solved by least squares on the fractions).</summary>
+    /// <summary>The smallest barycentric weight of x in the facet with these vertices (the n × n system of their fractions).</summary>
     private static double MinBarycentric(PointSet set, int[] vertices, double[] x)
     {
         int n = vertices.Length;
