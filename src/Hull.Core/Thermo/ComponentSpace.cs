@@ -39,6 +39,12 @@ internal abstract class ComponentSpace
                 }
             }
 
+            return TryMapWithin(composition, out componentAtoms, out failure);
+        }
+
+        /// <summary>The atoms of the system's elements, ignoring any other element of the composition.</summary>
+        internal bool TryMapWithin(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        {
             componentAtoms = new BigFraction[Names.Count];
             for (int k = 0; k < componentAtoms.Length; k++)
             {
@@ -60,6 +66,41 @@ internal abstract class ComponentSpace
             }
 
             return -1;
+        }
+    }
+
+    /// <summary>
+    /// Components over the closed elements of an open-element hull, in ordinal symbol order: the open elements are
+    /// exchanged with a reservoir, so they are dropped from the coordinates (atoms count closed elements only).
+    /// </summary>
+    public sealed class OverClosedElements(IReadOnlyList<string> closed, IReadOnlyList<OpenElement> open) : ComponentSpace(closed)
+    {
+        private readonly OverElements _closed = new(closed);
+
+        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        {
+            bool anyClosed = false;
+            foreach (string element in composition.Elements)
+            {
+                bool isOpen = open.Any(o => string.Equals(o.Symbol, element, StringComparison.Ordinal));
+                if (!isOpen && !Names.Contains(element, StringComparer.Ordinal))
+                {
+                    componentAtoms = [];
+                    failure = $"contains {element}, which is neither a closed element of {SystemName} nor open.";
+                    return false;
+                }
+
+                anyClosed |= !isOpen;
+            }
+
+            if (!anyClosed)
+            {
+                componentAtoms = [];
+                failure = $"has no closed element of {SystemName}: made of open elements only, it is part of the reservoir.";
+                return false;
+            }
+
+            return _closed.TryMapWithin(composition, out componentAtoms, out failure);
         }
     }
 

@@ -123,7 +123,7 @@ public static class DatasetStability
                     }
 
                     var space = new ComponentSpace.OverElements(ElementsOf(mask, elements));
-                    var hull = new SystemHull(space, hullPoints, formation.References, onDemand: true);
+                    var hull = new SystemHull(HullAxis.FormationEnergy, space, hullPoints, formation.References, onDemand: true);
                     for (int i = 0; i < hull.PointCount; i++)
                     {
                         int row = hull.RowOfPoint(i);

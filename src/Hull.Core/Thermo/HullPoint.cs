@@ -84,7 +84,8 @@ internal sealed class HullPoint
     /// <summary>True when the point is made of one component alone.</summary>
     public bool IsPureComponent => PureComponent >= 0;
 
-    public double FormationEnergyEvPerAtom => Phase.FormationEnergyEvPerAtom;
+    /// <summary>The energy the hull is built over (the axis energy per counted atom).</summary>
+    public double AxisEnergyEvPerAtom => Phase.AxisEnergyEvPerAtom;
 
     /// <summary>True when both points have the same reduced composition (equal coprime amounts).</summary>
     public bool HasSameCompositionAs(HullPoint other) => Amounts.AsSpan().SequenceEqual(other.Amounts);

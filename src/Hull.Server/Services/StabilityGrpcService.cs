@@ -85,7 +85,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 Label = candidate.Label,
                 Formula = candidate.Formula,
                 ChemicalSystem = hull.Hull.SystemName,
-                FormationEnergyEvPerAtom = assessed.FormationEnergyEvPerAtom,
+                FormationEnergyEvPerAtom = WireMapping.FormationOf(assessed.FormationEnergyEvPerAtom),
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
                 IsStable = assessed.IsStable,
