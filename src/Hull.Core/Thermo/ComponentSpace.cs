@@ -22,12 +22,12 @@ internal abstract class ComponentSpace
     public string SystemName { get; }
 
     /// <summary>Atoms per component in one formula unit, or a failure text that completes "Formula ...".</summary>
-    public abstract bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure);
+    public abstract bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure);
 
     /// <summary>Components over chemical elements, in ordinal symbol order.</summary>
     public sealed class OverElements(IReadOnlyList<string> symbols) : ComponentSpace(symbols)
     {
-        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure)
         {
             foreach (string element in composition.Elements)
             {
@@ -43,12 +43,12 @@ internal abstract class ComponentSpace
         }
 
         /// <summary>The atoms of the system's elements, ignoring any other element of the composition.</summary>
-        internal bool TryMapWithin(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        internal bool TryMapWithin(Composition composition, out Rational[] componentAtoms, out string failure)
         {
-            componentAtoms = new BigFraction[Names.Count];
+            componentAtoms = new Rational[Names.Count];
             for (int k = 0; k < componentAtoms.Length; k++)
             {
-                componentAtoms[k] = BigFraction.FromRational(composition.AmountOf(Names[k]));
+                componentAtoms[k] = composition.AmountOf(Names[k]);
             }
 
             failure = string.Empty;
@@ -77,7 +77,7 @@ internal abstract class ComponentSpace
     {
         private readonly OverElements _closed = new(closed);
 
-        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure)
         {
             bool anyClosed = false;
             foreach (string element in composition.Elements)
@@ -109,7 +109,7 @@ internal abstract class ComponentSpace
     {
         public EndMemberBasis Basis { get; } = basis;
 
-        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure) =>
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure) =>
             Basis.TryComponentAtoms(composition, out componentAtoms, out failure);
     }
 }

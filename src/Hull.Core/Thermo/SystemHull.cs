@@ -220,7 +220,7 @@ public sealed class SystemHull
         for (int k = 0; k < points.Length; k++)
         {
             (PhaseEntry entry, int row, double axisEnergy, double? formation) = inputs[k];
-            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
+            if (!space.TryMap(entry.Composition, out Rational[] atoms, out string failure))
             {
                 throw new ThermoInputException(
                     $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
@@ -309,7 +309,7 @@ public sealed class SystemHull
     /// <exception cref="ThermoInputException">When the composition lies outside the system.</exception>
     public Decomposition DecompositionAt(Composition composition)
     {
-        BigFraction[] atoms = MapQuery(composition);
+        Rational[] atoms = MapQuery(composition);
         HullPosition position = _hull.Locate(FractionsOf(atoms));
         return BuildDecomposition(composition, atoms, position);
     }
@@ -422,10 +422,10 @@ public sealed class SystemHull
         return LowerHull.Build(amounts, energies).Locate(fractions).HullEnergyEvPerAtom;
     }
 
-    private BigFraction[] MapQuery(Composition composition)
+    private Rational[] MapQuery(Composition composition)
     {
         ArgumentNullException.ThrowIfNull(composition);
-        if (!_space.TryMap(composition, out BigFraction[] atoms, out string failure))
+        if (!_space.TryMap(composition, out Rational[] atoms, out string failure))
         {
             throw new ThermoInputException($"{composition.Formula} {failure}");
         }
@@ -433,10 +433,10 @@ public sealed class SystemHull
         return atoms;
     }
 
-    private static double[] FractionsOf(BigFraction[] atoms)
+    private static double[] FractionsOf(Rational[] atoms)
     {
-        BigFraction total = BigFraction.Zero;
-        foreach (BigFraction a in atoms)
+        Rational total = Rational.Zero;
+        foreach (Rational a in atoms)
         {
             total += a;
         }
@@ -449,10 +449,10 @@ public sealed class SystemHull
     /// point; the coefficients are then solved exactly from the compositions (the phases of one facet are linearly
     /// independent, so the balance is unique). Floating-point weights are the fallback should the exact balance fail.
     /// </summary>
-    private Decomposition BuildDecomposition(Composition composition, BigFraction[] targetAtoms, HullPosition position)
+    private Decomposition BuildDecomposition(Composition composition, Rational[] targetAtoms, HullPosition position)
     {
-        BigFraction targetTotal = BigFraction.Zero;
-        foreach (BigFraction a in targetAtoms)
+        Rational targetTotal = Rational.Zero;
+        foreach (Rational a in targetAtoms)
         {
             targetTotal += a;
         }
@@ -462,7 +462,7 @@ public sealed class SystemHull
 
         // Phases containing a component the target lacks can only carry weight 0 exactly.
         var candidates = new List<int>(vertices.Count);
-        var columns = new List<BigFraction[]>(vertices.Count);
+        var columns = new List<Rational[]>(vertices.Count);
         for (int k = 0; k < vertices.Count; k++)
         {
             if (WithinSupport(_points[vertices[k]].ComponentAtoms, targetAtoms))
@@ -472,23 +472,7 @@ public sealed class SystemHull
             }
         }
 
-        BigFraction[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
-        if (exact is not null && Array.TrueForAll(exact, c => c.Sign >= 0))
-        {
-            for (int k = 0; k < candidates.Count; k++)
-            {
-                if (exact[k].IsZero)
-                {
-                    continue;
-                }
-
-                HullPoint product = _points[candidates[k]];
-                double fraction = (exact[k] * product.AtomsPerFormulaUnit / targetTotal).ToDouble();
-                Rational? coefficient = exact[k].TryToRational(out Rational r) ? r : null;
-                products.Add((candidates[k], fraction, exact[k].ToDouble(), coefficient));
-            }
-        }
-        else
+        if (!TryExactProducts(candidates, columns, targetAtoms, targetTotal, products))
         {
             double totalAtoms = targetTotal.ToDouble();
             for (int k = 0; k < vertices.Count; k++)
@@ -511,7 +495,49 @@ public sealed class SystemHull
         return new Decomposition(composition, _axis, position.HullEnergyEvPerAtom, ordered);
     }
 
-    private static bool WithinSupport(BigFraction[] candidate, BigFraction[] target)
+    /// <summary>
+    /// The products of an exactly balanced reaction, or false (nothing added) when the balance has no non-negative
+    /// solution or a coefficient does not fit in a 64-bit fraction.
+    /// </summary>
+    private bool TryExactProducts(
+        List<int> candidates,
+        List<Rational[]> columns,
+        Rational[] targetAtoms,
+        Rational targetTotal,
+        List<(int Point, double AtomFraction, double FormulaUnits, Rational? Exact)> products)
+    {
+        var exactProducts = new List<(int, double, double, Rational?)>(candidates.Count);
+        try
+        {
+            Rational[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
+            if (exact is null || !Array.TrueForAll(exact, c => c.Sign >= 0))
+            {
+                return false;
+            }
+
+            for (int k = 0; k < candidates.Count; k++)
+            {
+                if (exact[k].IsZero)
+                {
+                    continue;
+                }
+
+                HullPoint product = _points[candidates[k]];
+                double fraction = (exact[k] * product.AtomsPerFormulaUnit / targetTotal).ToDouble();
+                exactProducts.Add((candidates[k], fraction, exact[k].ToDouble(), exact[k]));
+            }
+        }
+        catch (OverflowException)
+        {
+            // Coefficients beyond 64-bit fractions: the floating-point weights answer instead.
+            return false;
+        }
+
+        products.AddRange(exactProducts);
+        return true;
+    }
+
+    private static bool WithinSupport(Rational[] candidate, Rational[] target)
     {
         for (int k = 0; k < candidate.Length; k++)
         {
@@ -561,8 +587,8 @@ public sealed class SystemHull
 
             // An element without entries sits at its reference state: 0 on every axis (all are measured from the references).
             Composition single = Composition.Parse(name);
-            var atoms = new BigFraction[space.Names.Count];
-            atoms[k] = BigFraction.One;
+            var atoms = new Rational[space.Names.Count];
+            atoms[k] = Rational.One;
             all[next++] = new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0, 0.0), null, -1, atoms);
         }
 
