@@ -7,9 +7,9 @@ namespace Hull.Core.Thermo;
 /// The convex hull of an energy per atom over one chemical system: over its elements, or over compound end-members
 /// (pseudo-binary, pseudo-ternary, ...). The energy is that of the hull's <see cref="Axis"/>: formation energy for
 /// the closed hull, or any other energy measured from the elemental references (a grand potential over the closed
-/// elements, a free energy at a temperature, one sample of an uncertain energy). Built once from a list of entries; reports every entry's
-/// stability, the stable phases, facets with their chemical potentials and tie-lines, and answers queries at any
-/// composition. Results do not depend on the order of the entries. Immutable and safe to share between threads.
+/// elements, a free energy at a temperature, one sample of an uncertain energy). Built once from a list of entries;
+/// reports every entry's stability, the stable phases, facets with their chemical potentials and tie-lines, and
+/// answers queries at any composition. Results do not depend on the order of the entries. Immutable and safe to share between threads.
 /// </summary>
 /// <remarks>
 /// Over elements, an element with no pure entry gets a synthetic reference point at formation energy 0 (id = the
