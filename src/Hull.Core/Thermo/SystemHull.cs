@@ -315,7 +315,7 @@ public sealed class SystemHull
     }
 
     /// <summary>The hull energy on the hull's axis (on the closed hull: formation energy, eV/atom) at any composition of the system.</summary>
-    public double HullEnergyAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
+    public double HullEnergyEvPerAtomAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
 
     /// <summary>
     /// How a phase of this composition and energy on the hull's axis (on the closed hull: its formation energy, eV/atom)
@@ -363,7 +363,7 @@ public sealed class SystemHull
             fromEndMembers = point.AxisEnergyEvPerAtom - corners;
         }
 
-        double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergy(i) : null;
+        double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergyEvPerAtom(i) : null;
         return new EntryStability(
             entry,
             point.RowIndex,
@@ -387,7 +387,7 @@ public sealed class SystemHull
     {
         int i = Array.FindIndex(_points, p => p.Entry is not null && string.Equals(p.Phase.Id, id, StringComparison.Ordinal));
         HullPoint point = _points[i];
-        if (point.IsPureComponent || _hull.EnergyAboveHull(i) > HullTolerances.EnergyEvPerAtom)
+        if (point.IsPureComponent || _hull.EnergyAboveHullEvPerAtom(i) > HullTolerances.EnergyEvPerAtom)
         {
             return null;
         }
@@ -399,10 +399,10 @@ public sealed class SystemHull
         return SnapDecompositionEnergy(point.AxisEnergyEvPerAtom - hullWithout);
     }
 
-    private double DecompositionEnergy(int i) =>
+    private double DecompositionEnergyEvPerAtom(int i) =>
         // Both engines know the hull at a composition without it (the program engine solved exactly that; the
         // incremental hull answers from the vertex's star).
-        SnapDecompositionEnergy(_points[i].AxisEnergyEvPerAtom - _hull.HullEnergyWithoutComposition(i)!.Value);
+        SnapDecompositionEnergy(_points[i].AxisEnergyEvPerAtom - _hull.HullEnergyWithoutCompositionEvPerAtom(i)!.Value);
 
     // An entry on the hull cannot lie above the hull without its composition; differences within the hull
     // tolerance are ties (an entry that only touches the hull), reported as exactly 0.

@@ -69,7 +69,7 @@ public sealed class HullCache
         }, Counters.CountHullHit, cancellation);
     }
 
-    /// <summary>The stability of every entry of the snapshot, each from the hull of its largest containing system.</summary>
+    /// <summary>The stability of every entry of the snapshot, each from the smallest maximal system that contains it.</summary>
     public Task<DatasetStabilityResult> GetAnalysisAsync(VersionSnapshot snapshot, CancellationToken cancellation)
     {
         foreach (IReadOnlyList<string> system in snapshot.MaximalSystems)

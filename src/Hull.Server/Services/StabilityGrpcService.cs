@@ -88,7 +88,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 FormationEnergyEvPerAtom = WireMapping.FormationOf(assessed.FormationEnergyEvPerAtom),
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
-                IsStable = assessed.IsStable,
+                IsOnOrBelowHull = assessed.IsOnOrBelowHull,
                 Decomposition = WireMapping.ToWire(assessed.Decomposition),
             });
         }
