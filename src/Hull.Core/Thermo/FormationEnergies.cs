@@ -156,7 +156,8 @@ public static class FormationEnergies
                     + $"Add a pure-{symbol} entry with a total energy, or give an explicit reference for {symbol}.{others}{mixing}"),
                 entryId: needing[0].Id,
                 rowIndex: needing[0].Row,
-                element: symbol);
+                element: symbol,
+                isMissingReference: true);
         }
 
         return resolved;
