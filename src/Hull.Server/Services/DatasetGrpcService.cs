@@ -10,7 +10,7 @@ using Hull.Store;
 namespace Hull.Server.Services;
 
 /// <summary>The dataset service: checks each request, then delegates to the store.</summary>
-public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits)
+public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports)
     : DatasetService.DatasetServiceBase
 {
     /// <summary>Entries per streamed export message when the caller does not say.</summary>
@@ -53,6 +53,7 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         finally
         {
             versions.Forget(request.Name);
+            imports.Forget(request.Name);
         }
 
         return Task.FromResult(new DeleteDatasetResponse());
@@ -62,15 +63,41 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
     {
         (IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy) = BatchValidation.Validate(request, limits);
         context.CancellationToken.ThrowIfCancellationRequested();
-        // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
-        ImportResult result = await Task.Run(
-            () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
+        ImportResult result;
+        using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
+        {
+            (VersionRef? latest, ReferenceLedger ledger) = await LatestLedgerAsync(request.Dataset, context.CancellationToken);
+            (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
+                rows, policy, ledger, async () => latest is null ? [] : (await cache.GetSnapshotAsync(latest, context.CancellationToken)).Entries);
+            if (violations.Count > 0)
+            {
+                throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the batch was refused; nothing was written", violations), violations);
+            }
+
+            // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
+            result = await Task.Run(
+                () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
+            imports.Remember(request.Dataset, versions.Resolve(request.Dataset, result.NewVersion).Fingerprint, next);
+        }
+
         return new ImportEntriesResponse
         {
             DatasetVersion = result.NewVersion,
             InsertedCount = result.Inserted,
             ReplacedCount = result.Replaced,
         };
+    }
+
+    /// <summary>The latest version (null when there is none) and its reference ledger, remembered or read once.</summary>
+    private async Task<(VersionRef? Latest, ReferenceLedger Ledger)> LatestLedgerAsync(string dataset, CancellationToken cancellation)
+    {
+        if (store.GetLatestVersion(dataset) == DatasetStore.NoVersion) return (null, ReferenceLedger.Empty);
+        VersionRef latest = versions.Resolve(dataset, 0);
+        if (imports.TryGetLedger(dataset, latest.Fingerprint, out ReferenceLedger known)) return (latest, known);
+        VersionSnapshot snapshot = await cache.GetSnapshotAsync(latest, cancellation);
+        ReferenceLedger ledger = ReferenceLedger.Of(snapshot.Entries);
+        imports.Remember(dataset, latest.Fingerprint, ledger);
+        return (latest, ledger);
     }
 
     public override async Task ExportEntries(ExportEntriesRequest request, IServerStreamWriter<ExportEntriesResponse> responseStream, ServerCallContext context)
@@ -113,6 +140,7 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         finally
         {
             versions.Forget(request.Dataset);
+            imports.Forget(request.Dataset);
         }
 
         return Task.FromResult(new DeleteVersionResponse());

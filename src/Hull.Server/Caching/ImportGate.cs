@@ -1,0 +1,52 @@
+using System.Collections.Concurrent;
+using Hull.Server.Validation;
+
+namespace Hull.Server.Caching;
+
+/// <summary>
+/// One import at a time per dataset (within this server), so that the reference check and the write see the same
+/// base version, and the reference ledger of each dataset's latest version, so that a batch is checked without
+/// reading the whole version.
+/// </summary>
+public sealed class ImportGate
+{
+    private readonly ConcurrentDictionary<string, SemaphoreSlim> _locks = new(StringComparer.Ordinal);
+    private readonly ConcurrentDictionary<string, (string Fingerprint, ReferenceLedger Ledger)> _ledgers = new(StringComparer.Ordinal);
+
+    /// <summary>Waits for the dataset's import lock; dispose the result to release it.</summary>
+    public async Task<IDisposable> EnterAsync(string dataset, CancellationToken cancellation)
+    {
+        SemaphoreSlim gate = _locks.GetOrAdd(dataset, _ => new SemaphoreSlim(1, 1));
+        await gate.WaitAsync(cancellation).ConfigureAwait(false);
+        return new Release(gate);
+    }
+
+    /// <summary>The ledger of the version with <paramref name="fingerprint"/>, when it is the one remembered.</summary>
+    public bool TryGetLedger(string dataset, string fingerprint, out ReferenceLedger ledger)
+    {
+        if (_ledgers.TryGetValue(dataset, out var known) && known.Fingerprint == fingerprint)
+        {
+            ledger = known.Ledger;
+            return true;
+        }
+
+        ledger = ReferenceLedger.Empty;
+        return false;
+    }
+
+    /// <summary>Remembers the ledger of the dataset's latest version.</summary>
+    public void Remember(string dataset, string fingerprint, ReferenceLedger ledger) => _ledgers[dataset] = (fingerprint, ledger);
+
+    /// <summary>Forgets a dataset's ledger (after it or one of its versions is deleted).</summary>
+    public void Forget(string dataset) => _ledgers.TryRemove(dataset, out _);
+
+    private sealed class Release(SemaphoreSlim gate) : IDisposable
+    {
+        private int _released;
+
+        public void Dispose()
+        {
+            if (Interlocked.Exchange(ref _released, 1) == 0) gate.Release();
+        }
+    }
+}
