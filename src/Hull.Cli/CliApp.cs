@@ -66,6 +66,9 @@ public static class CliApp
             case ImportRunner.BatchRefusedException refused:
                 context.Err.WriteLine($"hull: {refused.Message}");
                 return RpcFailure.ExitCodeOf(refused.Cause);
+            case RequestRefusal.RefusedException refused:
+                context.Err.WriteLine($"hull: {refused.Message}");
+                return RpcFailure.ExitCodeOf(refused.Cause);
             case RpcException rpc:
                 context.Err.WriteLine($"hull: {RpcFailure.Describe(rpc, context.ServerAddress)}");
                 return RpcFailure.ExitCodeOf(rpc);
