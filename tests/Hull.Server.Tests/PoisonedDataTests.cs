@@ -291,4 +291,49 @@ public sealed class PoisonedDataTests : IAsyncLifetime
             Assert.Equal(0.0, r.DecompositionEnergyEvPerAtom);
         });
     }
+
+    [Fact]
+    public async Task Extreme_finite_energies_are_answered_or_refused_clearly_never_internal()
+    {
+        // Fuzz over the wire: imports, candidates and analyses with energies from 1e-300 to 1e300 of both signs and
+        // every basis. Each call answers, or refuses with INVALID_ARGUMENT / FAILED_PRECONDITION and a short message.
+        await Data.CreateWithAsync(C, "fuzz", PerAtom("O2", "O2", -4.93), PerAtom("Mg", "Mg", -1.54), Data.Formation("TiO2", "TiO2", -3.4));
+        var random = new Random(11);
+        EnergyBasis[] bases = [EnergyBasis.TotalPerFormulaUnit, EnergyBasis.TotalPerAtom, EnergyBasis.FormationPerFormulaUnit, EnergyBasis.FormationPerAtom];
+        string[] formulas = ["MgO", "Mg2TiO4", "TiO", "Mg", "O2", "Ti", "MgTi2O5"];
+        double Extreme() => (random.Next(2) == 0 ? -1 : 1) * Math.Pow(10, -300 + random.NextDouble() * 600);
+        StatusCode[] clear = [StatusCode.InvalidArgument, StatusCode.FailedPrecondition];
+        for (int round = 0; round < 12; round++)
+        {
+            var batch = Enumerable.Range(0, 4).Select(k => new Entry
+            {
+                Id = $"r{round}-{k}", Formula = formulas[random.Next(formulas.Length)], EnergyEv = Extreme(), Basis = bases[random.Next(4)],
+            }).ToArray();
+            try
+            {
+                await C.Datasets.ImportEntriesAsync(Data.Batch("fuzz", DuplicatePolicy.Reject, batch), C.Call());
+            }
+            catch (RpcException e)
+            {
+                Assert.Contains(e.StatusCode, clear);
+                Assert.True(e.Status.Detail.Length < 2000, e.Status.Detail);
+            }
+
+            var candidates = new AssessCandidatesRequest { Dataset = "fuzz" };
+            candidates.Candidates.Add(new Candidate { Formula = formulas[random.Next(formulas.Length)], EnergyEv = Extreme(), Basis = bases[random.Next(4)] });
+            try
+            {
+                AssessCandidatesResponse answer = await C.Stability.AssessCandidatesAsync(candidates, C.Call());
+                Assert.True(Math.Abs(answer.Results.Single().FormationEnergyEvPerAtom) <= 100);
+            }
+            catch (RpcException e)
+            {
+                Assert.Contains(e.StatusCode, clear);
+                Assert.True(e.Status.Detail.Length < 2000, e.Status.Detail);
+            }
+
+            List<AnalyzeDatasetResponse> pages = await AnalyzeAsync(new AnalyzeDatasetRequest { Dataset = "fuzz" });
+            Assert.All(pages.SelectMany(p => p.Results), r => Assert.True(Math.Abs(r.FormationEnergyEvPerAtom) <= 100, r.EntryId));
+        }
+    }
 }

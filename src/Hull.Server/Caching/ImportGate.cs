@@ -11,7 +11,7 @@ namespace Hull.Server.Caching;
 public sealed class ImportGate
 {
     private readonly ConcurrentDictionary<string, SemaphoreSlim> _locks = new(StringComparer.Ordinal);
-    private readonly ConcurrentDictionary<string, (string Fingerprint, ReferenceLedger Ledger)> _ledgers = new(StringComparer.Ordinal);
+    private readonly ConcurrentDictionary<string, (long Version, ReferenceLedger Ledger)> _ledgers = new(StringComparer.Ordinal);
 
     /// <summary>Waits for the dataset's import lock; dispose the result to release it.</summary>
     public async Task<IDisposable> EnterAsync(string dataset, CancellationToken cancellation)
@@ -21,10 +21,14 @@ public sealed class ImportGate
         return new Release(gate);
     }
 
-    /// <summary>The ledger of the version with <paramref name="fingerprint"/>, when it is the one remembered.</summary>
-    public bool TryGetLedger(string dataset, string fingerprint, out ReferenceLedger ledger)
+    /// <summary>
+    /// The ledger of <paramref name="version"/>, when it is the one remembered. Keyed by number, not fingerprint (whose
+    /// first computation reads the whole version): a version's content never changes and its number is never given
+    /// again, and deleting the dataset or a version through this server forgets the ledger.
+    /// </summary>
+    public bool TryGetLedger(string dataset, long version, out ReferenceLedger ledger)
     {
-        if (_ledgers.TryGetValue(dataset, out var known) && known.Fingerprint == fingerprint)
+        if (_ledgers.TryGetValue(dataset, out var known) && known.Version == version)
         {
             ledger = known.Ledger;
             return true;
@@ -35,7 +39,7 @@ public sealed class ImportGate
     }
 
     /// <summary>Remembers the ledger of the dataset's latest version.</summary>
-    public void Remember(string dataset, string fingerprint, ReferenceLedger ledger) => _ledgers[dataset] = (fingerprint, ledger);
+    public void Remember(string dataset, long version, ReferenceLedger ledger) => _ledgers[dataset] = (version, ledger);
 
     /// <summary>Forgets a dataset's ledger (after it or one of its versions is deleted).</summary>
     public void Forget(string dataset) => _ledgers.TryRemove(dataset, out _);

@@ -66,9 +66,10 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         ImportResult result;
         using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
         {
-            (VersionRef? latest, ReferenceLedger ledger) = await LatestLedgerAsync(request.Dataset, context.CancellationToken);
+            long latest = store.GetLatestVersion(request.Dataset);
+            ReferenceLedger ledger = await LedgerAsync(request.Dataset, latest, context.CancellationToken);
             (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
-                rows, policy, ledger, async () => latest is null ? [] : (await cache.GetSnapshotAsync(latest, context.CancellationToken)).Entries);
+                rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(request.Dataset, latest, context.CancellationToken)).Entries);
             if (violations.Count > 0)
             {
                 throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the batch was refused; nothing was written", violations), violations);
@@ -77,7 +78,7 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
             // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
             result = await Task.Run(
                 () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
-            imports.Remember(request.Dataset, versions.Resolve(request.Dataset, result.NewVersion).Fingerprint, next);
+            imports.Remember(request.Dataset, result.NewVersion, next);
         }
 
         return new ImportEntriesResponse
@@ -88,17 +89,18 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         };
     }
 
-    /// <summary>The latest version (null when there is none) and its reference ledger, remembered or read once.</summary>
-    private async Task<(VersionRef? Latest, ReferenceLedger Ledger)> LatestLedgerAsync(string dataset, CancellationToken cancellation)
+    /// <summary>The reference ledger of <paramref name="version"/> (empty for none), remembered or read once.</summary>
+    private async Task<ReferenceLedger> LedgerAsync(string dataset, long version, CancellationToken cancellation)
     {
-        if (store.GetLatestVersion(dataset) == DatasetStore.NoVersion) return (null, ReferenceLedger.Empty);
-        VersionRef latest = versions.Resolve(dataset, 0);
-        if (imports.TryGetLedger(dataset, latest.Fingerprint, out ReferenceLedger known)) return (latest, known);
-        VersionSnapshot snapshot = await cache.GetSnapshotAsync(latest, cancellation);
-        ReferenceLedger ledger = ReferenceLedger.Of(snapshot.Entries);
-        imports.Remember(dataset, latest.Fingerprint, ledger);
-        return (latest, ledger);
+        if (version == DatasetStore.NoVersion) return ReferenceLedger.Empty;
+        if (imports.TryGetLedger(dataset, version, out ReferenceLedger known)) return known;
+        ReferenceLedger ledger = ReferenceLedger.Of((await SnapshotAsync(dataset, version, cancellation)).Entries);
+        imports.Remember(dataset, version, ledger);
+        return ledger;
     }
+
+    private Task<VersionSnapshot> SnapshotAsync(string dataset, long version, CancellationToken cancellation) =>
+        cache.GetSnapshotAsync(versions.Resolve(dataset, version), cancellation);
 
     public override async Task ExportEntries(ExportEntriesRequest request, IServerStreamWriter<ExportEntriesResponse> responseStream, ServerCallContext context)
     {
