@@ -73,7 +73,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         var csv = await CliRun.RunAsync("stability", "demo", "LiCoO2-b", "--server", Server, "--csv", "--version", "3");
         Assert.Equal(0, csv.ExitCode);
         string[] rows = csv.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
-        Assert.Equal("id,formula,system,formation_ev_per_atom,above_hull_ev_per_atom,vertex,decomposition_ev_per_atom,decomposition,dataset_version", rows[0]);
+        Assert.Equal("id,formula,system,formation_ev_per_atom,above_hull_ev_per_atom,stable,decomposition_ev_per_atom,decomposition,dataset_version", rows[0]);
         string[] cells = rows[1].Split(',');
         Assert.Equal(0.05, double.Parse(cells[4], System.Globalization.CultureInfo.InvariantCulture), 12);
         Assert.Equal("3", cells[^1]);
@@ -82,7 +82,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         Assert.Equal(0, assess.ExitCode);
         using (JsonDocument json = JsonDocument.Parse(assess.Out))
         {
-            Assert.True(json.RootElement.GetProperty("results")[0].GetProperty("is_stable").GetBoolean());
+            Assert.True(json.RootElement.GetProperty("results")[0].GetProperty("is_on_or_below_hull").GetBoolean());
             Assert.Equal("3", json.RootElement.GetProperty("used").GetProperty("version").GetString());
         }
 

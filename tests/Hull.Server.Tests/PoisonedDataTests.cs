@@ -57,7 +57,7 @@ public sealed class PoisonedDataTests : IAsyncLifetime
         // The reported case: ZrO2 at -3.0 eV/atom against a dataset with no Zr phase at all.
         await Data.CreateWithAsync(C, "mgo", Data.Formation("O2", "O2", 0), Data.Formation("MgO", "MgO", -3.1));
         AssessCandidatesResponse response = await C.Stability.AssessCandidatesAsync(Assess("mgo", "ZrO2", -3.0, EnergyBasis.FormationPerAtom), C.Call());
-        Assert.True(response.Results.Single().IsStable);
+        Assert.True(response.Results.Single().IsOnOrBelowHull);
         SystemCoverage coverage = Assert.Single(response.Coverage);
         Assert.Equal("O-Zr", coverage.ChemicalSystem);
         Assert.Equal(0, coverage.CompetingPhaseCount);

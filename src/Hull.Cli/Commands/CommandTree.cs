@@ -322,10 +322,10 @@ public static class CommandTree
 
             c.Emit(response, () =>
             {
-                var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "stable", "decomposition");
+                var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "on_or_below_hull", "decomposition");
                 foreach (CandidateAssessment a in response.Results)
                 {
-                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsStable, a.Decomposition.Reaction);
+                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsOnOrBelowHull, a.Decomposition.Reaction);
                 }
 
                 return table;
@@ -516,7 +516,7 @@ public static class CommandTree
 
     internal static Table StabilityTable(IEnumerable<Protos.V1.EntryStability> results, VersionUsed? used)
     {
-        var table = new Table("id", "formula", "system", "formation_ev_per_atom", "above_hull_ev_per_atom", "vertex", "decomposition_ev_per_atom", "decomposition", "dataset_version");
+        var table = new Table("id", "formula", "system", "formation_ev_per_atom", "above_hull_ev_per_atom", "stable", "decomposition_ev_per_atom", "decomposition", "dataset_version");
         foreach (Protos.V1.EntryStability r in results)
         {
             table.Add(r.EntryId, r.Formula, r.ChemicalSystem, r.FormationEnergyEvPerAtom, r.EnergyAboveHullEvPerAtom, r.IsHullVertex,
@@ -538,7 +538,7 @@ public static class CommandTree
         string[] columns = ["facet", "phases", .. response.Components.Select(c => $"mu_{c}_ev_per_atom")];
         var table = new Table(columns);
         int n = 0;
-        foreach (HullFacet f in response.Facets)
+        foreach (PhaseFacet f in response.Facets)
         {
             object?[] row = [++n, string.Join(" + ", f.PhaseIds), .. f.ChemicalPotentials.Select(p => (object?)p.ChemicalPotentialEvPerAtom)];
             table.Add(row);

@@ -86,7 +86,7 @@ public static class FormationEnergies
         double formation = perAtom;
         foreach (string symbol in entry.Composition.Elements)
         {
-            formation -= entry.Composition.AtomicFraction(symbol) * references[symbol].EvPerAtom;
+            formation -= entry.Composition.AtomicFraction(symbol) * references[symbol].TotalEnergyEvPerAtom;
         }
 
         return formation;

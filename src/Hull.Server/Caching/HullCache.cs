@@ -73,7 +73,7 @@ public sealed class HullCache
         }, Counters.CountHullHit, cancellation);
     }
 
-    /// <summary>The stability of every entry of the snapshot, each from the hull of its largest containing system.</summary>
+    /// <summary>The stability of every entry of the snapshot, each from the smallest maximal system that contains it.</summary>
     public Task<DatasetStabilityResult> GetAnalysisAsync(
         VersionSnapshot snapshot, CancellationToken cancellation, ElementalReferenceList? references = null)
     {

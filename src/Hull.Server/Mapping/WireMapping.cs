@@ -8,6 +8,7 @@ using ThermoBasis = Hull.Core.Thermo.EnergyBasis;
 using WireBasis = Hull.Protos.V1.EnergyBasis;
 using WireDecomposition = Hull.Protos.V1.Decomposition;
 using WireEntryStability = Hull.Protos.V1.EntryStability;
+using WirePhaseFacet = Hull.Protos.V1.PhaseFacet;
 using WireTieLine = Hull.Protos.V1.TieLine;
 
 namespace Hull.Server.Mapping;
@@ -123,9 +124,9 @@ public static class WireMapping
         IsElementalReference = phase.IsSynthetic,
     };
 
-    public static HullFacet ToWire(PhaseFacet facet)
+    public static WirePhaseFacet ToWire(Core.Thermo.PhaseFacet facet)
     {
-        var wire = new HullFacet();
+        var wire = new WirePhaseFacet();
         wire.PhaseIds.AddRange(facet.Phases.Select(p => p.Id));
         for (int k = 0; k < facet.Components.Count; k++)
         {
@@ -148,7 +149,7 @@ public static class WireMapping
     public static Protos.V1.ElementReference ToWire(Core.Thermo.ElementReference reference) => new()
     {
         Symbol = reference.Symbol,
-        ReferenceEnergyEvPerAtom = reference.EvPerAtom,
+        TotalEnergyEvPerAtom = reference.TotalEnergyEvPerAtom,
         SourceEntryId = reference.SourceEntryId ?? string.Empty,
         GivenByCaller = reference.IsExplicit,
     };

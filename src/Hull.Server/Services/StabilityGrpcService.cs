@@ -113,7 +113,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 FormationEnergyEvPerAtom = assessed.FormationEnergyEvPerAtom,
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
-                IsStable = assessed.IsStable,
+                IsOnOrBelowHull = assessed.IsOnOrBelowHull,
                 Decomposition = WireMapping.ToWire(assessed.Decomposition),
             });
         }
@@ -328,7 +328,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             }
             else if (hull.References.FirstOrDefault(r => string.Equals(r.Symbol, element, StringComparison.Ordinal)) is { } stored)
             {
-                references.Add(KeyValuePair.Create(element, stored.EvPerAtom));
+                references.Add(KeyValuePair.Create(element, stored.TotalEnergyEvPerAtom));
                 used.AddReference(stored);
             }
             else

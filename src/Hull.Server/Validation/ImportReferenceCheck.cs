@@ -91,7 +91,7 @@ public static class ImportReferenceCheck
             {
                 string element = batch[cause].Composition.Elements.Count == 1 ? batch[cause].Composition.Elements[0] : "its element";
                 ElementReference? now = changed.Values.FirstOrDefault(c => c.CauseRow == cause).Reference;
-                string setTo = now is null ? "leaves no reference" : $"sets the {element} reference to {FormationEnergyRange.Show(now.EvPerAtom)} eV/atom";
+                string setTo = now is null ? "leaves no reference" : $"sets the {element} reference to {FormationEnergyRange.Show(now.TotalEnergyEvPerAtom)} eV/atom";
                 violations.Add(new($"entries[{cause}].energy_ev",
                     $"id '{batch[cause].Id}' {setTo}, which puts stored entries outside the accepted ±{FormationEnergyRange.MaxMagnitudeEvPerAtom:0} eV/atom "
                     + $"formation energy: {string.Join(", ", named)}; check the number, or replace those entries in the same import"));
@@ -110,7 +110,7 @@ public static class ImportReferenceCheck
         foreach (string element in entry.Composition.Elements)
         {
             if (ledger.ReferenceOf(element) is not { } reference) return null;
-            formation -= entry.Composition.AtomicFraction(element) * reference.EvPerAtom;
+            formation -= entry.Composition.AtomicFraction(element) * reference.TotalEnergyEvPerAtom;
         }
 
         return formation;
@@ -118,7 +118,7 @@ public static class ImportReferenceCheck
 
     private static string DescribeReferences(PhaseEntry entry, ReferenceLedger ledger) =>
         string.Join(", ", entry.Composition.Elements.Select(e => ledger.ReferenceOf(e)!)
-            .Select(r => $"{r.Symbol} {FormationEnergyRange.Show(r.EvPerAtom)} eV/atom from '{r.SourceEntryId}'"));
+            .Select(r => $"{r.Symbol} {FormationEnergyRange.Show(r.TotalEnergyEvPerAtom)} eV/atom from '{r.SourceEntryId}'"));
 
     private static ThermoBasis ToThermo(Store.EnergyBasis basis) => Mapping.WireMapping.ToThermo(basis);
 }

@@ -51,7 +51,7 @@ public sealed class ExtremeEnergyFuzzTests
                 Assert.Equal(results[0].Hull.VertexPoints, results[1].Hull.VertexPoints);
                 for (int i = 0; i < energies.Length; i++)
                 {
-                    Assert.Equal(results[0].Hull.EnergyAboveHull(i), results[1].Hull.EnergyAboveHull(i), Tolerance(energies));
+                    Assert.Equal(results[0].Hull.EnergyAboveHullEvPerAtom(i), results[1].Hull.EnergyAboveHullEvPerAtom(i), Tolerance(energies));
                 }
             }
         }
@@ -66,11 +66,11 @@ public sealed class ExtremeEnergyFuzzTests
     {
         for (int i = 0; i < energies.Length; i++)
         {
-            double above = hull.EnergyAboveHull(i);
+            double above = hull.EnergyAboveHullEvPerAtom(i);
             Assert.True(double.IsFinite(above) && above >= 0, $"{where}: point {i} above hull {above}");
             HullPosition position = hull.LocatePoint(i);
             Assert.True(double.IsFinite(position.HullEnergyEvPerAtom), $"{where}: point {i} hull energy {position.HullEnergyEvPerAtom}");
-            double? without = hull.HullEnergyWithoutComposition(i);
+            double? without = hull.HullEnergyWithoutCompositionEvPerAtom(i);
             Assert.True(without is null || double.IsFinite(without.Value), $"{where}: point {i} hull without its composition {without}");
             _ = hull.IsVertex(i);
         }

@@ -36,7 +36,7 @@ public sealed class CoverageAndUnusableEntryTests
         ComponentCoverage zr = hull.Coverage.Components.Single(c => c.Name == "Zr");
         Assert.True(zr.IsZeroByDefinition);
         Assert.True(zr.Reference!.IsExplicit);
-        Assert.Equal(-8.5, zr.Reference.EvPerAtom);
+        Assert.Equal(-8.5, zr.Reference.TotalEnergyEvPerAtom);
         Assert.Equal("O2", hull.Coverage.Components.Single(c => c.Name == "O").Reference!.SourceEntryId);
     }
 
