@@ -238,7 +238,7 @@ public sealed class PoisonedDataTests : IAsyncLifetime
     {
         await Data.CreateWithAsync(C, "old", Data.Formation("O2", "O2", 0), Data.Formation("MgO", "MgO", -3.1), Data.Formation("TiO2", "TiO2", -3.4));
         // Written straight into the store, as a server without the range rule would have.
-        _server.Server.Store.ImportBatch("old", [new EntryRow("MgO-bad", "MgO", -1e300, Hull.Store.EnergyBasis.FormationPerAtom, "")],
+        _server.Server.Store.ImportBatch("old", [new EntryRow("MgO-bad", "MgO", -1e300, "formation_per_atom", "")],
             Hull.Store.DuplicatePolicy.Reject, new BatchProvenance("older server", ""));
 
         var hull = await Assert.ThrowsAsync<RpcException>(async () =>

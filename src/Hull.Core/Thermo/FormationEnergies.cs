@@ -175,6 +175,7 @@ public static class FormationEnergies
                 + $"Add a pure-{element} entry with a total energy, or give an explicit reference for {element}.{others}{mixing}"),
             entryId: needers[0].Id,
             rowIndex: needers[0].Row,
-            element: element);
+            element: element,
+            isMissingReference: true);
     }
 }

@@ -94,14 +94,14 @@ public sealed class HullCache
     {
         if (elements.Count > _limits.MaxComponentsPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
+            throw RpcErrors.LimitExceeded("max_components_per_system", _limits.MaxComponentsPerSystem,
                 $"chemical system {system} has {elements.Count} components; the limit is {_limits.MaxComponentsPerSystem} components per chemical system");
         }
 
         int count = snapshot.CountWithin(elements);
         if (count > _limits.MaxEntriesPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
+            throw RpcErrors.LimitExceeded("max_entries_per_system", _limits.MaxEntriesPerSystem,
                 $"chemical system {system} of dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version} has {count} entries; " +
                 $"the limit is {_limits.MaxEntriesPerSystem} entries per chemical system");
         }

@@ -28,7 +28,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             if (!snapshot.TryFind(request.EntryIds[i], out rows[i]))
             {
-                throw RpcErrors.NotFound(
+                throw RpcErrors.EntryNotFound(snapshot.Version.Dataset, snapshot.Version.Version, request.EntryIds[i],
                     $"entry '{request.EntryIds[i]}' is not in dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}",
                     $"entry_ids[{i}]");
             }
@@ -64,10 +64,9 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 violations.Add(new($"candidates[{i}].energy_ev", $"the energy is {candidate.EnergyEv}; energies must be finite numbers of eV"));
             }
 
-            if (BatchValidation.TryMapBasis(candidate.Basis, out Store.EnergyBasis storeBasis))
+            if (WireMapping.TryFromWire(candidate.Basis, out bases[i]))
             {
-                bases[i] = WireMapping.ToThermo(storeBasis);
-                if (compositions[i] is not null && BatchValidation.FormationRangeProblem(candidate.EnergyEv, storeBasis, compositions[i]) is { } range)
+                if (compositions[i] is not null && double.IsFinite(candidate.EnergyEv) && BatchValidation.FormationRangeProblem(candidate.EnergyEv, bases[i], compositions[i]) is { } range)
                 {
                     violations.Add(new($"candidates[{i}].energy_ev", range));
                 }
@@ -271,8 +270,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         if (count == 0) throw RpcErrors.InvalidArgument(field, $"no {what} given; send at least one");
         if (count > limits.MaxCompositionsPerRequest)
         {
-            throw RpcErrors.ResourceExhausted(
-                $"{count} {what}s in one request; the limit is {limits.MaxCompositionsPerRequest} compositions per request", field);
+            string message = $"{count} {what}s in one request; the limit is {limits.MaxCompositionsPerRequest} compositions per request";
+            throw RpcErrors.LimitExceeded("max_compositions_per_request", limits.MaxCompositionsPerRequest, message, [new FieldViolation(field, message)]);
         }
     }
 
@@ -286,9 +285,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
 
         if (composition.Elements.Count > limits.MaxComponentsPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
-                $"'{formula}' has {composition.Elements.Count} elements; the limit is {limits.MaxComponentsPerSystem} components per chemical system",
-                field);
+            string message = $"'{formula}' has {composition.Elements.Count} elements; the limit is {limits.MaxComponentsPerSystem} components per chemical system";
+            throw RpcErrors.LimitExceeded("max_components_per_system", limits.MaxComponentsPerSystem, message, [new FieldViolation(field, message)]);
         }
 
         return composition;
@@ -333,7 +331,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             }
             else
             {
-                throw RpcErrors.WithViolations(StatusCode.FailedPrecondition,
+                throw RpcErrors.MissingElementalReference(element,
                     $"candidates[{index}] ({candidate.Formula}) is a total energy, but the dataset has no total-energy entry of pure {element} " +
                     $"to serve as its elemental reference (missing elemental reference); give one in elemental_references (hull --reference {element}=ENERGY)",
                     [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);

@@ -2,7 +2,6 @@ using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
 using Hull.Server.Errors;
 using Hull.Store;
-using ThermoBasis = Hull.Core.Thermo.EnergyBasis;
 
 namespace Hull.Server.Validation;
 
@@ -38,7 +37,7 @@ public static class ImportReferenceCheck
         var batch = new PhaseEntry[rows.Count];
         for (int i = 0; i < rows.Count; i++)
         {
-            batch[i] = new PhaseEntry(rows[i].Id, Composition.Parse(rows[i].Formula), rows[i].EnergyEv, ToThermo(rows[i].Basis));
+            batch[i] = new PhaseEntry(rows[i].Id, Composition.Parse(rows[i].Formula), rows[i].EnergyEv, Mapping.WireMapping.BasisOf(rows[i]));
         }
 
         // Under the reject policy a repeated id fails the batch in the store anyway; either way the batch's row is
@@ -119,6 +118,4 @@ public static class ImportReferenceCheck
     private static string DescribeReferences(PhaseEntry entry, ReferenceLedger ledger) =>
         string.Join(", ", entry.Composition.Elements.Select(e => ledger.ReferenceOf(e)!)
             .Select(r => $"{r.Symbol} {FormationEnergyRange.Show(r.TotalEnergyEvPerAtom)} eV/atom from '{r.SourceEntryId}'"));
-
-    private static ThermoBasis ToThermo(Store.EnergyBasis basis) => Mapping.WireMapping.ToThermo(basis);
 }
