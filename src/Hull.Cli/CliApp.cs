@@ -69,6 +69,9 @@ public static class CliApp
                     ? RpcFailure.DescribeJson(refused.Cause, context.ServerAddress, refused.Message)
                     : $"hull: {refused.Message}");
                 return RpcFailure.ExitCodeOf(refused.Cause);
+            case RequestRefusal.RefusedException refused:
+                context.Err.WriteLine($"hull: {refused.Message}");
+                return RpcFailure.ExitCodeOf(refused.Cause);
             case RpcException rpc:
                 context.Err.WriteLine(context.Format == OutputFormat.Json
                     ? RpcFailure.DescribeJson(rpc, context.ServerAddress)

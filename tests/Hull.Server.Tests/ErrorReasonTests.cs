@@ -136,15 +136,19 @@ public sealed class ErrorReasonTests : IAsyncLifetime
         Assert.Equal(ErrorReasons.MissingElementalReference.Code, violation.Type);
         Assert.Equal($"element:{info.Metadata["element"]}", violation.Subject);
 
-        // A stored total energy of Fe without any pure-Fe total energy: the whole-dataset analysis cannot start.
+        // A stored total energy of Fe without any pure-Fe total energy: the whole-dataset analysis answers the rest and
+        // reports the system; a query that needs the Fe-O hull carries the reason.
         await Data.CreateWithAsync(C, "t", Data.Total("FeO", "FeO", -12), Data.Total("O2", "O2", -9.8));
-        var analysis = await Refused(async () =>
+        using (var call = C.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = "t" }, C.Call()))
         {
-            using var call = C.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = "t" }, C.Call());
-            while (await call.ResponseStream.MoveNext(CancellationToken.None)) { }
-        });
-        Assert.Equal("Fe", InfoOf(analysis, StatusCode.FailedPrecondition, ErrorReasons.MissingElementalReference).Metadata["element"]);
-        Assert.Equal("element:Fe", Assert.Single(DetailOf<PreconditionFailure>(analysis).Violations).Subject);
+            Assert.True(await call.ResponseStream.MoveNext(CancellationToken.None));
+            Assert.Equal(["Fe"], Assert.Single(call.ResponseStream.Current.SystemProblems).ElementsWithoutReference);
+        }
+
+        var stability = await Refused(async () =>
+            await C.Stability.GetEntryStabilityAsync(new GetEntryStabilityRequest { Dataset = "t", EntryIds = { "FeO" } }, C.Call()));
+        Assert.Equal("Fe", InfoOf(stability, StatusCode.FailedPrecondition, ErrorReasons.MissingElementalReference).Metadata["element"]);
+        Assert.Equal("element:Fe", Assert.Single(DetailOf<PreconditionFailure>(stability).Violations).Subject);
     }
 
     [Fact]

@@ -286,13 +286,16 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var ids = new Argument<string[]>("ids") { Description = "entry ids", Arity = ArgumentArity.OneOrMore };
         var version = VersionOption();
-        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version };
+        var references = ReferenceOption.Create();
+        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version, references };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new GetEntryStabilityRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
             request.EntryIds.AddRange(c.Get(ids)!);
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
             GetEntryStabilityResponse response = await c.Server.Stability.GetEntryStabilityAsync(request, c.Server.Call(t));
             c.Emit(response, () => StabilityTable(response.Results, response.Used), Caption(response.Used));
+            if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: true);
             return ExitCodes.Ok;
         }));
         return command;
@@ -311,14 +314,18 @@ public static class CommandTree
         basis.AcceptOnlyFromAmong([.. EntryFileLayout.BasisTokens.Keys]);
         var file = new Option<string?>("--file") { Description = "assess every entry of this file instead (ids become labels)" };
         var version = VersionOption();
-        var command = new Command("assess", "place compositions with an energy against the hull without storing them") { dataset, formula, energy, basis, file, version };
+        var references = ReferenceOption.Create();
+        var command = new Command("assess", "place compositions with an energy against the hull without storing them") { dataset, formula, energy, basis, file, version, references };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new AssessCandidatesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            IReadOnlyList<EntryRecord> records = [];
             if (c.Get(file) is { } path)
             {
                 if (c.Get(formula) is not null) throw new UsageException("give either FORMULA ENERGY or --file, not both");
-                foreach (EntryRecord r in EntryFileReader.Read(path))
+                records = EntryFileReader.Read(path);
+                foreach (EntryRecord r in records)
                 {
                     request.Candidates.Add(new Candidate { Label = r.Id, Formula = r.Formula, EnergyEv = r.EnergyEv, Basis = r.Basis });
                 }
@@ -330,7 +337,16 @@ public static class CommandTree
                 request.Candidates.Add(new Candidate { Formula = f, EnergyEv = e, Basis = EntryFileLayout.BasisTokens[c.Get(basis)!] });
             }
 
-            AssessCandidatesResponse response = await c.Server.Stability.AssessCandidatesAsync(request, c.Server.Call(t));
+            AssessCandidatesResponse response;
+            try
+            {
+                response = await c.Server.Stability.AssessCandidatesAsync(request, c.Server.Call(t));
+            }
+            catch (RpcException e) when (c.Get(file) is { } refusedPath && RequestRefusal.NamesRows(e, "candidates"))
+            {
+                throw new RequestRefusal.RefusedException(RequestRefusal.Describe(e, "candidates", refusedPath, records), e);
+            }
+
             c.Emit(response, () =>
             {
                 var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "on_or_below_hull", "decomposition");
@@ -341,6 +357,7 @@ public static class CommandTree
 
                 return table;
             }, Caption(response.Used));
+            if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: false);
             return ExitCodes.Ok;
         }));
         return command;
@@ -351,11 +368,13 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var formulas = new Argument<string[]>("formulas") { Description = "compositions", Arity = ArgumentArity.OneOrMore };
         var version = VersionOption();
-        var command = new Command("hull-energy", "hull energy and decomposition at compositions") { dataset, formulas, version };
+        var references = ReferenceOption.Create();
+        var command = new Command("hull-energy", "hull energy and decomposition at compositions") { dataset, formulas, version, references };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new GetHullEnergiesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
             request.Formulas.AddRange(c.Get(formulas)!);
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
             GetHullEnergiesResponse response = await c.Server.Stability.GetHullEnergiesAsync(request, c.Server.Call(t));
             c.Emit(response, () =>
             {
@@ -363,6 +382,7 @@ public static class CommandTree
                 foreach (HullEnergyResult r in response.Results) table.Add(r.Formula, r.ChemicalSystem, r.HullEnergyEvPerAtom, r.Decomposition.Reaction);
                 return table;
             }, Caption(response.Used));
+            if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: false);
             return ExitCodes.Ok;
         }));
         return command;
@@ -373,13 +393,20 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var system = new Option<string>("--system") { Description = "chemical system, e.g. Li-Co-O (default: the whole dataset)", DefaultValueFactory = _ => string.Empty };
         var version = VersionOption();
-        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version };
+        var references = ReferenceOption.Create();
+        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version, references };
         command.SetAction(wrap(async (c, t) =>
         {
-            GetStablePhasesResponse response = await c.Server.Stability.GetStablePhasesAsync(
-                new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! }, c.Server.Call(t));
+            var request = new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! };
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            GetStablePhasesResponse response = await c.Server.Stability.GetStablePhasesAsync(request, c.Server.Call(t));
             c.Emit(response, () => PhasesTable(response.Phases),
                 Caption(response.Used) + (response.ChemicalSystem.Length > 0 ? $", system {response.ChemicalSystem}" : ", all systems"));
+            if (!c.Quiet)
+            {
+                CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: true);
+                CoverageWarnings.Write(c.Err, response.SystemProblems);
+            }
             return ExitCodes.Ok;
         }));
         return command;
@@ -391,13 +418,16 @@ public static class CommandTree
         var system = new Argument<string>("system") { Description = "chemical system, e.g. Li-Co-O" };
         var version = VersionOption();
         var tieLines = new Option<bool>("--tie-lines") { Description = "list the tie-lines instead of the facets" };
-        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines };
+        var references = ReferenceOption.Create();
+        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines, references };
         command.SetAction(wrap(async (c, t) =>
         {
-            GetHullFacetsResponse response = await c.Server.Stability.GetHullFacetsAsync(
-                new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! }, c.Server.Call(t));
+            var request = new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! };
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            GetHullFacetsResponse response = await c.Server.Stability.GetHullFacetsAsync(request, c.Server.Call(t));
             string caption = Caption(response.Used) + $", system {response.ChemicalSystem}";
             c.Emit(response, () => c.Get(tieLines) ? TieLinesTable(response.TieLines) : FacetsTable(response), caption);
+            if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: true);
             return ExitCodes.Ok;
         }));
         return command;
@@ -408,16 +438,21 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var version = VersionOption();
         var maxAbove = new Option<double?>("--max-above-hull") { Description = "list only entries at most this far above the hull, eV/atom" };
-        var command = new Command("analyze", "stability of every entry of a version") { dataset, version, maxAbove };
+        var references = ReferenceOption.Create();
+        var command = new Command("analyze", "stability of every entry of a version") { dataset, version, maxAbove, references };
         command.SetAction(wrap(async (c, t) =>
         {
             var results = new List<Protos.V1.EntryStability>();
+            var coverage = new List<SystemCoverage>();
             var first = new AnalyzeDatasetResponse();
-            using var call = c.Server.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) }, c.Server.Call(t));
+            var request = new AnalyzeDatasetRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
+            ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            using var call = c.Server.Stability.AnalyzeDataset(request, c.Server.Call(t));
             await foreach (AnalyzeDatasetResponse page in call.ResponseStream.ReadAllAsync(t))
             {
                 if (results.Count == 0 && first.Used is null) first = page.Clone();
                 results.AddRange(page.Results);
+                coverage.AddRange(page.Coverage);
             }
 
             double? limit = c.Get(maxAbove);
@@ -425,9 +460,17 @@ public static class CommandTree
             var combined = first.Clone();
             combined.Results.Clear();
             combined.Results.AddRange(shown);
+            combined.Coverage.Clear();
+            combined.Coverage.AddRange(coverage);
             string caption = first.Used is null ? string.Empty
                 : $"{Caption(first.Used)}: {first.EntryCount} entries, hulls of {string.Join(", ", first.HullSystems)}";
             c.Emit(combined, () => StabilityTable(shown, first.Used), caption);
+            if (!c.Quiet)
+            {
+                CoverageWarnings.Write(c.Err, coverage, storedEntries: true);
+                CoverageWarnings.Write(c.Err, first.SystemProblems);
+            }
+
             return ExitCodes.Ok;
         }));
         return command;

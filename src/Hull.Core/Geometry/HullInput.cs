@@ -71,7 +71,8 @@ internal sealed class HullInput
     public int[] CandidatesInInputOrder { get; }
 
     /// <exception cref="ArgumentException">Inconsistent sizes, negative or all-zero amounts, amounts summing past
-    /// 64 bits, or non-finite energies; the message names the point and component.</exception>
+    /// 64 bits, or energies not finite or beyond ±<see cref="HullTolerances.MaxEnergyMagnitudeEvPerAtom"/>; the message
+    /// names the point and component.</exception>
     /// <param name="amounts">Amount rows, one per point.</param>
     /// <param name="energiesEvPerAtom">Energy per atom of each point.</param>
     public static HullInput Check(IReadOnlyList<long[]> amounts, IReadOnlyList<double> energiesEvPerAtom)
@@ -206,6 +207,13 @@ internal sealed class HullInput
             if (total == 0) throw new ArgumentException($"Point {i}: every amount is zero.", "amounts");
             double e = energyArray is null ? energiesEvPerAtom[i] : energyArray[i];
             if (!double.IsFinite(e)) throw new ArgumentException($"Point {i}: energy is not a finite number ({e}).", nameof(energiesEvPerAtom));
+            if (Math.Abs(e) > HullTolerances.MaxEnergyMagnitudeEvPerAtom)
+            {
+                throw new ArgumentException(
+                    string.Create(System.Globalization.CultureInfo.InvariantCulture,
+                        $"Point {i}: energy {e:G4} eV/atom is outside ±{HullTolerances.MaxEnergyMagnitudeEvPerAtom:G} eV/atom, where the hull tolerance of {HullTolerances.EnergyEvPerAtom:G} eV/atom is still above rounding."),
+                    nameof(energiesEvPerAtom));
+            }
             energies[i] = e;
         }
     }

@@ -24,4 +24,13 @@ public static class HullTolerances
     /// far less than 1e-9 of the bound, so a larger value always has the right sign.
     /// </summary>
     public const double RelativeDeterminantFilter = 1e-9;
+
+    /// <summary>
+    /// Largest energy magnitude the engine accepts, eV/atom. Placing a point against a facet loses about 1e-15 of
+    /// the energies' magnitude to rounding, so up to 1e4 eV/atom that stays ten times below
+    /// <see cref="EnergyEvPerAtom"/>; beyond it the on-hull decision would be made by rounding, and near 1e300 the
+    /// plane arithmetic overflows. Formation energies are far inside (the thermodynamics layer keeps them within
+    /// ±100 eV/atom).
+    /// </summary>
+    public const double MaxEnergyMagnitudeEvPerAtom = 1e4;
 }

@@ -32,10 +32,13 @@ public sealed class ChemicalSystemGrouping
     private readonly int[] _reportingHull;
     private readonly int[] _hullsOfSystem;
 
-    /// <summary>Groups the rows by the chemical system of their compositions.</summary>
+    /// <summary>
+    /// Groups the rows by the chemical system of their compositions. Rows flagged in <paramref name="leftOut"/> join
+    /// no system (their <see cref="SystemOfRow"/> is -1) but their elements still count in <see cref="Elements"/>.
+    /// </summary>
     /// <exception cref="ArgumentNullException">When the list or one of its compositions is missing.</exception>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public ChemicalSystemGrouping(IReadOnlyList<Composition> compositions)
+    public ChemicalSystemGrouping(IReadOnlyList<Composition> compositions, IReadOnlyList<bool>? leftOut = null)
     {
         ArgumentNullException.ThrowIfNull(compositions);
         var present = new HashSet<string>(StringComparer.Ordinal);
@@ -59,6 +62,12 @@ public sealed class ChemicalSystemGrouping
         _systemOfRow = new int[compositions.Count];
         for (int row = 0; row < compositions.Count; row++)
         {
+            if (leftOut is not null && leftOut[row])
+            {
+                _systemOfRow[row] = -1;
+                continue;
+            }
+
             UInt128 mask = MaskOf(compositions[row].Elements);
             if (!_systemIndex.TryGetValue(mask, out int s))
             {
@@ -123,8 +132,11 @@ public sealed class ChemicalSystemGrouping
     /// <summary>Number of maximal systems (one hull each).</summary>
     public int MaximalCount => _maximal.Length;
 
-    /// <summary>The system of row <paramref name="row"/> (systems are numbered in order of first appearance).</summary>
+    /// <summary>The system of row <paramref name="row"/> (numbered in order of first appearance), -1 for a row left out.</summary>
     public int SystemOfRow(int row) => _systemOfRow[row];
+
+    /// <summary>The bit set over <see cref="Elements"/> of a composition of the grouped rows.</summary>
+    internal UInt128 MaskOf(Composition composition) => MaskOf(composition.Elements);
 
     /// <summary>The rows of system <paramref name="system"/>, ascending.</summary>
     public IReadOnlyList<int> RowsOf(int system) => _rowsOfSystem[system];

@@ -20,18 +20,27 @@ namespace Hull.Core.Thermo;
 /// </remarks>
 public static class DatasetStability
 {
-    /// <exception cref="ThermoInputException">Bad rows, repeated ids or missing references.</exception>
+    /// <summary>
+    /// The analysis. An entry without a usable formation energy (a total energy with no elemental reference, or a
+    /// formation energy out of range) does not fail the call: its chemical system is reported in
+    /// <see cref="DatasetStabilityResult.Problems"/>, every entry of that system or of a system containing it is left
+    /// unanswered (its hull would need the unusable entry), and every other entry is answered.
+    /// </summary>
+    /// <exception cref="ThermoInputException">Null rows, repeated ids, or amounts beyond 64 bits.</exception>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static DatasetStabilityResult Analyze(IReadOnlyList<PhaseEntry> entries, ElementalReferences? references = null)
     {
-        FormationEnergySet formation = FormationEnergies.Compute(entries, references);
+        FormationEnergySet formation = FormationEnergies.Evaluate(entries, references);
+        var unusable = new bool[entries.Count];
+        foreach (EntryEnergyProblem problem in formation.Problems) unusable[problem.RowIndex] = true;
         var compositions = new Composition[entries.Count];
         for (int row = 0; row < compositions.Length; row++)
         {
             compositions[row] = entries[row].Composition;
         }
 
-        var grouping = new ChemicalSystemGrouping(compositions);
+        // Entries whose energy cannot be used are in no hull; the systems that would need them are reported below.
+        var grouping = new ChemicalSystemGrouping(compositions, unusable);
 
         // Coordinates, phase and id rank of every entry, worked out once: a binary's entries sit in many hulls.
         var datasetPoints = new DatasetPoints(
@@ -47,7 +56,8 @@ public static class DatasetStability
         }
 
         Array.Sort(work, (x, y) => x.Points != y.Points ? y.Points.CompareTo(x.Points) : x.Hull.CompareTo(y.Hull));
-        var results = new EntryStability[entries.Count];
+        var results = new EntryStability?[entries.Count];
+        var coverage = new SystemCoverage[grouping.MaximalCount];
         var failures = new System.Collections.Concurrent.ConcurrentBag<Exception>();
         Parallel.ForEach(
             work,
@@ -68,6 +78,7 @@ public static class DatasetStability
 
                     var space = new ComponentSpace.OverElements(grouping.SymbolsOf(mask));
                     var hull = new SystemHull(HullAxis.FormationEnergy, space, hullPoints, formation.References, onDemand: true);
+                    coverage[item.Hull] = hull.Coverage;
                     for (int i = 0; i < hull.PointCount; i++)
                     {
                         int row = hull.RowOfPoint(i);
@@ -93,8 +104,63 @@ public static class DatasetStability
             ExceptionDispatchInfo.Capture(first).Throw();
         }
 
+        IReadOnlyList<SystemProblem> problems = ReportProblems(entries, formation.Problems, grouping, results);
         string[] hullSystems = Enumerable.Range(0, grouping.MaximalCount).Select(grouping.MaximalName).ToArray();
         Array.Sort(hullSystems, StringComparer.Ordinal);
-        return new DatasetStabilityResult(results, hullSystems, formation.References);
+        SystemCoverage[] coverageByName = coverage.OrderBy(c => c.HullSystem, StringComparer.Ordinal).ToArray();
+        EntryStability[] answered = results.OfType<EntryStability>().ToArray();
+        return new DatasetStabilityResult(answered, hullSystems, formation.References, coverageByName, problems);
+    }
+
+    /// <summary>
+    /// Groups the unusable entries by chemical system and clears the answer of every entry whose system contains one
+    /// of those systems; each such entry is listed under the smallest of them (then by name).
+    /// </summary>
+    private static IReadOnlyList<SystemProblem> ReportProblems(
+        IReadOnlyList<PhaseEntry> entries, IReadOnlyList<EntryEnergyProblem> causes, ChemicalSystemGrouping grouping,
+        EntryStability?[] results)
+    {
+        if (causes.Count == 0) return [];
+        var maskOfRow = new UInt128[entries.Count];
+        for (int row = 0; row < maskOfRow.Length; row++)
+        {
+            maskOfRow[row] = grouping.MaskOf(entries[row].Composition);
+        }
+
+        var bySystem = causes
+            .GroupBy(c => maskOfRow[c.RowIndex])
+            .Select(g => (Mask: g.Key, Name: string.Join("-", grouping.SymbolsOf(g.Key))))
+            .OrderBy(g => UInt128.PopCount(g.Mask))
+            .ThenBy(g => g.Name, StringComparer.Ordinal)
+            .ToArray();
+        // A cause inside a larger system that already contains a smaller problem system is reported with that one
+        // (its entries are unanswered because of it anyway), so each entry appears under one problem only.
+        var groups = bySystem
+            .Where((g, k) => !bySystem.Take(k).Any(smaller => (smaller.Mask & g.Mask) == smaller.Mask))
+            .Select(g => (g.Mask, g.Name, Causes: new List<EntryEnergyProblem>()))
+            .ToArray();
+        foreach (EntryEnergyProblem cause in causes)
+        {
+            groups.First(g => (g.Mask & maskOfRow[cause.RowIndex]) == g.Mask).Causes.Add(cause);
+        }
+
+        var unanswered = groups.Select(_ => new List<string>()).ToArray();
+        for (int row = 0; row < entries.Count; row++)
+        {
+            for (int g = 0; g < groups.Length; g++)
+            {
+                if ((groups[g].Mask & maskOfRow[row]) == groups[g].Mask)
+                {
+                    results[row] = null;
+                    unanswered[g].Add(entries[row].Id);
+                    break;
+                }
+            }
+        }
+
+        return groups
+            .Select((g, k) => new SystemProblem(g.Name, g.Causes, unanswered[k]))
+            .OrderBy(p => p.ChemicalSystem, StringComparer.Ordinal)
+            .ToArray();
     }
 }

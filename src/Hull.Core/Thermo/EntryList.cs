@@ -12,23 +12,24 @@ internal static class EntryList
             PhaseEntry? entry = entries[row];
             if (entry is null)
             {
-                throw new ThermoInputException($"Row {row} has no entry (null).", rowIndex: row);
+                throw new ThermoInputException($"Entry {row + 1} of the list (counting from 1) is missing (null).", rowIndex: row);
             }
 
             if (!rowById.TryAdd(entry.Id, row))
             {
                 throw new ThermoInputException(
-                    $"Entry id '{entry.Id}' appears twice (rows {rowById[entry.Id]} and {row}); ids must be unique.",
+                    $"Entry id '{entry.Id}' appears twice (entries {rowById[entry.Id] + 1} and {row + 1} of the list, counting from 1); ids must be unique.",
                     entryId: entry.Id,
                     rowIndex: row);
             }
         }
     }
 
-    /// <summary>"'a' (row 3), 'b' (row 7) and 4 more" — a bounded list for error messages.</summary>
+    /// <summary>"'a', 'b' and 4 more" — a bounded list for error messages. Entries are named by id: a position in the
+    /// list analysed means nothing to someone who imported a file.</summary>
     public static string Describe(IReadOnlyList<(string Id, int Row)> rows, int shown = 5)
     {
-        IEnumerable<string> parts = rows.Take(shown).Select(r => $"'{r.Id}' (row {r.Row})");
+        IEnumerable<string> parts = rows.Take(shown).Select(r => $"'{r.Id}'");
         string text = string.Join(", ", parts);
         return rows.Count > shown ? $"{text} and {rows.Count - shown} more" : text;
     }

@@ -82,9 +82,11 @@ public sealed class EntryStability
     public Decomposition Decomposition { get; }
 
     /// <summary>
-    /// For an entry on the hull: its energy minus the hull built without every entry of its reduced composition
-    /// (eV/atom); negative for a vertex, 0 for an entry that only touches the hull. Null for entries above the hull
-    /// and for pure components (elements, or end-members), which cannot be removed from their own hull.
+    /// For a hull vertex: its energy minus the hull built without every entry of its reduced composition (eV/atom),
+    /// negative (the composition's margin of stability). 0 for every other entry on the hull: exact duplicates and
+    /// polymorphs tied with the vertex at the same energy per atom, and entries inside a facet or on a coplanar face;
+    /// the margin is the vertex's alone. Null for entries above the hull and for pure components (elements, or
+    /// end-members), which cannot be removed from their own hull.
     /// </summary>
     public double? DecompositionEnergyEvPerAtom { get; }
 }

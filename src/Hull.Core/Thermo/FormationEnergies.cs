@@ -9,21 +9,68 @@ namespace Hull.Core.Thermo;
 /// </summary>
 public static class FormationEnergies
 {
-    /// <exception cref="ThermoInputException">A null row, a repeated id, or a total energy whose element has no reference.</exception>
+    /// <exception cref="ThermoInputException">A null row, a repeated id, a total energy whose element has no
+    /// reference, or a formation energy outside <see cref="FormationEnergyRange"/> (the entry named).</exception>
     public static FormationEnergySet Compute(IReadOnlyList<PhaseEntry> entries, ElementalReferences? references = null)
+    {
+        FormationEnergySet set = Evaluate(entries, references);
+        if (set.Problems.Count == 0)
+        {
+            return set;
+        }
+
+        EntryEnergyProblem first = set.Problems.FirstOrDefault(p => p.Kind == EntryEnergyProblemKind.MissingReference) ?? set.Problems[0];
+        if (first.Kind == EntryEnergyProblemKind.MissingReference)
+        {
+            throw MissingReferenceError(entries, set);
+        }
+
+        throw new ThermoInputException(first.Message, entryId: first.EntryId, rowIndex: first.RowIndex);
+    }
+
+    /// <summary>
+    /// As <see cref="Compute"/>, but an entry whose formation energy cannot be used (no reference for one of its
+    /// elements, or out of range) is listed in <see cref="FormationEnergySet.Problems"/> with NaN as its energy
+    /// instead of failing the whole list, so a dataset can answer for the rest.
+    /// </summary>
+    /// <exception cref="ThermoInputException">A null row or a repeated id.</exception>
+    public static FormationEnergySet Evaluate(IReadOnlyList<PhaseEntry> entries, ElementalReferences? references = null)
     {
         EntryList.Validate(entries);
         references ??= ElementalReferences.None;
         IReadOnlyDictionary<string, ElementReference> resolved = ResolveReferences(entries, references);
 
         var energies = new double[entries.Count];
+        var problems = new List<EntryEnergyProblem>();
         for (int row = 0; row < entries.Count; row++)
         {
-            energies[row] = FormationEvPerAtom(entries[row], resolved);
+            PhaseEntry entry = entries[row];
+            string? missing = entry.IsTotalEnergy ? entry.Composition.Elements.FirstOrDefault(e => !resolved.ContainsKey(e)) : null;
+            if (missing is not null)
+            {
+                energies[row] = double.NaN;
+                problems.Add(new EntryEnergyProblem(entry.Id, row, EntryEnergyProblemKind.MissingReference, missing,
+                    $"Entry '{entry.Id}' ({entry.Composition.Formula}) is a total energy, but element {missing} has no reference: "
+                    + $"add a pure-{missing} entry with a total energy, or give an explicit reference for {missing}."));
+                continue;
+            }
+
+            double formation = FormationEvPerAtom(entry, resolved);
+            if (!FormationEnergyRange.Contains(formation))
+            {
+                energies[row] = double.NaN;
+                string implied = entry.IsTotalEnergy ? " (implied by its total energy and the elemental references)" : string.Empty;
+                problems.Add(new EntryEnergyProblem(entry.Id, row, EntryEnergyProblemKind.OutOfRange, null,
+                    $"Entry '{entry.Id}' ({entry.Composition.Formula}): {FormationEnergyRange.Describe(formation)}{implied}; "
+                    + "check the number and its energy basis."));
+                continue;
+            }
+
+            energies[row] = formation;
         }
 
         ElementReference[] used = resolved.Values.OrderBy(r => r.Symbol, StringComparer.Ordinal).ToArray();
-        return new FormationEnergySet(energies, used);
+        return new FormationEnergySet(energies, used, problems);
     }
 
     /// <summary>
@@ -102,14 +149,10 @@ public static class FormationEnergies
         }
 
         var resolved = new Dictionary<string, ElementReference>(StringComparer.Ordinal);
-        var missing = new SortedDictionary<string, List<(string Id, int Row)>>(StringComparer.Ordinal);
-        bool anyFormation = false;
-        for (int row = 0; row < entries.Count; row++)
+        foreach (PhaseEntry entry in entries)
         {
-            PhaseEntry entry = entries[row];
             if (!entry.IsTotalEnergy)
             {
-                anyFormation = true;
                 continue;
             }
 
@@ -128,38 +171,45 @@ public static class FormationEnergies
                 {
                     resolved[symbol] = new ElementReference(symbol, best.EvPerAtom, best.Id);
                 }
-                else
-                {
-                    if (!missing.TryGetValue(symbol, out var needing))
-                    {
-                        missing[symbol] = needing = [];
-                    }
-
-                    needing.Add((entry.Id, row));
-                }
             }
         }
 
-        if (missing.Count > 0)
+        return resolved;
+    }
+
+    /// <summary>The error for missing references: the first element, the entries that need it, the others missing.</summary>
+    private static ThermoInputException MissingReferenceError(IReadOnlyList<PhaseEntry> entries, FormationEnergySet set)
+    {
+        var referenced = new HashSet<string>(set.References.Select(r => r.Symbol), StringComparer.Ordinal);
+        var missing = new SortedDictionary<string, List<(string Id, int Row)>>(StringComparer.Ordinal);
+        foreach (EntryEnergyProblem problem in set.Problems.Where(p => p.Kind == EntryEnergyProblemKind.MissingReference))
         {
-            (string symbol, List<(string Id, int Row)> needing) = missing.First();
-            string others = missing.Count > 1
-                ? $" References are also missing for {string.Join(", ", missing.Keys.Skip(1))}."
-                : string.Empty;
-            string mixing = anyFormation
-                ? " The set mixes formation and total energies; that is allowed only where every element in a total-energy entry has a reference."
-                : string.Empty;
-            throw new ThermoInputException(
-                string.Create(
-                    CultureInfo.InvariantCulture,
-                    $"No reference energy for element {symbol}: the total energies of {EntryList.Describe(needing)} need one. "
-                    + $"Add a pure-{symbol} entry with a total energy, or give an explicit reference for {symbol}.{others}{mixing}"),
-                entryId: needing[0].Id,
-                rowIndex: needing[0].Row,
-                element: symbol,
-                isMissingReference: true);
+            foreach (string symbol in entries[problem.RowIndex].Composition.Elements.Where(e => !referenced.Contains(e)))
+            {
+                if (!missing.TryGetValue(symbol, out var needing))
+                {
+                    missing[symbol] = needing = [];
+                }
+
+                needing.Add((problem.EntryId, problem.RowIndex));
+            }
         }
 
-        return resolved;
+        (string element, List<(string Id, int Row)> needers) = missing.First();
+        string others = missing.Count > 1
+            ? $" References are also missing for {string.Join(", ", missing.Keys.Skip(1))}."
+            : string.Empty;
+        string mixing = entries.Any(e => !e.IsTotalEnergy)
+            ? " The set mixes formation and total energies; that is allowed only where every element in a total-energy entry has a reference."
+            : string.Empty;
+        return new ThermoInputException(
+            string.Create(
+                CultureInfo.InvariantCulture,
+                $"No reference energy for element {element}: the total energies of {EntryList.Describe(needers)} need one. "
+                + $"Add a pure-{element} entry with a total energy, or give an explicit reference for {element}.{others}{mixing}"),
+            entryId: needers[0].Id,
+            rowIndex: needers[0].Row,
+            element: element,
+            isMissingReference: true);
     }
 }

@@ -127,7 +127,7 @@ internal sealed class HullPoint
             if (value > long.MaxValue)
             {
                 throw new ThermoInputException(
-                    $"Entry '{id}'{(rowIndex >= 0 ? $" (row {rowIndex})" : string.Empty)}: its composition needs integer amounts beyond 64 bits "
+                    $"Entry '{id}': its composition needs integer amounts beyond 64 bits "
                     + "to be written exactly on the hull's components; write it with smaller numbers.",
                     entryId: id,
                     rowIndex: rowIndex >= 0 ? rowIndex : null);

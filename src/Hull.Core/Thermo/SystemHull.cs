@@ -31,6 +31,7 @@ public sealed class SystemHull
     private readonly Lazy<IReadOnlyList<PhaseFacet>> _facets;
     private readonly Lazy<IReadOnlyList<TieLine>> _tieLines;
     private readonly Lazy<IReadOnlyList<HullPhase>> _stablePhases;
+    private readonly Lazy<SystemCoverage> _coverage;
 
     /// <summary>The hull of entries over elements (the union of the entries' elements unless given).</summary>
     /// <param name="entries">Entries whose elements lie in the system; ids unique.</param>
@@ -211,6 +212,7 @@ public sealed class SystemHull
         _facets = new Lazy<IReadOnlyList<PhaseFacet>>(BuildFacets);
         _tieLines = new Lazy<IReadOnlyList<TieLine>>(BuildTieLines);
         _stablePhases = new Lazy<IReadOnlyList<HullPhase>>(() => _hull.VertexPoints.Select(v => _points[v].Phase).ToArray());
+        _coverage = new Lazy<SystemCoverage>(BuildCoverage);
     }
 
     private static HullPoint[] MapInputs(
@@ -223,7 +225,7 @@ public sealed class SystemHull
             if (!space.TryMap(entry.Composition, out Rational[] atoms, out string failure))
             {
                 throw new ThermoInputException(
-                    $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
+                    $"Entry '{entry.Id}': {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
             }
 
             var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, axisEnergy, formation);
@@ -282,6 +284,9 @@ public sealed class SystemHull
 
     /// <summary>The elemental references used for total energies, sorted by symbol.</summary>
     public IReadOnlyList<ElementReference> References { get; }
+
+    /// <summary>Which components have entries of their own, which stand at 0 by definition, and how many compounds compete.</summary>
+    public SystemCoverage Coverage => _coverage.Value;
 
     /// <summary>Every entry's stability, in the order the entries were given.</summary>
     public IReadOnlyList<EntryStability> Entries => _entries.Value;
@@ -375,7 +380,13 @@ public sealed class SystemHull
             fromEndMembers = point.AxisEnergyEvPerAtom - corners;
         }
 
-        double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergyEvPerAtom(i) : null;
+        bool isVertex = _hull.IsVertex(i);
+        // Only a vertex carries its composition's margin; an entry that only touches the hull (an exact duplicate or a
+        // polymorph tied with the vertex, an entry inside a facet or on a coplanar face) reads 0, so that the margin
+        // is counted once and a negative value always means "a stable phase".
+        double? decompositionEnergy = above != 0.0 || point.IsPureComponent ? null
+            : isVertex ? DecompositionEnergyEvPerAtom(i)
+            : 0.0;
         return new EntryStability(
             entry,
             point.RowIndex,
@@ -386,14 +397,14 @@ public sealed class SystemHull
             fromEndMembers,
             point.Fractions,
             above,
-            _hull.IsVertex(i),
+            isVertex,
             BuildDecomposition(entry.Composition, point.ComponentAtoms, position),
             decompositionEnergy);
     }
 
     /// <summary>
     /// Decomposition energy computed the slow way, by rebuilding the whole hull without the entry's reduced
-    /// composition; a check on the fast path. Null where the fast path gives null.
+    /// composition; a check on the fast path. Null where the fast path gives null, 0 for an on-hull non-vertex.
     /// </summary>
     internal double? DecompositionEnergyByFullRebuild(string id)
     {
@@ -402,6 +413,11 @@ public sealed class SystemHull
         if (point.IsPureComponent || _hull.EnergyAboveHullEvPerAtom(i) > HullTolerances.EnergyEvPerAtom)
         {
             return null;
+        }
+
+        if (!_hull.IsVertex(i))
+        {
+            return 0.0;
         }
 
         int[] others = Enumerable.Range(0, _points.Length)
@@ -605,6 +621,39 @@ public sealed class SystemHull
         }
 
         return all;
+    }
+
+    private SystemCoverage BuildCoverage()
+    {
+        var pure = new int[_space.Names.Count];
+        int entries = 0, compounds = 0;
+        foreach (HullPoint point in _points)
+        {
+            if (point.Entry is null)
+            {
+                continue;
+            }
+
+            entries++;
+            if (point.IsPureComponent)
+            {
+                pure[point.PureComponent]++;
+            }
+            else
+            {
+                compounds++;
+            }
+        }
+
+        var components = new ComponentCoverage[pure.Length];
+        for (int k = 0; k < pure.Length; k++)
+        {
+            string name = _space.Names[k];
+            ElementReference? reference = References.FirstOrDefault(r => string.Equals(r.Symbol, name, StringComparison.Ordinal));
+            components[k] = new ComponentCoverage(name, pure[k], reference);
+        }
+
+        return new SystemCoverage(SystemName, components, entries, compounds);
     }
 
     private IReadOnlyList<PhaseFacet> BuildFacets() =>

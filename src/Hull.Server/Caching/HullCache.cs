@@ -2,6 +2,7 @@ using System.Collections.Concurrent;
 using Hull.Core.Thermo;
 using Hull.Server.Errors;
 using Hull.Server.Hosting;
+using Hull.Server.Validation;
 using Hull.Store;
 
 namespace Hull.Server.Caching;
@@ -28,8 +29,9 @@ public sealed class HullCache
     private readonly ServiceLimits _limits;
     private readonly int _maxHulls;
     private readonly ConcurrentDictionary<(string Dataset, string Fingerprint), Slot<VersionSnapshot>> _snapshots = new();
-    private readonly ConcurrentDictionary<(string Dataset, string Fingerprint, string System), Slot<CachedHull>> _hulls = new();
-    private readonly ConcurrentDictionary<(string Dataset, string Fingerprint), Slot<DatasetStabilityResult>> _analyses = new();
+    // The last key part is the caller's explicit references among the system's elements ("" for none).
+    private readonly ConcurrentDictionary<(string Dataset, string Fingerprint, string System, string References), Slot<CachedHull>> _hulls = new();
+    private readonly ConcurrentDictionary<(string Dataset, string Fingerprint, string References), Slot<DatasetStabilityResult>> _analyses = new();
     private long _clock;
 
     public HullCache(DatasetStore store, ServiceLimits limits, CacheSettings settings)
@@ -57,30 +59,34 @@ public sealed class HullCache
     /// that lies in it.
     /// </summary>
     /// <exception cref="Grpc.Core.RpcException">RESOURCE_EXHAUSTED past the component or entry limit.</exception>
-    public Task<CachedHull> GetHullAsync(VersionSnapshot snapshot, IReadOnlyList<string> elements, CancellationToken cancellation)
+    public Task<CachedHull> GetHullAsync(
+        VersionSnapshot snapshot, IReadOnlyList<string> elements, CancellationToken cancellation, ElementalReferenceList? references = null)
     {
         string system = string.Join('-', elements);
         CheckSystemLimits(snapshot, elements, system);
-        return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, system), _maxHulls, () =>
+        references ??= ElementalReferenceList.None;
+        return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, system, references.KeyFor(elements)), _maxHulls, () =>
         {
             Counters.CountHullBuild();
             IReadOnlyList<PhaseEntry> entries = snapshot.EntriesWithin(elements);
-            return new CachedHull(SystemHull.OverElements(entries, references: null, elements: elements));
+            return new CachedHull(SystemHull.OverElements(entries, references.References, elements));
         }, Counters.CountHullHit, cancellation);
     }
 
     /// <summary>The stability of every entry of the snapshot, each from the smallest maximal system that contains it.</summary>
-    public Task<DatasetStabilityResult> GetAnalysisAsync(VersionSnapshot snapshot, CancellationToken cancellation)
+    public Task<DatasetStabilityResult> GetAnalysisAsync(
+        VersionSnapshot snapshot, CancellationToken cancellation, ElementalReferenceList? references = null)
     {
+        references ??= ElementalReferenceList.None;
         foreach (IReadOnlyList<string> system in snapshot.MaximalSystems)
         {
             CheckSystemLimits(snapshot, system, string.Join('-', system));
         }
 
-        return GetOrBuild(_analyses, (snapshot.Version.Dataset, snapshot.Version.Fingerprint), MaxAnalyses, () =>
+        return GetOrBuild(_analyses, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, references.KeyFor(null)), MaxAnalyses, () =>
         {
             Counters.CountDatasetAnalysis();
-            return DatasetStability.Analyze(snapshot.Entries);
+            return DatasetStability.Analyze(snapshot.Entries, references.References);
         }, hit: null, cancellation);
     }
 

@@ -136,6 +136,7 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton(new CacheSettings(options.MaxCachedHulls));
         builder.Services.AddSingleton<VersionResolver>();
         builder.Services.AddSingleton<HullCache>();
+        builder.Services.AddSingleton<ImportGate>();
         builder.Services.AddGrpc(grpc =>
         {
             grpc.MaxReceiveMessageSize = limits.MaxReceiveMessageBytes;

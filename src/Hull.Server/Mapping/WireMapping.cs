@@ -171,5 +171,46 @@ public static class WireMapping
         Symbol = reference.Symbol,
         TotalEnergyEvPerAtom = reference.TotalEnergyEvPerAtom,
         SourceEntryId = reference.SourceEntryId ?? string.Empty,
+        GivenByCaller = reference.IsExplicit,
     };
+
+    public static Protos.V1.SystemCoverage ToWire(Core.Thermo.SystemCoverage coverage)
+    {
+        var wire = new Protos.V1.SystemCoverage
+        {
+            ChemicalSystem = coverage.HullSystem,
+            EntryCount = coverage.EntryCount,
+            CompetingPhaseCount = coverage.CompoundEntryCount,
+        };
+        foreach (ComponentCoverage component in coverage.Components.OrderBy(c => c.Name, StringComparer.Ordinal))
+        {
+            var element = new ElementCoverage
+            {
+                Symbol = component.Name,
+                PureEntryCount = component.PureEntryCount,
+                ZeroByDefinition = component.IsZeroByDefinition,
+            };
+            if (component.Reference is not null) element.Reference = ToWire(component.Reference);
+            wire.Elements.Add(element);
+        }
+
+        return wire;
+    }
+
+    /// <summary>Most entry ids listed in one system problem: enough to act on, small enough for one message.</summary>
+    public const int MaxIdsPerProblem = 1000;
+
+    public static Protos.V1.SystemProblem ToWire(Core.Thermo.SystemProblem problem)
+    {
+        var wire = new Protos.V1.SystemProblem
+        {
+            ChemicalSystem = problem.ChemicalSystem,
+            UnansweredEntryCount = problem.UnansweredEntryIds.Count,
+            Message = problem.Message,
+        };
+        wire.ElementsWithoutReference.AddRange(problem.ElementsWithoutReference);
+        wire.CauseEntryIds.AddRange(problem.Causes.Select(c => c.EntryId).Order(StringComparer.Ordinal).Take(MaxIdsPerProblem));
+        wire.UnansweredEntryIds.AddRange(problem.UnansweredEntryIds.Order(StringComparer.Ordinal).Take(MaxIdsPerProblem));
+        return wire;
+    }
 }

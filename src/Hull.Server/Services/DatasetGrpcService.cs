@@ -10,7 +10,7 @@ using Hull.Store;
 namespace Hull.Server.Services;
 
 /// <summary>The dataset service: checks each request, then delegates to the store.</summary>
-public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits)
+public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports)
     : DatasetService.DatasetServiceBase
 {
     private const string DatasetsList = "datasets";
@@ -61,6 +61,7 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         finally
         {
             versions.Forget(request.Name);
+            imports.Forget(request.Name);
         }
 
         return Task.FromResult(new DeleteDatasetResponse());
@@ -70,9 +71,24 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
     {
         (IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy) = BatchValidation.Validate(request, limits);
         context.CancellationToken.ThrowIfCancellationRequested();
-        // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
-        ImportResult result = await Task.Run(
-            () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
+        ImportResult result;
+        using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
+        {
+            long latest = store.GetLatestVersion(request.Dataset);
+            ReferenceLedger ledger = await LedgerAsync(request.Dataset, latest, context.CancellationToken);
+            (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
+                rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(request.Dataset, latest, context.CancellationToken)).Entries);
+            if (violations.Count > 0)
+            {
+                throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the batch was refused; nothing was written", violations), violations, ErrorReasons.InvalidEntry);
+            }
+
+            // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
+            result = await Task.Run(
+                () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
+            imports.Remember(request.Dataset, result.NewVersion, next);
+        }
+
         return new ImportEntriesResponse
         {
             DatasetVersion = result.NewVersion,
@@ -80,6 +96,19 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
             ReplacedCount = result.Replaced,
         };
     }
+
+    /// <summary>The reference ledger of <paramref name="version"/> (empty for none), remembered or read once.</summary>
+    private async Task<ReferenceLedger> LedgerAsync(string dataset, long version, CancellationToken cancellation)
+    {
+        if (version == DatasetStore.NoVersion) return ReferenceLedger.Empty;
+        if (imports.TryGetLedger(dataset, version, out ReferenceLedger known)) return known;
+        ReferenceLedger ledger = ReferenceLedger.Of((await SnapshotAsync(dataset, version, cancellation)).Entries);
+        imports.Remember(dataset, version, ledger);
+        return ledger;
+    }
+
+    private Task<VersionSnapshot> SnapshotAsync(string dataset, long version, CancellationToken cancellation) =>
+        cache.GetSnapshotAsync(versions.Resolve(dataset, version), cancellation);
 
     public override async Task ExportEntries(ExportEntriesRequest request, IServerStreamWriter<ExportEntriesResponse> responseStream, ServerCallContext context)
     {
@@ -137,6 +166,7 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         finally
         {
             versions.Forget(request.Dataset);
+            imports.Forget(request.Dataset);
         }
 
         return Task.FromResult(new DeleteVersionResponse());

@@ -21,6 +21,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
     public override async Task<GetEntryStabilityResponse> GetEntryStability(GetEntryStabilityRequest request, ServerCallContext context)
     {
         CheckCount(request.EntryIds.Count, "entry_ids", "entry id");
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
         var rows = new int[request.EntryIds.Count];
         for (int i = 0; i < rows.Length; i++)
@@ -34,13 +35,17 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
 
         var response = new GetEntryStabilityResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        var used = new HullsUsed();
         foreach (int row in rows)
         {
             PhaseEntry entry = snapshot.Entries[row];
-            CachedHull hull = await cache.GetHullAsync(snapshot, entry.Composition.Elements, context.CancellationToken);
+            CachedHull hull = await cache.GetHullAsync(snapshot, entry.Composition.Elements, context.CancellationToken, references);
+            used.Add(hull.Hull);
             response.Results.Add(WireMapping.ToWire(hull.StabilityOf(entry.Id), snapshot.FormulasAsStored[row]));
         }
 
+        response.Coverage.AddRange(used.Coverage);
+        response.References.AddRange(used.References);
         return response;
     }
 
@@ -59,7 +64,14 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 violations.Add(new($"candidates[{i}].energy_ev", $"the energy is {candidate.EnergyEv}; energies must be finite numbers of eV"));
             }
 
-            if (!WireMapping.TryFromWire(candidate.Basis, out bases[i]))
+            if (WireMapping.TryFromWire(candidate.Basis, out bases[i]))
+            {
+                if (compositions[i] is not null && double.IsFinite(candidate.EnergyEv) && BatchValidation.FormationRangeProblem(candidate.EnergyEv, bases[i], compositions[i]) is { } range)
+                {
+                    violations.Add(new($"candidates[{i}].energy_ev", range));
+                }
+            }
+            else
             {
                 violations.Add(new($"candidates[{i}].basis", BatchValidation.BasisProblem(candidate.Basis)));
             }
@@ -68,14 +80,30 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
 
         ThrowIfAny(violations);
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
         var response = new AssessCandidatesResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        var used = new HullsUsed();
+        var hulls = new CachedHull[compositions.Length];
+        var formations = new double[compositions.Length];
+        for (int i = 0; i < compositions.Length; i++)
+        {
+            hulls[i] = await cache.GetHullAsync(snapshot, compositions[i].Elements, context.CancellationToken, references);
+            used.Add(hulls[i].Hull);
+            formations[i] = FormationEnergyOf(request.Candidates[i], compositions[i], bases[i], hulls[i].Hull, references, i, used);
+            if (!FormationEnergyRange.Contains(formations[i]))
+            {
+                violations.Add(new($"candidates[{i}].energy_ev",
+                    $"{FormationEnergyRange.Describe(formations[i])} (implied by the total energy and the elemental references); check the number and its basis"));
+            }
+        }
+
+        ThrowIfAny(violations);
         for (int i = 0; i < compositions.Length; i++)
         {
             Candidate candidate = request.Candidates[i];
-            CachedHull hull = await cache.GetHullAsync(snapshot, compositions[i].Elements, context.CancellationToken);
-            double formation = FormationEnergyOf(candidate, compositions[i], bases[i], hull.Hull, i);
-            CandidateStability assessed = hull.Hull.Assess(compositions[i], formation);
+            CachedHull hull = hulls[i];
+            CandidateStability assessed = hull.Hull.Assess(compositions[i], formations[i]);
             response.Results.Add(new CandidateAssessment
             {
                 Label = candidate.Label,
@@ -89,6 +117,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             });
         }
 
+        response.Coverage.AddRange(used.Coverage);
+        response.References.AddRange(used.References);
         return response;
     }
 
@@ -98,12 +128,15 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         var violations = new List<FieldViolation>();
         Composition?[] compositions = request.Formulas.Select((f, i) => ParseFormula(f, $"formulas[{i}]", violations)).ToArray();
         ThrowIfAny(violations);
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
         var response = new GetHullEnergiesResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        var used = new HullsUsed();
         for (int i = 0; i < compositions.Length; i++)
         {
             Composition composition = compositions[i]!;
-            CachedHull hull = await cache.GetHullAsync(snapshot, composition.Elements, context.CancellationToken);
+            CachedHull hull = await cache.GetHullAsync(snapshot, composition.Elements, context.CancellationToken, references);
+            used.Add(hull.Hull);
             Core.Thermo.Decomposition decomposition = hull.Hull.DecompositionAt(composition);
             response.Results.Add(new HullEnergyResult
             {
@@ -114,6 +147,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             });
         }
 
+        response.Coverage.AddRange(used.Coverage);
+        response.References.AddRange(used.References);
         return response;
     }
 
@@ -122,28 +157,56 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         IReadOnlyList<string>? elements = request.ChemicalSystem.Length == 0
             ? null
             : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        IReadOnlyList<IReadOnlyList<string>> systems = elements is null ? snapshot.MaximalSystems : [elements];
-        var hulls = new List<SystemHull>(systems.Count);
-        foreach (IReadOnlyList<string> system in systems)
-        {
-            hulls.Add((await cache.GetHullAsync(snapshot, system, context.CancellationToken)).Hull);
-        }
-
         var response = new GetStablePhasesResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
             ChemicalSystem = elements is null ? string.Empty : string.Join('-', elements),
         };
-        response.Phases.AddRange(StablePhaseUnion.Of(hulls).Select(WireMapping.ToWire));
+        if (elements is not null)
+        {
+            CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
+            response.Phases.AddRange(hull.Hull.StablePhases.OrderBy(p => p.Id, StringComparer.Ordinal).Select(WireMapping.ToWire));
+            response.Coverage.Add(WireMapping.ToWire(hull.Hull.Coverage));
+            response.References.AddRange(hull.Hull.References.Select(WireMapping.ToWire));
+            return response;
+        }
+
+        // The whole dataset from its analysis: a vertex is a vertex in every hull that holds it, and the synthetic
+        // corners are the elements no hull system has an entry of. A system that cannot be analysed is reported, not
+        // fatal.
+        DatasetStabilityResult analysis = await cache.GetAnalysisAsync(snapshot, context.CancellationToken, references);
+        // Keyed by (id, is a synthetic corner): an entry whose id is an element symbol must not hide that corner.
+        var phases = new SortedDictionary<(string Id, bool Synthetic), StablePhase>();
+        foreach (Core.Thermo.EntryStability entry in analysis.Entries.Where(e => e.IsHullVertex))
+        {
+            phases[(entry.Id, false)] = new StablePhase
+            {
+                PhaseId = entry.Id,
+                Formula = entry.Composition.Formula,
+                FormationEnergyEvPerAtom = entry.AxisEnergyEvPerAtom, // the analysis hulls formation energies
+            };
+        }
+
+        foreach (string symbol in analysis.Coverage.SelectMany(c => c.ComponentsAtZeroByDefinition).Distinct())
+        {
+            phases.TryAdd((symbol, true), new StablePhase { PhaseId = symbol, Formula = symbol, IsElementalReference = true });
+        }
+
+        response.Phases.AddRange(phases.Values);
+        response.Coverage.AddRange(analysis.Coverage.Select(WireMapping.ToWire));
+        response.References.AddRange(analysis.References.Select(WireMapping.ToWire));
+        response.SystemProblems.AddRange(analysis.Problems.Select(WireMapping.ToWire));
         return response;
     }
 
     public override async Task<GetHullFacetsResponse> GetHullFacets(GetHullFacetsRequest request, ServerCallContext context)
     {
         IReadOnlyList<string> elements = ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken);
+        CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
         var response = new GetHullFacetsResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
@@ -153,29 +216,42 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         response.Facets.AddRange(hull.Hull.Facets.Select(WireMapping.ToWire));
         response.TieLines.AddRange(hull.Hull.TieLines.Select(WireMapping.ToWire));
         response.StablePhases.AddRange(hull.Hull.StablePhases.Select(WireMapping.ToWire));
+        response.Coverage.Add(WireMapping.ToWire(hull.Hull.Coverage));
+        response.References.AddRange(hull.Hull.References.Select(WireMapping.ToWire));
         return response;
     }
 
     public override async Task AnalyzeDataset(AnalyzeDatasetRequest request, IServerStreamWriter<AnalyzeDatasetResponse> responseStream, ServerCallContext context)
     {
         int pageSize = DatasetGrpcService.PageSize(request.PageSize, "page_size");
+        ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        DatasetStabilityResult analysis = await cache.GetAnalysisAsync(snapshot, context.CancellationToken);
+        DatasetStabilityResult analysis = await cache.GetAnalysisAsync(snapshot, context.CancellationToken, references);
         VersionUsed used = WireMapping.ToWire(snapshot.Version);
         int count = analysis.Entries.Count;
+        long unanswered = analysis.Problems.Sum(p => (long)p.UnansweredEntryIds.Count);
+        var coverageBySystem = analysis.Coverage.ToDictionary(c => c.HullSystem, StringComparer.Ordinal);
+        var coverageSent = new HashSet<string>(StringComparer.Ordinal);
         int start = 0;
         do
         {
-            var message = new AnalyzeDatasetResponse { Used = used, EntryCount = count };
+            var message = new AnalyzeDatasetResponse { Used = used, EntryCount = count, UnansweredEntryCount = unanswered };
             if (start == 0)
             {
                 message.HullSystems.AddRange(analysis.HullSystems);
                 message.References.AddRange(analysis.References.Select(WireMapping.ToWire));
+                message.SystemProblems.AddRange(analysis.Problems.Select(WireMapping.ToWire));
             }
 
-            for (int row = start; row < Math.Min(count, start + pageSize); row++)
+            for (int k = start; k < Math.Min(count, start + pageSize); k++)
             {
-                message.Results.Add(WireMapping.ToWire(analysis.Entries[row], snapshot.FormulasAsStored[row]));
+                Core.Thermo.EntryStability entry = analysis.Entries[k];
+                message.Results.Add(WireMapping.ToWire(entry, snapshot.FormulasAsStored[entry.RowIndex]));
+                // Once per hull system, in the message with its first result.
+                if (coverageSent.Add(entry.HullSystem) && coverageBySystem.TryGetValue(entry.HullSystem, out Core.Thermo.SystemCoverage? coverage))
+                {
+                    message.Coverage.Add(WireMapping.ToWire(coverage));
+                }
             }
 
             await responseStream.WriteAsync(message, context.CancellationToken);
@@ -225,19 +301,63 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
     }
 
-    /// <summary>The candidate's formation energy per atom; a missing elemental reference is FAILED_PRECONDITION.</summary>
-    private static double FormationEnergyOf(Candidate candidate, Composition composition, ThermoBasis basis, SystemHull hull, int index)
+    /// <summary>
+    /// The candidate's formation energy per atom. A total energy needs a reference for each of its elements: the
+    /// caller's explicit one, else the version's (the lowest pure-element total energy per atom); an element with
+    /// neither is FAILED_PRECONDITION. References taken for the candidate are recorded in <paramref name="used"/>.
+    /// </summary>
+    private static double FormationEnergyOf(
+        Candidate candidate, Composition composition, ThermoBasis basis, SystemHull hull, ElementalReferenceList explicitReferences,
+        int index, HullsUsed used)
     {
         string id = candidate.Label.Length > 0 ? candidate.Label : $"candidates[{index}]";
+        var entry = new PhaseEntry(id, composition, candidate.EnergyEv, basis);
+        if (!entry.IsTotalEnergy) return entry.EnergyEvPerAtom;
+
+        // The caller's explicit reference of an element wins over the version's; the rule itself lives in Core.
+        var references = new List<Core.Thermo.ElementReference>();
+        foreach (string element in composition.Elements)
+        {
+            if (explicitReferences.TryGet(element, out double given))
+            {
+                references.Add(new Core.Thermo.ElementReference(element, given, null));
+            }
+            else if (hull.References.FirstOrDefault(r => string.Equals(r.Symbol, element, StringComparison.Ordinal)) is { } stored)
+            {
+                references.Add(stored);
+            }
+        }
+
         try
         {
-            return FormationEnergies.OfCandidate(new PhaseEntry(id, composition, candidate.EnergyEv, basis), hull.References);
+            double formation = FormationEnergies.OfCandidate(entry, references);
+            foreach (Core.Thermo.ElementReference reference in references) used.AddReference(reference);
+            return formation;
         }
         catch (ThermoInputException e) when (e.Element is { } element)
         {
             throw RpcErrors.MissingElementalReference(element,
-                $"candidates[{index}] ({candidate.Formula}): {e.Message}",
+                $"candidates[{index}] ({candidate.Formula}): {e.Message} Give one in elemental_references (hull --reference {element}=ENERGY).",
                 [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);
         }
+    }
+
+    /// <summary>The hull systems and references an answer used, for its coverage and reference lists.</summary>
+    private sealed class HullsUsed
+    {
+        private readonly SortedDictionary<string, Core.Thermo.SystemCoverage> _coverage = new(StringComparer.Ordinal);
+        private readonly SortedDictionary<string, Core.Thermo.ElementReference> _references = new(StringComparer.Ordinal);
+
+        public void Add(SystemHull hull)
+        {
+            _coverage.TryAdd(hull.SystemName, hull.Coverage);
+            foreach (Core.Thermo.ElementReference reference in hull.References) _references.TryAdd(reference.Symbol, reference);
+        }
+
+        public void AddReference(Core.Thermo.ElementReference reference) => _references.TryAdd(reference.Symbol, reference);
+
+        public IEnumerable<Protos.V1.SystemCoverage> Coverage => _coverage.Values.Select(WireMapping.ToWire);
+
+        public IEnumerable<Protos.V1.ElementReference> References => _references.Values.Select(WireMapping.ToWire);
     }
 }

@@ -75,6 +75,10 @@ public static class BatchValidation
             {
                 violations.Add(new($"{at}.basis", BasisProblem(entry.Basis)));
             }
+            else if (composition is not null && double.IsFinite(entry.EnergyEv) && FormationRangeProblem(entry.EnergyEv, basis, composition) is { } range)
+            {
+                violations.Add(new($"{at}.energy_ev", range));
+            }
 
             if (EntryRules.CheckText(entry.Note, "note", allowLineBreaks: true) is { } entryNoteProblem)
             {
@@ -100,6 +104,24 @@ public static class BatchValidation
         }
 
         return (rows, policy);
+    }
+
+    /// <summary>
+    /// For a formation energy (per atom, or per formula unit divided by its atoms) outside
+    /// <see cref="FormationEnergyRange"/>: what is wrong; null otherwise and for total energies, whose implied
+    /// formation energy needs the references (checked against the dataset by the import's reference check).
+    /// </summary>
+    public static string? FormationRangeProblem(double energyEv, ThermoBasis basis, Composition composition)
+    {
+        double perAtom = basis switch
+        {
+            ThermoBasis.FormationPerAtom => energyEv,
+            ThermoBasis.FormationPerFormulaUnit => energyEv / composition.AtomsPerFormulaUnit.ToDouble(),
+            _ => 0.0,
+        };
+        return FormationEnergyRange.Contains(perAtom)
+            ? null
+            : $"{FormationEnergyRange.Describe(perAtom)}; check the number and its energy basis (total energies are given as total_per_atom or total_per_formula_unit)";
     }
 
     public static string BasisProblem(WireBasis basis) => basis == WireBasis.Unspecified

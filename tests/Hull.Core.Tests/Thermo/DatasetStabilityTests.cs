@@ -80,13 +80,17 @@ public sealed class DatasetStabilityTests
     }
 
     [Fact]
-    public void Dataset_errors_name_the_row()
+    public void Dataset_problems_name_the_entry_and_element_and_leave_the_rest_answered()
     {
         PhaseEntry[] entries = [.. SeveralSystems(), Entry("LiCuO", "LiCuO", -12.0, EnergyBasis.TotalPerFormulaUnit)];
-        var e = Assert.Throws<ThermoInputException>(() => DatasetStability.Analyze(entries));
-        Assert.Equal("Li", e.Element); // Li-metal is a formation-energy entry and sets no total-energy reference
-        Assert.Equal("LiCuO", e.EntryId);
-        Assert.Equal(entries.Length - 1, e.RowIndex);
+        DatasetStabilityResult result = DatasetStability.Analyze(entries);
+        SystemProblem problem = Assert.Single(result.Problems);
+        EntryEnergyProblem cause = Assert.Single(problem.Causes);
+        Assert.Equal("Li", cause.Element); // Li-metal is a formation-energy entry and sets no total-energy reference
+        Assert.Equal("LiCuO", cause.EntryId);
+        Assert.Equal(entries.Length - 1, cause.RowIndex);
+        Assert.Equal("Cu-Li-O", problem.ChemicalSystem);
+        Assert.Equal(entries.Length - 1, result.Entries.Count);
     }
 
     [Fact]

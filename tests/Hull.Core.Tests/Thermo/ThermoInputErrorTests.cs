@@ -43,12 +43,12 @@ public sealed class ThermoInputErrorTests
         PhaseEntry fe = Formation("Fe", "Fe", 0.0);
         var nullRow = Assert.Throws<ThermoInputException>(() => FormationEnergies.Compute([fe, null!]));
         Assert.Equal(1, nullRow.RowIndex);
-        Assert.Contains("Row 1 has no entry", nullRow.Message);
+        Assert.Contains("Entry 2 of the list (counting from 1) is missing", nullRow.Message);
 
         var repeated = Assert.Throws<ThermoInputException>(() => SystemHull.OverElements([fe, Formation("O", "O2", 0.0), Formation("Fe", "FeO", -1.0)]));
         Assert.Equal("Fe", repeated.EntryId);
         Assert.Equal(2, repeated.RowIndex);
-        Assert.Contains("'Fe' appears twice (rows 0 and 2)", repeated.Message);
+        Assert.Contains("'Fe' appears twice (entries 1 and 3 of the list, counting from 1)", repeated.Message);
     }
 
     [Fact]
@@ -65,7 +65,9 @@ public sealed class ThermoInputErrorTests
         Assert.Equal("hem", e.EntryId);
         Assert.Equal(1, e.RowIndex);
         Assert.Contains("No reference energy for element O", e.Message);
-        Assert.Contains("'hem' (row 1), 'mag' (row 2)", e.Message);
+        // Named by id: a 0-based position in the analysed list would mislead someone who imported a file.
+        Assert.Contains("'hem', 'mag' need one", e.Message);
+        Assert.DoesNotContain("row", e.Message);
         Assert.DoesNotContain("mixes", e.Message);
 
         // An explicit reference cures it.
@@ -113,7 +115,7 @@ public sealed class ThermoInputErrorTests
         var e = Assert.Throws<ThermoInputException>(() => SystemHull.OverElements(entries, elements: ["Fe", "O"]));
         Assert.Equal("FeS", e.EntryId);
         Assert.Equal(2, e.RowIndex);
-        Assert.Contains("Entry 'FeS' (row 2): FeS contains S, which is not in the chemical system Fe-O", e.Message);
+        Assert.Contains("Entry 'FeS': FeS contains S, which is not in the chemical system Fe-O", e.Message);
 
         var unknown = Assert.Throws<ThermoInputException>(() => SystemHull.OverElements([], elements: ["Fe", "Qq"]));
         Assert.Equal("Qq", unknown.Element);
@@ -172,7 +174,7 @@ public sealed class ThermoInputErrorTests
         var negative = Assert.Throws<ThermoInputException>(() => SystemHull.OverEndMembers([.. ok, Formation("lio", "LiO", -1.0)], basis));
         Assert.Equal("lio", negative.EntryId);
         Assert.Equal(2, negative.RowIndex);
-        Assert.Contains("Entry 'lio' (row 2): LiO needs a negative amount (-1) of end-member CoO", negative.Message);
+        Assert.Contains("Entry 'lio': LiO needs a negative amount (-1) of end-member CoO", negative.Message);
 
         // Not in the span: Li2O has the wrong Li:O ratio for any a LiCoO2 + b CoO.
         var span = Assert.Throws<ThermoInputException>(() => SystemHull.OverEndMembers([.. ok, Formation("li2o", "Li2O", -2.0)], basis));
