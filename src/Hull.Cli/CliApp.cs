@@ -12,13 +12,14 @@ namespace Hull.Cli;
 /// </summary>
 public static class CliApp
 {
-    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default)
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default, TerminalInfo? terminal = null)
     {
+        terminal ??= TerminalInfo.None;
         var options = new GlobalOptions();
         int exitCode = ExitCodes.Ok;
         RootCommand root = CommandTree.Build(options, (body) => async (parse, token) =>
         {
-            var context = new CliContext(parse, stdout, stderr, options);
+            var context = new CliContext(parse, stdout, stderr, options, terminal);
             try
             {
                 exitCode = await body(context, token);

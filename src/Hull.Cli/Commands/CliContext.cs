@@ -5,7 +5,7 @@ using Hull.Cli.Output;
 namespace Hull.Cli.Commands;
 
 /// <summary>What a command's action needs: the parsed values, the output streams and format, and the server.</summary>
-public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter stderr, GlobalOptions options)
+public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter stderr, GlobalOptions options, TerminalInfo terminal)
 {
     private HullConnection? _connection;
 
@@ -14,6 +14,8 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
     public TextWriter Out { get; } = stdout;
 
     public TextWriter Err { get; } = stderr;
+
+    public TerminalInfo Terminal { get; } = terminal;
 
     public OutputFormat Format { get; } = parse.GetValue(options.Json) ? OutputFormat.Json
         : parse.GetValue(options.Csv) ? OutputFormat.Csv

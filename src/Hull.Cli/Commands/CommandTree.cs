@@ -118,7 +118,7 @@ public static class CommandTree
         onDuplicate.AcceptOnlyFromAmong("reject", "replace");
         var batchSize = new Option<int>("--batch-size")
         {
-            Description = $"entries per batch; each batch is one all-or-nothing version (default {ImportRunner.DefaultBatchSize})",
+            Description = "entries per call to the server; the whole import is still one version",
             DefaultValueFactory = _ => ImportRunner.DefaultBatchSize,
             Validators =
             {
@@ -129,9 +129,9 @@ public static class CommandTree
                 },
             },
         };
-        var note = new Option<string>("--note") { Description = "note recorded with each version", DefaultValueFactory = _ => string.Empty };
+        var note = new Option<string>("--note") { Description = "note recorded with the version", DefaultValueFactory = _ => string.Empty };
         var create = new Option<bool>("--create") { Description = "create the dataset first if it does not exist" };
-        var import = new Command("import", "import entries from files, in batches; each batch becomes a new dataset version")
+        var import = new Command("import", "import entries from files as one new dataset version: all of them or, on any error or interruption, none")
         {
             dataset, files, onDuplicate, batchSize, note, create,
         };
@@ -147,28 +147,12 @@ public static class CommandTree
 
             if (c.Get(create)) await EnsureDatasetAsync(c, name, t);
             DuplicatePolicy policy = c.Get(onDuplicate) == "replace" ? DuplicatePolicy.Replace : DuplicatePolicy.Reject;
-            var runner = new ImportRunner(c.Server, c.Err, showProgress: !c.Quiet);
-            var outcomes = new List<ImportRunner.BatchOutcome>();
-            foreach (var input in inputs)
-            {
-                outcomes.AddRange(await runner.ImportAsync(name, input.Path, input.Records, policy, c.Get(batchSize), c.Get(note)!, t));
-            }
-
-            if (c.Format == OutputFormat.Json)
-            {
-                ProtoJson.WriteArray(c.Out, outcomes.Select(o => o.Response));
-            }
-            else
-            {
-                var table = new Table("file", "first_entry", "entries", "version", "inserted", "replaced");
-                foreach (var o in outcomes)
-                {
-                    table.Add(Path.GetFileName(o.File), o.FirstRecord + 1, o.Rows, o.Response.DatasetVersion, o.Response.InsertedCount, o.Response.ReplacedCount);
-                }
-
-                TableRenderer.Write(c.Out, table, c.Format);
-            }
-
+            var runner = new ImportRunner(c.Server, c.Err, showProgress: !c.Quiet, progressIsTerminal: c.Terminal.ErrorIsTerminal);
+            ImportRunner.ImportOutcome outcome = await runner.ImportAsync(
+                name, [.. inputs.Select(i => new ImportRunner.ImportInput(i.Path, i.Records))], policy, c.Get(batchSize), c.Get(note)!, t);
+            c.Emit(outcome.Response, () => new Table("files", "entries", "batches", "version", "inserted", "replaced").Add(
+                string.Join(", ", outcome.Inputs.Select(i => Path.GetFileName(i.Path))), outcome.Entries, outcome.Batches,
+                outcome.Response.DatasetVersion, outcome.Response.InsertedCount, outcome.Response.ReplacedCount));
             return ExitCodes.Ok;
         }));
         return import;

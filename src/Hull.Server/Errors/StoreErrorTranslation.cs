@@ -20,8 +20,11 @@ public static class StoreErrorTranslation
         DatasetNotFoundException e => RpcErrors.NotFound(e.Message, datasetField),
         VersionNotFoundException e => RpcErrors.NotFound(e.Message, "version"),
         DatasetAlreadyExistsException e => RpcErrors.AlreadyExists(e.Message, datasetField),
-        DuplicateEntryException { ExistingVersion: not null } e =>
-            RpcErrors.AlreadyExists(e.Message + "; choose the replace duplicate policy to supersede it", RowField(e)),
+        DuplicateEntryException { ExistingVersion: not null } e => RpcErrors.WithViolations(StatusCode.AlreadyExists,
+            e.Message + "; choose the replace duplicate policy to supersede it", [new FieldViolation(RowField(e), e.Message)]),
+        DuplicateEntryException { FirstRowIndex: null } e => RpcErrors.WithViolations(StatusCode.AlreadyExists,
+            e.Message, [new FieldViolation(RowField(e), e.Message)]),
+        ImportSessionNotFoundException e => RpcErrors.NotFound(e.Message, "session_id"),
         InvalidBatchException e => e.RowIndex is null
             ? RpcErrors.InvalidArgument("entries", e.Message)
             : RpcErrors.InvalidArgument(e.Message, [new FieldViolation(RowField(e), e.Message)]),

@@ -127,6 +127,8 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton(new CacheSettings(options.MaxCachedHulls));
         builder.Services.AddSingleton<VersionResolver>();
         builder.Services.AddSingleton<HullCache>();
+        builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
+        builder.Services.AddHostedService<ImportSessionSweeper>();
         builder.Services.AddGrpc(grpc =>
         {
             grpc.MaxReceiveMessageSize = limits.MaxReceiveMessageBytes;

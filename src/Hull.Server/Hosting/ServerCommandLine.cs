@@ -26,6 +26,7 @@ public static class ServerCommandLine
           --max-entries-per-system N      default 50000
           --max-compositions-per-request N  default 1000
           --max-message-bytes N           largest request message (default 16777216)
+          --import-expiry-seconds N       an import session not named by any call this long is removed with its staged rows (default 600)
           --log-level LEVEL               Trace, Debug, Information, Warning, Error (default Information)
           --help                          show this text
 
@@ -41,7 +42,7 @@ public static class ServerCommandLine
         string[] known =
         [
             "--data-dir", "--host", "--port", "--tls-cert", "--tls-key", "--write-token", "--max-components-per-system",
-            "--max-entries-per-system", "--max-compositions-per-request", "--max-message-bytes", "--log-level",
+            "--max-entries-per-system", "--max-compositions-per-request", "--max-message-bytes", "--import-expiry-seconds", "--log-level",
         ];
         for (int i = 0; i < args.Count; i++)
         {
@@ -108,8 +109,10 @@ public static class ServerCommandLine
 
             string? token = values.GetValueOrDefault("--write-token") ?? Environment.GetEnvironmentVariable(WriteTokenVariable);
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
+            int expirySeconds = PositiveInt(values, "--import-expiry-seconds", (int)ImportSessionSettings.DefaultIdleExpiry.TotalSeconds);
             return new HullServerOptions
             {
+                ImportIdleExpiry = TimeSpan.FromSeconds(expirySeconds),
                 DataDirectory = values.GetValueOrDefault("--data-dir") ?? Path.Combine(Environment.CurrentDirectory, "hull-data"),
                 BindAddress = host,
                 Port = port,
