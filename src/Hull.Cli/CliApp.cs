@@ -19,7 +19,7 @@ public static class CliApp
         int exitCode = ExitCodes.Ok;
         RootCommand root = CommandTree.Build(options, (body) => async (parse, token) =>
         {
-            var context = new CliContext(parse, stdout, stderr, options, terminal);
+            var context = new CliContext(parse, stdout, stderr, options, terminal) { Cancellation = token };
             try
             {
                 exitCode = await body(context, token);
@@ -67,6 +67,9 @@ public static class CliApp
             case ImportRunner.BatchRefusedException refused:
                 context.Err.WriteLine($"hull: {refused.Message}");
                 return RpcFailure.ExitCodeOf(refused.Cause);
+            case RpcException { StatusCode: StatusCode.Cancelled } when context.Cancellation.IsCancellationRequested:
+                context.Err.WriteLine("hull: cancelled");
+                return ExitCodes.InternalError;
             case RpcException rpc:
                 context.Err.WriteLine($"hull: {RpcFailure.Describe(rpc, context.ServerAddress)}");
                 return RpcFailure.ExitCodeOf(rpc);

@@ -17,6 +17,9 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     public TerminalInfo Terminal { get; } = terminal;
 
+    /// <summary>The command's cancellation (Ctrl+C), to tell a cancel from a server's own Cancelled answer.</summary>
+    public CancellationToken Cancellation { get; init; }
+
     public OutputFormat Format { get; } = parse.GetValue(options.Json) ? OutputFormat.Json
         : parse.GetValue(options.Csv) ? OutputFormat.Csv
         : OutputFormat.Table;
