@@ -84,7 +84,7 @@ public sealed partial class DatasetStore
                 {
                     // Only an open row of the same id can collide: repeats inside the batch were refused before.
                     throw new DuplicateEntryException(
-                        $"id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}",
+                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}",
                         i, row.Id, firstRowIndex: null, existingVersion: previous?.Version);
                 }
             }

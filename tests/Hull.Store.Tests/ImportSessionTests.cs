@@ -136,22 +136,28 @@ public sealed class ImportSessionTests : IDisposable
     }
 
     [Fact]
-    public void A_repeated_id_fails_its_batch_whether_staged_before_or_stored_and_the_session_keeps_its_earlier_batches()
+    public void A_repeated_or_stored_id_fails_the_commit_naming_its_place_in_the_session_and_writes_nothing()
     {
         _store.ImportBatch("d", [Rows.Make("stored")], DuplicatePolicy.Reject, BatchProvenance.None);
-        ImportSessionInfo session = _store.BeginImport("d", DuplicatePolicy.Reject, BatchProvenance.None, Idle);
-        _store.StageBatch(session.SessionId, [Rows.Make("p"), Rows.Make("q")], Idle);
+        ImportSessionInfo repeats = _store.BeginImport("d", DuplicatePolicy.Replace, BatchProvenance.None, Idle);
+        _store.StageBatch(repeats.SessionId, [Rows.Make("p"), Rows.Make("q")], Idle);
+        _store.StageBatch(repeats.SessionId, [Rows.Make("r"), Rows.Make("q")], Idle);
 
-        var again = Assert.Throws<DuplicateEntryException>(() => _store.StageBatch(session.SessionId, [Rows.Make("r"), Rows.Make("q")], Idle));
-        Assert.Equal((1, "q"), (again.RowIndex, again.EntryId));
-        Assert.Contains("already staged in this import as its entry 2", again.Message);
+        var again = Assert.Throws<DuplicateEntryException>(() => _store.CommitImport(repeats.SessionId));
+        Assert.Equal((3, "q", (int?)1), (again.RowIndex, again.EntryId, again.FirstRowIndex));
+        Assert.Contains("repeats entry 2 of this import", again.Message);
 
-        var stored = Assert.Throws<DuplicateEntryException>(() => _store.StageBatch(session.SessionId, [Rows.Make("s"), Rows.Make("stored")], Idle));
+        ImportSessionInfo clash = _store.BeginImport("d", DuplicatePolicy.Reject, BatchProvenance.None, Idle);
+        _store.StageBatch(clash.SessionId, [Rows.Make("s"), Rows.Make("stored")], Idle);
+        var stored = Assert.Throws<DuplicateEntryException>(() => _store.CommitImport(clash.SessionId));
         Assert.Equal((1, "stored", 1L), (stored.RowIndex, stored.EntryId, stored.ExistingVersion));
 
-        Assert.Equal(2, _store.ListImports("d").Single().StagedCount);
-        Assert.Equal(new ImportResult(2, 2, 0), _store.CommitImport(session.SessionId));
-        Assert.Equal(["p", "q", "stored"], _store.GetEntries("d", 2).Select(r => r.Id));
+        Assert.Single(_store.ListVersions("d"));
+        Rows.AssertSame([Rows.Make("stored")], _store.GetEntries("d"));
+        Assert.Equal([4L, 2L], _store.ListImports("d").Select(s => s.StagedCount));
+        _store.CancelImport(repeats.SessionId);
+        _store.CancelImport(clash.SessionId);
+        Assert.Equal(0, _store.CountStagedRows());
     }
 
     [Fact]

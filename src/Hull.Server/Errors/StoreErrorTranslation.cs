@@ -21,9 +21,7 @@ public static class StoreErrorTranslation
         VersionNotFoundException e => RpcErrors.NotFound(e.Message, "version"),
         DatasetAlreadyExistsException e => RpcErrors.AlreadyExists(e.Message, datasetField),
         DuplicateEntryException { ExistingVersion: not null } e => RpcErrors.WithViolations(StatusCode.AlreadyExists,
-            e.Message + "; choose the replace duplicate policy to supersede it", [new FieldViolation(RowField(e), e.Message)]),
-        DuplicateEntryException { FirstRowIndex: null } e => RpcErrors.WithViolations(StatusCode.AlreadyExists,
-            e.Message, [new FieldViolation(RowField(e), e.Message)]),
+            e.Message + "; choose the replace duplicate policy to supersede it", [new FieldViolation(RowField(e), WithoutRowPrefix(e))]),
         ImportSessionNotFoundException e => RpcErrors.NotFound(e.Message, "session_id"),
         InvalidBatchException e => e.RowIndex is null
             ? RpcErrors.InvalidArgument("entries", e.Message)
@@ -33,6 +31,13 @@ public static class StoreErrorTranslation
             + (e.Element is null ? string.Empty : $" (element {e.Element})")),
         _ => null,
     };
+
+    /// <summary>The Store's message without its leading "row i: ", which the field path already says.</summary>
+    private static string WithoutRowPrefix(InvalidBatchException e)
+    {
+        string prefix = $"row {e.RowIndex}: ";
+        return e.Message.StartsWith(prefix, StringComparison.Ordinal) ? e.Message[prefix.Length..] : e.Message;
+    }
 
     private static string RowField(InvalidBatchException e)
     {

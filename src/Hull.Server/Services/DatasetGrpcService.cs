@@ -98,11 +98,13 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
         {
             result = await Task.Run(() => store.CommitImport(request.SessionId));
         }
-        catch (DuplicateEntryException e) when (e.ExistingVersion is not null)
+        catch (DuplicateEntryException e)
         {
             // At commit the row is named by its place in the whole session, not in a request's entries.
-            throw RpcErrors.WithViolations(StatusCode.AlreadyExists, e.Message + "; choose the replace duplicate policy to supersede it",
-                [new FieldViolation($"staged[{e.RowIndex}].id", e.Message)]);
+            var violation = new FieldViolation($"staged[{e.RowIndex}].id", e.Message);
+            throw e.ExistingVersion is null
+                ? RpcErrors.InvalidArgument(e.Message, [violation])
+                : RpcErrors.WithViolations(StatusCode.AlreadyExists, e.Message + "; choose the replace duplicate policy to supersede it", [violation]);
         }
 
         return new ImportEntriesResponse

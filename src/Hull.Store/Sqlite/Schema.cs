@@ -69,11 +69,13 @@ internal static class Schema
             ALTER TABLE dataset_versions ADD COLUMN content_sha256 TEXT NULL;
             """),
         new(3, "import sessions: batches staged apart from the entries, committed together as one version", """
-            -- An open import: its batches wait in staged_entries, invisible to every read, until the commit moves them
-            -- into entries as one version. Expired sessions are removed with their rows (times in Unix milliseconds,
-            -- compared as numbers).
+            -- An open import: its batches wait in a table of its own, staged_<session_key>, invisible to every read,
+            -- until the commit moves them into entries as one version and drops the table. A table per session keeps
+            -- staging to plain appends (no index to maintain) and makes removal one DROP. Expired sessions are removed
+            -- with their tables (times in Unix milliseconds, compared as numbers).
             CREATE TABLE import_sessions (
-                session_id        TEXT PRIMARY KEY,
+                session_key       INTEGER PRIMARY KEY AUTOINCREMENT,
+                session_id        TEXT NOT NULL UNIQUE,
                 dataset_id        INTEGER NOT NULL REFERENCES datasets (dataset_id) ON DELETE CASCADE,
                 duplicate_policy  TEXT NOT NULL CHECK (duplicate_policy IN ('reject', 'replace')),
                 source_label      TEXT NOT NULL,
@@ -81,24 +83,9 @@ internal static class Schema
                 started_at_utc    TEXT NOT NULL,
                 expires_at_ms     INTEGER NOT NULL,
                 staged_count      INTEGER NOT NULL DEFAULT 0
-            ) WITHOUT ROWID;
+            );
 
             CREATE INDEX import_sessions_by_dataset ON import_sessions (dataset_id);
-
-            -- seq: the row's 0-based position in the whole session, so a refusal at commit can name it.
-            CREATE TABLE staged_entries (
-                session_id   TEXT NOT NULL REFERENCES import_sessions (session_id) ON DELETE CASCADE,
-                seq          INTEGER NOT NULL,
-                entry_id     TEXT NOT NULL,
-                formula      TEXT NOT NULL,
-                energy_ev    REAL NOT NULL,
-                energy_basis TEXT NOT NULL,
-                metadata     TEXT NOT NULL,
-                PRIMARY KEY (session_id, seq)
-            ) WITHOUT ROWID;
-
-            -- An id is staged at most once per session.
-            CREATE UNIQUE INDEX staged_entries_by_id ON staged_entries (session_id, entry_id);
             """),
     ];
 
