@@ -27,27 +27,48 @@ public static class RpcFailure
     public static IReadOnlyList<BadRequest.Types.FieldViolation> ViolationsOf(RpcException error) =>
         error.GetRpcStatus()?.GetDetail<BadRequest>()?.FieldViolations.ToArray() ?? [];
 
-    /// <summary>Whether the call failed in the TLS handshake because the server's certificate was refused.</summary>
-    private static bool IsCertificateFailure(RpcException error)
+    /// <summary>Whether the call failed in the TLS handshake (a refused certificate, or a server that does not speak TLS).</summary>
+    private static bool IsCertificateFailure(RpcException error) => HandshakeFailure(error) is not null;
+
+    /// <summary>The TLS handshake's own error, when the call failed there.</summary>
+    private static System.Security.Authentication.AuthenticationException? HandshakeFailure(RpcException error)
     {
         for (Exception? e = error.Status.DebugException; e is not null; e = e.InnerException)
         {
-            if (e is System.Security.Authentication.AuthenticationException) return true;
+            if (e is System.Security.Authentication.AuthenticationException handshake) return handshake;
         }
-        return false;
+        return null;
+    }
+
+    /// <summary>What the connection itself reported ("Connection refused (127.0.0.1:50551)"), without the client
+    /// library's wrapping and exception type names.</summary>
+    private static string TransportDetail(RpcException error)
+    {
+        Exception? innermost = error.Status.DebugException;
+        while (innermost?.InnerException is not null) innermost = innermost.InnerException;
+        return innermost?.Message is { Length: > 0 } message ? message : error.Status.Detail;
     }
 
     public static string Describe(RpcException error, Uri address)
     {
-        if (IsCertificateFailure(error))
+        if (HandshakeFailure(error) is { } handshake)
         {
-            return $"the hull server at {address} presented a certificate this client does not trust: {error.Status.Detail}. " +
+            // A refused certificate says so ("The remote certificate is invalid ..."); a plain-text server answers the
+            // TLS hello with bytes that are no TLS record, which the handshake reports as a bad frame.
+            if (!handshake.Message.Contains("certificate", StringComparison.OrdinalIgnoreCase))
+            {
+                var plain = new UriBuilder(address) { Scheme = Uri.UriSchemeHttp, Port = address.Port };
+                return $"no TLS connection to the hull server at {address}: the server did not answer in TLS ({handshake.Message.TrimEnd('.')}). " +
+                       $"A server started without --tls-cert serves plain text: use {plain.Uri.ToString().TrimEnd('/')}";
+            }
+
+            return $"the hull server at {address} presented a certificate this client does not trust ({handshake.Message.TrimEnd('.')}). " +
                    "For a private CA or a self-signed server certificate, pass its PEM file with --ca-file (or HULL_CA_FILE).";
         }
 
         if (error.StatusCode == StatusCode.Unavailable)
         {
-            return $"cannot reach the hull server at {address}: {error.Status.Detail}. " +
+            return $"cannot reach the hull server at {address}: {TransportDetail(error).TrimEnd('.')}. " +
                    "Is it running? Start one with `hull serve`, or point --server (or HULL_SERVER) at it.";
         }
 

@@ -26,7 +26,7 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     public bool Quiet => Parse.GetValue(options.Quiet);
 
-    public Uri ServerAddress => new(Parse.GetValue(options.Server)!);
+    public Uri ServerAddress => new(options.ServerText(Parse));
 
     public T? Get<T>(Option<T> option) => Parse.GetValue(option);
 
@@ -34,12 +34,12 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     /// <summary>The connection to --server, opened on first use.</summary>
     public HullConnection Server => _connection ??= new HullConnection(
-        ServerAddress, Parse.GetValue(options.Token), TimeSpan.FromSeconds(Parse.GetValue(options.TimeoutSeconds)), Trust());
+        ServerAddress, options.TokenText(Parse), options.Timeout(Parse), Trust());
 
     /// <summary>The --ca-file certificates, or null; only an https:// server has certificates to check.</summary>
     private ServerTrust? Trust()
     {
-        string? path = Parse.GetValue(options.CaFile);
+        string? path = options.CaFileText(Parse);
         if (path is null) return null;
         if (ServerAddress.Scheme != Uri.UriSchemeHttps)
         {
