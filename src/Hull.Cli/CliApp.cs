@@ -82,7 +82,7 @@ public static class CliApp
                 context.Err.WriteLine("hull: cancelled");
                 return ExitCodes.InternalError;
             default:
-                context.Err.WriteLine($"hull: unexpected failure: {error.GetType().Name}: {error.Message}");
+                context.Err.WriteLine($"hull: unexpected failure: {error.Message}");
                 return ExitCodes.InternalError;
         }
     }
