@@ -36,6 +36,9 @@ public sealed record BenchOptions
     /// <summary>Also run the queries with the version pinned (no "latest version" lookup), to see that lookup's cost.</summary>
     public bool PinnedVersionRuns { get; init; } = true;
 
+    /// <summary>Only compare the two ways to import (a call per batch, one session), repetitions interleaved; prints only.</summary>
+    public bool ImportOnly { get; init; }
+
     /// <summary>Folder for server traces (dotnet-trace) under 64-client load; null = no trace.</summary>
     public string? TraceDirectory { get; init; }
 
@@ -53,6 +56,7 @@ public sealed record BenchOptions
           --channels N         gRPC channels shared by the clients (default 1)
           --clients A,B,C      client counts (default 1,8,64)
           --no-pinned          skip the pinned-version runs
+          --import-only        only the import, per-batch calls against one session side by side (--reps times, interleaved); prints only
           --trace DIR          after the measurements, trace the server for 10 s under 64 clients of each query kind
           --output FILE        write the results (default bench/SERVICE.md for a full run; nothing for --quick)
         """;
@@ -80,6 +84,7 @@ public sealed record BenchOptions
                 "--channels" => options with { Channels = Positive(Value(), "--channels") },
                 "--clients" => options with { ClientCounts = Value().Split(',').Select(c => Positive(c, "--clients")).ToArray() },
                 "--no-pinned" => options with { PinnedVersionRuns = false },
+                "--import-only" => options with { ImportOnly = true, OutputPath = null },
                 "--trace" => options with { TraceDirectory = Path.GetFullPath(Value()) },
                 "--output" => options with { OutputPath = Path.GetFullPath(Value()) },
                 _ => throw new FormatException($"unknown option '{args[i]}'"),

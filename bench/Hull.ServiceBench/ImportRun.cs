@@ -61,5 +61,55 @@ public static class ImportRun
             serverCpu / seconds, ProcFiles.LoadAverage1Minute());
     }
 
+    /// <summary>
+    /// Creates <paramref name="dataset"/> and imports <paramref name="entries"/> as one import session: BeginImport, one
+    /// StageEntries call per batch of <paramref name="batchSize"/>, CommitImport (one new version). Timed like
+    /// <see cref="RunAsync"/>, the commit counted in the wall time and in the last batch.
+    /// </summary>
+    public static async Task<ImportSample> RunSessionAsync(
+        DatasetService.DatasetServiceClient datasets, string dataset, IReadOnlyList<Entry> entries, int batchSize, ServerProcess server)
+    {
+        await datasets.CreateDatasetAsync(
+            new CreateDatasetRequest { Name = dataset, Description = "invented entries for the service benchmark" },
+            deadline: DateTime.UtcNow + CallDeadline);
+        int batches = (entries.Count + batchSize - 1) / batchSize;
+        var batchTicks = new long[batches];
+        double cpu0 = server.CpuSeconds();
+        long start = Stopwatch.GetTimestamp();
+        ImportSession session = await datasets.BeginImportAsync(
+            new BeginImportRequest { Dataset = dataset, DuplicatePolicy = DuplicatePolicy.Reject, SourceLabel = "bench-session", Note = "service benchmark import" },
+            deadline: DateTime.UtcNow + CallDeadline);
+        for (int b = 0; b < batches; b++)
+        {
+            long t0 = Stopwatch.GetTimestamp();
+            var request = new StageEntriesRequest { SessionId = session.SessionId };
+            int from = b * batchSize;
+            for (int i = from; i < Math.Min(entries.Count, from + batchSize); i++) request.Entries.Add(entries[i]);
+            await datasets.StageEntriesAsync(request, deadline: DateTime.UtcNow + CallDeadline);
+            if (b == batches - 1)
+            {
+                ImportEntriesResponse committed = await datasets.CommitImportAsync(
+                    new CommitImportRequest { SessionId = session.SessionId }, deadline: DateTime.UtcNow + CallDeadline);
+                if (committed.InsertedCount != entries.Count || committed.DatasetVersion != 1)
+                {
+                    throw new InvalidOperationException($"session: inserted {committed.InsertedCount} of {entries.Count} as version {committed.DatasetVersion}");
+                }
+            }
+
+            batchTicks[b] = Stopwatch.GetTimestamp() - t0;
+        }
+
+        double seconds = Stopwatch.GetElapsedTime(start).TotalSeconds;
+        double serverCpu = server.CpuSeconds() - cpu0;
+        int tenth = Math.Max(1, batches / 10);
+        double EntriesPerSecond(IEnumerable<long> ticks) => tenth * (double)batchSize / (ticks.Sum() / (double)Stopwatch.Frequency);
+        long[] sorted = batchTicks.Order().ToArray();
+        return new ImportSample(
+            entries.Count, batches, seconds, entries.Count / seconds,
+            QueryLoadMilliseconds(QueryLoad.Percentile(sorted, 0.5)), QueryLoadMilliseconds(sorted[^1]),
+            EntriesPerSecond(batchTicks.Take(tenth)), EntriesPerSecond(batchTicks.Skip(batches - tenth)),
+            serverCpu / seconds, ProcFiles.LoadAverage1Minute());
+    }
+
     private static double QueryLoadMilliseconds(long ticks) => ticks * 1000.0 / Stopwatch.Frequency;
 }

@@ -59,6 +59,14 @@ try
         HttpHandler = new SocketsHttpHandler { EnableMultipleHttp2Connections = true },
     })).ToArray();
     var datasets = new DatasetService.DatasetServiceClient(channels[0]);
+    if (options.ImportOnly)
+    {
+        Console.WriteLine(await ImportComparison.RunAsync(datasets, options, server));
+        foreach (GrpcChannel channel in channels) channel.Dispose();
+        server.Stop();
+        return 0;
+    }
+
     var diagnostics = new DiagnosticsService.DiagnosticsServiceClient(channels[0]);
     StabilityService.StabilityServiceClient[] stability = channels.Select(c => new StabilityService.StabilityServiceClient(c)).ToArray();
 

@@ -13,13 +13,14 @@ namespace Hull.Cli;
 /// </summary>
 public static class CliApp
 {
-    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default)
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default, TerminalInfo? terminal = null)
     {
+        terminal ??= TerminalInfo.None;
         var options = new GlobalOptions();
         int exitCode = ExitCodes.Ok;
         RootCommand root = CommandTree.Build(options, (body) => async (parse, token) =>
         {
-            var context = new CliContext(parse, stdout, stderr, options);
+            var context = new CliContext(parse, stdout, stderr, options, terminal) { Cancellation = token };
             try
             {
                 exitCode = await body(context, token);
@@ -72,6 +73,9 @@ public static class CliApp
             case RequestRefusal.RefusedException refused:
                 context.Err.WriteLine($"hull: {refused.Message}");
                 return RpcFailure.ExitCodeOf(refused.Cause);
+            case RpcException { StatusCode: StatusCode.Cancelled } when context.Cancellation.IsCancellationRequested:
+                context.Err.WriteLine("hull: cancelled");
+                return ExitCodes.InternalError;
             case RpcException rpc:
                 context.Err.WriteLine(context.Format == OutputFormat.Json
                     ? RpcFailure.DescribeJson(rpc, context.ServerAddress)
@@ -81,7 +85,7 @@ public static class CliApp
                 context.Err.WriteLine("hull: cancelled");
                 return ExitCodes.InternalError;
             default:
-                context.Err.WriteLine($"hull: unexpected failure: {error.GetType().Name}: {error.Message}");
+                context.Err.WriteLine($"hull: unexpected failure: {error.Message}");
                 return ExitCodes.InternalError;
         }
     }

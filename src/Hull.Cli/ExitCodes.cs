@@ -34,4 +34,7 @@ public static class ExitCodes
 
     /// <summary>The server failed (internal error, unimplemented, data loss).</summary>
     public const int ServerError = 9;
+
+    /// <summary>A deletion asked for confirmation on the terminal and was not confirmed; nothing was changed.</summary>
+    public const int NotConfirmed = 10;
 }

@@ -1,4 +1,5 @@
 using Hull.Cli;
+using Hull.Cli.Commands;
 
 using var cancel = new CancellationTokenSource();
 Console.CancelKeyPress += (_, e) =>
@@ -6,4 +7,4 @@ Console.CancelKeyPress += (_, e) =>
     e.Cancel = true;
     cancel.Cancel();
 };
-return await CliApp.RunAsync(args, Console.Out, Console.Error, cancel.Token);
+return await CliApp.RunAsync(args, Console.Out, Console.Error, cancel.Token, TerminalInfo.OfConsole());

@@ -78,6 +78,8 @@ public sealed partial class DatasetStore
         {
             using SqliteCommand delete = connection.Command(transaction, "DELETE FROM datasets WHERE name = $n").With("$n", name);
             if (delete.ExecuteNonQuery() == 0) throw new DatasetNotFoundException(name);
+            // The cascade removed the dataset's open import sessions; their staging tables go with them.
+            foreach (long key in OrphanStagingKeys(connection, transaction)) DropStagingTable(connection, transaction, key);
             return 0;
         });
     }

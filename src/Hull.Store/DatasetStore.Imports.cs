@@ -22,10 +22,7 @@ public sealed partial class DatasetStore
     {
         DatasetName.Validate(datasetName);
         ArgumentNullException.ThrowIfNull(provenance);
-        if (policy is not (DuplicatePolicy.Reject or DuplicatePolicy.Replace))
-        {
-            throw new ArgumentOutOfRangeException(nameof(policy), policy, "not a defined duplicate policy");
-        }
+        CheckPolicy(policy);
         ArgumentNullException.ThrowIfNull(rows);
         // A private copy: what was validated is exactly what gets written, whatever the caller does with its list.
         EntryRow[] batch = [.. rows];
@@ -87,30 +84,38 @@ public sealed partial class DatasetStore
                 {
                     // Only an open row of the same id can collide: repeats inside the batch were refused before.
                     throw new DuplicateEntryException(
-                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}; " +
-                        "import with the replace policy to supersede it",
+                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}",
                         i, row.Id, firstRowIndex: null, existingVersion: previous?.Version);
                 }
             }
 
-            using (SqliteCommand version = connection.Command(transaction, """
-                       INSERT INTO dataset_versions (dataset_id, version, committed_at_utc, source_label, note,
-                                                     batch_entry_count, inserted, replaced, entry_count)
-                       VALUES ($d, $v, $t, $source, $note, $count, $inserted, $replaced, $entries)
-                       """))
-            {
-                version.With("$d", dataset.DatasetId).With("$v", newVersion).With("$t", UtcText.Write(now))
-                    .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
-                    .With("$count", batch.Length).With("$inserted", inserted).With("$replaced", replaced)
-                    .With("$entries", (previous?.EntryCount ?? 0) + inserted);
-                version.ExecuteNonQuery();
-            }
-            using (SqliteCommand issue = connection.Command(transaction,
-                       "UPDATE datasets SET last_version_issued = $v WHERE dataset_id = $d"))
-            {
-                issue.With("$v", newVersion).With("$d", dataset.DatasetId).ExecuteNonQuery();
-            }
+            IssueVersion(connection, transaction, dataset.DatasetId, newVersion, now, provenance, batch.Length, inserted, replaced,
+                (previous?.EntryCount ?? 0) + inserted);
             return new ImportResult(newVersion, inserted, replaced);
         });
+    }
+
+    /// <summary>Records a new version with its provenance and counts, and marks its number as issued.</summary>
+    private static void IssueVersion(
+        SqliteConnection connection, SqliteTransaction transaction, long datasetId, long newVersion, DateTimeOffset now,
+        BatchProvenance provenance, int batchCount, int inserted, int replaced, long entryCount)
+    {
+        using (SqliteCommand version = connection.Command(transaction, """
+                   INSERT INTO dataset_versions (dataset_id, version, committed_at_utc, source_label, note,
+                                                 batch_entry_count, inserted, replaced, entry_count)
+                   VALUES ($d, $v, $t, $source, $note, $count, $inserted, $replaced, $entries)
+                   """))
+        {
+            version.With("$d", datasetId).With("$v", newVersion).With("$t", UtcText.Write(now))
+                .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
+                .With("$count", batchCount).With("$inserted", inserted).With("$replaced", replaced)
+                .With("$entries", entryCount);
+            version.ExecuteNonQuery();
+        }
+        using (SqliteCommand issue = connection.Command(transaction,
+                   "UPDATE datasets SET last_version_issued = $v WHERE dataset_id = $d"))
+        {
+            issue.With("$v", newVersion).With("$d", datasetId).ExecuteNonQuery();
+        }
     }
 }

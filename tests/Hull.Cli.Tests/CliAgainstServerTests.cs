@@ -52,6 +52,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         Assert.Equal(0, import.ExitCode);
         Assert.Contains("licoo.csv", import.Out);
         Assert.Contains("[##############################] 7/7 entries (100%)", import.Err);
+        // Three batches, one version: the import is all of the file or none of it.
 
         var list = await CliRun.RunAsync("datasets", "list", "--server", Server, "--json");
         Assert.Equal(0, list.ExitCode);
@@ -59,31 +60,31 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         {
             JsonElement d = json.RootElement.GetProperty("datasets")[0];
             Assert.Equal("demo", d.GetProperty("name").GetString());
-            Assert.Equal("3", d.GetProperty("latest_version").GetString());
+            Assert.Equal("1", d.GetProperty("latest_version").GetString());
             Assert.Equal("7", d.GetProperty("entry_count").GetString());
         }
 
         var table = await CliRun.RunAsync("stability", "demo", "LiCoO2-b", "LiCoO2", "--server", Server);
         Assert.Equal(0, table.ExitCode);
         string[] lines = table.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
-        Assert.Equal("dataset demo, version 3", lines[0]);
+        Assert.Equal("dataset demo, version 1", lines[0]);
         Assert.StartsWith("id ", lines[1]);
         Assert.Contains("0.0500", lines[3]);
 
-        var csv = await CliRun.RunAsync("stability", "demo", "LiCoO2-b", "--server", Server, "--csv", "--version", "3");
+        var csv = await CliRun.RunAsync("stability", "demo", "LiCoO2-b", "--server", Server, "--csv", "--version", "1");
         Assert.Equal(0, csv.ExitCode);
         string[] rows = csv.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
         Assert.Equal("id,formula,system,formation_ev_per_atom,above_hull_ev_per_atom,stable,decomposition_ev_per_atom,decomposition,dataset_version", rows[0]);
         string[] cells = rows[1].Split(',');
         Assert.Equal(0.05, double.Parse(cells[4], System.Globalization.CultureInfo.InvariantCulture), 12);
-        Assert.Equal("3", cells[^1]);
+        Assert.Equal("1", cells[^1]);
 
         var assess = await CliRun.RunAsync("assess", "demo", "Li2CoO3", "-1.9", "--server", Server, "--json");
         Assert.Equal(0, assess.ExitCode);
         using (JsonDocument json = JsonDocument.Parse(assess.Out))
         {
             Assert.True(json.RootElement.GetProperty("results")[0].GetProperty("is_on_or_below_hull").GetBoolean());
-            Assert.Equal("3", json.RootElement.GetProperty("used").GetProperty("version").GetString());
+            Assert.Equal("1", json.RootElement.GetProperty("used").GetProperty("version").GetString());
         }
 
         foreach (string[] args in new[]

@@ -47,34 +47,61 @@ public static class RpcFailure
             ["field_violations"] = ViolationsOf(error).Select(v => new Dictionary<string, string> { ["field"] = v.Field, ["description"] = v.Description }).ToArray(),
             ["exit_code"] = ExitCodeOf(error),
         };
-        return System.Text.Json.JsonSerializer.Serialize(new Dictionary<string, object?> { ["error"] = body });
+        return System.Text.Json.JsonSerializer.Serialize(new Dictionary<string, object?> { ["error"] = body }, PlainJson);
     }
+
+    // Only the escapes JSON requires: messages hold "->" and quotes, which people read in a terminal.
+    private static readonly System.Text.Json.JsonSerializerOptions PlainJson = new()
+    {
+        Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
+    };
 
     /// <summary>"NOT_FOUND" for StatusCode.NotFound: the status as the gRPC specification spells it.</summary>
     private static string StatusName(StatusCode code) =>
         string.Concat(code.ToString().Select((c, i) => i > 0 && char.IsUpper(c) ? "_" + c : c.ToString())).ToUpperInvariant();
 
-    /// <summary>Whether the call failed in the TLS handshake because the server's certificate was refused.</summary>
-    private static bool IsCertificateFailure(RpcException error)
+    /// <summary>Whether the call failed in the TLS handshake (a refused certificate, or a server that does not speak TLS).</summary>
+    private static bool IsCertificateFailure(RpcException error) => HandshakeFailure(error) is not null;
+
+    /// <summary>The TLS handshake's own error, when the call failed there.</summary>
+    private static System.Security.Authentication.AuthenticationException? HandshakeFailure(RpcException error)
     {
         for (Exception? e = error.Status.DebugException; e is not null; e = e.InnerException)
         {
-            if (e is System.Security.Authentication.AuthenticationException) return true;
+            if (e is System.Security.Authentication.AuthenticationException handshake) return handshake;
         }
-        return false;
+        return null;
+    }
+
+    /// <summary>What the connection itself reported ("Connection refused (127.0.0.1:50551)"), without the client
+    /// library's wrapping and exception type names.</summary>
+    private static string TransportDetail(RpcException error)
+    {
+        Exception? innermost = error.Status.DebugException;
+        while (innermost?.InnerException is not null) innermost = innermost.InnerException;
+        return innermost?.Message is { Length: > 0 } message ? message : error.Status.Detail;
     }
 
     public static string Describe(RpcException error, Uri address)
     {
-        if (IsCertificateFailure(error))
+        if (HandshakeFailure(error) is { } handshake)
         {
-            return $"the hull server at {address} presented a certificate this client does not trust: {error.Status.Detail}. " +
+            // A refused certificate says so ("The remote certificate is invalid ..."); a plain-text server answers the
+            // TLS hello with bytes that are no TLS record, which the handshake reports as a bad frame.
+            if (!handshake.Message.Contains("certificate", StringComparison.OrdinalIgnoreCase))
+            {
+                var plain = new UriBuilder(address) { Scheme = Uri.UriSchemeHttp, Port = address.Port };
+                return $"no TLS connection to the hull server at {address}: the server did not answer in TLS ({handshake.Message.TrimEnd('.')}). " +
+                       $"A server started without --tls-cert serves plain text: use {plain.Uri.ToString().TrimEnd('/')}";
+            }
+
+            return $"the hull server at {address} presented a certificate this client does not trust ({handshake.Message.TrimEnd('.')}). " +
                    "For a private CA or a self-signed server certificate, pass its PEM file with --ca-file (or HULL_CA_FILE).";
         }
 
         if (error.StatusCode == StatusCode.Unavailable)
         {
-            return $"cannot reach the hull server at {address}: {error.Status.Detail}. " +
+            return $"cannot reach the hull server at {address}: {TransportDetail(error).TrimEnd('.')}. " +
                    "Is it running? Start one with `hull serve`, or point --server (or HULL_SERVER) at it.";
         }
 

@@ -5,7 +5,7 @@ using Hull.Cli.Output;
 namespace Hull.Cli.Commands;
 
 /// <summary>What a command's action needs: the parsed values, the output streams and format, and the server.</summary>
-public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter stderr, GlobalOptions options)
+public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter stderr, GlobalOptions options, TerminalInfo terminal)
 {
     private HullConnection? _connection;
 
@@ -15,13 +15,18 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     public TextWriter Err { get; } = stderr;
 
+    public TerminalInfo Terminal { get; } = terminal;
+
+    /// <summary>The command's cancellation (Ctrl+C), to tell a cancel from a server's own Cancelled answer.</summary>
+    public CancellationToken Cancellation { get; init; }
+
     public OutputFormat Format { get; } = parse.GetValue(options.Json) ? OutputFormat.Json
         : parse.GetValue(options.Csv) ? OutputFormat.Csv
         : OutputFormat.Table;
 
     public bool Quiet => Parse.GetValue(options.Quiet);
 
-    public Uri ServerAddress => new(Parse.GetValue(options.Server)!);
+    public Uri ServerAddress => new(options.ServerText(Parse));
 
     public T? Get<T>(Option<T> option) => Parse.GetValue(option);
 
@@ -29,12 +34,12 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     /// <summary>The connection to --server, opened on first use.</summary>
     public HullConnection Server => _connection ??= new HullConnection(
-        ServerAddress, Parse.GetValue(options.Token), TimeSpan.FromSeconds(Parse.GetValue(options.TimeoutSeconds)), Trust());
+        ServerAddress, options.TokenText(Parse), options.Timeout(Parse), Trust());
 
     /// <summary>The --ca-file certificates, or null; only an https:// server has certificates to check.</summary>
     private ServerTrust? Trust()
     {
-        string? path = Parse.GetValue(options.CaFile);
+        string? path = options.CaFileText(Parse);
         if (path is null) return null;
         if (ServerAddress.Scheme != Uri.UriSchemeHttps)
         {

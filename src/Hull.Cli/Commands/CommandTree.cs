@@ -16,7 +16,7 @@ public static class CommandTree
     public static RootCommand Build(GlobalOptions options, Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         var root = new RootCommand("hull: client of the hull phase-stability service (datasets, convex hulls, energy above hull).");
-        foreach (Option versionOption in root.Options.Where(o => o.Name == "--version").ToArray()) root.Options.Remove(versionOption);
+        // The root keeps the library's --version (the program's own version); on the subcommands --version is a dataset version.
         foreach (Option option in options.All) root.Options.Add(option);
 
         root.Subcommands.Add(DatasetsCommand(wrap));
@@ -38,24 +38,20 @@ public static class CommandTree
 
     private static Argument<string> DatasetArgument() => new("dataset") { Description = "dataset name" };
 
-    private static Option<long> VersionOption() => new("--version")
-    {
-        Description = "dataset version to read (default: the latest)",
-        DefaultValueFactory = _ => 0,
-        Validators =
-        {
-            result =>
-            {
-                if (result.GetValueOrDefault<long>() < 0) result.AddError("--version must be 1 or more (versions count from 1)");
-            },
-        },
-    };
+    private static Option<long> VersionOption() => ValueOptions.WholeNumber(
+        "--version", "dataset version to read (default: the latest)", min: 0, max: long.MaxValue, fallback: 0, meaning: "a dataset version");
 
-    private static Option<int> PageSizeOption() => new("--page-size")
+    private static Option<bool> YesOption() => new(Confirmation.YesOptionName) { Description = "do not ask for confirmation" };
+
+    private static int NotConfirmed(CliContext c)
     {
-        Description = "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
-        DefaultValueFactory = _ => 0,
-    };
+        c.Err.WriteLine("hull: not confirmed; nothing was deleted");
+        return ExitCodes.NotConfirmed;
+    }
+
+    private static Option<long> PageSizeOption() => ValueOptions.WholeNumber(
+        "--page-size", "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
+        min: 0, max: 1000, fallback: 0, meaning: "a page size");
 
     private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}";
 
@@ -67,7 +63,7 @@ public static class CommandTree
         {
             // Follows every page, so the listing is whole; --json prints it as one response.
             var response = new ListDatasetsResponse();
-            var request = new ListDatasetsRequest { PageSize = c.Get(datasetsPageSize) };
+            var request = new ListDatasetsRequest { PageSize = (int)c.Get(datasetsPageSize) };
             do
             {
                 ListDatasetsResponse page = await c.Server.Datasets.ListDatasetsAsync(request, c.Server.Call(t));
@@ -90,12 +86,12 @@ public static class CommandTree
         }));
 
         var createName = DatasetArgument();
-        var description = new Option<string>("--description") { Description = "free-text description", DefaultValueFactory = _ => string.Empty };
+        var description = new Option<string>("--description") { Description = "free-text description" };
         var create = new Command("create", "create an empty dataset") { createName, description };
         create.SetAction(wrap(async (c, t) =>
         {
             DatasetSummary created = await c.Server.Datasets.CreateDatasetAsync(
-                new CreateDatasetRequest { Name = c.Get(createName)!, Description = c.Get(description)! }, c.Server.Call(t));
+                new CreateDatasetRequest { Name = c.Get(createName)!, Description = c.Get(description) ?? string.Empty }, c.Server.Call(t));
             c.Emit(created, () => new Table("name", "created_utc").Add(created.Name, FormatTime(created.CreatedAt)));
             return ExitCodes.Ok;
         }));
@@ -112,9 +108,11 @@ public static class CommandTree
         }));
 
         var deleteName = DatasetArgument();
-        var delete = new Command("delete", "delete a dataset with all its versions") { deleteName };
+        var deleteYes = YesOption();
+        var delete = new Command("delete", "delete a dataset with all its versions (asks first on a terminal)") { deleteName, deleteYes };
         delete.SetAction(wrap(async (c, t) =>
         {
+            if (!Confirmation.Confirm(c, c.Get(deleteYes), $"Delete dataset '{c.Get(deleteName)}' with all its versions?")) return NotConfirmed(c);
             var response = await c.Server.Datasets.DeleteDatasetAsync(new DeleteDatasetRequest { Name = c.Get(deleteName)! }, c.Server.Call(t));
             c.Emit(response, () => new Table("deleted").Add(c.Get(deleteName)));
             return ExitCodes.Ok;
@@ -127,28 +125,14 @@ public static class CommandTree
     {
         var dataset = DatasetArgument();
         var files = new Argument<string[]>("files") { Description = "entry files (.csv or .json; columns id, formula, energy_ev, basis, note)", Arity = ArgumentArity.OneOrMore };
-        var onDuplicate = new Option<string>("--on-duplicate")
-        {
-            Description = "what to do with ids the dataset already has: reject (the batch fails) or replace (a new version carries the new rows)",
-            DefaultValueFactory = _ => "reject",
-        };
-        onDuplicate.AcceptOnlyFromAmong("reject", "replace");
-        var batchSize = new Option<int>("--batch-size")
-        {
-            Description = $"entries per batch; each batch is one all-or-nothing version (default {ImportRunner.DefaultBatchSize})",
-            DefaultValueFactory = _ => ImportRunner.DefaultBatchSize,
-            Validators =
-            {
-                result =>
-                {
-                    int size = result.GetValueOrDefault<int>();
-                    if (size < 1 || size > ImportRunner.MaxBatchSize) result.AddError($"--batch-size must be 1..{ImportRunner.MaxBatchSize}");
-                },
-            },
-        };
-        var note = new Option<string>("--note") { Description = "note recorded with each version", DefaultValueFactory = _ => string.Empty };
+        var onDuplicate = ValueOptions.Choice("--on-duplicate",
+            "what to do with ids the dataset already has: reject (nothing is written) or replace (the new version carries the new rows)",
+            "reject", "reject", "replace");
+        var batchSize = ValueOptions.WholeNumber("--batch-size", "entries per call to the server; the whole import is still one version",
+            min: 1, max: ImportRunner.MaxBatchSize, fallback: ImportRunner.DefaultBatchSize, meaning: "a batch size");
+        var note = new Option<string>("--note") { Description = "note recorded with the version" };
         var create = new Option<bool>("--create") { Description = "create the dataset first if it does not exist" };
-        var import = new Command("import", "import entries from files, in batches; each batch becomes a new dataset version")
+        var import = new Command("import", "import entries from files as one new dataset version: all of them or, on any error or interruption, none")
         {
             dataset, files, onDuplicate, batchSize, note, create,
         };
@@ -164,28 +148,12 @@ public static class CommandTree
 
             if (c.Get(create)) await EnsureDatasetAsync(c, name, t);
             DuplicatePolicy policy = c.Get(onDuplicate) == "replace" ? DuplicatePolicy.Replace : DuplicatePolicy.Reject;
-            var runner = new ImportRunner(c.Server, c.Err, showProgress: !c.Quiet);
-            var outcomes = new List<ImportRunner.BatchOutcome>();
-            foreach (var input in inputs)
-            {
-                outcomes.AddRange(await runner.ImportAsync(name, input.Path, input.Records, policy, c.Get(batchSize), c.Get(note)!, t));
-            }
-
-            if (c.Format == OutputFormat.Json)
-            {
-                ProtoJson.WriteArray(c.Out, outcomes.Select(o => o.Response));
-            }
-            else
-            {
-                var table = new Table("file", "first_entry", "entries", "version", "inserted", "replaced");
-                foreach (var o in outcomes)
-                {
-                    table.Add(Path.GetFileName(o.File), o.FirstRecord + 1, o.Rows, o.Response.DatasetVersion, o.Response.InsertedCount, o.Response.ReplacedCount);
-                }
-
-                TableRenderer.Write(c.Out, table, c.Format);
-            }
-
+            var runner = new ImportRunner(c.Server, c.Err, showProgress: !c.Quiet, progressIsTerminal: c.Terminal.ErrorIsTerminal);
+            ImportRunner.ImportOutcome outcome = await runner.ImportAsync(
+                name, [.. inputs.Select(i => new ImportRunner.ImportInput(i.Path, i.Records))], policy, (int)c.Get(batchSize), c.Get(note) ?? string.Empty, t);
+            c.Emit(outcome.Response, () => new Table("files", "entries", "batches", "version", "inserted", "replaced").Add(
+                string.Join(", ", outcome.Inputs.Select(i => Path.GetFileName(i.Path))), outcome.Entries, outcome.Batches,
+                outcome.Response.DatasetVersion, outcome.Response.InsertedCount, outcome.Response.ReplacedCount));
             return ExitCodes.Ok;
         }));
         return import;
@@ -255,7 +223,7 @@ public static class CommandTree
         list.SetAction(wrap(async (c, t) =>
         {
             var response = new ListVersionsResponse();
-            var request = new ListVersionsRequest { Dataset = c.Get(listName)!, PageSize = c.Get(versionsPageSize) };
+            var request = new ListVersionsRequest { Dataset = c.Get(listName)!, PageSize = (int)c.Get(versionsPageSize) };
             do
             {
                 ListVersionsResponse page = await c.Server.Datasets.ListVersionsAsync(request, c.Server.Call(t));
@@ -269,10 +237,12 @@ public static class CommandTree
         }));
 
         var deleteName = DatasetArgument();
-        var number = new Argument<long>("version") { Description = "version number" };
-        var delete = new Command("delete", "delete one version (other versions are unchanged)") { deleteName, number };
+        var number = ValueOptions.WholeNumberArgument("version", "version number", min: 1, max: long.MaxValue, meaning: "a version number");
+        var versionYes = YesOption();
+        var delete = new Command("delete", "delete one version (other versions are unchanged; asks first on a terminal)") { deleteName, number, versionYes };
         delete.SetAction(wrap(async (c, t) =>
         {
+            if (!Confirmation.Confirm(c, c.Get(versionYes), $"Delete version {c.Get(number)} of dataset '{c.Get(deleteName)}'?")) return NotConfirmed(c);
             var response = await c.Server.Datasets.DeleteVersionAsync(new DeleteVersionRequest { Dataset = c.Get(deleteName)!, Version = c.Get(number) }, c.Server.Call(t));
             c.Emit(response, () => new Table("dataset", "deleted_version").Add(c.Get(deleteName), c.Get(number)));
             return ExitCodes.Ok;
@@ -305,13 +275,8 @@ public static class CommandTree
     {
         var dataset = DatasetArgument();
         var formula = new Argument<string?>("formula") { Description = "composition, e.g. LiNi0.8Co0.1Mn0.1O2", Arity = ArgumentArity.ZeroOrOne };
-        var energy = new Argument<double?>("energy") { Description = "its energy in eV (per formula unit or per atom, see --basis)", Arity = ArgumentArity.ZeroOrOne };
-        var basis = new Option<string>("--basis")
-        {
-            Description = $"what the energy means: {string.Join(", ", EntryFileLayout.BasisTokens.Keys)} (default formation_per_atom)",
-            DefaultValueFactory = _ => "formation_per_atom",
-        };
-        basis.AcceptOnlyFromAmong([.. EntryFileLayout.BasisTokens.Keys]);
+        var energy = ValueOptions.OptionalNumberArgument("energy", "its energy in eV (per formula unit or per atom, see --basis)", "an energy in eV");
+        var basis = ValueOptions.Choice("--basis", "what the energy means", "formation_per_atom", [.. EntryFileLayout.BasisTokens.Keys]);
         var file = new Option<string?>("--file") { Description = "assess every entry of this file instead (ids become labels)" };
         var version = VersionOption();
         var references = ReferenceOption.Create();
@@ -352,7 +317,7 @@ public static class CommandTree
                 var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "on_or_below_hull", "decomposition");
                 foreach (CandidateAssessment a in response.Results)
                 {
-                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsOnOrBelowHull, a.Decomposition.Reaction);
+                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsOnOrBelowHull, DecompositionText.Describe(a.Decomposition));
                 }
 
                 return table;
@@ -379,7 +344,7 @@ public static class CommandTree
             c.Emit(response, () =>
             {
                 var table = new Table("formula", "system", "hull_energy_ev_per_atom", "decomposition");
-                foreach (HullEnergyResult r in response.Results) table.Add(r.Formula, r.ChemicalSystem, r.HullEnergyEvPerAtom, r.Decomposition.Reaction);
+                foreach (HullEnergyResult r in response.Results) table.Add(r.Formula, r.ChemicalSystem, r.HullEnergyEvPerAtom, DecompositionText.Describe(r.Decomposition));
                 return table;
             }, Caption(response.Used));
             if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: false);
@@ -391,13 +356,13 @@ public static class CommandTree
     private static Command StableCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         var dataset = DatasetArgument();
-        var system = new Option<string>("--system") { Description = "chemical system, e.g. Li-Co-O (default: the whole dataset)", DefaultValueFactory = _ => string.Empty };
+        var system = new Option<string>("--system") { Description = "chemical system, e.g. Li-Co-O (default: the whole dataset)" };
         var version = VersionOption();
         var references = ReferenceOption.Create();
         var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version, references };
         command.SetAction(wrap(async (c, t) =>
         {
-            var request = new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! };
+            var request = new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system) ?? string.Empty };
             ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
             GetStablePhasesResponse response = await c.Server.Stability.GetStablePhasesAsync(request, c.Server.Call(t));
             c.Emit(response, () => PhasesTable(response.Phases),
@@ -437,7 +402,7 @@ public static class CommandTree
     {
         var dataset = DatasetArgument();
         var version = VersionOption();
-        var maxAbove = new Option<double?>("--max-above-hull") { Description = "list only entries at most this far above the hull, eV/atom" };
+        var maxAbove = ValueOptions.OptionalNumber("--max-above-hull", "list only entries at most this far above the hull, eV/atom", "an energy in eV/atom");
         var references = ReferenceOption.Create();
         var command = new Command("analyze", "stability of every entry of a version") { dataset, version, maxAbove, references };
         command.SetAction(wrap(async (c, t) =>
@@ -547,16 +512,20 @@ public static class CommandTree
         foreach (Protos.V1.EntryStability r in results)
         {
             table.Add(r.EntryId, r.Formula, r.ChemicalSystem, r.FormationEnergyEvPerAtom, r.EnergyAboveHullEvPerAtom, r.IsHullVertex,
-                r.HasDecompositionEnergyEvPerAtom ? r.DecompositionEnergyEvPerAtom : null, r.Decomposition.Reaction, used?.Version);
+                r.HasDecompositionEnergyEvPerAtom ? r.DecompositionEnergyEvPerAtom : null, DecompositionText.Describe(r.Decomposition), used?.Version);
         }
 
         return table;
     }
 
+    /// <summary>What the origin column says of an element that no entry of the dataset gives.</summary>
+    internal const string ElementWithoutEntry = "no entry: element set to 0";
+
     internal static Table PhasesTable(IEnumerable<StablePhase> phases)
     {
-        var table = new Table("phase", "formula", "formation_ev_per_atom", "elemental_reference");
-        foreach (StablePhase p in phases) table.Add(p.PhaseId, p.Formula, p.FormationEnergyEvPerAtom, p.IsElementalReference);
+        // "origin" says where the phase comes from: a stored entry, or an element the dataset has no entry for, put at 0 eV/atom by definition.
+        var table = new Table("phase", "formula", "formation_ev_per_atom", "origin");
+        foreach (StablePhase p in phases) table.Add(p.PhaseId, p.Formula, p.FormationEnergyEvPerAtom, p.IsElementalReference ? ElementWithoutEntry : "entry");
         return table;
     }
 

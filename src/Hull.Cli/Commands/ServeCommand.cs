@@ -3,54 +3,74 @@ using Hull.Server.Hosting;
 
 namespace Hull.Cli.Commands;
 
-/// <summary>`hull serve [server options]`: runs the hull server in this process until Ctrl+C / SIGTERM.</summary>
+/// <summary>
+/// `hull serve [server options]`: runs the hull server in this process until Ctrl+C / SIGTERM. Its options are the
+/// server's own (<see cref="ServerCommandLine.Options"/>), declared here so that `hull serve --help` lists them all; the
+/// values are handed to the server's parser, which checks them exactly as `hull-server` does.
+/// </summary>
 public static class ServeCommand
 {
     public static Command Build()
     {
-        var command = new Command("serve", "run a hull server in this process (options as for hull-server: --data-dir, --port, --host, --tls-cert, --tls-key, --write-token, limits; see `hull serve --server-help`)")
+        var command = new Command("serve", $"run a hull server in this process (the options of hull-server). {ServerCommandLine.ReadyNote}");
+        var options = new List<Option<string?>>();
+        foreach (ServerOptionSpec spec in ServerCommandLine.Options)
         {
-            TreatUnmatchedTokensAsErrors = false,
-        };
-        var serverHelp = new Option<bool>("--server-help") { Description = "list the server options" };
-        command.Options.Add(serverHelp);
+            var option = new Option<string?>(spec.Name) { Description = spec.Description, HelpName = spec.ValueName };
+            options.Add(option);
+            command.Options.Add(option);
+        }
+
         command.SetAction(async (parse, cancellation) =>
         {
             TextWriter output = parse.InvocationConfiguration.Output;
             TextWriter error = parse.InvocationConfiguration.Error;
-            if (parse.GetValue(serverHelp))
+            var args = new List<string>();
+            foreach (Option<string?> option in options)
             {
-                output.WriteLine(ServerCommandLine.Usage);
-                return ExitCodes.Ok;
+                if (parse.GetResult(option) is { Tokens.Count: > 0 } given) args.AddRange([option.Name, given.Tokens[0].Value]);
             }
 
-            HullServerOptions? options = ServerCommandLine.Parse(parse.UnmatchedTokens, out string? problem, out bool help);
-            if (help)
-            {
-                output.WriteLine(ServerCommandLine.Usage);
-                return ExitCodes.Ok;
-            }
-
-            if (options is null)
+            HullServerOptions? serverOptions = ServerCommandLine.Parse(args, out string? problem, out _);
+            if (serverOptions is null)
             {
                 error.WriteLine($"hull serve: {problem}");
                 return ExitCodes.Usage;
             }
 
+            foreach ((string name, string? path) in new[] { ("--tls-cert", serverOptions.TlsCertificatePath), ("--tls-key", serverOptions.TlsKeyPath) })
+            {
+                if (path is not null && !File.Exists(path))
+                {
+                    error.WriteLine($"hull serve: {name} '{path}': no such file");
+                    return ExitCodes.InputFile;
+                }
+            }
+
             HullServer server;
             try
             {
-                server = await HullServer.StartAsync(options, cancellation);
+                server = await HullServer.StartAsync(serverOptions, cancellation);
+            }
+            catch (System.Security.Cryptography.CryptographicException e)
+            {
+                error.WriteLine($"hull serve: --tls-cert '{serverOptions.TlsCertificatePath}' (with --tls-key) is not a usable PEM certificate and key: {e.Message}");
+                return ExitCodes.InputFile;
             }
             catch (Exception e) when (HullServer.IsStoreFailure(e))
             {
-                error.WriteLine($"hull serve: cannot open the store in '{options.DataDirectory}': {e.Message}");
+                error.WriteLine($"hull serve: cannot open the store in '{serverOptions.DataDirectory}': {e.Message}");
                 return ExitCodes.InputFile;
             }
             catch (IOException e)
             {
-                error.WriteLine($"hull serve: cannot listen on {options.BindAddress}:{options.Port}: {e.Message}");
+                error.WriteLine($"hull serve: cannot listen on {serverOptions.BindAddress}:{serverOptions.Port}: {e.Message}");
                 return ExitCodes.ServerUnreachable;
+            }
+            catch (OperationCanceledException)
+            {
+                error.WriteLine("hull serve: cancelled before the server was listening");
+                return ExitCodes.InternalError;
             }
 
             await using (server)

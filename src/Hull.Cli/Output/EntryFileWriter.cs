@@ -11,7 +11,7 @@ public static class EntryFileWriter
     public static string ToJson(string dataset, long version, IEnumerable<Entry> entries)
     {
         using var buffer = new MemoryStream();
-        using (var json = new Utf8JsonWriter(buffer, new JsonWriterOptions { Indented = true }))
+        using (var json = new Utf8JsonWriter(buffer, ProtoJson.PlainWriting))
         {
             json.WriteStartObject();
             json.WriteString("dataset", dataset);

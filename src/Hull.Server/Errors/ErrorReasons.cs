@@ -25,6 +25,8 @@ public static class ErrorReasons
         "the dataset has no such live version (deleted, never issued, or no version yet); ResourceInfo names `dataset@version`");
     public static ErrorReason EntryNotFound { get; } = new("ENTRY_NOT_FOUND", StatusCode.NotFound,
         "an entry id is not in the version; ResourceInfo names it, BadRequest names `entry_ids[i]`");
+    public static ErrorReason ImportSessionNotFound { get; } = new("IMPORT_SESSION_NOT_FOUND", StatusCode.NotFound,
+        "the import session is not open: committed, cancelled, or lapsed (metadata `expired`) and its staged rows removed; nothing of it was written");
     public static ErrorReason ResourceNotFound { get; } = new("RESOURCE_NOT_FOUND", StatusCode.NotFound,
         "something else that was named does not exist; ResourceInfo says what");
     public static ErrorReason DatasetExists { get; } = new("DATASET_EXISTS", StatusCode.AlreadyExists,
@@ -56,7 +58,7 @@ public static class ErrorReasons
     public static IReadOnlyList<ErrorReason> All { get; } =
     [
         InvalidField, InvalidEntry, InvalidDatasetName, InvalidPageToken,
-        DatasetNotFound, VersionNotFound, EntryNotFound, ResourceNotFound,
+        DatasetNotFound, VersionNotFound, EntryNotFound, ImportSessionNotFound, ResourceNotFound,
         DatasetExists, EntryIdExists, ResourceExists,
         MissingElementalReference, DatasetNotAnalysable, PreconditionFailed,
         LimitExceeded, WriteTokenRequired, WriteTokenRejected,

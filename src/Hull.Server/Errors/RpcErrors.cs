@@ -44,6 +44,20 @@ public static class RpcErrors
             Metadata(("dataset", dataset), ("version", version.ToString(System.Globalization.CultureInfo.InvariantCulture)), ("entry_id", entryId)),
             Resource("hull.v1.Entry", entryId, message), Violations(field, message));
 
+    /// <summary>
+    /// ALREADY_EXISTS for an imported id the latest version holds: the message carries the remedy, the field violation
+    /// only the fact (callers such as the CLI name their own remedy beside it).
+    /// </summary>
+    public static RpcException EntryIdExists(string entryId, string message, string field, string description) =>
+        Build(StatusCode.AlreadyExists, message, ErrorReasons.EntryIdExists, Metadata(("entry_id", entryId)),
+            Resource("hull.v1.Entry", entryId, description), Violations(field, description));
+
+    /// <summary>NOT_FOUND for an import session that is not open (committed, cancelled, lapsed or never begun).</summary>
+    public static RpcException ImportSessionNotFound(string sessionId, bool expired, string message) =>
+        Build(StatusCode.NotFound, message, ErrorReasons.ImportSessionNotFound,
+            Metadata(("session_id", sessionId), ("expired", expired ? "true" : "false")),
+            Resource("hull.v1.ImportSession", sessionId, message), Violations("session_id", message));
+
     /// <summary>ALREADY_EXISTS; <paramref name="resourceType"/> and <paramref name="resourceName"/> fill the ResourceInfo.</summary>
     public static RpcException AlreadyExists(string message, string? field = null, ErrorReason? reason = null,
         string resourceType = "", string resourceName = "") =>

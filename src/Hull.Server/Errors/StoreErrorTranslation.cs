@@ -22,9 +22,9 @@ public static class StoreErrorTranslation
         VersionNotFoundException e => RpcErrors.VersionNotFound(e.DatasetName, e.Version, e.Message),
         DatasetAlreadyExistsException e =>
             RpcErrors.AlreadyExists(e.Message, datasetField, ErrorReasons.DatasetExists, "hull.v1.Dataset", e.DatasetName),
-        DuplicateEntryException { ExistingVersion: not null } e =>
-            RpcErrors.AlreadyExists(e.Message + "; choose the replace duplicate policy to supersede it", RowField(e),
-                ErrorReasons.EntryIdExists, "hull.v1.Entry", e.EntryId ?? string.Empty),
+        DuplicateEntryException { ExistingVersion: not null } e => RpcErrors.EntryIdExists(e.EntryId ?? string.Empty,
+            e.Message + "; choose the replace duplicate policy to supersede it", RowField(e), WithoutRowPrefix(e)),
+        ImportSessionNotFoundException e => RpcErrors.ImportSessionNotFound(e.SessionId, e.Expired, e.Message),
         InvalidBatchException e => e.RowIndex is null
             ? RpcErrors.InvalidArgument("entries", e.Message, ErrorReasons.InvalidEntry)
             : RpcErrors.InvalidArgument(e.Message, [new FieldViolation(RowField(e), e.Message)], ErrorReasons.InvalidEntry),
@@ -36,6 +36,13 @@ public static class StoreErrorTranslation
             e.EntryId is null ? (e.Element is null ? string.Empty : $"element:{e.Element}") : $"entry:{e.EntryId}"),
         _ => null,
     };
+
+    /// <summary>The Store's message without its leading "row i: ", which the field path already says.</summary>
+    private static string WithoutRowPrefix(InvalidBatchException e)
+    {
+        string prefix = $"row {e.RowIndex}: ";
+        return e.Message.StartsWith(prefix, StringComparison.Ordinal) ? e.Message[prefix.Length..] : e.Message;
+    }
 
     private static string RowField(InvalidBatchException e)
     {

@@ -32,6 +32,9 @@ public sealed record HullServerOptions
     /// <summary>Hulls kept in the cache before the least recently used are dropped.</summary>
     public int MaxCachedHulls { get; init; } = 512;
 
+    /// <summary>How long an import session waits for its next call before it lapses (see <see cref="ImportSessionSettings"/>).</summary>
+    public TimeSpan ImportIdleExpiry { get; init; } = ImportSessionSettings.DefaultIdleExpiry;
+
     /// <summary>Least severe log level written (JSON lines on stderr).</summary>
     public LogLevel MinimumLogLevel { get; init; } = LogLevel.Information;
 }

@@ -13,24 +13,38 @@ public static class ServerCommandLine
     /// <summary>Environment variable read for the write token when --write-token is not given (keeps it out of ps).</summary>
     public const string WriteTokenVariable = "HULL_WRITE_TOKEN";
 
-    public const string Usage = """
-        usage: hull-server [options]
+    /// <summary>Every option, in the order help lists them: the one list that the usage text and `hull serve` are built from.</summary>
+    public static IReadOnlyList<ServerOptionSpec> Options { get; } =
+    [
+        new("--data-dir", "DIR", "dataset store directory, created on first start (default: ./hull-data)"),
+        new("--host", "ADDRESS", "address to bind (default: 127.0.0.1, loopback only)"),
+        new("--port", "N", "TCP port (default: 50551; 0 picks a free port and prints it)"),
+        new("--tls-cert", "FILE", "serve TLS with this PEM certificate (or PKCS#12 file)"),
+        new("--tls-key", "FILE", "PEM private key for --tls-cert"),
+        new("--write-token", "TOKEN", "bearer token required by write methods (default: $HULL_WRITE_TOKEN; none = open)"),
+        new("--max-components-per-system", "N", "default 8"),
+        new("--max-entries-per-system", "N", "default 50000"),
+        new("--max-compositions-per-request", "N", "default 1000"),
+        new("--max-message-bytes", "N", "largest request message (default 16777216)"),
+        new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
+        new("--log-level", "LEVEL", "Trace, Debug, Information, Warning, Error (default Information)"),
+    ];
 
-          --data-dir DIR                  dataset store directory, created on first start (default: ./hull-data)
-          --host ADDRESS                  address to bind (default: 127.0.0.1, loopback only)
-          --port N                        TCP port (default: 50551; 0 picks a free port and prints it)
-          --tls-cert FILE                 serve TLS with this PEM certificate (or PKCS#12 file)
-          --tls-key FILE                  PEM private key for --tls-cert
-          --write-token TOKEN             bearer token required by write methods (default: $HULL_WRITE_TOKEN; none = open)
-          --max-components-per-system N   default 8
-          --max-entries-per-system N      default 50000
-          --max-compositions-per-request N  default 1000
-          --max-message-bytes N           largest request message (default 16777216)
-          --log-level LEVEL               Trace, Debug, Information, Warning, Error (default Information)
-          --help                          show this text
+    /// <summary>What the server prints once ready, and where its logs go.</summary>
+    public const string ReadyNote = "Prints \"hull server listening on <address>\" on stdout once ready; logs are JSON lines on stderr.";
 
-        Prints "hull server listening on <address>" on stdout once ready; logs are JSON lines on stderr.
-        """;
+    public static string Usage { get; } = BuildUsage();
+
+    private static string BuildUsage()
+    {
+        var text = new System.Text.StringBuilder("usage: hull-server [options]\n\n");
+        foreach (ServerOptionSpec option in Options)
+        {
+            text.Append("  ").Append($"{option.Name} {option.ValueName}".PadRight(34)).Append(option.Description).Append('\n');
+        }
+        text.Append("  ").Append("--help".PadRight(34)).Append("show this text\n\n").Append(ReadyNote);
+        return text.ToString();
+    }
 
     /// <summary>The options, or null with <paramref name="error"/> set; <paramref name="help"/> when --help was given.</summary>
     public static HullServerOptions? Parse(IReadOnlyList<string> args, out string? error, out bool help)
@@ -38,11 +52,7 @@ public static class ServerCommandLine
         error = null;
         help = false;
         var values = new Dictionary<string, string>(StringComparer.Ordinal);
-        string[] known =
-        [
-            "--data-dir", "--host", "--port", "--tls-cert", "--tls-key", "--write-token", "--max-components-per-system",
-            "--max-entries-per-system", "--max-compositions-per-request", "--max-message-bytes", "--log-level",
-        ];
+        string[] known = [.. Options.Select(o => o.Name)];
         for (int i = 0; i < args.Count; i++)
         {
             string arg = args[i];
@@ -108,8 +118,10 @@ public static class ServerCommandLine
 
             string? token = values.GetValueOrDefault("--write-token") ?? Environment.GetEnvironmentVariable(WriteTokenVariable);
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
+            int expirySeconds = PositiveInt(values, "--import-expiry-seconds", (int)ImportSessionSettings.DefaultIdleExpiry.TotalSeconds);
             return new HullServerOptions
             {
+                ImportIdleExpiry = TimeSpan.FromSeconds(expirySeconds),
                 DataDirectory = values.GetValueOrDefault("--data-dir") ?? Path.Combine(Environment.CurrentDirectory, "hull-data"),
                 BindAddress = host,
                 Port = port,

@@ -18,6 +18,10 @@ public sealed class WriteTokenInterceptor : Interceptor
         "/hull.v1.DatasetService/CreateDataset",
         "/hull.v1.DatasetService/DeleteDataset",
         "/hull.v1.DatasetService/ImportEntries",
+        "/hull.v1.DatasetService/BeginImport",
+        "/hull.v1.DatasetService/StageEntries",
+        "/hull.v1.DatasetService/CommitImport",
+        "/hull.v1.DatasetService/CancelImport",
         "/hull.v1.DatasetService/DeleteVersion",
     };
 

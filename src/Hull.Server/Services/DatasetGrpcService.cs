@@ -10,7 +10,8 @@ using Hull.Store;
 namespace Hull.Server.Services;
 
 /// <summary>The dataset service: checks each request, then delegates to the store.</summary>
-public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports)
+public sealed class DatasetGrpcService(
+    DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
     : DatasetService.DatasetServiceBase
 {
     private const string DatasetsList = "datasets";
@@ -109,6 +110,69 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
 
     private Task<VersionSnapshot> SnapshotAsync(string dataset, long version, CancellationToken cancellation) =>
         cache.GetSnapshotAsync(versions.Resolve(dataset, version), cancellation);
+
+    public override async Task<ImportSession> BeginImport(BeginImportRequest request, ServerCallContext context)
+    {
+        Store.DuplicatePolicy policy = BatchValidation.Validate(request);
+        ImportSessionInfo session = await Task.Run(() => store.BeginImport(
+            request.Dataset, policy, new BatchProvenance(request.SourceLabel, request.Note), sessions.IdleExpiry));
+        return ToWire(session);
+    }
+
+    public override async Task<ImportSession> StageEntries(StageEntriesRequest request, ServerCallContext context)
+    {
+        IReadOnlyList<EntryRow> rows = BatchValidation.Validate(request, limits);
+        context.CancellationToken.ThrowIfCancellationRequested();
+        // As for ImportEntries: once begun, the batch is staged whole or not at all.
+        ImportSessionInfo session = await Task.Run(() => store.StageBatch(request.SessionId, rows, sessions.IdleExpiry));
+        return ToWire(session);
+    }
+
+    public override async Task<ImportEntriesResponse> CommitImport(CommitImportRequest request, ServerCallContext context)
+    {
+        RequireSessionId(request.SessionId);
+        ImportResult result;
+        try
+        {
+            result = await Task.Run(() => store.CommitImport(request.SessionId));
+        }
+        catch (DuplicateEntryException e)
+        {
+            // At commit the row is named by its place in the whole session, not in a request's entries.
+            string field = $"staged[{e.RowIndex}].id";
+            throw e.ExistingVersion is null
+                ? RpcErrors.InvalidArgument(e.Message, [new FieldViolation(field, e.Message)], ErrorReasons.InvalidEntry)
+                : RpcErrors.EntryIdExists(e.EntryId ?? string.Empty, e.Message + "; choose the replace duplicate policy to supersede it", field, e.Message);
+        }
+
+        return new ImportEntriesResponse
+        {
+            DatasetVersion = result.NewVersion,
+            InsertedCount = result.Inserted,
+            ReplacedCount = result.Replaced,
+        };
+    }
+
+    public override async Task<CancelImportResponse> CancelImport(CancelImportRequest request, ServerCallContext context)
+    {
+        RequireSessionId(request.SessionId);
+        await Task.Run(() => store.CancelImport(request.SessionId));
+        return new CancelImportResponse();
+    }
+
+    private ImportSession ToWire(ImportSessionInfo session) => new()
+    {
+        SessionId = session.SessionId,
+        Dataset = session.DatasetName,
+        StagedCount = session.StagedCount,
+        ExpiresAt = Google.Protobuf.WellKnownTypes.Timestamp.FromDateTimeOffset(session.ExpiresAtUtc),
+        IdleExpirySeconds = (int)Math.Min(int.MaxValue, sessions.IdleExpiry.TotalSeconds),
+    };
+
+    private static void RequireSessionId(string sessionId)
+    {
+        if (sessionId.Length == 0) throw RpcErrors.InvalidArgument("session_id", "no session id; BeginImport gives one");
+    }
 
     public override async Task ExportEntries(ExportEntriesRequest request, IServerStreamWriter<ExportEntriesResponse> responseStream, ServerCallContext context)
     {

@@ -22,11 +22,33 @@ public static class BatchValidation
     public static (IReadOnlyList<EntryRow> Rows, DuplicatePolicy Policy) Validate(ImportEntriesRequest request, ServiceLimits limits)
     {
         var violations = new List<FieldViolation>();
-        var limitViolations = new List<FieldViolation>();
         if (DatasetName.Check(request.Dataset) is { } nameProblem) violations.Add(new("dataset", nameProblem));
+        DuplicatePolicy policy = CheckHeader(request.DuplicatePolicy, request.SourceLabel, request.Note, violations);
+        return (CheckRows(request.Entries, limits, violations), policy);
+    }
 
+    /// <summary>The session's settings, or INVALID_ARGUMENT listing every fault.</summary>
+    public static DuplicatePolicy Validate(BeginImportRequest request)
+    {
+        var violations = new List<FieldViolation>();
+        if (DatasetName.Check(request.Dataset) is { } nameProblem) violations.Add(new("dataset", nameProblem));
+        DuplicatePolicy policy = CheckHeader(request.DuplicatePolicy, request.SourceLabel, request.Note, violations);
+        if (violations.Count > 0) throw RpcErrors.InvalidArgument(Summarize("the import was not started", violations), violations);
+        return policy;
+    }
+
+    /// <summary>The rows of one staged batch, checked as an ImportEntries batch is.</summary>
+    public static IReadOnlyList<EntryRow> Validate(StageEntriesRequest request, ServiceLimits limits)
+    {
+        var violations = new List<FieldViolation>();
+        if (request.SessionId.Length == 0) violations.Add(new("session_id", "no session id; BeginImport gives one"));
+        return CheckRows(request.Entries, limits, violations);
+    }
+
+    private static DuplicatePolicy CheckHeader(Protos.V1.DuplicatePolicy wirePolicy, string sourceLabel, string note, List<FieldViolation> violations)
+    {
         DuplicatePolicy policy = DuplicatePolicy.Reject;
-        switch (request.DuplicatePolicy)
+        switch (wirePolicy)
         {
             case Protos.V1.DuplicatePolicy.Reject: policy = DuplicatePolicy.Reject; break;
             case Protos.V1.DuplicatePolicy.Replace: policy = DuplicatePolicy.Replace; break;
@@ -35,15 +57,21 @@ public static class BatchValidation
                 break;
         }
 
-        if (EntryRules.CheckText(request.SourceLabel, "source label") is { } labelProblem) violations.Add(new("source_label", labelProblem));
-        if (EntryRules.CheckText(request.Note, "note", allowLineBreaks: true) is { } noteProblem) violations.Add(new("note", noteProblem));
-        if (request.Entries.Count == 0) violations.Add(new("entries", "the batch is empty; an import needs at least one entry"));
+        if (EntryRules.CheckText(sourceLabel, "source label") is { } labelProblem) violations.Add(new("source_label", labelProblem));
+        if (EntryRules.CheckText(note, "note", allowLineBreaks: true) is { } noteProblem) violations.Add(new("note", noteProblem));
+        return policy;
+    }
 
-        var rows = new List<EntryRow>(request.Entries.Count);
-        var firstRowById = new Dictionary<string, int>(request.Entries.Count, StringComparer.Ordinal);
-        for (int i = 0; i < request.Entries.Count; i++)
+    private static IReadOnlyList<EntryRow> CheckRows(IList<Entry> entries, ServiceLimits limits, List<FieldViolation> violations)
+    {
+        var limitViolations = new List<FieldViolation>();
+        if (entries.Count == 0) violations.Add(new("entries", "the batch is empty; an import needs at least one entry"));
+
+        var rows = new List<EntryRow>(entries.Count);
+        var firstRowById = new Dictionary<string, int>(entries.Count, StringComparer.Ordinal);
+        for (int i = 0; i < entries.Count; i++)
         {
-            Entry entry = request.Entries[i];
+            Entry entry = entries[i];
             string at = $"entries[{i}]";
             int before = violations.Count;
 
@@ -103,7 +131,7 @@ public static class BatchValidation
                 Summarize("the batch was refused; nothing was written", limitViolations), limitViolations);
         }
 
-        return (rows, policy);
+        return rows;
     }
 
     /// <summary>

@@ -68,6 +68,25 @@ internal static class Schema
         new(2, "per-version content fingerprint (SHA-256), filled in on first request", """
             ALTER TABLE dataset_versions ADD COLUMN content_sha256 TEXT NULL;
             """),
+        new(3, "import sessions: batches staged apart from the entries, committed together as one version", """
+            -- An open import: its batches wait in a table of its own, staged_<session_key>, invisible to every read,
+            -- until the commit moves them into entries as one version and drops the table. A table per session keeps
+            -- staging to plain appends (no index to maintain) and makes removal one DROP. Expired sessions are removed
+            -- with their tables (times in Unix milliseconds, compared as numbers).
+            CREATE TABLE import_sessions (
+                session_key       INTEGER PRIMARY KEY AUTOINCREMENT,
+                session_id        TEXT NOT NULL UNIQUE,
+                dataset_id        INTEGER NOT NULL REFERENCES datasets (dataset_id) ON DELETE CASCADE,
+                duplicate_policy  TEXT NOT NULL CHECK (duplicate_policy IN ('reject', 'replace')),
+                source_label      TEXT NOT NULL,
+                note              TEXT NOT NULL,
+                started_at_utc    TEXT NOT NULL,
+                expires_at_ms     INTEGER NOT NULL,
+                staged_count      INTEGER NOT NULL DEFAULT 0
+            );
+
+            CREATE INDEX import_sessions_by_dataset ON import_sessions (dataset_id);
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>
