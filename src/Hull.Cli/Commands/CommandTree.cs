@@ -259,11 +259,13 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var ids = new Argument<string[]>("ids") { Description = "entry ids", Arity = ArgumentArity.OneOrMore };
         var version = VersionOption();
-        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new GetEntryStabilityRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
             request.EntryIds.AddRange(c.Get(ids)!);
+            request.EndMembers.AddRange(EndMemberOption.Parse(c.Get(endMembers)));
             GetEntryStabilityResponse response = await c.Server.Stability.GetEntryStabilityAsync(request, c.Server.Call(t));
             c.Emit(response, () => StabilityTable(response.Results, response.Used), Caption(response.Used));
             return ExitCodes.Ok;
@@ -346,11 +348,12 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var system = new Option<string>("--system") { Description = "chemical system, e.g. Li-Co-O (default: the whole dataset)", DefaultValueFactory = _ => string.Empty };
         var version = VersionOption();
-        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
             GetStablePhasesResponse response = await c.Server.Stability.GetStablePhasesAsync(
-                new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! }, c.Server.Call(t));
+                new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)!, EndMembers = { EndMemberOption.Parse(c.Get(endMembers)) } }, c.Server.Call(t));
             c.Emit(response, () => PhasesTable(response.Phases),
                 Caption(response.Used) + (response.ChemicalSystem.Length > 0 ? $", system {response.ChemicalSystem}" : ", all systems"));
             return ExitCodes.Ok;
@@ -361,14 +364,15 @@ public static class CommandTree
     private static Command FacetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         var dataset = DatasetArgument();
-        var system = new Argument<string>("system") { Description = "chemical system, e.g. Li-Co-O" };
+        var system = new Argument<string>("system") { Description = "chemical system, e.g. Li-Co-O (omit with --end-members)", Arity = ArgumentArity.ZeroOrOne, DefaultValueFactory = _ => string.Empty };
         var version = VersionOption();
         var tieLines = new Option<bool>("--tie-lines") { Description = "list the tie-lines instead of the facets" };
-        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
             GetHullFacetsResponse response = await c.Server.Stability.GetHullFacetsAsync(
-                new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! }, c.Server.Call(t));
+                new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)!, EndMembers = { EndMemberOption.Parse(c.Get(endMembers)) } }, c.Server.Call(t));
             string caption = Caption(response.Used) + $", system {response.ChemicalSystem}";
             c.Emit(response, () => c.Get(tieLines) ? TieLinesTable(response.TieLines) : FacetsTable(response), caption);
             return ExitCodes.Ok;
