@@ -29,6 +29,7 @@ public static class CommandTree
         root.Subcommands.Add(StableCommand(wrap));
         root.Subcommands.Add(FacetsCommand(wrap));
         root.Subcommands.Add(AnalyzeCommand(wrap));
+        root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
@@ -36,9 +37,9 @@ public static class CommandTree
         return root;
     }
 
-    private static Argument<string> DatasetArgument() => new("dataset") { Description = "dataset name" };
+    internal static Argument<string> DatasetArgument() => new("dataset") { Description = "dataset name" };
 
-    private static Option<long> VersionOption() => new("--version")
+    internal static Option<long> VersionOption() => new("--version")
     {
         Description = "dataset version to read (default: the latest)",
         DefaultValueFactory = _ => 0,
@@ -456,11 +457,12 @@ public static class CommandTree
     {
         var data = new Option<string?>("--data") { Description = "folder of demo entry files (default: the repository's data-demo/)" };
         var keep = new Option<bool>("--keep-store") { Description = "keep the temporary store folder afterwards (its path is printed)" };
+        var figures = new Option<string>("--figures") { Description = "folder to write the demo's figures into", DefaultValueFactory = _ => DemoFigures.DefaultFolder };
         var command = new Command("demo", "start a server in this process on a free loopback port with a temporary store, import data-demo/, run every analysis over gRPC and print a report")
         {
-            data, keep,
+            data, keep, figures,
         };
-        command.SetAction(wrap((c, t) => new DemoRunner(c.Out, c.Err).RunAsync(c.Get(data), c.Get(keep), t)));
+        command.SetAction(wrap((c, t) => new DemoRunner(c.Out, c.Err) { FiguresFolder = c.Get(figures)! }.RunAsync(c.Get(data), c.Get(keep), t)));
         return command;
     }
 
