@@ -45,7 +45,7 @@ public sealed class DemoFigures(TextWriter output)
             ("binary-Li-O.svg", new DrawPhaseDiagramRequest { Dataset = dataset, ChemicalSystem = "Li-O" }),
             ("ternary-Li-Co-O.svg", new DrawPhaseDiagramRequest { Dataset = dataset, ChemicalSystem = "Li-Co-O" }),
             ("pseudo-ternary-layered-oxides.svg", WithEndMembers(new DrawPhaseDiagramRequest { Dataset = dataset, MaxAboveHullEvPerAtom = 0.05 })),
-            ("quaternary-Li-Co-Ni-O.svg", new DrawPhaseDiagramRequest { Dataset = dataset, ChemicalSystem = "Li-Co-Ni-O", ViewAzimuthDegrees = 30, ViewElevationDegrees = 15 }),
+            ("quaternary-Li-Co-Ni-O.svg", new DrawPhaseDiagramRequest { Dataset = dataset, ChemicalSystem = "Li-Co-Ni-O", ViewAzimuthDegrees = 200, ViewElevationDegrees = -30 }),
         };
         Table? table = null;
         foreach ((string file, DrawPhaseDiagramRequest request) in requests)
