@@ -42,7 +42,7 @@ public static class EndMemberList
                 case EndMember.SourceOneofCase.EntryId:
                     if (!snapshot.TryFind(member.EntryId, out int row))
                     {
-                        throw RpcErrors.NotFound(
+                        throw RpcErrors.EntryNotFound(snapshot.Version.Dataset, snapshot.Version.Version, member.EntryId,
                             $"end-member entry '{member.EntryId}' is not in dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}",
                             $"{at}.entry_id");
                     }
