@@ -53,7 +53,7 @@ public sealed class DemoTests
             double y = double.Parse((string)e.Attribute("y")!, CultureInfo.InvariantCulture);
             double width = e.Nodes().Sum(n => n is XText t ? t.Value.Length * 0.6 * size
                 : n is XElement tspan ? tspan.Value.Length * 0.6 * size * (tspan.Attribute("font-size") is null ? 1 : 0.72) : 0);
-            return (Id: (string)e.Attribute("data-phase")!, Left: x, Top: y - 0.75 * size, Right: x + width, Bottom: y + 0.4 * size);
+            return (Id: (string)e.Attribute("data-id")!, Left: x, Top: y - 0.75 * size, Right: x + width, Bottom: y + 0.4 * size);
         }).ToArray();
         Assert.True(boxes.Length >= 3, $"{name} has {boxes.Length} labels");
         for (int i = 0; i < boxes.Length; i++)

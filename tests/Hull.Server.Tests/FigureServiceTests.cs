@@ -32,7 +32,7 @@ public sealed class FigureServiceTests
         Assert.True(ternary.HiddenAboveCutoffCount >= 1);
         Assert.Equal(0.01, ternary.MaxAboveHullEvPerAtom);
         XDocument doc = AssertFigure(ternary, "Co-Li-O");
-        Assert.DoesNotContain(doc.Descendants(), e => (string?)e.Attribute("data-phase") == "LiCoO2-b");
+        Assert.DoesNotContain(doc.Descendants(), e => (string?)e.Attribute("data-id") == "LiCoO2-b");
 
         // The stable phases and tie-lines match what the stability service answers for the same hull.
         var facets = await s.Clients.Stability.GetHullFacetsAsync(new GetHullFacetsRequest { Dataset = "fig", ChemicalSystem = "Li-Co-O" }, s.Clients.Call());

@@ -47,25 +47,32 @@ internal static class BinaryFigure
         canvas.Text(32, yMid, input.Axis.Title, FigurePalette.LabelFontSize, "middle", $"transform=\"rotate(-90 32 {SvgText.Px(yMid)})\"");
 
         var placer = new LabelPlacer(new LabelBox(PlotLeft + 2, PlotTop + 2, PlotRight - PlotLeft - 4, PlotBottom - PlotTop - 4));
+        canvas.BeginEdges();
         foreach (FigureEdge edge in input.Edges)
         {
             FigurePoint a = plan.ById[edge.FirstId], b = plan.ById[edge.SecondId];
             canvas.Edge(edge, X(a), Y(a.EnergyEvPerAtom), X(b), Y(b.EnergyEvPerAtom), 1.0);
         }
 
+        canvas.EndGroup();
+        canvas.BeginUnstable();
         foreach (FigurePoint p in plan.Unstable)
         {
             double t = p.EnergyAboveHullEvPerAtom / plan.Cutoff;
             canvas.UnstableMarker(p, X(p), Y(p.EnergyEvPerAtom), AboveHullScale.ColorAt(t), PhaseDiagram.TitleOf(p, input.Axis));
             placer.Avoid(LabelBox.Around(X(p), Y(p.EnergyEvPerAtom), FigurePalette.UnstableMarkerRadius));
         }
+        canvas.EndGroup();
 
+        canvas.BeginStable();
         foreach (FigurePoint p in plan.Stable)
         {
             canvas.StableMarker(p, X(p), Y(p.EnergyEvPerAtom), PhaseDiagram.TitleOf(p, input.Axis));
             placer.Block(LabelBox.Around(X(p), Y(p.EnergyEvPerAtom), FigurePalette.StableMarkerRadius * 1.3));
         }
+        canvas.EndGroup();
 
+        canvas.BeginLabels();
         // The end components are named under the axis ends; the others get labels placed beside their markers.
         for (int k = 0; k < 2; k++)
         {
@@ -78,12 +85,12 @@ internal static class BinaryFigure
         foreach (FigurePoint p in plan.Stable.Where(p => FigurePlan.CornerOf(p) < 0).OrderBy(p => p.Fractions[1]))
         {
             (double w, double h) = LabelMetrics.Of(p.Formula, FigurePalette.LabelFontSize);
-            // Below the hull line first: the unstable entries crowd above it.
             (LabelBox box, bool leader) = placer.Place(X(p), Y(p.EnergyEvPerAtom), FigurePalette.StableMarkerRadius * 1.25, w, h);
             if (leader) canvas.Line(X(p), Y(p.EnergyEvPerAtom), box.X + box.Width / 2, box.Y + box.Height / 2, FigurePalette.Frame, 0.6);
             canvas.FormulaLabel(p.Formula, box, FigurePalette.LabelFontSize, p.Id);
         }
 
+        canvas.EndGroup();
         FigureLegend.Draw(canvas, LegendLeft, PlotTop, plan.Cutoff, input.Axis, plan.Hidden, "hull");
         canvas.Text(20, Height - 12, PhaseDiagram.Provenance(input.Metadata), FigurePalette.SmallFontSize, extra: $"fill-opacity=\"0.8\"");
         return plan.Result(canvas.Finish(FigureKind.Binary, input, $"{plan.Title}: {input.Axis.Title}"), FigureKind.Binary);

@@ -82,11 +82,10 @@ public sealed class FigureInput
     public static FigureInput FromHull(SystemHull hull, EnergyAxis axis, FigureMetadata metadata)
     {
         ArgumentNullException.ThrowIfNull(hull);
-        var points = new List<FigurePoint>(hull.Entries.Count + hull.Components.Count);
-        foreach (EntryStability e in hull.Entries)
+        var points = new List<FigurePoint>(hull.PointCount);
+        foreach (var (entry, fractions, energy, above, isVertex) in hull.PlotPoints())
         {
-            points.Add(new FigurePoint(e.Id, e.Composition.Formula, e.ComponentAtomFractions, e.FormationEnergyEvPerAtom,
-                e.EnergyAboveHullEvPerAtom, e.IsHullVertex));
+            points.Add(new FigurePoint(entry.Id, entry.Composition.Formula, fractions, energy, above, isVertex));
         }
 
         foreach (HullPhase phase in hull.StablePhases.Where(p => p.IsSynthetic))

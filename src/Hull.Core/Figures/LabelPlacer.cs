@@ -15,8 +15,8 @@ internal sealed class LabelPlacer(LabelBox bounds)
     private static readonly (double Dx, double Dy)[] Directions =
         [(1, 0), (-1, 0), (0, -1), (0, 1), (1, -1), (-1, -1), (1, 1), (-1, 1)];
 
-    private readonly List<LabelBox> _taken = [];
-    private readonly List<LabelBox> _avoid = [];
+    private readonly BoxGrid _taken = new();
+    private readonly BoxGrid _avoid = new();
 
     /// <summary>Labels that found no free position.</summary>
     public int Crowded { get; private set; }
@@ -52,7 +52,7 @@ internal sealed class LabelPlacer(LabelBox bounds)
                 double left = dx > 0 ? x + d : dx < 0 ? x - d - width : x - width / 2;
                 double top = dy > 0 ? y + d : dy < 0 ? y - d - height : y - height / 2;
                 var box = new LabelBox(left, top, width, height);
-                if (box.Inside(bounds) && !_taken.Any(t => t.Overlaps(box)) && !(soft && _avoid.Any(t => t.Overlaps(box))))
+                if (box.Inside(bounds) && !_taken.Overlaps(box) && !(soft && _avoid.Overlaps(box)))
                 {
                     _taken.Add(box);
                     found = box;

@@ -40,10 +40,13 @@ public static class PhaseDiagram
         };
     }
 
-    /// <summary>The tooltip of a phase: id, formula, and where it sits against the hull.</summary>
+    /// <summary>
+    /// The tooltip of a phase: where it sits against the hull. Unstable entries say only id and distance: there are
+    /// thousands of them in a large figure, and the formula would add a tenth to its size.
+    /// </summary>
     internal static string TitleOf(FigurePoint p, EnergyAxis axis) => p.IsStable
         ? string.Create(CultureInfo.InvariantCulture, $"{p.Id} ({p.Formula}): stable, on the hull at {p.EnergyEvPerAtom:0.000} {axis.Unit}")
-        : string.Create(CultureInfo.InvariantCulture, $"{p.Id} ({p.Formula}): {p.EnergyAboveHullEvPerAtom:0.000} {axis.Unit} above the hull");
+        : string.Create(CultureInfo.InvariantCulture, $"{p.Id}: {p.EnergyAboveHullEvPerAtom:0.000} {axis.Unit} above hull");
 
     /// <summary>The footer line with the data's provenance.</summary>
     internal static string Provenance(FigureMetadata m)

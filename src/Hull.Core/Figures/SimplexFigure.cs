@@ -78,6 +78,7 @@ internal static class SimplexFigure
         }
 
         // Depth of each edge's middle sets its opacity: near edges solid, far edges faded.
+        canvas.BeginEdges();
         foreach (FigureEdge edge in input.Edges)
         {
             var a = map(plan.ById[edge.FirstId].Fractions);
@@ -88,14 +89,18 @@ internal static class SimplexFigure
         }
 
         var placer = new LabelPlacer(new LabelBox(4, 56, LegendLeft - 12, Height - 56 - 26));
+        canvas.EndGroup();
+        canvas.BeginUnstable();
         foreach (FigurePoint p in plan.Unstable)
         {
             var (x, y, _) = map(p.Fractions);
             canvas.UnstableMarker(p, x, y, AboveHullScale.ColorAt(p.EnergyAboveHullEvPerAtom / plan.Cutoff), PhaseDiagram.TitleOf(p, input.Axis));
             placer.Avoid(LabelBox.Around(x, y, FigurePalette.UnstableMarkerRadius));
         }
+        canvas.EndGroup();
 
         var markers = new List<(FigurePoint Point, double X, double Y)>();
+        canvas.BeginStable();
         foreach (FigurePoint p in plan.Stable)
         {
             var (x, y, _) = map(p.Fractions);
@@ -103,7 +108,9 @@ internal static class SimplexFigure
             placer.Block(LabelBox.Around(x, y, FigurePalette.StableMarkerRadius * 1.3));
             markers.Add((p, x, y));
         }
+        canvas.EndGroup();
 
+        canvas.BeginLabels();
         // Corners are named just outside the figure, away from its centre.
         for (int k = 0; k < n; k++)
         {
@@ -130,6 +137,7 @@ internal static class SimplexFigure
             canvas.FormulaLabel(p.Formula, box, FigurePalette.LabelFontSize, p.Id);
         }
 
+        canvas.EndGroup();
         FigureLegend.Draw(canvas, LegendLeft, LegendTop, plan.Cutoff, input.Axis, plan.Hidden, "tie-line");
         canvas.Text(20, Height - 12, PhaseDiagram.Provenance(input.Metadata), FigurePalette.SmallFontSize, extra: "fill-opacity=\"0.8\"");
         return plan.Result(canvas.Finish(kind, input, plan.Title), kind);

@@ -34,13 +34,13 @@ public sealed class FigureStructureTests
         }
 
         // Every element that stands for a phase or an edge names it.
-        Assert.All(svg.OfKind("phase"), e => Assert.False(string.IsNullOrEmpty((string?)e.Attribute("data-phase"))));
-        Assert.All(svg.OfKind("label"), e => Assert.False(string.IsNullOrEmpty((string?)e.Attribute("data-phase"))));
+        Assert.All(svg.OfKind("phase"), e => Assert.False(string.IsNullOrEmpty((string?)e.Attribute("data-id"))));
+        Assert.All(svg.OfKind("label"), e => Assert.False(string.IsNullOrEmpty((string?)e.Attribute("data-id"))));
         Assert.All(svg.OfKind("edge"), e => Assert.False(string.IsNullOrEmpty((string?)e.Attribute("data-from")) || string.IsNullOrEmpty((string?)e.Attribute("data-to"))));
 
         // Every stable phase is marked and labelled; every tie-line of the hull is drawn once, and nothing else.
         Dictionary<string, XElement> markers = svg.Markers;
-        var labelled = svg.OfKind("label").Select(e => (string)e.Attribute("data-phase")!).ToHashSet(StringComparer.Ordinal);
+        var labelled = svg.OfKind("label").Select(e => (string)e.Attribute("data-id")!).ToHashSet(StringComparer.Ordinal);
         foreach (HullPhase phase in hull.StablePhases)
         {
             Assert.True(markers.ContainsKey(phase.Id), $"stable phase {phase.Id} has no marker");
@@ -57,7 +57,7 @@ public sealed class FigureStructureTests
             if (e.EnergyAboveHullEvPerAtom <= options.MaxAboveHullEvPerAtom)
             {
                 string title = markers[e.Id].Element(SvgFigure.Svg + "title")!.Value;
-                Assert.Contains(e.EnergyAboveHullEvPerAtom.ToString("0.000", CultureInfo.InvariantCulture) + " eV/atom above the hull", title);
+                Assert.Contains(e.EnergyAboveHullEvPerAtom.ToString("0.000", CultureInfo.InvariantCulture) + " eV/atom above hull", title);
             }
             else
             {

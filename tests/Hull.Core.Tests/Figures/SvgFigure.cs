@@ -31,10 +31,13 @@ public sealed class SvgFigure
 
     public IEnumerable<XElement> Elements => Document.Descendants();
 
-    public IEnumerable<XElement> OfKind(string kind) => Elements.Where(e => (string?)e.Attribute("data-kind") == kind);
+    /// <summary>Elements of a data-kind, written on the element or on the group around it, that name an id or edge.</summary>
+    public IEnumerable<XElement> OfKind(string kind) => Elements.Where(e =>
+        (e.Attribute("data-id") is not null || e.Attribute("data-from") is not null)
+        && (string?)e.AncestorsAndSelf().Select(a => a.Attribute("data-kind")).FirstOrDefault(a => a is not null) == kind);
 
     /// <summary>The marker of each phase, by id.</summary>
-    public Dictionary<string, XElement> Markers => OfKind("phase").ToDictionary(e => (string)e.Attribute("data-phase")!, StringComparer.Ordinal);
+    public Dictionary<string, XElement> Markers => OfKind("phase").ToDictionary(e => (string)e.Attribute("data-id")!, StringComparer.Ordinal);
 
     /// <summary>Drawn edges as (first, second) ids.</summary>
     public IReadOnlyList<(string First, string Second, XElement Element)> Edges =>
