@@ -92,7 +92,7 @@ public sealed class FigureInput
         {
             int corner = IndexOf(hull.Components, phase.Id);
             double[] fractions = hull.Components.Select((_, k) => k == corner ? 1.0 : 0.0).ToArray();
-            points.Add(new FigurePoint(phase.Id, phase.Composition.Formula, fractions, phase.FormationEnergyEvPerAtom, 0.0, true));
+            points.Add(new FigurePoint(phase.Id, phase.Composition.Formula, fractions, phase.AxisEnergyEvPerAtom, 0.0, true));
         }
 
         FigureEdge[] edges = hull.TieLines.Select(t => new FigureEdge(t.First.Id, t.Second.Id)).ToArray();

@@ -33,9 +33,9 @@ public static class EndMemberHull
         var byId = new Dictionary<string, double>(forReferences.Count, StringComparer.Ordinal);
         for (int row = 0; row < forReferences.Count; row++) byId[forReferences[row].Id] = formation.FormationEnergiesEvPerAtom[row];
 
-        var inputs = onCone.Select((e, row) => (e, row, byId[e.Id])).ToArray();
+        var inputs = onCone.Select((e, row) => (e, row, byId[e.Id], (double?)byId[e.Id])).ToArray();
         IReadOnlyList<ElementReference> used = formation.References
             .Where(r => basis.Elements.Contains(r.Symbol, StringComparer.Ordinal)).ToArray();
-        return new SystemHull(new ComponentSpace.OverEndMembers(basis), inputs, used);
+        return new SystemHull(HullAxis.FormationEnergy, new ComponentSpace.OverEndMembers(basis), inputs, used);
     }
 }

@@ -15,9 +15,9 @@ public sealed partial class SystemHull
         {
             HullPoint point = _points[i];
             // The same rule as an entry's stability: within the tolerance of the hull is on it.
-            double above = point.FormationEnergyEvPerAtom - _hull.LocatePoint(i).HullEnergyEvPerAtom;
+            double above = point.AxisEnergyEvPerAtom - _hull.LocatePoint(i).HullEnergyEvPerAtom;
             if (!(above > HullTolerances.EnergyEvPerAtom)) above = 0.0;
-            yield return (point.Entry!, point.Fractions, point.FormationEnergyEvPerAtom, above, _hull.IsVertex(i));
+            yield return (point.Entry!, point.Fractions, point.AxisEnergyEvPerAtom, above, _hull.IsVertex(i));
         }
     }
 }
