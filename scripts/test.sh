@@ -7,6 +7,7 @@ cd "$(dirname "$0")/.."
 missing=()
 command -v qconvex >/dev/null 2>&1 || missing+=(qhull-bin)
 command -v glpsol >/dev/null 2>&1 || missing+=(glpk-utils)
+command -v rsvg-convert >/dev/null 2>&1 || missing+=(librsvg2-bin)
 /usr/bin/python3 -c 'import scipy.optimize' >/dev/null 2>&1 || missing+=(python3-scipy)
 if ((${#missing[@]})); then
   echo "installing reference tools: ${missing[*]}"

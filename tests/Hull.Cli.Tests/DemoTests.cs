@@ -1,3 +1,6 @@
+using System.Globalization;
+using System.Xml.Linq;
+
 namespace Hull.Cli.Tests;
 
 /// <summary>`hull demo` runs end to end over real gRPC on the repository's data-demo/.</summary>
@@ -7,7 +10,8 @@ public sealed class DemoTests
     public async Task Demo_runs_every_analysis_and_reports()
     {
         string data = CliRun.RepositoryFile("data-demo");
-        var run = await CliRun.RunAsync("demo", "--data", data);
+        string figures = Path.Combine(Path.GetTempPath(), "hull-demo-figures-" + Guid.NewGuid().ToString("N")[..8]);
+        var run = await CliRun.RunAsync("demo", "--data", data, "--figures", figures);
         Assert.True(run.ExitCode == 0, run.Err);
         Assert.Contains("Standard gRPC health check: SERVING", run.Out);
         Assert.Contains("A batch with a typo (LiCoQ2) is refused: InvalidArgument, entries[1].formula: unknown element 'Q' at character 5", run.Out);
@@ -16,9 +20,50 @@ public sealed class DemoTests
         Assert.Contains("04-rerelaxed-layered.csv -> version 4: 0 inserted, 16 replaced", run.Out);
         Assert.Contains("Version 3 answers exactly as before the replacement: yes", run.Out);
         Assert.Contains("Exported 237 entries", run.Out);
-        foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "8. Versions", "9. Export" })
+        foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "7b. The layered-oxide triangle", "8. Versions", "9. Export", "10. Phase diagrams" })
         {
             Assert.Contains(section, run.Out);
+        }
+
+        Assert.Contains("on the LiCoO2-LiNiO2-LiMnO2 hull", run.Out);
+        Assert.Contains("Li-Co-Ni-Mn-O is refused: InvalidArgument", run.Out);
+        try
+        {
+            string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();
+            Assert.Equal(["binary-Li-O.svg", "pseudo-ternary-layered-oxides.svg", "quaternary-Li-Co-Ni-O.svg", "ternary-Li-Co-O.svg"], files.Select(Path.GetFileName));
+            foreach (string file in files) AssertNoLabelOverlaps(XDocument.Load(file), Path.GetFileName(file));
+        }
+        finally
+        {
+            Directory.Delete(figures, recursive: true);
+        }
+    }
+
+    /// <summary>
+    /// No two labels of a figure overlap. A label's box is estimated from its text: 0.6 em per character (0.72 of
+    /// that in subscripts), the capital height above the baseline and the subscript drop below (common practice
+    /// for a sans-serif font).
+    /// </summary>
+    private static void AssertNoLabelOverlaps(XDocument svg, string name)
+    {
+        var boxes = svg.Descendants().Where(e => e.Name.LocalName == "text" && (string?)e.Attribute("data-kind") == "label").Select(e =>
+        {
+            double size = double.Parse((string)e.Attribute("font-size")!, CultureInfo.InvariantCulture);
+            double x = double.Parse((string)e.Attribute("x")!, CultureInfo.InvariantCulture);
+            double y = double.Parse((string)e.Attribute("y")!, CultureInfo.InvariantCulture);
+            double width = e.Nodes().Sum(n => n is XText t ? t.Value.Length * 0.6 * size
+                : n is XElement tspan ? tspan.Value.Length * 0.6 * size * (tspan.Attribute("font-size") is null ? 1 : 0.72) : 0);
+            return (Id: (string)e.Attribute("data-id")!, Left: x, Top: y - 0.75 * size, Right: x + width, Bottom: y + 0.4 * size);
+        }).ToArray();
+        Assert.True(boxes.Length >= 3, $"{name} has {boxes.Length} labels");
+        for (int i = 0; i < boxes.Length; i++)
+        {
+            for (int j = i + 1; j < boxes.Length; j++)
+            {
+                var (a, b) = (boxes[i], boxes[j]);
+                bool overlap = a.Left < b.Right && b.Left < a.Right && a.Top < b.Bottom && b.Top < a.Bottom;
+                Assert.False(overlap, $"{name}: the labels of {a.Id} and {b.Id} overlap");
+            }
         }
     }
 }

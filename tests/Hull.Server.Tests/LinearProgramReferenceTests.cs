@@ -89,7 +89,7 @@ public sealed class LinearProgramReferenceTests
     };
 
     /// <summary>Hull energy at each query composition from hull_lp.py (fails, never skips, when the tool is missing).</summary>
-    private static double[] RunLinearProgram(List<long[]> amounts, double[] energies, List<double[]> queries)
+    internal static double[] RunLinearProgram(List<long[]> amounts, double[] energies, List<double[]> queries)
     {
         Assert.True(File.Exists(Python), $"{Python} (Debian python3 with python3-scipy) is required; scripts/test.sh installs it");
         string script = Path.Combine(AppContext.BaseDirectory, "References", "hull_lp.py");

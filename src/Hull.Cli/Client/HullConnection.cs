@@ -38,6 +38,7 @@ public sealed class HullConnection : IDisposable
         Stability = new StabilityService.StabilityServiceClient(_channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
+        Figures = new FigureService.FigureServiceClient(_channel);
     }
 
     public Uri Address { get; }
@@ -49,6 +50,8 @@ public sealed class HullConnection : IDisposable
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
 
     public Health.HealthClient Health { get; }
+
+    public FigureService.FigureServiceClient Figures { get; }
 
     /// <summary>Options for one call: the bearer token when given, the deadline, and cancellation.</summary>
     public CallOptions Call(CancellationToken cancellation)

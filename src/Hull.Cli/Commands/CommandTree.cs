@@ -29,6 +29,7 @@ public static class CommandTree
         root.Subcommands.Add(StableCommand(wrap));
         root.Subcommands.Add(FacetsCommand(wrap));
         root.Subcommands.Add(AnalyzeCommand(wrap));
+        root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
@@ -36,9 +37,9 @@ public static class CommandTree
         return root;
     }
 
-    private static Argument<string> DatasetArgument() => new("dataset") { Description = "dataset name" };
+    internal static Argument<string> DatasetArgument() => new("dataset") { Description = "dataset name" };
 
-    private static Option<long> VersionOption() => ValueOptions.WholeNumber(
+    internal static Option<long> VersionOption() => ValueOptions.WholeNumber(
         "--version", "dataset version to read (default: the latest)", min: 0, max: long.MaxValue, fallback: 0, meaning: "a dataset version");
 
     private static Option<bool> YesOption() => new(Confirmation.YesOptionName) { Description = "do not ask for confirmation" };
@@ -257,12 +258,14 @@ public static class CommandTree
         var ids = new Argument<string[]>("ids") { Description = "entry ids", Arity = ArgumentArity.OneOrMore };
         var version = VersionOption();
         var references = ReferenceOption.Create();
-        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version, references };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("stability", "energy above hull, decomposition and decomposition energy of stored entries") { dataset, ids, version, references, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new GetEntryStabilityRequest { Dataset = c.Get(dataset)!, Version = c.Get(version) };
             request.EntryIds.AddRange(c.Get(ids)!);
             ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            request.EndMembers.AddRange(EndMemberOption.Parse(c.Get(endMembers)));
             GetEntryStabilityResponse response = await c.Server.Stability.GetEntryStabilityAsync(request, c.Server.Call(t));
             c.Emit(response, () => StabilityTable(response.Results, response.Used), Caption(response.Used));
             if (!c.Quiet) CoverageWarnings.Write(c.Err, response.Coverage, storedEntries: true);
@@ -359,11 +362,13 @@ public static class CommandTree
         var system = new Option<string>("--system") { Description = "chemical system, e.g. Li-Co-O (default: the whole dataset)" };
         var version = VersionOption();
         var references = ReferenceOption.Create();
-        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version, references };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("stable", "the stable phases (hull vertices)") { dataset, system, version, references, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new GetStablePhasesRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system) ?? string.Empty };
             ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            request.EndMembers.AddRange(EndMemberOption.Parse(c.Get(endMembers)));
             GetStablePhasesResponse response = await c.Server.Stability.GetStablePhasesAsync(request, c.Server.Call(t));
             c.Emit(response, () => PhasesTable(response.Phases),
                 Caption(response.Used) + (response.ChemicalSystem.Length > 0 ? $", system {response.ChemicalSystem}" : ", all systems"));
@@ -380,15 +385,17 @@ public static class CommandTree
     private static Command FacetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         var dataset = DatasetArgument();
-        var system = new Argument<string>("system") { Description = "chemical system, e.g. Li-Co-O" };
+        var system = new Argument<string>("system") { Description = "chemical system, e.g. Li-Co-O (omit with --end-members)", Arity = ArgumentArity.ZeroOrOne, DefaultValueFactory = _ => string.Empty };
         var version = VersionOption();
         var tieLines = new Option<bool>("--tie-lines") { Description = "list the tie-lines instead of the facets" };
         var references = ReferenceOption.Create();
-        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines, references };
+        var endMembers = EndMemberOption.Create();
+        var command = new Command("facets", "hull facets with their chemical potentials, or tie-lines") { dataset, system, version, tieLines, references, endMembers };
         command.SetAction(wrap(async (c, t) =>
         {
-            var request = new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)! };
+            var request = new GetHullFacetsRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system) ?? string.Empty };
             ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
+            request.EndMembers.AddRange(EndMemberOption.Parse(c.Get(endMembers)));
             GetHullFacetsResponse response = await c.Server.Stability.GetHullFacetsAsync(request, c.Server.Call(t));
             string caption = Caption(response.Used) + $", system {response.ChemicalSystem}";
             c.Emit(response, () => c.Get(tieLines) ? TieLinesTable(response.TieLines) : FacetsTable(response), caption);
@@ -487,11 +494,12 @@ public static class CommandTree
     {
         var data = new Option<string?>("--data") { Description = "folder of demo entry files (default: the repository's data-demo/)" };
         var keep = new Option<bool>("--keep-store") { Description = "keep the temporary store folder afterwards (its path is printed)" };
+        var figures = new Option<string>("--figures") { Description = "folder to write the demo's figures into", DefaultValueFactory = _ => DemoFigures.DefaultFolder };
         var command = new Command("demo", "start a server in this process on a free loopback port with a temporary store, import data-demo/, run every analysis over gRPC and print a report")
         {
-            data, keep,
+            data, keep, figures,
         };
-        command.SetAction(wrap((c, t) => new DemoRunner(c.Out, c.Err).RunAsync(c.Get(data), c.Get(keep), t)));
+        command.SetAction(wrap((c, t) => new DemoRunner(c.Out, c.Err) { FiguresFolder = c.Get(figures)! }.RunAsync(c.Get(data), c.Get(keep), t)));
         return command;
     }
 

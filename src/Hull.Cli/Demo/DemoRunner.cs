@@ -18,6 +18,9 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
 {
     public const string DatasetName = "cathode-screen";
 
+    /// <summary>The folder the demo writes its figures into (relative to the current folder unless rooted).</summary>
+    public string FiguresFolder { get; init; } = DemoFigures.DefaultFolder;
+
     public async Task<int> RunAsync(string? dataFolder, bool keepStore, CancellationToken cancellation)
     {
         string? data = DemoDataLocator.Find(dataFolder);
@@ -166,6 +169,8 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
             output.WriteLine("  tie-lines: " + string.Join("; ", facets.TieLines.Select(l => $"{l.FirstPhaseId} - {l.SecondPhaseId}")));
         }
 
+        await new DemoFigures(output).RunEndMembersAsync(hull, DatasetName, t);
+
         // 8. Versioning: a replacement makes a new version; the old one answers exactly as before.
         Heading("8. Versions: round 2 replaces 16 entries; the earlier version is unchanged");
         foreach (string file in Directory.GetFiles(Path.Combine(data, "round2")).Order(StringComparer.Ordinal))
@@ -207,6 +212,7 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         output.WriteLine($"  Hull cache: {stats.HullBuilds} hulls built, {stats.HullCacheHits} answers from the cache, {stats.VersionLoads} versions loaded, {stats.DatasetAnalyses} whole-dataset analyses.");
         output.WriteLine($"  Limits: {limits.MaxComponentsPerSystem} components and {limits.MaxEntriesPerSystem} entries per chemical system, " +
                          $"{limits.MaxCompositionsPerRequest} compositions per request, {limits.MaxReceiveMessageBytes} bytes per request message.");
+        await new DemoFigures(output).RunFiguresAsync(hull, DatasetName, FiguresFolder, t);
         output.WriteLine();
         // Results like these are read as "this compound can be made"; say plainly that they are not a safety assessment.
         output.WriteLine("Caution: these are computed energies for screening only. A phase marked stable says nothing about how to");

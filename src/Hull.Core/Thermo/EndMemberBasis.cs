@@ -115,6 +115,13 @@ public sealed class EndMemberBasis
         return atoms.Select(a => (a / total).ToDouble()).ToArray();
     }
 
+    /// <summary>True when <paramref name="composition"/> is a non-negative combination of the end-members.</summary>
+    public bool Contains(Composition composition)
+    {
+        ArgumentNullException.ThrowIfNull(composition);
+        return TryExpress(composition, out _, out _);
+    }
+
     /// <summary>Exact formula-unit amounts, or a failure text that completes "Formula ...".</summary>
     internal bool TryExpress(Composition composition, out Rational[] formulaUnits, out string failure)
     {

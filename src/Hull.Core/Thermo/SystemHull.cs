@@ -18,7 +18,7 @@ namespace Hull.Core.Thermo;
 /// with pure entries has its corner at its lowest entry. Over end-members, each end-member needs an entry of its
 /// reduced composition.
 /// </remarks>
-public sealed class SystemHull
+public sealed partial class SystemHull
 {
     private readonly ComponentSpace _space;
     private readonly HullAxis _axis;

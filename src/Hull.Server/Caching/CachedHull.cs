@@ -18,4 +18,7 @@ public sealed class CachedHull
 
     /// <summary>The stability of entry <paramref name="id"/>, which must be one of the hull's entries.</summary>
     public EntryStability StabilityOf(string id) => _byId.Value[id];
+
+    /// <summary>The stability of entry <paramref name="id"/>; false when the hull does not hold it.</summary>
+    public bool TryStabilityOf(string id, out EntryStability stability) => _byId.Value.TryGetValue(id, out stability!);
 }

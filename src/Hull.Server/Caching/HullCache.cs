@@ -73,6 +73,29 @@ public sealed class HullCache
         }, Counters.CountHullHit, cancellation);
     }
 
+    /// <summary>
+    /// The hull over the compound end-members of <paramref name="basis"/>: every entry of the snapshot that is a
+    /// non-negative combination of them, with the elemental references of the end-members' elements.
+    /// </summary>
+    /// <exception cref="Grpc.Core.RpcException">RESOURCE_EXHAUSTED past the component or entry limit.</exception>
+    public Task<CachedHull> GetEndMemberHullAsync(VersionSnapshot snapshot, EndMemberBasis basis, CancellationToken cancellation)
+    {
+        // Component order matters (it is the hull's axis order), so the key keeps the order given.
+        string system = string.Join('-', basis.Names);
+        if (basis.Names.Count > _limits.MaxComponentsPerSystem)
+        {
+            throw RpcErrors.LimitExceeded("max_components_per_system", _limits.MaxComponentsPerSystem,
+                $"{basis.Names.Count} end-members; the limit is {_limits.MaxComponentsPerSystem} components per chemical system");
+        }
+
+        CheckSystemLimits(snapshot, basis.Elements, string.Join('-', basis.Elements));
+        return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, "end-members:" + system, string.Empty), _maxHulls, () =>
+        {
+            Counters.CountHullBuild();
+            return new CachedHull(EndMemberHull.Build(snapshot.EntriesWithin(basis.Elements), basis));
+        }, Counters.CountHullHit, cancellation);
+    }
+
     /// <summary>The stability of every entry of the snapshot, each from the smallest maximal system that contains it.</summary>
     public Task<DatasetStabilityResult> GetAnalysisAsync(
         VersionSnapshot snapshot, CancellationToken cancellation, ElementalReferenceList? references = null)

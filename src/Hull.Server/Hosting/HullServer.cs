@@ -155,6 +155,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<DatasetGrpcService>();
         app.MapGrpcService<StabilityGrpcService>();
         app.MapGrpcService<DiagnosticsGrpcService>();
+        app.MapGrpcService<FigureGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

@@ -35,6 +35,25 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
 
         var response = new GetEntryStabilityResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        EndMemberBasis? basis = EndMemberList.Read(request.EndMembers, snapshot, "end_members");
+        if (basis is not null)
+        {
+            CachedHull pseudo = await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken);
+            for (int i = 0; i < rows.Length; i++)
+            {
+                if (!pseudo.TryStabilityOf(request.EntryIds[i], out Core.Thermo.EntryStability stability))
+                {
+                    throw RpcErrors.WithViolations(StatusCode.FailedPrecondition,
+                        $"entry '{request.EntryIds[i]}' ({snapshot.FormulasAsStored[rows[i]]}) is not a non-negative combination of the end-members {pseudo.Hull.SystemName}",
+                        [new FieldViolation($"entry_ids[{i}]", "not on the end-members' hull")]);
+                }
+
+                response.Results.Add(WireMapping.ToWire(stability, snapshot.FormulasAsStored[rows[i]]));
+            }
+
+            return response;
+        }
+
         var used = new HullsUsed();
         foreach (int row in rows)
         {
@@ -159,6 +178,13 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
+        if (await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, context) is { } pseudo)
+        {
+            var onEndMembers = new GetStablePhasesResponse { Used = WireMapping.ToWire(snapshot.Version), ChemicalSystem = pseudo.Hull.SystemName };
+            onEndMembers.Phases.AddRange(pseudo.Hull.StablePhases.Select(WireMapping.ToWire));
+            return onEndMembers;
+        }
+
         var response = new GetStablePhasesResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
@@ -203,10 +229,11 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
 
     public override async Task<GetHullFacetsResponse> GetHullFacets(GetHullFacetsRequest request, ServerCallContext context)
     {
-        IReadOnlyList<string> elements = ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
+        IReadOnlyList<string>? elements = request.EndMembers.Count > 0 ? null : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
+        CachedHull hull = await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, context)
+                          ?? await cache.GetHullAsync(snapshot, elements!, context.CancellationToken, references);
         var response = new GetHullFacetsResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
@@ -258,6 +285,21 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             start += pageSize;
         }
         while (start < count);
+    }
+
+    /// <summary>The hull over the request's end-members, or null when it names none.</summary>
+    private async Task<CachedHull?> EndMemberHullAsync(
+        IReadOnlyList<EndMember> endMembers, string chemicalSystem, VersionSnapshot snapshot, ServerCallContext context)
+    {
+        if (endMembers.Count == 0) return null;
+        if (chemicalSystem.Length > 0)
+        {
+            throw RpcErrors.InvalidArgument("chemical_system",
+                $"give either chemical_system ('{chemicalSystem}') or end_members, not both: the end-members define the hull's components");
+        }
+
+        EndMemberBasis basis = EndMemberList.Read(endMembers, snapshot, "end_members")!;
+        return await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken);
     }
 
     private async Task<VersionSnapshot> SnapshotAsync(string dataset, long version, ServerCallContext context)

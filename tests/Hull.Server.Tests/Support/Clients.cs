@@ -19,6 +19,7 @@ public sealed class Clients : IDisposable
         });
         Datasets = new DatasetService.DatasetServiceClient(Channel);
         Stability = new StabilityService.StabilityServiceClient(Channel);
+        Figures = new FigureService.FigureServiceClient(Channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(Channel);
     }
 
@@ -27,6 +28,8 @@ public sealed class Clients : IDisposable
     public DatasetService.DatasetServiceClient Datasets { get; }
 
     public StabilityService.StabilityServiceClient Stability { get; }
+
+    public FigureService.FigureServiceClient Figures { get; }
 
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
 

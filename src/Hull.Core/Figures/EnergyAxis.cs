@@ -1,0 +1,16 @@
+namespace Hull.Core.Figures;
+
+/// <summary>
+/// The quantity a figure plots on its energy axis: the energy the hull was built over (a formation energy, a grand
+/// potential, a free energy at a temperature), named and with its unit, so that every kind of hull draws the same way.
+/// </summary>
+/// <param name="Name">What the energy is, e.g. "Formation energy".</param>
+/// <param name="Unit">Its unit, e.g. "eV/atom".</param>
+public sealed record EnergyAxis(string Name, string Unit)
+{
+    /// <summary>Formation energy per atom from the elemental references: what a closed hull is built over.</summary>
+    public static EnergyAxis FormationEnergy { get; } = new("Formation energy", "eV/atom");
+
+    /// <summary>"Name (unit)".</summary>
+    public string Title => $"{Name} ({Unit})";
+}
