@@ -26,11 +26,21 @@ public static class TemperatureBisection
         int signChanges = 0;
         double previousK = fromK;
         double previousValue = function(fromK);
+        if (!double.IsFinite(previousValue))
+        {
+            return NonFinite(fromK, fromK, toK, 0, 0);
+        }
+
         double? exactRootK = previousValue == 0 ? fromK : null;
         for (int i = 1; i <= intervals; i++)
         {
             double k = i == intervals ? toK : fromK + i * step;
             double value = function(k);
+            if (!double.IsFinite(value))
+            {
+                return NonFinite(k, fromK, toK, 0, signChanges);
+            }
+
             if (value == 0)
             {
                 exactRootK ??= k;
@@ -66,6 +76,11 @@ public static class TemperatureBisection
         {
             double mid = 0.5 * (a + b);
             double fm = function(mid);
+            if (!double.IsFinite(fm))
+            {
+                return NonFinite(mid, fromK, toK, steps, signChanges);
+            }
+
             if (fm == 0 || b - a <= GasTolerances.TemperatureBracketK)
             {
                 return new TemperatureSolveResult(TemperatureSolveStatus.Converged, mid, a, b, steps, signChanges, fromK, toK);
@@ -85,4 +100,7 @@ public static class TemperatureBisection
         return new TemperatureSolveResult(TemperatureSolveStatus.StepLimitReached, 0.5 * (a + b), a, b,
             GasTolerances.MaximumBisectionSteps, signChanges, fromK, toK);
     }
+
+    private static TemperatureSolveResult NonFinite(double atK, double fromK, double toK, int steps, int signChanges) =>
+        new(TemperatureSolveStatus.NonFiniteValue, atK, atK, atK, steps, signChanges, fromK, toK);
 }

@@ -9,6 +9,9 @@ public enum TemperatureSolveStatus
     /// <summary>The function does not change sign anywhere in the range searched: no temperature there gives the target.</summary>
     NoSignChangeInRange,
 
+    /// <summary>The function gave a non-finite value at <see cref="TemperatureSolveResult.TemperatureK"/>; the solve stopped there.</summary>
+    NonFiniteValue,
+
     /// <summary>The step limit was reached before the bracket narrowed to the tolerance; the midpoint is the best estimate.</summary>
     StepLimitReached,
 }
