@@ -3,14 +3,16 @@ using Hull.Core.Chemistry;
 namespace Hull.Core.Thermo;
 
 /// <summary>
-/// How a composition with a given formation energy would sit against an existing hull, without adding it.
+/// How a composition with a given energy on the hull's axis would sit against an existing hull, without adding it.
 /// </summary>
 public sealed class CandidateStability
 {
-    internal CandidateStability(Composition composition, double formationEnergyEvPerAtom, double energyRelativeToHullEvPerAtom, Decomposition decomposition)
+    internal CandidateStability(
+        Composition composition, HullAxis axis, double axisEnergyEvPerAtom, double energyRelativeToHullEvPerAtom, Decomposition decomposition)
     {
         Composition = composition;
-        FormationEnergyEvPerAtom = formationEnergyEvPerAtom;
+        Axis = axis;
+        AxisEnergyEvPerAtom = axisEnergyEvPerAtom;
         EnergyRelativeToHullEvPerAtom = energyRelativeToHullEvPerAtom;
         Decomposition = decomposition;
     }
@@ -18,10 +20,17 @@ public sealed class CandidateStability
     /// <summary>The candidate's composition.</summary>
     public Composition Composition { get; }
 
-    /// <summary>The candidate's formation energy (eV/atom).</summary>
-    public double FormationEnergyEvPerAtom { get; }
+    /// <summary>The energy axis of the hull it was assessed against.</summary>
+    public HullAxis Axis { get; }
 
-    /// <summary>Formation energy minus the hull energy at the composition (eV/atom); negative when it would lower the hull.</summary>
+    /// <summary>The candidate's energy on that axis (<see cref="HullAxis.Unit"/>): its formation energy on the closed hull.</summary>
+    public double AxisEnergyEvPerAtom { get; }
+
+    /// <summary>The candidate's formation energy (eV/atom) where the axis is formation energy; null otherwise.</summary>
+    public double? FormationEnergyEvPerAtom =>
+        Axis.Quantity == HullAxisQuantity.FormationEnergy ? AxisEnergyEvPerAtom : null;
+
+    /// <summary>Axis energy minus the hull energy at the composition; negative when it would lower the hull.</summary>
     public double EnergyRelativeToHullEvPerAtom { get; }
 
     /// <summary>max(0, <see cref="EnergyRelativeToHullEvPerAtom"/>) (eV/atom).</summary>

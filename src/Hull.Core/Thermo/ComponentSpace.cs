@@ -22,12 +22,12 @@ internal abstract class ComponentSpace
     public string SystemName { get; }
 
     /// <summary>Atoms per component in one formula unit, or a failure text that completes "Formula ...".</summary>
-    public abstract bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure);
+    public abstract bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure);
 
     /// <summary>Components over chemical elements, in ordinal symbol order.</summary>
     public sealed class OverElements(IReadOnlyList<string> symbols) : ComponentSpace(symbols)
     {
-        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure)
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure)
         {
             foreach (string element in composition.Elements)
             {
@@ -39,10 +39,16 @@ internal abstract class ComponentSpace
                 }
             }
 
-            componentAtoms = new BigFraction[Names.Count];
+            return TryMapWithin(composition, out componentAtoms, out failure);
+        }
+
+        /// <summary>The atoms of the system's elements, ignoring any other element of the composition.</summary>
+        internal bool TryMapWithin(Composition composition, out Rational[] componentAtoms, out string failure)
+        {
+            componentAtoms = new Rational[Names.Count];
             for (int k = 0; k < componentAtoms.Length; k++)
             {
-                componentAtoms[k] = BigFraction.FromRational(composition.AmountOf(Names[k]));
+                componentAtoms[k] = composition.AmountOf(Names[k]);
             }
 
             failure = string.Empty;
@@ -63,12 +69,47 @@ internal abstract class ComponentSpace
         }
     }
 
+    /// <summary>
+    /// Components over the closed elements of an open-element hull, in ordinal symbol order: the open elements are
+    /// exchanged with a reservoir, so they are dropped from the coordinates (atoms count closed elements only).
+    /// </summary>
+    public sealed class OverClosedElements(IReadOnlyList<string> closed, IReadOnlyList<OpenElement> open) : ComponentSpace(closed)
+    {
+        private readonly OverElements _closed = new(closed);
+
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure)
+        {
+            bool anyClosed = false;
+            foreach (string element in composition.Elements)
+            {
+                bool isOpen = open.Any(o => string.Equals(o.Symbol, element, StringComparison.Ordinal));
+                if (!isOpen && !Names.Contains(element, StringComparer.Ordinal))
+                {
+                    componentAtoms = [];
+                    failure = $"contains {element}, which is neither a closed element of {SystemName} nor open.";
+                    return false;
+                }
+
+                anyClosed |= !isOpen;
+            }
+
+            if (!anyClosed)
+            {
+                componentAtoms = [];
+                failure = $"has no closed element of {SystemName}: made of open elements only, it is part of the reservoir.";
+                return false;
+            }
+
+            return _closed.TryMapWithin(composition, out componentAtoms, out failure);
+        }
+    }
+
     /// <summary>Components over compound end-members, in the basis order.</summary>
     public sealed class OverEndMembers(EndMemberBasis basis) : ComponentSpace(basis.Names)
     {
         public EndMemberBasis Basis { get; } = basis;
 
-        public override bool TryMap(Composition composition, out BigFraction[] componentAtoms, out string failure) =>
+        public override bool TryMap(Composition composition, out Rational[] componentAtoms, out string failure) =>
             Basis.TryComponentAtoms(composition, out componentAtoms, out failure);
     }
 }

@@ -58,7 +58,7 @@ internal sealed class DatasetPoints
                     failed = true;
                 }
 
-                _phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formationEvPerAtom[row]);
+                _phases[row] = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formationEvPerAtom[row], formationEvPerAtom[row]);
             });
 
         if (failed)

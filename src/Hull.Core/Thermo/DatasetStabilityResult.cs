@@ -11,6 +11,9 @@ public sealed class DatasetStabilityResult
         References = references;
     }
 
+    /// <summary>The energy axis of every hull of the analysis: formation energy per atom.</summary>
+    public HullAxis Axis => HullAxis.FormationEnergy;
+
     /// <summary>One result per entry, in the order the entries were given.</summary>
     public IReadOnlyList<EntryStability> Entries { get; }
 

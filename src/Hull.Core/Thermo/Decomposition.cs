@@ -10,9 +10,10 @@ namespace Hull.Core.Thermo;
 /// </summary>
 public sealed class Decomposition
 {
-    internal Decomposition(Composition composition, double hullEnergyEvPerAtom, IReadOnlyList<DecompositionProduct> products)
+    internal Decomposition(Composition composition, HullAxis axis, double hullEnergyEvPerAtom, IReadOnlyList<DecompositionProduct> products)
     {
         Composition = composition;
+        Axis = axis;
         HullEnergyEvPerAtom = hullEnergyEvPerAtom;
         Products = products;
     }
@@ -20,7 +21,13 @@ public sealed class Decomposition
     /// <summary>The composition that decomposes (as written: the reaction is per one formula unit of it).</summary>
     public Composition Composition { get; }
 
-    /// <summary>Formation energy of the hull at this composition (eV/atom).</summary>
+    /// <summary>The hull's energy axis.</summary>
+    public HullAxis Axis { get; }
+
+    /// <summary>
+    /// The hull's energy at this composition, on its axis (<see cref="HullAxis.Unit"/>; on the closed hull, the
+    /// formation energy in eV/atom). On an open-element hull the reaction balances the closed elements only.
+    /// </summary>
     public double HullEnergyEvPerAtom { get; }
 
     /// <summary>The hull phases, sorted by id; a composition on a hull vertex has that one vertex.</summary>

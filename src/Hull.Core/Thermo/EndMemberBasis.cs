@@ -10,8 +10,8 @@ namespace Hull.Core.Thermo;
 /// </summary>
 public sealed class EndMemberBasis
 {
-    private readonly BigFraction[][] _elementVectors;
-    private readonly BigFraction[] _atomsPerFormulaUnit;
+    private readonly Rational[][] _elementVectors;
+    private readonly Rational[] _atomsPerFormulaUnit;
 
     /// <param name="endMembers">The end-member compositions; their order is the hull's component order.</param>
     /// <param name="names">Names for the end-members (e.g. "LiCoO2" as usually written, or "cathode"); default: their formulas.</param>
@@ -54,7 +54,7 @@ public sealed class EndMemberBasis
             }
         }
         _elementVectors = endMembers.Select(ElementVector).ToArray();
-        _atomsPerFormulaUnit = endMembers.Select(c => BigFraction.FromRational(c.AtomsPerFormulaUnit)).ToArray();
+        _atomsPerFormulaUnit = endMembers.Select(c => c.AtomsPerFormulaUnit).ToArray();
 
         // Add the end-members one by one; the first that does not raise the rank is a combination of earlier ones.
         for (int j = 0; j < _elementVectors.Length; j++)
@@ -83,16 +83,15 @@ public sealed class EndMemberBasis
     /// (exact; e.g. LiCo0.5Ni0.5O2 = 1/2 LiCoO2 + 1/2 LiNiO2).
     /// </summary>
     /// <exception cref="ThermoInputException">When the composition is not a non-negative combination of the end-members.</exception>
-    /// <exception cref="OverflowException">When an amount does not fit in a 64-bit fraction.</exception>
     public IReadOnlyList<Rational> FormulaUnitsOf(Composition composition)
     {
         ArgumentNullException.ThrowIfNull(composition);
-        if (!TryExpress(composition, out BigFraction[]? formulaUnits, out string? failure))
+        if (!TryExpress(composition, out Rational[]? formulaUnits, out string? failure))
         {
             throw new ThermoInputException($"{composition.Formula} {failure}");
         }
 
-        return formulaUnits.Select(ToRational).ToArray();
+        return formulaUnits;
     }
 
     /// <summary>
@@ -102,13 +101,13 @@ public sealed class EndMemberBasis
     public IReadOnlyList<double> AtomFractionsOf(Composition composition)
     {
         ArgumentNullException.ThrowIfNull(composition);
-        if (!TryComponentAtoms(composition, out BigFraction[]? atoms, out string? failure))
+        if (!TryComponentAtoms(composition, out Rational[]? atoms, out string? failure))
         {
             throw new ThermoInputException($"{composition.Formula} {failure}");
         }
 
-        BigFraction total = BigFraction.Zero;
-        foreach (BigFraction a in atoms)
+        Rational total = Rational.Zero;
+        foreach (Rational a in atoms)
         {
             total += a;
         }
@@ -117,7 +116,7 @@ public sealed class EndMemberBasis
     }
 
     /// <summary>Exact formula-unit amounts, or a failure text that completes "Formula ...".</summary>
-    internal bool TryExpress(Composition composition, out BigFraction[] formulaUnits, out string failure)
+    internal bool TryExpress(Composition composition, out Rational[] formulaUnits, out string failure)
     {
         formulaUnits = [];
         string[] outside = composition.Elements.Where(e => !Elements.Contains(e, StringComparer.Ordinal)).ToArray();
@@ -127,7 +126,17 @@ public sealed class EndMemberBasis
             return false;
         }
 
-        BigFraction[]? solution = ExactLinearAlgebra.Solve(_elementVectors, ElementVector(composition));
+        Rational[]? solution;
+        try
+        {
+            solution = ExactLinearAlgebra.Solve(_elementVectors, ElementVector(composition));
+        }
+        catch (OverflowException)
+        {
+            failure = $"needs amounts of the end-members {string.Join(", ", Names)} that do not fit in 64-bit fractions; write it with smaller numbers.";
+            return false;
+        }
+
         if (solution is null)
         {
             failure = $"is not a combination of the end-members {string.Join(", ", Names)} (its element ratios lie outside their span).";
@@ -149,28 +158,32 @@ public sealed class EndMemberBasis
     }
 
     /// <summary>Atoms contributed by each end-member to one formula unit of the composition.</summary>
-    internal bool TryComponentAtoms(Composition composition, out BigFraction[] atoms, out string failure)
+    internal bool TryComponentAtoms(Composition composition, out Rational[] atoms, out string failure)
     {
-        if (!TryExpress(composition, out BigFraction[] formulaUnits, out failure))
+        if (!TryExpress(composition, out Rational[] formulaUnits, out failure))
         {
             atoms = [];
             return false;
         }
 
-        atoms = new BigFraction[formulaUnits.Length];
-        for (int j = 0; j < atoms.Length; j++)
+        atoms = new Rational[formulaUnits.Length];
+        try
         {
-            atoms[j] = formulaUnits[j] * _atomsPerFormulaUnit[j];
+            for (int j = 0; j < atoms.Length; j++)
+            {
+                atoms[j] = formulaUnits[j] * _atomsPerFormulaUnit[j];
+            }
+        }
+        catch (OverflowException)
+        {
+            atoms = [];
+            failure = $"needs atoms of the end-members {string.Join(", ", Names)} that do not fit in 64-bit fractions; write it with smaller numbers.";
+            return false;
         }
 
         return true;
     }
 
-    private BigFraction[] ElementVector(Composition composition) =>
-        Elements.Select(e => BigFraction.FromRational(composition.AmountOf(e))).ToArray();
-
-    private static Rational ToRational(BigFraction value) =>
-        value.TryToRational(out Rational r)
-            ? r
-            : throw new OverflowException($"End-member amount {value} does not fit in a 64-bit fraction.");
+    private Rational[] ElementVector(Composition composition) =>
+        Elements.Select(e => composition.AmountOf(e)).ToArray();
 }

@@ -9,7 +9,9 @@ public sealed class EntryStability
         PhaseEntry entry,
         int rowIndex,
         string hullSystem,
-        double formationEnergyEvPerAtom,
+        HullAxis axis,
+        double axisEnergyEvPerAtom,
+        double? formationEnergyEvPerAtom,
         double? formationEnergyFromEndMembersEvPerAtom,
         IReadOnlyList<double> componentAtomFractions,
         double energyAboveHullEvPerAtom,
@@ -20,6 +22,8 @@ public sealed class EntryStability
         Entry = entry;
         RowIndex = rowIndex;
         HullSystem = hullSystem;
+        Axis = axis;
+        AxisEnergyEvPerAtom = axisEnergyEvPerAtom;
         FormationEnergyEvPerAtom = formationEnergyEvPerAtom;
         FormationEnergyFromEndMembersEvPerAtom = formationEnergyFromEndMembersEvPerAtom;
         ComponentAtomFractions = componentAtomFractions;
@@ -44,19 +48,25 @@ public sealed class EntryStability
     /// <summary>The hull that answered: its components joined by '-' (e.g. "Fe-O", or "LiCoO2-LiNiO2").</summary>
     public string HullSystem { get; }
 
-    /// <summary>Formation energy from the elements (eV/atom).</summary>
-    public double FormationEnergyEvPerAtom { get; }
+    /// <summary>The energy axis of the hull that answered; every energy of this record but the formation energy is on it.</summary>
+    public HullAxis Axis { get; }
+
+    /// <summary>The entry's energy on the hull's axis (<see cref="HullAxis.Unit"/>).</summary>
+    public double AxisEnergyEvPerAtom { get; }
+
+    /// <summary>Formation energy from the elements (eV/atom); null where the axis energies were given without it.</summary>
+    public double? FormationEnergyEvPerAtom { get; }
 
     /// <summary>
-    /// For a hull over compound end-members: formation energy per atom relative to the end-members' hull corners
-    /// (eV/atom); null for a hull over elements, where it equals <see cref="FormationEnergyEvPerAtom"/>.
+    /// For a hull over compound end-members: the axis energy relative to the end-members' hull corners (per atom);
+    /// null for a hull over elements, where it equals <see cref="AxisEnergyEvPerAtom"/>.
     /// </summary>
     public double? FormationEnergyFromEndMembersEvPerAtom { get; }
 
     /// <summary>Atom fractions of the hull's components (elements, or end-members), in component order.</summary>
     public IReadOnlyList<double> ComponentAtomFractions { get; }
 
-    /// <summary>Energy above the hull (eV/atom), 0 on the hull.</summary>
+    /// <summary>Energy above the hull on its axis (per atom as the axis counts atoms), 0 on the hull.</summary>
     public double EnergyAboveHullEvPerAtom { get; }
 
     /// <summary>True when the entry lies on the hull (energy above hull 0, within the hull tolerance).</summary>

@@ -26,6 +26,40 @@ public static class FormationEnergies
         return new FormationEnergySet(energies, used);
     }
 
+    /// <summary>
+    /// The formation energy per atom of a candidate assessed against an existing hull: a formation energy passes
+    /// through; a total energy takes the hull's own elemental references (<see cref="SystemHull.References"/>), the
+    /// same ones its entries were placed with, so candidate and entries share one energy scale.
+    /// </summary>
+    /// <param name="candidate">The candidate, in any basis.</param>
+    /// <param name="references">The references the hull used.</param>
+    /// <exception cref="ThermoInputException">A total energy with an element the references lack; names the candidate and the element.</exception>
+    public static double OfCandidate(PhaseEntry candidate, IReadOnlyList<ElementReference> references)
+    {
+        ArgumentNullException.ThrowIfNull(candidate);
+        ArgumentNullException.ThrowIfNull(references);
+        var byElement = new Dictionary<string, ElementReference>(StringComparer.Ordinal);
+        if (candidate.IsTotalEnergy)
+        {
+            foreach (string symbol in candidate.Composition.Elements)
+            {
+                ElementReference? reference = references.FirstOrDefault(r => string.Equals(r.Symbol, symbol, StringComparison.Ordinal));
+                if (reference is null)
+                {
+                    throw new ThermoInputException(
+                        $"Candidate '{candidate.Id}' ({candidate.Composition.Formula}) is a total energy, but the hull has no elemental reference for {symbol}: "
+                        + $"its entries hold no total-energy entry of pure {symbol} (missing elemental reference).",
+                        entryId: candidate.Id,
+                        element: symbol);
+                }
+
+                byElement[symbol] = reference;
+            }
+        }
+
+        return FormationEvPerAtom(candidate, byElement);
+    }
+
     private static double FormationEvPerAtom(PhaseEntry entry, IReadOnlyDictionary<string, ElementReference> references)
     {
         double perAtom = entry.EnergyEvPerAtom;

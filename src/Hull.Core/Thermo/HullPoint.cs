@@ -1,3 +1,4 @@
+using Hull.Core.Chemistry;
 using System.Numerics;
 
 namespace Hull.Core.Thermo;
@@ -9,21 +10,21 @@ namespace Hull.Core.Thermo;
 /// </remarks>
 internal sealed class HullPoint
 {
-    private BigFraction[]? _componentAtoms;
+    private Rational[]? _componentAtoms;
     private double[]? _fractions;
     private readonly PreparedCoordinates? _prepared;
     private readonly int[]? _columns;
 
     /// <summary>A point from its exact component atoms (any component space).</summary>
-    public HullPoint(HullPhase phase, PhaseEntry? entry, int rowIndex, BigFraction[] componentAtoms)
+    public HullPoint(HullPhase phase, PhaseEntry? entry, int rowIndex, Rational[] componentAtoms)
     {
         Phase = phase;
         Entry = entry;
         RowIndex = rowIndex;
         SortRank = -1;
         _componentAtoms = componentAtoms;
-        BigFraction total = BigFraction.Zero;
-        foreach (BigFraction a in componentAtoms)
+        Rational total = Rational.Zero;
+        foreach (Rational a in componentAtoms)
         {
             total += a;
         }
@@ -68,9 +69,9 @@ internal sealed class HullPoint
     public int SortRank { get; }
 
     /// <summary>Atoms contributed by each component to one formula unit as written (exact).</summary>
-    public BigFraction[] ComponentAtoms => _componentAtoms ??= Expand(_prepared!.Atoms, BigFraction.Zero);
+    public Rational[] ComponentAtoms => _componentAtoms ??= Expand(_prepared!.Atoms, Rational.Zero);
 
-    public BigFraction AtomsPerFormulaUnit { get; }
+    public Rational AtomsPerFormulaUnit { get; }
 
     /// <summary>The component atoms scaled to coprime integers: the engine's input and the reduced-composition key.</summary>
     public long[] Amounts { get; }
@@ -84,13 +85,14 @@ internal sealed class HullPoint
     /// <summary>True when the point is made of one component alone.</summary>
     public bool IsPureComponent => PureComponent >= 0;
 
-    public double FormationEnergyEvPerAtom => Phase.FormationEnergyEvPerAtom;
+    /// <summary>The energy the hull is built over (the axis energy per counted atom).</summary>
+    public double AxisEnergyEvPerAtom => Phase.AxisEnergyEvPerAtom;
 
     /// <summary>True when both points have the same reduced composition (equal coprime amounts).</summary>
     public bool HasSameCompositionAs(HullPoint other) => Amounts.AsSpan().SequenceEqual(other.Amounts);
 
     /// <summary>Atom fractions a / total of exact amounts, each rounded once to the nearest double.</summary>
-    internal static double[] FractionsOf(BigFraction[] atoms, BigFraction total)
+    internal static double[] FractionsOf(Rational[] atoms, Rational total)
     {
         var fractions = new double[atoms.Length];
         for (int k = 0; k < atoms.Length; k++)
@@ -102,10 +104,10 @@ internal sealed class HullPoint
     }
 
     /// <summary>Exact positive amounts scaled by the LCM of their denominators, then divided by their GCD.</summary>
-    internal static long[] ScaleToIntegers(BigFraction[] amounts, string id, int rowIndex)
+    internal static long[] ScaleToIntegers(Rational[] amounts, string id, int rowIndex)
     {
         BigInteger lcm = BigInteger.One;
-        foreach (BigFraction a in amounts)
+        foreach (Rational a in amounts)
         {
             lcm = lcm / BigInteger.GreatestCommonDivisor(lcm, a.Denominator) * a.Denominator;
         }

@@ -7,15 +7,20 @@ namespace Hull.Core.Thermo;
 /// </summary>
 public sealed class PhaseFacet
 {
-    internal PhaseFacet(IReadOnlyList<HullPhase> phases, IReadOnlyList<string> components, IReadOnlyList<double> chemicalPotentialsEvPerAtom)
+    internal PhaseFacet(
+        IReadOnlyList<HullPhase> phases, IReadOnlyList<string> components, HullAxis axis, IReadOnlyList<double> chemicalPotentialsEvPerAtom)
     {
         Phases = phases;
+        Axis = axis;
         Components = components;
         ChemicalPotentialsEvPerAtom = chemicalPotentialsEvPerAtom;
     }
 
     /// <summary>The corner phases, sorted by id.</summary>
     public IReadOnlyList<HullPhase> Phases { get; }
+
+    /// <summary>The hull's energy axis (on an open-element hull, the potentials are those of the closed elements at the open ones' fixed values).</summary>
+    public HullAxis Axis { get; }
 
     /// <summary>The hull's components, in the order of <see cref="ChemicalPotentialsEvPerAtom"/>.</summary>
     public IReadOnlyList<string> Components { get; }

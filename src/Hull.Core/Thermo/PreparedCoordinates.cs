@@ -10,7 +10,7 @@ namespace Hull.Core.Thermo;
 /// </summary>
 internal sealed class PreparedCoordinates
 {
-    private PreparedCoordinates(BigFraction[] atoms, BigFraction atomsPerFormulaUnit, long[] amounts, double[] fractions)
+    private PreparedCoordinates(Rational[] atoms, Rational atomsPerFormulaUnit, long[] amounts, double[] fractions)
     {
         Atoms = atoms;
         AtomsPerFormulaUnit = atomsPerFormulaUnit;
@@ -19,9 +19,9 @@ internal sealed class PreparedCoordinates
     }
 
     /// <summary>Atoms of each own element in one formula unit as written.</summary>
-    public BigFraction[] Atoms { get; }
+    public Rational[] Atoms { get; }
 
-    public BigFraction AtomsPerFormulaUnit { get; }
+    public Rational AtomsPerFormulaUnit { get; }
 
     /// <summary>The atoms scaled to coprime integers.</summary>
     public long[] Amounts { get; }
@@ -33,11 +33,11 @@ internal sealed class PreparedCoordinates
     public static PreparedCoordinates Of(PhaseEntry entry, int rowIndex)
     {
         Composition composition = entry.Composition;
-        var atoms = new BigFraction[composition.Elements.Count];
-        BigFraction total = BigFraction.Zero;
+        var atoms = new Rational[composition.Elements.Count];
+        Rational total = Rational.Zero;
         for (int e = 0; e < atoms.Length; e++)
         {
-            atoms[e] = BigFraction.FromRational(composition.AmountOf(composition.Elements[e]));
+            atoms[e] = composition.AmountOf(composition.Elements[e]);
             total += atoms[e];
         }
 

@@ -4,10 +4,12 @@ using Hull.Core.Geometry;
 namespace Hull.Core.Thermo;
 
 /// <summary>
-/// The convex hull of formation energy per atom over one chemical system: over its elements, or over compound
-/// end-members (pseudo-binary, pseudo-ternary, ...). Built once from a list of entries; reports every entry's
-/// stability, the stable phases, facets with their chemical potentials and tie-lines, and answers queries at any
-/// composition. Results do not depend on the order of the entries. Immutable and safe to share between threads.
+/// The convex hull of an energy per atom over one chemical system: over its elements, or over compound end-members
+/// (pseudo-binary, pseudo-ternary, ...). The energy is that of the hull's <see cref="Axis"/>: formation energy for
+/// the closed hull, or any other energy measured from the elemental references (a grand potential over the closed
+/// elements, a free energy at a temperature, one sample of an uncertain energy). Built once from a list of entries;
+/// reports every entry's stability, the stable phases, facets with their chemical potentials and tie-lines, and
+/// answers queries at any composition. Results do not depend on the order of the entries. Immutable and safe to share between threads.
 /// </summary>
 /// <remarks>
 /// Over elements, an element with no pure entry gets a synthetic reference point at formation energy 0 (id = the
@@ -19,6 +21,7 @@ namespace Hull.Core.Thermo;
 public sealed class SystemHull
 {
     private readonly ComponentSpace _space;
+    private readonly HullAxis _axis;
     private readonly HullPoint[] _points;
     private readonly IHullStability _hull;
     private readonly Lazy<LowerHull> _facetHull;
@@ -65,7 +68,62 @@ public sealed class SystemHull
         }
 
         return new SystemHull(
-            new ComponentSpace.OverElements(symbols), Inputs(entries, formation), formation.References);
+            HullAxis.FormationEnergy, new ComponentSpace.OverElements(symbols), Inputs(entries, formation), formation.References);
+    }
+
+    /// <summary>
+    /// The hull of entries already placed on <paramref name="axis"/> (their energies are what is hulled), over the
+    /// system's elements, or over its closed elements when the axis has open ones.
+    /// </summary>
+    /// <param name="axis">What the energies are; carried on every result.</param>
+    /// <param name="entries">Entries with their axis energies; ids unique.</param>
+    /// <param name="elements">The system's (closed) elements; default: every element of the entries that is not open.</param>
+    /// <param name="references">The elemental references behind the energies, reported as used; default none.</param>
+    /// <exception cref="ThermoInputException">Bad rows, an open element among the system's elements, or an entry outside the system.</exception>
+    public static SystemHull OnAxis(
+        HullAxis axis,
+        IReadOnlyList<HullAxisEntry> entries,
+        IReadOnlyList<string>? elements = null,
+        IReadOnlyList<ElementReference>? references = null)
+    {
+        ArgumentNullException.ThrowIfNull(axis);
+        ArgumentNullException.ThrowIfNull(entries);
+        for (int row = 0; row < entries.Count; row++)
+        {
+            if (entries[row] is null)
+            {
+                throw new ThermoInputException($"Row {row} is empty: every row needs an entry and its axis energy.", rowIndex: row);
+            }
+        }
+
+        EntryList.Validate(entries.Select(e => e.Entry).ToArray());
+        string[] symbols = elements is null
+            ? entries.SelectMany(e => e.Entry.Composition.Elements).Where(s => !axis.IsOpen(s)).Distinct().Order(StringComparer.Ordinal).ToArray()
+            : elements.Distinct().Order(StringComparer.Ordinal).ToArray();
+        foreach (string symbol in symbols)
+        {
+            if (!ElementTable.IsSymbol(symbol))
+            {
+                throw new ThermoInputException($"System element '{symbol}' is not an element symbol.", element: symbol);
+            }
+
+            if (axis.IsOpen(symbol))
+            {
+                throw new ThermoInputException(
+                    $"Element {symbol} is open on the axis ({axis.DisplayName}); list only the closed elements of the system.", element: symbol);
+            }
+        }
+
+        if (symbols.Length == 0)
+        {
+            throw new ThermoInputException("A hull needs at least one closed element: give entries with one, or the list of elements.");
+        }
+
+        ComponentSpace space = axis.OpenElements.Count == 0
+            ? new ComponentSpace.OverElements(symbols)
+            : new ComponentSpace.OverClosedElements(symbols, axis.OpenElements);
+        var inputs = entries.Select((e, row) => (e.Entry, row, e.AxisEnergyEvPerAtom, e.FormationEnergyEvPerAtom)).ToArray();
+        return new SystemHull(axis, space, inputs, references ?? []);
     }
 
     /// <summary>The hull of entries over compound end-members; every entry must be a non-negative combination of them.</summary>
@@ -78,19 +136,21 @@ public sealed class SystemHull
     {
         ArgumentNullException.ThrowIfNull(basis);
         FormationEnergySet formation = FormationEnergies.Compute(entries, references);
-        return new SystemHull(new ComponentSpace.OverEndMembers(basis), Inputs(entries, formation), formation.References);
+        return new SystemHull(
+            HullAxis.FormationEnergy, new ComponentSpace.OverEndMembers(basis), Inputs(entries, formation), formation.References);
     }
 
-    private static (PhaseEntry Entry, int Row, double FormationEvPerAtom)[] Inputs(
+    private static (PhaseEntry Entry, int Row, double AxisEvPerAtom, double? FormationEvPerAtom)[] Inputs(
         IReadOnlyList<PhaseEntry> entries, FormationEnergySet formation) =>
-        entries.Select((e, row) => (e, row, formation.FormationEnergiesEvPerAtom[row])).ToArray();
+        entries.Select((e, row) => (e, row, formation.FormationEnergiesEvPerAtom[row], (double?)formation.FormationEnergiesEvPerAtom[row])).ToArray();
 
-    /// <summary>Builds the hull from entries with their formation energies already known; ids must be unique.</summary>
+    /// <summary>Builds the hull from entries with their axis energies already known; ids must be unique.</summary>
     internal SystemHull(
+        HullAxis axis,
         ComponentSpace space,
-        IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs,
+        IReadOnlyList<(PhaseEntry Entry, int Row, double AxisEvPerAtom, double? FormationEvPerAtom)> inputs,
         IReadOnlyList<ElementReference> references)
-        : this(space, MapInputs(space, inputs), references)
+        : this(axis, space, MapInputs(space, inputs), references)
     {
     }
 
@@ -98,13 +158,15 @@ public sealed class SystemHull
     /// Builds the hull from the points of its entries, in any order; synthetic corners are added here. The hull
     /// takes the array over (it is sorted in place).
     /// </summary>
+    /// <param name="axis">What the points' energies are.</param>
     /// <param name="space">The components.</param>
     /// <param name="points">The entries' points (synthetic corners are added here).</param>
     /// <param name="references">The elemental references used.</param>
     /// <param name="onDemand">Work out each point's stability when first asked (a dataset's hull reports only some of
     /// its points); such a hull is for one thread only.</param>
-    internal SystemHull(ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references, bool onDemand = false)
+    internal SystemHull(HullAxis axis, ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references, bool onDemand = false)
     {
+        _axis = axis;
         _space = space;
         References = references;
 
@@ -117,7 +179,7 @@ public sealed class SystemHull
         for (int i = 0; i < _points.Length; i++)
         {
             amounts[i] = _points[i].Amounts;
-            energies[i] = _points[i].FormationEnergyEvPerAtom;
+            energies[i] = _points[i].AxisEnergyEvPerAtom;
         }
 
         var input = HullInput.Check(amounts, energies);
@@ -133,7 +195,7 @@ public sealed class SystemHull
             {
                 if (_points[v].IsPureComponent)
                 {
-                    _endMemberCornerEvPerAtom[_points[v].PureComponent] = _points[v].FormationEnergyEvPerAtom;
+                    _endMemberCornerEvPerAtom[_points[v].PureComponent] = _points[v].AxisEnergyEvPerAtom;
                 }
             }
         }
@@ -152,19 +214,19 @@ public sealed class SystemHull
     }
 
     private static HullPoint[] MapInputs(
-        ComponentSpace space, IReadOnlyList<(PhaseEntry Entry, int Row, double FormationEvPerAtom)> inputs)
+        ComponentSpace space, IReadOnlyList<(PhaseEntry Entry, int Row, double AxisEvPerAtom, double? FormationEvPerAtom)> inputs)
     {
         var points = new HullPoint[inputs.Count];
         for (int k = 0; k < points.Length; k++)
         {
-            (PhaseEntry entry, int row, double formation) = inputs[k];
-            if (!space.TryMap(entry.Composition, out BigFraction[] atoms, out string failure))
+            (PhaseEntry entry, int row, double axisEnergy, double? formation) = inputs[k];
+            if (!space.TryMap(entry.Composition, out Rational[] atoms, out string failure))
             {
                 throw new ThermoInputException(
                     $"Entry '{entry.Id}' (row {row}): {entry.Composition.Formula} {failure}", entryId: entry.Id, rowIndex: row);
             }
 
-            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, formation);
+            var phase = new HullPhase(entry.Id, isSynthetic: false, entry.Composition, axisEnergy, formation);
             points[k] = new HullPoint(phase, entry, row, atoms);
         }
 
@@ -206,6 +268,9 @@ public sealed class SystemHull
     /// <summary>Row of the entry at canonical index <paramref name="i"/> (-1 for a synthetic reference).</summary>
     internal int RowOfPoint(int i) => _points[i].RowIndex;
 
+    /// <summary>What the hull's energies are: quantity, name, unit and which atoms they count.</summary>
+    public HullAxis Axis => _axis;
+
     /// <summary>The components (element symbols, or end-member formulas) in hull order.</summary>
     public IReadOnlyList<string> Components => _space.Names;
 
@@ -244,15 +309,15 @@ public sealed class SystemHull
     /// <exception cref="ThermoInputException">When the composition lies outside the system.</exception>
     public Decomposition DecompositionAt(Composition composition)
     {
-        BigFraction[] atoms = MapQuery(composition);
+        Rational[] atoms = MapQuery(composition);
         HullPosition position = _hull.Locate(FractionsOf(atoms));
         return BuildDecomposition(composition, atoms, position);
     }
 
     /// <summary>
     /// The chemical potential of each component (in <see cref="Components"/> order) at a composition of the system:
-    /// eV per atom of that component, relative to its reference (the formation-energy axis: the potentials at a pure
-    /// component's own corner are 0), those of a hull facet that holds the composition, so that the hull energy there
+    /// eV per atom of that component on the hull's axis (on the closed formation-energy hull: relative to its
+    /// reference, so the potentials at a pure component's own corner are 0), those of a hull facet that holds the composition, so that the hull energy there
     /// is Σ_k mu_k x_k. Unique inside a facet; where facets meet (a tie-line, a stable phase, the edge of the system)
     /// one facet's, and the set of all of them is the composition's chemical-potential window
     /// (<see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>).
@@ -261,26 +326,29 @@ public sealed class SystemHull
     public IReadOnlyList<double> ChemicalPotentialsEvPerAtomAt(Composition composition) =>
         Array.AsReadOnly(_hull.ChemicalPotentialsEvPerAtomAt(FractionsOf(MapQuery(composition))));
 
-    /// <summary>The hull energy (formation energy of the hull, eV/atom) at any composition of the system.</summary>
+    /// <summary>The hull energy on the hull's axis (on the closed hull: formation energy, eV/atom) at any composition of the system.</summary>
     public double HullEnergyEvPerAtomAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
 
-    /// <summary>How a phase of this composition and formation energy (eV/atom) would sit against the hull, without adding it.</summary>
+    /// <summary>
+    /// How a phase of this composition and energy on the hull's axis (on the closed hull: its formation energy, eV/atom)
+    /// would sit against the hull, without adding it.
+    /// </summary>
     /// <exception cref="ThermoInputException">When the composition lies outside the system or the energy is not finite.</exception>
-    public CandidateStability Assess(Composition composition, double formationEnergyEvPerAtom)
+    public CandidateStability Assess(Composition composition, double axisEnergyEvPerAtom)
     {
-        if (!double.IsFinite(formationEnergyEvPerAtom))
+        if (!double.IsFinite(axisEnergyEvPerAtom))
         {
-            throw new ThermoInputException($"The formation energy of candidate {composition?.Formula} is not finite.");
+            throw new ThermoInputException($"The {_axis.DisplayName} of candidate {composition?.Formula} is not finite.");
         }
 
         Decomposition decomposition = DecompositionAt(composition!);
-        double relative = formationEnergyEvPerAtom - decomposition.HullEnergyEvPerAtom;
+        double relative = axisEnergyEvPerAtom - decomposition.HullEnergyEvPerAtom;
         if (Math.Abs(relative) <= HullTolerances.EnergyEvPerAtom)
         {
             relative = 0.0;
         }
 
-        return new CandidateStability(composition!, formationEnergyEvPerAtom, relative, decomposition);
+        return new CandidateStability(composition!, _axis, axisEnergyEvPerAtom, relative, decomposition);
     }
 
     /// <summary>The stability of the point at canonical index <paramref name="i"/>, which must be an entry.</summary>
@@ -289,7 +357,7 @@ public sealed class SystemHull
         HullPoint point = _points[i];
         PhaseEntry entry = point.Entry ?? throw new InvalidOperationException("A synthetic reference has no stability record.");
         HullPosition position = _hull.LocatePoint(i);
-        double above = point.FormationEnergyEvPerAtom - position.HullEnergyEvPerAtom;
+        double above = point.AxisEnergyEvPerAtom - position.HullEnergyEvPerAtom;
         if (!(above > HullTolerances.EnergyEvPerAtom))
         {
             above = 0.0;
@@ -304,7 +372,7 @@ public sealed class SystemHull
                 corners += point.Fractions[k] * _endMemberCornerEvPerAtom[k];
             }
 
-            fromEndMembers = point.FormationEnergyEvPerAtom - corners;
+            fromEndMembers = point.AxisEnergyEvPerAtom - corners;
         }
 
         double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergyEvPerAtom(i) : null;
@@ -312,7 +380,9 @@ public sealed class SystemHull
             entry,
             point.RowIndex,
             SystemName,
-            point.FormationEnergyEvPerAtom,
+            _axis,
+            point.AxisEnergyEvPerAtom,
+            point.Phase.FormationEnergyEvPerAtom,
             fromEndMembers,
             point.Fractions,
             above,
@@ -338,13 +408,13 @@ public sealed class SystemHull
             .Where(j => !_points[j].HasSameCompositionAs(point))
             .ToArray();
         double hullWithout = HullEnergyOfSubset(others, point.Fractions);
-        return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
+        return SnapDecompositionEnergy(point.AxisEnergyEvPerAtom - hullWithout);
     }
 
     private double DecompositionEnergyEvPerAtom(int i) =>
         // Both engines know the hull at a composition without it (the program engine solved exactly that; the
         // incremental hull answers from the vertex's star).
-        SnapDecompositionEnergy(_points[i].FormationEnergyEvPerAtom - _hull.HullEnergyWithoutCompositionEvPerAtom(i)!.Value);
+        SnapDecompositionEnergy(_points[i].AxisEnergyEvPerAtom - _hull.HullEnergyWithoutCompositionEvPerAtom(i)!.Value);
 
     // An entry on the hull cannot lie above the hull without its composition; differences within the hull
     // tolerance are ties (an entry that only touches the hull), reported as exactly 0.
@@ -358,16 +428,16 @@ public sealed class SystemHull
         for (int k = 0; k < subset.Length; k++)
         {
             amounts[k] = _points[subset[k]].Amounts;
-            energies[k] = _points[subset[k]].FormationEnergyEvPerAtom;
+            energies[k] = _points[subset[k]].AxisEnergyEvPerAtom;
         }
 
         return LowerHull.Build(amounts, energies).Locate(fractions).HullEnergyEvPerAtom;
     }
 
-    private BigFraction[] MapQuery(Composition composition)
+    private Rational[] MapQuery(Composition composition)
     {
         ArgumentNullException.ThrowIfNull(composition);
-        if (!_space.TryMap(composition, out BigFraction[] atoms, out string failure))
+        if (!_space.TryMap(composition, out Rational[] atoms, out string failure))
         {
             throw new ThermoInputException($"{composition.Formula} {failure}");
         }
@@ -375,10 +445,10 @@ public sealed class SystemHull
         return atoms;
     }
 
-    private static double[] FractionsOf(BigFraction[] atoms)
+    private static double[] FractionsOf(Rational[] atoms)
     {
-        BigFraction total = BigFraction.Zero;
-        foreach (BigFraction a in atoms)
+        Rational total = Rational.Zero;
+        foreach (Rational a in atoms)
         {
             total += a;
         }
@@ -391,10 +461,10 @@ public sealed class SystemHull
     /// point; the coefficients are then solved exactly from the compositions (the phases of one facet are linearly
     /// independent, so the balance is unique). Floating-point weights are the fallback should the exact balance fail.
     /// </summary>
-    private Decomposition BuildDecomposition(Composition composition, BigFraction[] targetAtoms, HullPosition position)
+    private Decomposition BuildDecomposition(Composition composition, Rational[] targetAtoms, HullPosition position)
     {
-        BigFraction targetTotal = BigFraction.Zero;
-        foreach (BigFraction a in targetAtoms)
+        Rational targetTotal = Rational.Zero;
+        foreach (Rational a in targetAtoms)
         {
             targetTotal += a;
         }
@@ -404,7 +474,7 @@ public sealed class SystemHull
 
         // Phases containing a component the target lacks can only carry weight 0 exactly.
         var candidates = new List<int>(vertices.Count);
-        var columns = new List<BigFraction[]>(vertices.Count);
+        var columns = new List<Rational[]>(vertices.Count);
         for (int k = 0; k < vertices.Count; k++)
         {
             if (WithinSupport(_points[vertices[k]].ComponentAtoms, targetAtoms))
@@ -414,23 +484,7 @@ public sealed class SystemHull
             }
         }
 
-        BigFraction[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
-        if (exact is not null && Array.TrueForAll(exact, c => c.Sign >= 0))
-        {
-            for (int k = 0; k < candidates.Count; k++)
-            {
-                if (exact[k].IsZero)
-                {
-                    continue;
-                }
-
-                HullPoint product = _points[candidates[k]];
-                double fraction = (exact[k] * product.AtomsPerFormulaUnit / targetTotal).ToDouble();
-                Rational? coefficient = exact[k].TryToRational(out Rational r) ? r : null;
-                products.Add((candidates[k], fraction, exact[k].ToDouble(), coefficient));
-            }
-        }
-        else
+        if (!TryExactProducts(candidates, columns, targetAtoms, targetTotal, products))
         {
             double totalAtoms = targetTotal.ToDouble();
             for (int k = 0; k < vertices.Count; k++)
@@ -450,10 +504,52 @@ public sealed class SystemHull
             ordered[k] = new DecompositionProduct(_points[p].Phase, atomFraction, formulaUnits, coefficient);
         }
 
-        return new Decomposition(composition, position.HullEnergyEvPerAtom, ordered);
+        return new Decomposition(composition, _axis, position.HullEnergyEvPerAtom, ordered);
     }
 
-    private static bool WithinSupport(BigFraction[] candidate, BigFraction[] target)
+    /// <summary>
+    /// The products of an exactly balanced reaction, or false (nothing added) when the balance has no non-negative
+    /// solution or a coefficient does not fit in a 64-bit fraction.
+    /// </summary>
+    private bool TryExactProducts(
+        List<int> candidates,
+        List<Rational[]> columns,
+        Rational[] targetAtoms,
+        Rational targetTotal,
+        List<(int Point, double AtomFraction, double FormulaUnits, Rational? Exact)> products)
+    {
+        var exactProducts = new List<(int, double, double, Rational?)>(candidates.Count);
+        try
+        {
+            Rational[]? exact = ExactLinearAlgebra.Solve(columns, targetAtoms);
+            if (exact is null || !Array.TrueForAll(exact, c => c.Sign >= 0))
+            {
+                return false;
+            }
+
+            for (int k = 0; k < candidates.Count; k++)
+            {
+                if (exact[k].IsZero)
+                {
+                    continue;
+                }
+
+                HullPoint product = _points[candidates[k]];
+                double fraction = (exact[k] * product.AtomsPerFormulaUnit / targetTotal).ToDouble();
+                exactProducts.Add((candidates[k], fraction, exact[k].ToDouble(), exact[k]));
+            }
+        }
+        catch (OverflowException)
+        {
+            // Coefficients beyond 64-bit fractions: the floating-point weights answer instead.
+            return false;
+        }
+
+        products.AddRange(exactProducts);
+        return true;
+    }
+
+    private static bool WithinSupport(Rational[] candidate, Rational[] target)
     {
         for (int k = 0; k < candidate.Length; k++)
         {
@@ -501,11 +597,11 @@ public sealed class SystemHull
                     $"End-member {name} has no entry: a hull over end-members needs at least one entry of each end-member's reduced composition.");
             }
 
-            // An element without entries sits at its reference state: formation energy 0 by definition.
+            // An element without entries sits at its reference state: 0 on every axis (all are measured from the references).
             Composition single = Composition.Parse(name);
-            var atoms = new BigFraction[space.Names.Count];
-            atoms[k] = BigFraction.One;
-            all[next++] = new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0), null, -1, atoms);
+            var atoms = new Rational[space.Names.Count];
+            atoms[k] = Rational.One;
+            all[next++] = new HullPoint(new HullPhase(name, isSynthetic: true, single, 0.0, 0.0), null, -1, atoms);
         }
 
         return all;
@@ -516,6 +612,7 @@ public sealed class SystemHull
             .Select(f => new PhaseFacet(
                 f.VertexPoints.Order().Select(v => _points[v].Phase).ToArray(),
                 Components,
+                _axis,
                 f.ChemicalPotentialsEvPerAtom.ToArray()))
             .ToArray();
 

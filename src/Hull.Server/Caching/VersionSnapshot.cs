@@ -8,16 +8,14 @@ using Hull.Store;
 namespace Hull.Server.Caching;
 
 /// <summary>
-/// One dataset version read from the store and parsed once: its entries in id order, each entry's chemical system,
-/// and the entries grouped by chemical system so that the entries within any system are found without a scan of
-/// every row. Immutable after construction (the per-system counts are memoised thread-safely).
+/// One dataset version read from the store and parsed once: its entries in id order, and their grouping by chemical
+/// system (Core's <see cref="ChemicalSystemGrouping"/>) so that the entries within any system are found without a
+/// scan of every row. Immutable after construction (the per-system counts are memoised thread-safely).
 /// </summary>
 public sealed class VersionSnapshot
 {
     private readonly Dictionary<string, int> _indexById;
-    private readonly Dictionary<string, List<int>> _rowsBySystem;
-    private readonly Dictionary<string, HashSet<string>> _elementsBySystem;
-    private readonly string[] _systemOfRow;
+    private readonly ChemicalSystemGrouping _systems;
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
 
     private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored)
@@ -26,24 +24,16 @@ public sealed class VersionSnapshot
         Entries = entries;
         FormulasAsStored = formulasAsStored;
         _indexById = new Dictionary<string, int>(entries.Length, StringComparer.Ordinal);
-        _rowsBySystem = new Dictionary<string, List<int>>(StringComparer.Ordinal);
-        _elementsBySystem = new Dictionary<string, HashSet<string>>(StringComparer.Ordinal);
-        _systemOfRow = new string[entries.Length];
         for (int i = 0; i < entries.Length; i++)
         {
             _indexById[entries[i].Id] = i;
-            string system = entries[i].Composition.ChemicalSystem;
-            _systemOfRow[i] = system;
-            if (!_rowsBySystem.TryGetValue(system, out List<int>? rows))
-            {
-                _rowsBySystem[system] = rows = [];
-                _elementsBySystem[system] = new HashSet<string>(entries[i].Composition.Elements, StringComparer.Ordinal);
-            }
-
-            rows.Add(i);
         }
 
-        MaximalSystems = FindMaximalSystems();
+        _systems = new ChemicalSystemGrouping(entries.Select(e => e.Composition).ToArray());
+        MaximalSystems = Enumerable.Range(0, _systems.MaximalCount)
+            .OrderBy(_systems.MaximalName, StringComparer.Ordinal)
+            .Select(_systems.MaximalElements)
+            .ToArray();
     }
 
     public VersionRef Version { get; }
@@ -81,9 +71,6 @@ public sealed class VersionSnapshot
         return new VersionSnapshot(version, entries, formulas);
     }
 
-    /// <summary>The chemical system (elements joined by '-', ordinal order) of the entry in <paramref name="row"/>.</summary>
-    public string SystemOf(int row) => _systemOfRow[row];
-
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>
     public bool TryFind(string id, out int row) => _indexById.TryGetValue(id, out row);
 
@@ -91,36 +78,12 @@ public sealed class VersionSnapshot
     public IReadOnlyList<PhaseEntry> EntriesWithin(IReadOnlyList<string> elements)
     {
         var rows = new List<int>();
-        foreach (string system in SystemsWithin(elements)) rows.AddRange(_rowsBySystem[system]);
+        foreach (int system in _systems.SystemsWithin(elements)) rows.AddRange(_systems.RowsOf(system));
         rows.Sort();
         return rows.Select(r => Entries[r]).ToArray();
     }
 
     /// <summary>How many entries lie in <paramref name="elements"/> (memoised per system).</summary>
     public int CountWithin(IReadOnlyList<string> elements) =>
-        _countWithin.GetOrAdd(string.Join('-', elements), _ => SystemsWithin(elements).Sum(s => _rowsBySystem[s].Count));
-
-    /// <summary>Most elements of any entry.</summary>
-    public int MaxElementsPerEntry => _elementsBySystem.Count == 0 ? 0 : _elementsBySystem.Values.Max(e => e.Count);
-
-    private IEnumerable<string> SystemsWithin(IReadOnlyList<string> elements)
-    {
-        var allowed = new HashSet<string>(elements, StringComparer.Ordinal);
-        return _elementsBySystem.Where(pair => pair.Value.IsSubsetOf(allowed)).Select(pair => pair.Key);
-    }
-
-    private IReadOnlyList<IReadOnlyList<string>> FindMaximalSystems()
-    {
-        var bySizeDescending = _elementsBySystem.OrderByDescending(p => p.Value.Count).ThenBy(p => p.Key, StringComparer.Ordinal).ToArray();
-        var maximal = new List<KeyValuePair<string, HashSet<string>>>();
-        foreach (KeyValuePair<string, HashSet<string>> candidate in bySizeDescending)
-        {
-            if (!maximal.Any(m => candidate.Value.IsSubsetOf(m.Value))) maximal.Add(candidate);
-        }
-
-        return maximal
-            .OrderBy(m => m.Key, StringComparer.Ordinal)
-            .Select(m => (IReadOnlyList<string>)m.Value.Order(StringComparer.Ordinal).ToArray())
-            .ToArray();
-    }
+        _countWithin.GetOrAdd(string.Join('-', elements), _ => _systems.SystemsWithin(elements).Sum(s => _systems.RowsOf(s).Count));
 }

@@ -84,6 +84,13 @@ public static class WireMapping
         ContentSha256 = version.Fingerprint,
     };
 
+    /// <summary>
+    /// A formation energy for the wire. The service builds closed hulls over formation energies only, where every
+    /// phase carries one; a missing one is a fault of the service, not of the request.
+    /// </summary>
+    public static double FormationOf(double? formationEnergyEvPerAtom) =>
+        formationEnergyEvPerAtom ?? throw new InvalidOperationException("a hull phase without formation energy reached the formation-energy wire fields");
+
     public static WireDecomposition ToWire(Core.Thermo.Decomposition decomposition)
     {
         var wire = new WireDecomposition
@@ -101,7 +108,7 @@ public static class WireMapping
                 AtomFraction = product.AtomFraction,
                 FormulaUnits = product.FormulaUnits,
                 FormulaUnitsExact = product.ExactFormulaUnits?.ToString() ?? string.Empty,
-                FormationEnergyEvPerAtom = product.Phase.FormationEnergyEvPerAtom,
+                FormationEnergyEvPerAtom = FormationOf(product.Phase.FormationEnergyEvPerAtom),
             });
         }
 
@@ -115,7 +122,7 @@ public static class WireMapping
             EntryId = stability.Id,
             Formula = formulaAsStored,
             ChemicalSystem = stability.HullSystem,
-            FormationEnergyEvPerAtom = stability.FormationEnergyEvPerAtom,
+            FormationEnergyEvPerAtom = FormationOf(stability.FormationEnergyEvPerAtom),
             EnergyAboveHullEvPerAtom = stability.EnergyAboveHullEvPerAtom,
             IsOnHull = stability.IsOnHull,
             IsHullVertex = stability.IsHullVertex,
@@ -133,7 +140,7 @@ public static class WireMapping
     {
         PhaseId = phase.Id,
         Formula = phase.Composition.Formula,
-        FormationEnergyEvPerAtom = phase.FormationEnergyEvPerAtom,
+        FormationEnergyEvPerAtom = FormationOf(phase.FormationEnergyEvPerAtom),
         IsElementalReference = phase.IsSynthetic,
     };
 

@@ -81,7 +81,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 Label = candidate.Label,
                 Formula = candidate.Formula,
                 ChemicalSystem = hull.Hull.SystemName,
-                FormationEnergyEvPerAtom = assessed.FormationEnergyEvPerAtom,
+                FormationEnergyEvPerAtom = WireMapping.FormationOf(assessed.FormationEnergyEvPerAtom),
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
                 IsOnOrBelowHull = assessed.IsOnOrBelowHull,
@@ -124,11 +124,10 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
         IReadOnlyList<IReadOnlyList<string>> systems = elements is null ? snapshot.MaximalSystems : [elements];
-        var phases = new SortedDictionary<string, HullPhase>(StringComparer.Ordinal);
+        var hulls = new List<SystemHull>(systems.Count);
         foreach (IReadOnlyList<string> system in systems)
         {
-            CachedHull hull = await cache.GetHullAsync(snapshot, system, context.CancellationToken);
-            foreach (HullPhase phase in hull.Hull.StablePhases) phases.TryAdd(phase.Id, phase);
+            hulls.Add((await cache.GetHullAsync(snapshot, system, context.CancellationToken)).Hull);
         }
 
         var response = new GetStablePhasesResponse
@@ -136,7 +135,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             Used = WireMapping.ToWire(snapshot.Version),
             ChemicalSystem = elements is null ? string.Empty : string.Join('-', elements),
         };
-        response.Phases.AddRange(phases.Values.Select(WireMapping.ToWire));
+        response.Phases.AddRange(StablePhaseUnion.Of(hulls).Select(WireMapping.ToWire));
         return response;
     }
 
@@ -226,31 +225,19 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
     }
 
-    /// <summary>
-    /// The candidate's formation energy per atom. A total energy needs the elemental references of the version's
-    /// hull: the lowest pure-element total energies per atom; an element without one is FAILED_PRECONDITION.
-    /// </summary>
+    /// <summary>The candidate's formation energy per atom; a missing elemental reference is FAILED_PRECONDITION.</summary>
     private static double FormationEnergyOf(Candidate candidate, Composition composition, ThermoBasis basis, SystemHull hull, int index)
     {
         string id = candidate.Label.Length > 0 ? candidate.Label : $"candidates[{index}]";
-        var entry = new PhaseEntry(id, composition, candidate.EnergyEv, basis);
-        if (!entry.IsTotalEnergy)
+        try
         {
-            return FormationEnergies.Compute([entry]).FormationEnergiesEvPerAtom[0];
+            return FormationEnergies.OfCandidate(new PhaseEntry(id, composition, candidate.EnergyEv, basis), hull.References);
         }
-
-        foreach (string element in composition.Elements)
+        catch (ThermoInputException e) when (e.Element is { } element)
         {
-            if (!hull.References.Any(r => string.Equals(r.Symbol, element, StringComparison.Ordinal)))
-            {
-                throw RpcErrors.MissingElementalReference(element,
-                    $"candidates[{index}] ({candidate.Formula}) is a total energy, but the dataset has no total-energy entry of pure {element} " +
-                    "to serve as its elemental reference (missing elemental reference)",
-                    [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);
-            }
+            throw RpcErrors.MissingElementalReference(element,
+                $"candidates[{index}] ({candidate.Formula}): {e.Message}",
+                [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);
         }
-
-        var references = new ElementalReferences(hull.References.Select(r => KeyValuePair.Create(r.Symbol, r.TotalEnergyEvPerAtom)));
-        return FormationEnergies.Compute([entry], references).FormationEnergiesEvPerAtom[0];
     }
 }

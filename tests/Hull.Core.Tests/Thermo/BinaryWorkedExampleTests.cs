@@ -122,7 +122,7 @@ public sealed class BinaryWorkedExampleTests
         foreach (EntryStability expected in fromFormation.Entries)
         {
             EntryStability actual = fromTotal.GetEntry(expected.Id);
-            Assert.Equal(expected.FormationEnergyEvPerAtom, actual.FormationEnergyEvPerAtom, Tolerance);
+            Assert.Equal(expected.FormationEnergyEvPerAtom!.Value, actual.FormationEnergyEvPerAtom!.Value, Tolerance);
             Assert.Equal(expected.EnergyAboveHullEvPerAtom, actual.EnergyAboveHullEvPerAtom, Tolerance);
             Assert.Equal(expected.IsHullVertex, actual.IsHullVertex);
             Assert.Equal(expected.DecompositionEnergyEvPerAtom ?? double.NaN, actual.DecompositionEnergyEvPerAtom ?? double.NaN, Tolerance);
@@ -146,8 +146,8 @@ public sealed class BinaryWorkedExampleTests
 
         Assert.Equal(new ElementReference("Al", -3.1, null), hull.References[0]);
         Assert.True(hull.References[0].IsExplicit);
-        Assert.Equal(-0.55, hull.GetEntry("AlNi").FormationEnergyEvPerAtom, Tolerance);
-        Assert.Equal(0.10, hull.GetEntry("Al").FormationEnergyEvPerAtom, Tolerance);
+        Assert.Equal(-0.55, hull.GetEntry("AlNi").FormationEnergyEvPerAtom!.Value, Tolerance);
+        Assert.Equal(0.10, hull.GetEntry("Al").FormationEnergyEvPerAtom!.Value, Tolerance);
 
         // Adding a linear function of the composition moves no point relative to the hull: Al is still the Al corner,
         // and Al3Ni is still 0.10 eV/atom above the hull.

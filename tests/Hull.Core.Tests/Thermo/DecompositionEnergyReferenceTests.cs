@@ -34,7 +34,7 @@ public sealed class DecompositionEnergyReferenceTests
         // LP queries: each entry against all points (energy above hull) and each on-hull compound against the points
         // of other reduced compositions (decomposition energy). The pure elements are entries here, so all points are.
         double[][] fractions = entries.Select(e => components.Select(c => e.Composition.AtomicFraction(c)).ToArray()).ToArray();
-        double[] energies = hull.Entries.Select(e => e.FormationEnergyEvPerAtom).ToArray();
+        double[] energies = hull.Entries.Select(e => e.AxisEnergyEvPerAtom).ToArray();
         var queries = new List<(double[] X, int[] Excluded)>();
         foreach (EntryStability entry in hull.Entries)
         {
@@ -52,12 +52,12 @@ public sealed class DecompositionEnergyReferenceTests
         for (int i = 0; i < hull.Entries.Count; i++)
         {
             EntryStability entry = hull.Entries[i];
-            Assert.Equal(Math.Max(0, entry.FormationEnergyEvPerAtom - lp[i]), entry.EnergyAboveHullEvPerAtom, LinearProgramToleranceEvPerAtom);
+            Assert.Equal(Math.Max(0, entry.AxisEnergyEvPerAtom - lp[i]), entry.EnergyAboveHullEvPerAtom, LinearProgramToleranceEvPerAtom);
         }
 
         for (int k = 0; k < onHull.Length; k++)
         {
-            double expected = Math.Min(0, onHull[k].FormationEnergyEvPerAtom - lp[hull.Entries.Count + k]);
+            double expected = Math.Min(0, onHull[k].AxisEnergyEvPerAtom - lp[hull.Entries.Count + k]);
             Assert.Equal(expected, onHull[k].DecompositionEnergyEvPerAtom!.Value, LinearProgramToleranceEvPerAtom);
         }
     }

@@ -114,7 +114,7 @@ public sealed class EndMemberHullTests
         foreach (EntryStability expected in hull.Entries)
         {
             EntryStability actual = fromTotals.GetEntry(expected.Id);
-            Assert.Equal(expected.FormationEnergyEvPerAtom, actual.FormationEnergyEvPerAtom, Tolerance);
+            Assert.Equal(expected.FormationEnergyEvPerAtom!.Value, actual.FormationEnergyEvPerAtom!.Value, Tolerance);
             Assert.Equal(expected.EnergyAboveHullEvPerAtom, actual.EnergyAboveHullEvPerAtom, Tolerance);
         }
     }

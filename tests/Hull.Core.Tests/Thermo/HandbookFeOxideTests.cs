@@ -84,7 +84,7 @@ public sealed class HandbookFeOxideTests
         AssertBalancedExactly(feo.Decomposition);
 
         // Formation energy per atom straight from the table: -272.04 / 96.485 / 2 = -1.40975281 eV/atom.
-        Assert.Equal(-1.4097528113, feo.FormationEnergyEvPerAtom, ToleranceEvPerAtom);
+        Assert.Equal(-1.4097528113, feo.FormationEnergyEvPerAtom!.Value, ToleranceEvPerAtom);
     }
 
     [Fact]

@@ -52,7 +52,7 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
             var s = stabilities[i];
             Assert.Equal(entries[i].Id, s.Id);
             // SciPy linprog HiGHS: energy above hull = E - (LP optimum over all points), at least 0.
-            double expected = Math.Max(0.0, s.FormationEnergyEvPerAtom - answers[i].HullEnergyEvPerAtom);
+            double expected = Math.Max(0.0, s.AxisEnergyEvPerAtom - answers[i].HullEnergyEvPerAtom);
             if (!(Math.Abs(s.EnergyAboveHullEvPerAtom - expected) <= HullAgreement.EnergyToleranceEvPerAtom))
             {
                 failures.Add($"{s.Id} {s.Composition}: energy above hull {s.EnergyAboveHullEvPerAtom:R}, SciPy HiGHS LP gives {expected:R}");
@@ -76,18 +76,18 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
             // SciPy linprog HiGHS with every entry of that reduced composition held at weight 0: the decomposition
             // energy is E minus that optimum, and 0 when the entry only touches the hull (common practice).
             double without = answers[entries.Length + q].HullEnergyEvPerAtom;
-            double expected = Math.Min(0.0, s.FormationEnergyEvPerAtom - without);
+            double expected = Math.Min(0.0, s.AxisEnergyEvPerAtom - without);
             if (!(Math.Abs(ours - expected) <= HullAgreement.EnergyToleranceEvPerAtom))
             {
                 failures.Add($"{s.Id} {s.Composition}: decomposition energy {ours:R}, SciPy HiGHS LP without its composition gives {expected:R}");
             }
             // A vertex is the lowest entry of a composition the others cannot make as cheaply (common practice).
-            bool vertex = s.FormationEnergyEvPerAtom < without - HullAgreement.EnergyToleranceEvPerAtom
-                && sameComposition[s.Composition.Reduced].All(j => entries[j].EnergyEv >= s.FormationEnergyEvPerAtom);
-            bool tiedVertex = vertex && sameComposition[s.Composition.Reduced].Count(j => entries[j].EnergyEv == s.FormationEnergyEvPerAtom) > 1;
+            bool vertex = s.AxisEnergyEvPerAtom < without - HullAgreement.EnergyToleranceEvPerAtom
+                && sameComposition[s.Composition.Reduced].All(j => entries[j].EnergyEv >= s.AxisEnergyEvPerAtom);
+            bool tiedVertex = vertex && sameComposition[s.Composition.Reduced].Count(j => entries[j].EnergyEv == s.AxisEnergyEvPerAtom) > 1;
             if (!tiedVertex && s.IsHullVertex != vertex)
             {
-                failures.Add($"{s.Id} {s.Composition}: {(s.IsHullVertex ? "a" : "not a")} hull vertex, SciPy HiGHS LP without its composition gives {without:R} against {s.FormationEnergyEvPerAtom:R}");
+                failures.Add($"{s.Id} {s.Composition}: {(s.IsHullVertex ? "a" : "not a")} hull vertex, SciPy HiGHS LP without its composition gives {without:R} against {s.AxisEnergyEvPerAtom:R}");
             }
         }
         var rebuildTime = rebuildClock.Elapsed;
@@ -123,7 +123,7 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
             // A decomposition is into stable phases (hull vertices), balanced atom for atom, its energy the hull
             // energy (lever rule; common practice).
             ThermoTestData.AssertBalanced(s.Decomposition);
-            double energy = s.Decomposition.Products.Sum(p => p.AtomFraction * p.Phase.FormationEnergyEvPerAtom);
+            double energy = s.Decomposition.Products.Sum(p => p.AtomFraction * p.Phase.AxisEnergyEvPerAtom);
             if (!(Math.Abs(energy - s.Decomposition.HullEnergyEvPerAtom) <= HullAgreement.EnergyToleranceEvPerAtom))
             {
                 failures.Add($"{s.Id}: products' energy {energy:R}, hull energy {s.Decomposition.HullEnergyEvPerAtom:R}");
@@ -170,15 +170,15 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
             foreach (var corner in facet.Phases)
             {
                 double at = Plane(corner.Composition);
-                if (!(Math.Abs(at - corner.FormationEnergyEvPerAtom) <= HullAgreement.EnergyToleranceEvPerAtom))
+                if (!(Math.Abs(at - corner.AxisEnergyEvPerAtom) <= HullAgreement.EnergyToleranceEvPerAtom))
                 {
-                    failures.Add($"facet {string.Join("-", facet.Phases.Select(p => p.Id))}: plane gives {at:R} at corner {corner.Id}, whose energy is {corner.FormationEnergyEvPerAtom:R}");
+                    failures.Add($"facet {string.Join("-", facet.Phases.Select(p => p.Id))}: plane gives {at:R} at corner {corner.Id}, whose energy is {corner.AxisEnergyEvPerAtom:R}");
                 }
                 if (!stable.Contains(corner.Id)) failures.Add($"facet {string.Join("-", facet.Phases.Select(p => p.Id))}: corner {corner.Id} is not among the stable phases");
             }
             foreach (var s in hull.Entries)
             {
-                double below = s.FormationEnergyEvPerAtom - Plane(s.Composition);
+                double below = s.AxisEnergyEvPerAtom - Plane(s.Composition);
                 if (below < -HullAgreement.EnergyToleranceEvPerAtom) failures.Add($"facet {string.Join("-", facet.Phases.Select(p => p.Id))}: entry {s.Id} lies {-below:R} below its plane");
             }
         }

@@ -1,4 +1,3 @@
-using System.Numerics;
 using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
 using static Hull.Core.Tests.Thermo.ThermoTestData;
@@ -136,9 +135,9 @@ public sealed class ThermoInputErrorTests
     public void Amounts_beyond_64_bits_are_refused_with_the_entry_named()
     {
         // Two coprime denominators near 2^40 make the common integer scale near 2^80.
-        BigFraction a = new(BigInteger.One, (BigInteger.One << 40) + 15);
-        BigFraction b = new(BigInteger.One, (BigInteger.One << 40) + 21);
-        BigFraction c = new((BigInteger.One << 40) + 1, (BigInteger.One << 40) + 27);
+        Rational a = new(1, (1L << 40) + 15);
+        Rational b = new(1, (1L << 40) + 21);
+        Rational c = new((1L << 40) + 1, (1L << 40) + 27);
         var e = Assert.Throws<ThermoInputException>(() => HullPoint.ScaleToIntegers([a, b, c], "huge", 4));
         Assert.Equal("huge", e.EntryId);
         Assert.Equal(4, e.RowIndex);
