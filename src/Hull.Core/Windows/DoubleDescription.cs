@@ -17,6 +17,7 @@ internal sealed class DoubleDescription
     private readonly List<bool> _alive = new();
     private List<int> _live = new();
     private double[] _rankBuffer = [];
+    private double[] _slack = [];
 
     public DoubleDescription(int d, double[] lower, double[] upper, int[] boxIds, List<double[]> rows, List<double> rhs, List<int> ids)
     {
@@ -86,7 +87,8 @@ internal sealed class DoubleDescription
         double[] row = _rows[k];
         double b = _rhs[k];
         int id = _ids[k];
-        var slack = new Dictionary<int, double>(_live.Count);
+        if (_slack.Length < _coords.Count) _slack = new double[Math.Max(_coords.Count * 2, 64)];
+        double[] slack = _slack;
         var negative = new List<int>();
         var zero = new List<int>();
         bool anyPositive = false;
@@ -113,7 +115,9 @@ internal sealed class DoubleDescription
             double su = slack[u];
             foreach (int v in _adjacent[u])
             {
-                if (!_alive[v] || !slack.TryGetValue(v, out double sv) || sv <= PolytopeTolerances.SlackEv) continue;
+                if (!_alive[v]) continue;
+                double sv = slack[v];
+                if (sv <= PolytopeTolerances.SlackEv) continue;
                 double t = sv / (sv - su);
                 var x = new double[_d];
                 double[] xu = _coords[u], xv = _coords[v];
@@ -146,48 +150,63 @@ internal sealed class DoubleDescription
         return true;
     }
 
+    /// <summary>
+    /// The algebraic adjacency test: the constraints tight at both vertices have rank d − 1. Rows are taken into an
+    /// orthonormal basis one at a time and the test stops as soon as d − 1 independent ones are found (rank d would
+    /// mean the two vertices coincide, which distinct vertices cannot).
+    /// </summary>
     private bool AreAdjacent(int[] a, int[] b)
     {
-        int[] common = Intersect(a, b);
-        if (common.Length < _d - 1) return false;
-        return Rank(common) == _d - 1;
-    }
-
-    private int Rank(int[] ids)
-    {
-        int rows = ids.Length;
-        if (_rankBuffer.Length < rows * _d) _rankBuffer = new double[rows * _d];
-        Span<double> m = _rankBuffer.AsSpan(0, rows * _d);
-        for (int i = 0; i < rows; i++) _rowById[ids[i]].CopyTo(m.Slice(i * _d, _d));
+        int need = _d - 1;
+        if (need == 0) return true;
+        int count = IntersectInto(a, b, ref _common);
+        if (count < need) return false;
+        if (_rankBuffer.Length < need * _d) _rankBuffer = new double[need * _d];
+        Span<double> basis = _rankBuffer.AsSpan(0, need * _d);
+        Span<double> v = stackalloc double[_d];
         int rank = 0;
-        for (int col = 0; col < _d && rank < rows; col++)
+        for (int r = 0; r < count && rank < need; r++)
         {
-            int best = -1;
-            double size = PolytopeTolerances.RankPivot;
-            for (int i = rank; i < rows; i++)
+            // Not enough rows left to reach d − 1: stop early.
+            if (count - r < need - rank) return false;
+            _rowById[_common[r]].CopyTo(v);
+            for (int pass = 0; pass < 2; pass++)
             {
-                double a = Math.Abs(m[i * _d + col]);
-                if (a > size) { size = a; best = i; }
+                for (int e = 0; e < rank; e++)
+                {
+                    Span<double> be = basis.Slice(e * _d, _d);
+                    double dot = 0;
+                    for (int f = 0; f < _d; f++) dot += v[f] * be[f];
+                    for (int f = 0; f < _d; f++) v[f] -= dot * be[f];
+                }
             }
 
-            if (best < 0) continue;
-            if (best != rank)
-            {
-                for (int f = 0; f < _d; f++) (m[best * _d + f], m[rank * _d + f]) = (m[rank * _d + f], m[best * _d + f]);
-            }
-
-            double pivot = m[rank * _d + col];
-            for (int i = rank + 1; i < rows; i++)
-            {
-                double factor = m[i * _d + col] / pivot;
-                if (factor == 0) continue;
-                for (int f = col; f < _d; f++) m[i * _d + f] -= factor * m[rank * _d + f];
-            }
-
+            double norm = 0;
+            for (int f = 0; f < _d; f++) norm += v[f] * v[f];
+            norm = Math.Sqrt(norm);
+            if (norm <= PolytopeTolerances.RankPivot) continue;
+            Span<double> target = basis.Slice(rank * _d, _d);
+            for (int f = 0; f < _d; f++) target[f] = v[f] / norm;
             rank++;
         }
 
-        return rank;
+        return rank == need;
+    }
+
+    private int[] _common = new int[16];
+
+    private static int IntersectInto(int[] a, int[] b, ref int[] into)
+    {
+        if (into.Length < Math.Min(a.Length, b.Length)) into = new int[Math.Max(a.Length, b.Length)];
+        int count = 0, i = 0, j = 0;
+        while (i < a.Length && j < b.Length)
+        {
+            if (a[i] == b[j]) { into[count++] = a[i]; i++; j++; }
+            else if (a[i] < b[j]) i++;
+            else j++;
+        }
+
+        return count;
     }
 
     private static int[] Intersect(int[] a, int[] b)

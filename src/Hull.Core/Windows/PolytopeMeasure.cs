@@ -54,15 +54,25 @@ public static class PolytopeMeasure
         }
         else
         {
+            // Group the face's vertices by tight constraint in one pass over the incidences.
             int apex = subset[0];
-            var seen = new HashSet<string>();
-            var labels = new SortedSet<int>();
-            foreach (int v in subset) labels.UnionWith(tight[v]);
-            foreach (int label in labels)
+            var members = new Dictionary<int, List<int>>();
+            foreach (int v in subset)
             {
-                if (tight[apex].Contains(label)) continue;
-                int[] facet = subset.Where(v => tight[v].Contains(label)).ToArray();
-                if (facet.Length < m || facet.Length == subset.Length || !seen.Add(string.Join(',', facet))) continue;
+                foreach (int label in tight[v])
+                {
+                    if (tight[apex].Contains(label)) continue;
+                    if (!members.TryGetValue(label, out List<int>? list)) members[label] = list = [];
+                    list.Add(v);
+                }
+            }
+
+            var seen = new HashSet<string>();
+            foreach (List<int> list in members.Values)
+            {
+                if (list.Count < m) continue;
+                int[] facet = list.ToArray();
+                if (!seen.Add(string.Join(',', facet))) continue;
                 List<double[]> facetBasis = Basis(x, facet);
                 if (facetBasis.Count != m - 1) continue;
                 double height = Residual(Difference(x[apex], x[facet[0]]), facetBasis);

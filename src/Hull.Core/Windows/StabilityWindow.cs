@@ -16,7 +16,7 @@ public sealed class StabilityWindow
         double? loweredByEvPerAtom,
         IReadOnlyList<HullPhase> coexistingPhases,
         IReadOnlyList<WindowVertex> vertices,
-        WindowSize? size,
+        Func<WindowSize>? size,
         IReadOnlyList<ElementExtremes> extremes)
     {
         Compound = compound;
@@ -25,8 +25,9 @@ public sealed class StabilityWindow
         LoweredByEvPerAtom = loweredByEvPerAtom;
         CoexistingPhases = coexistingPhases;
         Vertices = vertices;
-        Size = size;
+        _size = size is null ? null : new Lazy<WindowSize>(size, LazyThreadSafetyMode.ExecutionAndPublication);
         Extremes = extremes;
+        Dimension = vertices.Count == 0 ? -1 : PolytopeMeasure.AffineDimension(vertices.Select(v => v.ChemicalPotentialsEv).ToArray());
     }
 
     /// <summary>The compound's stability against the hull (energy above hull, decomposition).</summary>
@@ -52,12 +53,14 @@ public sealed class StabilityWindow
     /// <summary>The vertices, sorted by descending potentials in element order.</summary>
     public IReadOnlyList<WindowVertex> Vertices { get; }
 
-    /// <summary>The size; null when there is no window.</summary>
-    public WindowSize? Size { get; }
+    private readonly Lazy<WindowSize>? _size;
+
+    /// <summary>The size; null when there is no window. Computed on first use (it costs more than the vertices).</summary>
+    public WindowSize? Size => _size?.Value;
 
     /// <summary>Per element, highest and lowest Δμ and where; empty when there is no window.</summary>
     public IReadOnlyList<ElementExtremes> Extremes { get; }
 
-    /// <summary>The window's dimension (−1 when there is none).</summary>
-    public int Dimension => Size?.Dimension ?? -1;
+    /// <summary>The window's dimension: the affine dimension of its vertices (−1 when there is none).</summary>
+    public int Dimension { get; }
 }

@@ -154,7 +154,7 @@ internal sealed class WindowSetup
             .ToArray();
         return new StabilityWindow(
             Compound, Elements, Kind, LoweredByEvPerAtom, Coexisting, described,
-            WindowMeasures.Size(vertices, polytope.FreeCoordinates, Elements), WindowMeasures.Extremes(described, Elements));
+            () => WindowMeasures.Size(vertices, polytope.FreeCoordinates, Elements), WindowMeasures.Extremes(described, Elements));
     }
 
     private static int ProjectionChoice(EntryStability compound, string[] elements, string? omit)

@@ -16,7 +16,8 @@ public static class WindowLpRunner
         [property: JsonPropertyName("b_ub")] double[] BUpper,
         [property: JsonPropertyName("a_eq")] double[][] AEqual,
         [property: JsonPropertyName("b_eq")] double[] BEqual,
-        [property: JsonPropertyName("objectives")] double[][] Objectives);
+        [property: JsonPropertyName("objectives")] double[][] Objectives,
+        [property: JsonPropertyName("max_only")] bool MaxOnly = false);
 
     public sealed record Answer(
         [property: JsonPropertyName("max")] double[] Max,

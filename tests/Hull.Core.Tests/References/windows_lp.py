@@ -5,7 +5,8 @@ A_eq mu = b_eq, the maximum and the minimum of each objective c.mu.
 
 usage: python3 windows_lp.py problems.json answers.json
 problems.json: {"problems": [{"a_ub": [[float]], "b_ub": [float], "a_eq": [[float]], "b_eq": [float],
-                              "objectives": [[float]]}, ...]}
+                              "objectives": [[float]], "max_only": bool}, ...]}
+(max_only: the minimum is not asked for, e.g. a dopant potential that is unbounded below; reported as 0)
 answers.json: {"scipy": version, "answers": [{"max": [float], "min": [float], "status": [int]}, ...]}
 """
 import json
@@ -39,7 +40,7 @@ def main():
         for c in p["objectives"]:
             c = np.array(c, dtype=np.float64)
             s1, v1 = solve(-c, a_ub, b_ub, a_eq, b_eq)
-            s2, v2 = solve(c, a_ub, b_ub, a_eq, b_eq)
+            s2, v2 = (0, 0.0) if p.get("max_only") else solve(c, a_ub, b_ub, a_eq, b_eq)
             highs.append(-v1)
             lows.append(v2)
             statuses.append(max(s1, s2))
