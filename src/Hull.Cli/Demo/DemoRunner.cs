@@ -166,6 +166,8 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
             output.WriteLine("  tie-lines: " + string.Join("; ", facets.TieLines.Select(l => $"{l.FirstPhaseId} - {l.SecondPhaseId}")));
         }
 
+        await WindowDemoStep.RunAsync(hull, output, DatasetName, t);
+
         // 8. Versioning: a replacement makes a new version; the old one answers exactly as before.
         Heading("8. Versions: round 2 replaces 16 entries; the earlier version is unchanged");
         foreach (string file in Directory.GetFiles(Path.Combine(data, "round2")).Order(StringComparer.Ordinal))

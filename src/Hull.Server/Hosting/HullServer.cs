@@ -143,6 +143,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<DatasetGrpcService>();
         app.MapGrpcService<StabilityGrpcService>();
         app.MapGrpcService<DiagnosticsGrpcService>();
+        app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;
