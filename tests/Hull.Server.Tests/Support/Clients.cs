@@ -20,6 +20,7 @@ public sealed class Clients : IDisposable
         Datasets = new DatasetService.DatasetServiceClient(Channel);
         Stability = new StabilityService.StabilityServiceClient(Channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(Channel);
+        Windows = new WindowService.WindowServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -29,6 +30,8 @@ public sealed class Clients : IDisposable
     public StabilityService.StabilityServiceClient Stability { get; }
 
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
+
+    public WindowService.WindowServiceClient Windows { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>
