@@ -19,10 +19,10 @@ public sealed class WindowLpReferenceTests
     [Theory]
     [InlineData(3, 30, 31)]
     [InlineData(4, 30, 32)]
-    [InlineData(5, 30, 33)]
+    [InlineData(5, 24, 33)]
     [InlineData(6, 30, 34)]
-    [InlineData(7, 25, 35)]
-    [InlineData(8, 25, 36)]
+    [InlineData(7, 18, 35)]
+    [InlineData(8, 16, 36)]
     public void Extreme_potentials_and_dopant_limits_match_the_lp(int elementCount, int phaseCount, int seed)
     {
         // The last element is the dopant; hosts are the compounds of all the others.

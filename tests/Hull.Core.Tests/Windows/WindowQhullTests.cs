@@ -23,7 +23,7 @@ public sealed class WindowQhullTests
     [InlineData(3, 30, 11)]
     [InlineData(4, 40, 12)]
     [InlineData(5, 50, 13)]
-    [InlineData(6, 50, 14)]
+    [InlineData(6, 32, 14)]
     public void Full_windows_have_qhalf_vertices_and_qconvex_sizes(int elementCount, int phaseCount, int seed)
     {
         (string[] elements, PhaseEntry[] entries) = WindowDataGenerator.Generate(elementCount, phaseCount, seed);
