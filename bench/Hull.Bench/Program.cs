@@ -8,7 +8,7 @@ using Hull.Bench.Suites;
 //                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
-    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|dataset60|figures> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|dataset60|figures|windows> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     return 2;
 }
@@ -62,7 +62,8 @@ try
         Hull6d8dSuite.Name => Hull6d8dSuite.Run(options, work, repoRoot),
         Dataset60Suite.Name => Dataset60Suite.Run(options, work),
         FiguresSuite.Name => FiguresSuite.Run(options),
-        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, dataset60, figures)"),
+        WindowsSuite.Name => WindowsSuite.Run(options, work),
+        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, dataset60, figures, windows)"),
     };
     report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";
     MarkdownReport.Write(repoRoot, options.Quick ? suite + "-quick" : suite, report);

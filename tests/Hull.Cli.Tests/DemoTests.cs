@@ -20,7 +20,8 @@ public sealed class DemoTests
         Assert.Contains("04-rerelaxed-layered.csv -> version 4: 0 inserted, 16 replaced", run.Out);
         Assert.Contains("Version 3 answers exactly as before the replacement: yes", run.Out);
         Assert.Contains("Exported 237 entries", run.Out);
-        foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "7b. The layered-oxide triangle", "8. Versions", "9. Export", "10. Phase diagrams" })
+        Assert.Contains("Highest dmu_Al anywhere in the window", run.Out);
+        foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "7b. The layered-oxide triangle", "7c. Chemical-potential window", "8. Versions", "9. Export", "10. Phase diagrams" })
         {
             Assert.Contains(section, run.Out);
         }

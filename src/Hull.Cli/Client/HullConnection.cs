@@ -37,6 +37,7 @@ public sealed class HullConnection : IDisposable
         Datasets = new DatasetService.DatasetServiceClient(_channel);
         Stability = new StabilityService.StabilityServiceClient(_channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
+        Windows = new WindowService.WindowServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
     }
@@ -48,6 +49,8 @@ public sealed class HullConnection : IDisposable
     public StabilityService.StabilityServiceClient Stability { get; }
 
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
+
+    public WindowService.WindowServiceClient Windows { get; }
 
     public Health.HealthClient Health { get; }
 

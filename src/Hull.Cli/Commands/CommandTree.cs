@@ -28,6 +28,7 @@ public static class CommandTree
         root.Subcommands.Add(HullEnergyCommand(wrap));
         root.Subcommands.Add(StableCommand(wrap));
         root.Subcommands.Add(FacetsCommand(wrap));
+        foreach (Command windowCommand in WindowCommands.Build(wrap)) root.Subcommands.Add(windowCommand);
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));

@@ -156,6 +156,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<StabilityGrpcService>();
         app.MapGrpcService<DiagnosticsGrpcService>();
         app.MapGrpcService<FigureGrpcService>();
+        app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

@@ -21,6 +21,7 @@ public sealed class Clients : IDisposable
         Stability = new StabilityService.StabilityServiceClient(Channel);
         Figures = new FigureService.FigureServiceClient(Channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(Channel);
+        Windows = new WindowService.WindowServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -32,6 +33,8 @@ public sealed class Clients : IDisposable
     public FigureService.FigureServiceClient Figures { get; }
 
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
+
+    public WindowService.WindowServiceClient Windows { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>

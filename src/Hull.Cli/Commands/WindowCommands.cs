@@ -1,0 +1,206 @@
+using System.CommandLine;
+using System.Globalization;
+using Hull.Cli.Output;
+using Hull.Protos.V1;
+
+namespace Hull.Cli.Commands;
+
+/// <summary>
+/// `hull window`, `hull window-slice` and `hull dopant-limits`: chemical-potential windows as tables with one row
+/// per vertex and one column per Δμ (eV), limiting phases named. Every number comes from the server.
+/// </summary>
+public static class WindowCommands
+{
+    public static IEnumerable<Command> Build(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap) =>
+        [WindowCommand(wrap), SliceCommand(wrap), DopantCommand(wrap)];
+
+    private sealed record Common(
+        Argument<string> Dataset, Argument<string> Compound, Option<bool> ByFormula, Option<long> Version,
+        Option<double?> Tolerance, Option<double?> Lowering, Option<string> Omit)
+    {
+        public IEnumerable<Symbol> All => [Dataset, Compound, ByFormula, Version, Tolerance, Lowering, Omit];
+
+        public CompoundRef CompoundOf(CliContext c) =>
+            c.Get(ByFormula) ? new CompoundRef { Formula = c.Get(Compound)! } : new CompoundRef { EntryId = c.Get(Compound)! };
+
+        public WindowSettings SettingsOf(CliContext c)
+        {
+            var settings = new WindowSettings { ProjectionOmits = c.Get(Omit) ?? string.Empty };
+            if (c.Get(Tolerance) is double t) settings.AboveHullToleranceEvPerAtom = t;
+            if (c.Get(Lowering) is double l) settings.LoweringEvPerAtom = l;
+            return settings;
+        }
+    }
+
+    private static Common Options() => new(
+        new Argument<string>("dataset") { Description = "dataset name" },
+        new Argument<string>("compound") { Description = "entry id of the compound (or a formula with --by-formula)" },
+        new Option<bool>("--by-formula") { Description = "read the compound as a formula: its lowest-energy entry" },
+        new Option<long>("--version") { Description = "dataset version to read (default: the latest)", DefaultValueFactory = _ => 0 },
+        new Option<double?>("--above-hull-tolerance") { Description = "treat a compound at most this far above the hull (eV/atom) as lowered below it" },
+        new Option<double?>("--lowering") { Description = "how far below the hull such a compound is placed, eV/atom (default 0.001)" },
+        new Option<string>("--projection-omits") { Description = "element left out of the projected size (default: the one with most atoms)" });
+
+    private static Command WindowCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        var command = new Command("window", "the chemical-potential window in which a compound is stable: vertices, limiting phases, size");
+        foreach (Symbol s in o.All) Add(command, s);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            GetStabilityWindowResponse response = await c.Server.Windows.GetStabilityWindowAsync(
+                new GetStabilityWindowRequest { Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c) },
+                c.Server.Call(t));
+            c.Emit(response, () => VerticesTable(response.Window.Elements, response.Window.Vertices), Caption(response.Used, response.Window));
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static Command SliceCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        var fix = new Option<string[]>("--fix") { Description = "a fixed potential ELEMENT=EV (repeatable), e.g. --fix O=-1.5", Arity = ArgumentArity.OneOrMore, Required = true };
+        var allow = new Option<bool>("--allow-above-reference") { Description = "accept fixed potentials above 0 (such a slice always misses)" };
+        var command = new Command("window-slice", "the window with some potentials held fixed, or the nearest window point when that misses");
+        foreach (Symbol s in o.All) Add(command, s);
+        command.Options.Add(fix);
+        command.Options.Add(allow);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new SliceStabilityWindowRequest
+            {
+                Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c),
+                AllowAboveReference = c.Get(allow),
+            };
+            foreach (string text in c.Get(fix)!) request.FixedPotentials.Add(ParseFixed(text));
+            SliceStabilityWindowResponse response = await c.Server.Windows.SliceStabilityWindowAsync(request, c.Server.Call(t));
+            string caption = Caption(response.Used, response.Slice) + "\n" + (response.Misses
+                ? $"the slice misses the window; nearest window point ({Join(response.Whole.Elements)}): " +
+                  $"{string.Join(", ", response.NearestPointEv.Select(v => Number(v)))} eV, {Number(response.DistanceEv)} eV from the slice"
+                : $"slice at {string.Join(", ", request.FixedPotentials.Select(p => $"dmu_{p.Element} = {Number(p.ChemicalPotentialEv)} eV"))}");
+            c.Emit(response, () => VerticesTable(response.Slice.Elements, response.Slice.Vertices), caption);
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static Command DopantCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        var dopants = new Argument<string[]>("dopants") { Description = "dopant element symbols, each answered independently", Arity = ArgumentArity.OneOrMore };
+        var extended = new Option<bool>("--extended") { Description = "list the extended (host + dopant) vertices instead of the per-host-vertex limits" };
+        var command = new Command("dopant-limits", "the highest dopant potential the host's window allows, per host vertex and overall");
+        foreach (Symbol s in o.All) Add(command, s);
+        command.Arguments.Add(dopants);
+        command.Options.Add(extended);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new GetDopantLimitsRequest { Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c) };
+            request.Dopants.AddRange(c.Get(dopants)!);
+            GetDopantLimitsResponse response = await c.Server.Windows.GetDopantLimitsAsync(request, c.Server.Call(t));
+            string caption = Caption(response.Used, response.Host) + "\n" + string.Join("\n", response.Limits.Select(l => l.HasOverallMaxEv
+                ? $"dopant {l.Dopant}: highest dmu_{l.Dopant} {Number(l.OverallMaxEv)} eV, limited by {LimitText(l.OverallLimitingPhaseIds, l.Dopant)}"
+                : $"dopant {l.Dopant}: no limit (the host has no window)"));
+            c.Emit(response, () => c.Get(extended) ? ExtendedTable(response.Limits) : DopantTable(response), caption);
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static void Add(Command command, Symbol symbol)
+    {
+        if (symbol is Argument a) command.Arguments.Add(a);
+        else command.Options.Add((Option)symbol);
+    }
+
+    internal static FixedPotential ParseFixed(string text)
+    {
+        int eq = text.IndexOf('=');
+        if (eq <= 0 || !double.TryParse(text[(eq + 1)..], NumberStyles.Float, CultureInfo.InvariantCulture, out double value))
+        {
+            throw new UsageException($"--fix '{text}' is not ELEMENT=EV (e.g. O=-1.5)");
+        }
+
+        return new FixedPotential { Element = text[..eq].Trim(), ChemicalPotentialEv = value };
+    }
+
+    internal static string Caption(VersionUsed used, StabilityWindow w)
+    {
+        string kind = w.Kind switch
+        {
+            WindowKind.Full => $"window of dimension {w.Dimension}",
+            WindowKind.LowerDimensional => $"on the hull inside a face (coexisting with {string.Join(", ", w.CoexistingPhaseIds)}): window of dimension {w.Dimension}",
+            WindowKind.Lowered => $"{Number(w.EnergyAboveHullEvPerAtom)} eV/atom above the hull, treated as lowered {Number(w.LoweredByEvPerAtom)} eV/atom below it: window of dimension {w.Dimension}",
+            WindowKind.AboveHull => $"no window: {Number(w.EnergyAboveHullEvPerAtom)} eV/atom above the hull, decomposes as {w.Decomposition?.Reaction}",
+            _ => "unknown answer",
+        };
+        var lines = new List<string> { $"dataset {used.Dataset}, version {used.Version}: {w.EntryId} ({w.Formula}) in {w.ChemicalSystem}, {kind}" };
+        if (w.Size is { } size && w.Vertices.Count > 0)
+        {
+            lines.Add($"size: {Number(size.MeasureInPlaneEvPowK)} eV^{size.Dimension} in its own plane, {Number(size.ProjectedMeasureEvPowK)} eV^{size.Dimension} projected on dmu of {Join(size.ProjectionElements)}");
+        }
+
+        foreach (ElementExtremes e in w.Extremes)
+        {
+            lines.Add($"{e.Element}: richest dmu {Number(e.HighestEv)} eV at vertex {Join(e.HighestAtVertices.Select(i => (i + 1).ToString(CultureInfo.InvariantCulture)))}, " +
+                      $"leanest {Number(e.LowestEv)} eV at vertex {Join(e.LowestAtVertices.Select(i => (i + 1).ToString(CultureInfo.InvariantCulture)))}");
+        }
+
+        return string.Join("\n", lines);
+    }
+
+    internal static Table VerticesTable(IReadOnlyList<string> elements, IEnumerable<WindowVertex> vertices)
+    {
+        WindowVertex[] rows = vertices.ToArray();
+        string[] voltages = rows.Length == 0 ? [] : rows[0].Voltages.Select(v => $"{v.Element}_volts_vs_metal").ToArray();
+        var table = new Table(["vertex", .. elements.Select(e => $"dmu_{e}_ev"), .. voltages, "limiting_phases", "at_reference"]);
+        int n = 0;
+        foreach (WindowVertex v in rows)
+        {
+            table.Add([++n, .. v.ChemicalPotentialsEv.Select(x => (object?)x), .. v.Voltages.Select(x => (object?)x.VoltsAgainstMetal),
+                string.Join(" ", v.LimitingPhaseIds), string.Join(" ", v.ElementsAtReference)]);
+        }
+
+        return table;
+    }
+
+    private static Table DopantTable(GetDopantLimitsResponse response)
+    {
+        var table = new Table(["dopant", "host_vertex", .. response.Host.Elements.Select(e => $"dmu_{e}_ev"), "max_dmu_dopant_ev", "limited_by"]);
+        foreach (DopantLimit l in response.Limits)
+        {
+            foreach (HostVertexDopantLimit v in l.PerHostVertex)
+            {
+                WindowVertex host = response.Host.Vertices[v.HostVertex];
+                table.Add([l.Dopant, v.HostVertex + 1, .. host.ChemicalPotentialsEv.Select(x => (object?)x), v.MaxDopantPotentialEv, LimitText(v.LimitingPhaseIds, l.Dopant)]);
+            }
+        }
+
+        return table;
+    }
+
+    private static Table ExtendedTable(IEnumerable<DopantLimit> limits)
+    {
+        DopantLimit[] all = limits.ToArray();
+        int width = all.Length == 0 ? 0 : all[0].ExtendedElements.Count;
+        var table = new Table(["dopant", "vertex", .. Enumerable.Range(0, width).Select(i => $"dmu_{(i == width - 1 ? "dopant" : all[0].ExtendedElements[i])}_ev"), "limiting_phases"]);
+        foreach (DopantLimit l in all)
+        {
+            int n = 0;
+            foreach (WindowVertex v in l.ExtendedVertices) table.Add([l.Dopant, ++n, .. v.ChemicalPotentialsEv.Select(x => (object?)x), string.Join(" ", v.LimitingPhaseIds)]);
+        }
+
+        return table;
+    }
+
+    private static string LimitText(IEnumerable<string> phases, string dopant)
+    {
+        string text = string.Join(" ", phases);
+        return text.Length > 0 ? text : $"{dopant} at its reference";
+    }
+
+    private static string Join(IEnumerable<string> items) => string.Join(", ", items);
+
+    private static string Number(double? value) => value is double v ? v.ToString("0.######", CultureInfo.InvariantCulture) : "-";
+}

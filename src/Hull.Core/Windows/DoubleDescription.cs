@@ -1,0 +1,237 @@
+namespace Hull.Core.Windows;
+
+/// <summary>
+/// The working state of <see cref="VertexEnumeration"/>: vertices with sorted tight-constraint ids, the edge graph,
+/// and the constraint rows (unit normals) by id. Mutable, for one enumeration only.
+/// </summary>
+internal sealed class DoubleDescription
+{
+    private readonly int _d;
+    private readonly List<double[]> _rows;
+    private readonly List<double> _rhs;
+    private readonly List<int> _ids;
+    private readonly Dictionary<int, double[]> _rowById = new();
+    private readonly List<double[]> _coords = new();
+    private readonly List<int[]> _tight = new();
+    private readonly List<List<int>> _adjacent = new();
+    private readonly List<bool> _alive = new();
+    private List<int> _live = new();
+    private double[] _rankBuffer = [];
+    private double[] _slack = [];
+
+    public DoubleDescription(int d, double[] lower, double[] upper, int[] boxIds, List<double[]> rows, List<double> rhs, List<int> ids)
+    {
+        _d = d;
+        _rows = rows;
+        _rhs = rhs;
+        _ids = ids;
+        for (int k = 0; k < rows.Count; k++) _rowById[ids[k]] = rows[k];
+        for (int f = 0; f < d; f++)
+        {
+            var down = new double[d];
+            down[f] = -1;
+            var up = new double[d];
+            up[f] = 1;
+            _rowById[boxIds[2 * f]] = down;
+            _rowById[boxIds[2 * f + 1]] = up;
+        }
+
+        // The box: vertex b has coordinate f at its upper bound when bit f of b is set; edges flip one bit.
+        int count = 1 << d;
+        for (int b = 0; b < count; b++)
+        {
+            var x = new double[d];
+            var tight = new int[d];
+            for (int f = 0; f < d; f++)
+            {
+                bool up = ((b >> f) & 1) == 1;
+                x[f] = up ? upper[f] : lower[f];
+                tight[f] = up ? boxIds[2 * f + 1] : boxIds[2 * f];
+            }
+
+            Array.Sort(tight);
+            var neighbours = new List<int>(d);
+            for (int f = 0; f < d; f++) neighbours.Add(b ^ (1 << f));
+            AddVertex(x, tight, neighbours);
+        }
+
+        _live = Enumerable.Range(0, count).ToList();
+    }
+
+    private int AddVertex(double[] x, int[] tight, List<int> neighbours)
+    {
+        _coords.Add(x);
+        _tight.Add(tight);
+        _adjacent.Add(neighbours);
+        _alive.Add(true);
+        return _coords.Count - 1;
+    }
+
+    public double[] Centroid()
+    {
+        var c = new double[_d];
+        foreach (int v in _live)
+        {
+            for (int f = 0; f < _d; f++) c[f] += _coords[v][f];
+        }
+
+        for (int f = 0; f < _d; f++) c[f] /= Math.Max(1, _live.Count);
+        return c;
+    }
+
+    public IEnumerable<(double[] Point, int[] Tight)> Vertices() => _live.Select(v => (_coords[v], _tight[v]));
+
+    /// <summary>Cuts by constraint row <paramref name="k"/>; false when nothing is left.</summary>
+    public bool Cut(int k)
+    {
+        double[] row = _rows[k];
+        double b = _rhs[k];
+        int id = _ids[k];
+        if (_slack.Length < _coords.Count) _slack = new double[Math.Max(_coords.Count * 2, 64)];
+        double[] slack = _slack;
+        var negative = new List<int>();
+        var zero = new List<int>();
+        bool anyPositive = false;
+        foreach (int v in _live)
+        {
+            double s = b - VertexEnumeration.Dot(row, _coords[v]);
+            slack[v] = s;
+            if (s < -PolytopeTolerances.SlackEv) negative.Add(v);
+            else if (s <= PolytopeTolerances.SlackEv) zero.Add(v);
+            else anyPositive = true;
+        }
+
+        foreach (int z in zero) _tight[z] = WithId(_tight[z], id);
+        if (negative.Count == 0) return true;
+        if (!anyPositive && zero.Count == 0)
+        {
+            _live.Clear();
+            return false;
+        }
+
+        var face = new List<int>(zero);
+        foreach (int u in negative)
+        {
+            double su = slack[u];
+            foreach (int v in _adjacent[u])
+            {
+                if (!_alive[v]) continue;
+                double sv = slack[v];
+                if (sv <= PolytopeTolerances.SlackEv) continue;
+                double t = sv / (sv - su);
+                var x = new double[_d];
+                double[] xu = _coords[u], xv = _coords[v];
+                for (int f = 0; f < _d; f++) x[f] = xv[f] + t * (xu[f] - xv[f]);
+                int[] tight = WithId(Intersect(_tight[u], _tight[v]), id);
+                int w = AddVertex(x, tight, [v]);
+                List<int> around = _adjacent[v];
+                around[around.IndexOf(u)] = w;
+                face.Add(w);
+            }
+        }
+
+        foreach (int u in negative) _alive[u] = false;
+        foreach (int z in zero) _adjacent[z].RemoveAll(v => !_alive[v]);
+        for (int i = 0; i < face.Count; i++)
+        {
+            for (int j = i + 1; j < face.Count; j++)
+            {
+                int p = face[i], q = face[j];
+                if (_adjacent[p].Contains(q) || !AreAdjacent(_tight[p], _tight[q])) continue;
+                _adjacent[p].Add(q);
+                _adjacent[q].Add(p);
+            }
+        }
+
+        var live = new List<int>(_live.Count + face.Count);
+        foreach (int v in _live) if (_alive[v]) live.Add(v);
+        for (int i = zero.Count; i < face.Count; i++) live.Add(face[i]);
+        _live = live;
+        return true;
+    }
+
+    /// <summary>
+    /// The algebraic adjacency test: the constraints tight at both vertices have rank d − 1. Rows are taken into an
+    /// orthonormal basis one at a time and the test stops as soon as d − 1 independent ones are found (rank d would
+    /// mean the two vertices coincide, which distinct vertices cannot).
+    /// </summary>
+    private bool AreAdjacent(int[] a, int[] b)
+    {
+        int need = _d - 1;
+        if (need == 0) return true;
+        int count = IntersectInto(a, b, ref _common);
+        if (count < need) return false;
+        if (_rankBuffer.Length < need * _d) _rankBuffer = new double[need * _d];
+        Span<double> basis = _rankBuffer.AsSpan(0, need * _d);
+        Span<double> v = stackalloc double[_d];
+        int rank = 0;
+        for (int r = 0; r < count && rank < need; r++)
+        {
+            // Not enough rows left to reach d − 1: stop early.
+            if (count - r < need - rank) return false;
+            _rowById[_common[r]].CopyTo(v);
+            for (int pass = 0; pass < 2; pass++)
+            {
+                for (int e = 0; e < rank; e++)
+                {
+                    Span<double> be = basis.Slice(e * _d, _d);
+                    double dot = 0;
+                    for (int f = 0; f < _d; f++) dot += v[f] * be[f];
+                    for (int f = 0; f < _d; f++) v[f] -= dot * be[f];
+                }
+            }
+
+            double norm = 0;
+            for (int f = 0; f < _d; f++) norm += v[f] * v[f];
+            norm = Math.Sqrt(norm);
+            if (norm <= PolytopeTolerances.RankPivot) continue;
+            Span<double> target = basis.Slice(rank * _d, _d);
+            for (int f = 0; f < _d; f++) target[f] = v[f] / norm;
+            rank++;
+        }
+
+        return rank == need;
+    }
+
+    private int[] _common = new int[16];
+
+    private static int IntersectInto(int[] a, int[] b, ref int[] into)
+    {
+        if (into.Length < Math.Min(a.Length, b.Length)) into = new int[Math.Max(a.Length, b.Length)];
+        int count = 0, i = 0, j = 0;
+        while (i < a.Length && j < b.Length)
+        {
+            if (a[i] == b[j]) { into[count++] = a[i]; i++; j++; }
+            else if (a[i] < b[j]) i++;
+            else j++;
+        }
+
+        return count;
+    }
+
+    private static int[] Intersect(int[] a, int[] b)
+    {
+        var common = new List<int>(Math.Min(a.Length, b.Length));
+        int i = 0, j = 0;
+        while (i < a.Length && j < b.Length)
+        {
+            if (a[i] == b[j]) { common.Add(a[i]); i++; j++; }
+            else if (a[i] < b[j]) i++;
+            else j++;
+        }
+
+        return common.ToArray();
+    }
+
+    private static int[] WithId(int[] sorted, int id)
+    {
+        int at = Array.BinarySearch(sorted, id);
+        if (at >= 0) return sorted;
+        at = ~at;
+        var result = new int[sorted.Length + 1];
+        Array.Copy(sorted, result, at);
+        result[at] = id;
+        Array.Copy(sorted, at, result, at + 1, sorted.Length - at);
+        return result;
+    }
+}

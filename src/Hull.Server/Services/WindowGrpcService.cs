@@ -1,0 +1,199 @@
+using Grpc.Core;
+using Hull.Core.Chemistry;
+using Hull.Core.Thermo;
+using Hull.Core.Windows;
+using Hull.Protos.V1;
+using Hull.Server.Caching;
+using Hull.Server.Errors;
+using Hull.Server.Mapping;
+using CoreWindow = Hull.Core.Windows.StabilityWindow;
+
+namespace Hull.Server.Services;
+
+/// <summary>
+/// The window service: resolves the compound in the dataset version, takes its system's hull (and for dopants the
+/// extended system's) from the cache and translates the science layer's windows, slices and dopant limits.
+/// </summary>
+public sealed class WindowGrpcService(VersionResolver versions, HullCache cache) : WindowService.WindowServiceBase
+{
+    public override async Task<GetStabilityWindowResponse> GetStabilityWindow(GetStabilityWindowRequest request, ServerCallContext context)
+    {
+        WindowOptions options = Options(request.Settings);
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        CoreWindow window = Answer(() => StabilityWindows.Of(hull.Hull, id, options));
+        return new GetStabilityWindowResponse
+        {
+            Used = WireMapping.ToWire(snapshot.Version),
+            Window = WindowWireMapping.ToWire(window, snapshot.FormulasAsStored[row], hull.Hull.SystemName),
+        };
+    }
+
+    public override async Task<SliceStabilityWindowResponse> SliceStabilityWindow(SliceStabilityWindowRequest request, ServerCallContext context)
+    {
+        WindowOptions options = Options(request.Settings);
+        if (request.FixedPotentials.Count == 0)
+        {
+            throw RpcErrors.InvalidArgument("fixed_potentials", "no fixed potential given; a slice fixes the Δμ of at least one element");
+        }
+
+        var fixedPotentials = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < request.FixedPotentials.Count; i++)
+        {
+            FixedPotential p = request.FixedPotentials[i];
+            if (!ElementTable.IsSymbol(p.Element))
+            {
+                throw RpcErrors.InvalidArgument($"fixed_potentials[{i}].element", $"'{p.Element}' is not an element symbol");
+            }
+
+            if (!fixedPotentials.TryAdd(p.Element, p.ChemicalPotentialEv))
+            {
+                throw RpcErrors.InvalidArgument($"fixed_potentials[{i}].element", $"{p.Element} is fixed twice");
+            }
+        }
+
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        WindowSlice slice = Answer(
+            () => StabilityWindows.Slice(hull.Hull, id, fixedPotentials, request.AllowAboveReference, options),
+            element => $"fixed_potentials[{request.FixedPotentials.Select(p => p.Element).ToList().IndexOf(element ?? string.Empty)}]");
+        string formula = snapshot.FormulasAsStored[row];
+        var response = new SliceStabilityWindowResponse
+        {
+            Used = WireMapping.ToWire(snapshot.Version),
+            Whole = WindowWireMapping.ToWire(slice.Whole, formula, hull.Hull.SystemName),
+            Slice = WindowWireMapping.ToWire(slice.Slice, formula, hull.Hull.SystemName),
+            Misses = slice.Misses,
+        };
+        if (slice.NearestPointEv is { } nearest) response.NearestPointEv.AddRange(nearest);
+        if (slice.DistanceEv is double distance) response.DistanceEv = distance;
+        return response;
+    }
+
+    public override async Task<GetDopantLimitsResponse> GetDopantLimits(GetDopantLimitsRequest request, ServerCallContext context)
+    {
+        WindowOptions options = Options(request.Settings);
+        if (request.Dopants.Count == 0) throw RpcErrors.InvalidArgument("dopants", "no dopant given; name at least one element");
+        for (int i = 0; i < request.Dopants.Count; i++)
+        {
+            if (!ElementTable.IsSymbol(request.Dopants[i]))
+            {
+                throw RpcErrors.InvalidArgument($"dopants[{i}]", $"'{request.Dopants[i]}' is not an element symbol (symbols are case-sensitive, e.g. 'Al')");
+            }
+        }
+
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        var response = new GetDopantLimitsResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        for (int i = 0; i < request.Dopants.Count; i++)
+        {
+            string dopant = request.Dopants[i];
+            string field = $"dopants[{i}]";
+            if (hull.Hull.Components.Contains(dopant, StringComparer.Ordinal))
+            {
+                throw RpcErrors.InvalidArgument(field, $"dopant {dopant} is already an element of the host {snapshot.FormulasAsStored[row]}");
+            }
+
+            string[] extendedSystem = [.. hull.Hull.Components.Append(dopant).Order(StringComparer.Ordinal)];
+            CachedHull extended = await HullAsync(snapshot, extendedSystem, context);
+            Core.Windows.DopantLimit limit = Answer(() => DopantLimits.Of(hull.Hull, extended.Hull, id, dopant, options), _ => field);
+            if (i == 0) response.Host = WindowWireMapping.ToWire(limit.Host, snapshot.FormulasAsStored[row], hull.Hull.SystemName);
+            response.Limits.Add(WindowWireMapping.ToWire(limit));
+        }
+
+        return response;
+    }
+
+    private static WindowOptions Options(WindowSettings? settings)
+    {
+        if (settings is null) return WindowOptions.Default;
+        try
+        {
+            return new WindowOptions(
+                settings.HasAboveHullToleranceEvPerAtom ? settings.AboveHullToleranceEvPerAtom : null,
+                settings.HasLoweringEvPerAtom ? settings.LoweringEvPerAtom : null,
+                settings.ProjectionOmits);
+        }
+        catch (WindowInputException e)
+        {
+            throw RpcErrors.InvalidArgument("settings", e.Message);
+        }
+    }
+
+    /// <summary>The version, the hull of the compound's elements, the entry id and its row.</summary>
+    private async Task<(VersionSnapshot, CachedHull, string, int)> ResolveAsync(string dataset, long version, CompoundRef? compound, ServerCallContext context)
+    {
+        if (compound is null || compound.WhichCase == CompoundRef.WhichOneofCase.None)
+        {
+            throw RpcErrors.InvalidArgument("compound", "no compound given; name an entry id or a formula");
+        }
+
+        Composition? parsed = null;
+        if (compound.WhichCase == CompoundRef.WhichOneofCase.Formula
+            && !Composition.TryParse(compound.Formula, out parsed, out FormulaParseException? error))
+        {
+            throw RpcErrors.InvalidArgument("compound.formula", error.Message);
+        }
+
+        VersionRef resolved = versions.Resolve(dataset, version);
+        VersionSnapshot snapshot = await cache.GetSnapshotAsync(resolved, context.CancellationToken);
+        string where = $"dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}";
+        if (compound.WhichCase == CompoundRef.WhichOneofCase.EntryId)
+        {
+            if (!snapshot.TryFind(compound.EntryId, out int row))
+            {
+                throw RpcErrors.NotFound($"entry '{compound.EntryId}' is not in {where}", "compound.entry_id");
+            }
+
+            CachedHull hull = await HullAsync(snapshot, snapshot.Entries[row].Composition.Elements, context);
+            return (snapshot, hull, compound.EntryId, row);
+        }
+
+        CachedHull byFormula = await HullAsync(snapshot, parsed!.Elements, context);
+        Core.Thermo.EntryStability? lowest = byFormula.Hull.Entries
+            .Where(e => e.Composition.HasSameProportions(parsed))
+            .OrderBy(e => e.FormationEnergyEvPerAtom)
+            .ThenBy(e => e.Id, StringComparer.Ordinal)
+            .FirstOrDefault();
+        if (lowest is null || !snapshot.TryFind(lowest.Id, out int found))
+        {
+            throw RpcErrors.NotFound($"no entry of composition {parsed.Formula} in {where}", "compound.formula");
+        }
+
+        return (snapshot, byFormula, lowest.Id, found);
+    }
+
+    private async Task<CachedHull> HullAsync(VersionSnapshot snapshot, IReadOnlyList<string> elements, ServerCallContext context)
+    {
+        try
+        {
+            return await cache.GetHullAsync(snapshot, elements.Order(StringComparer.Ordinal).ToArray(), context.CancellationToken);
+        }
+        catch (ThermoInputException e) when (e.Element is not null)
+        {
+            throw RpcErrors.FailedPrecondition(
+                $"the hull of {string.Join('-', elements.Order(StringComparer.Ordinal))} cannot be built (missing elemental reference for {e.Element}): {e.Message}");
+        }
+    }
+
+    /// <summary>Runs the science layer's call and turns its input errors into INVALID_ARGUMENT or NOT_FOUND naming the field.</summary>
+    private static T Answer<T>(Func<T> call, Func<string?, string>? fieldOf = null)
+    {
+        try
+        {
+            return call();
+        }
+        catch (WindowInputException e)
+        {
+            string field = e.Subject switch
+            {
+                WindowInputSubject.Compound => "compound",
+                WindowInputSubject.Option => "settings",
+                _ => fieldOf?.Invoke(e.Element) ?? "request",
+            };
+            if (e.Subject == WindowInputSubject.Dopant && e.Message.Contains("has no phase", StringComparison.Ordinal))
+            {
+                throw RpcErrors.NotFound(e.Message, field);
+            }
+
+            throw RpcErrors.InvalidArgument(field, e.Message);
+        }
+    }
+}
