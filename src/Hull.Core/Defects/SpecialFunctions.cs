@@ -5,10 +5,11 @@ internal static class SpecialFunctions
 {
     private const double TwoOverSqrtPi = 1.1283791670955126;
 
-    // Below this argument the power series is used, above it the continued fraction: both reach ~1e-16 there.
-    private const double SeriesLimit = 2.5;
+    // Below this argument the power series is used (1 − erf loses under two digits there), above it 80 terms of
+    // the continued fraction reach ~1e-15 relative (checked against SciPy in the tests).
+    private const double SeriesLimit = 1.5;
 
-    /// <summary>erfc(x), relative error ~1e-15 for x ≤ 2.5 and ~1e-15 relative for larger x.</summary>
+    /// <summary>erfc(x) to a few 1e-15 relative.</summary>
     public static double Erfc(double x)
     {
         if (double.IsNaN(x)) return double.NaN;
