@@ -31,7 +31,7 @@ public static class ImageChargeEwald
         double realSum = 0;
         foreach (var r in real) realSum += kernel.ShortRange(r);
 
-        List<Vector3D> reciprocal = frame.ReciprocalVectors(2 * gamma * x);
+        List<Vector3D> reciprocal = frame.ReciprocalVectors(kernel.ReciprocalCutoff(x));
         double reciprocalSum = 0;
         foreach (var g in reciprocal) reciprocalSum += kernel.ReciprocalDamping(g) / g.Dot(g);
         reciprocalSum *= 4 * Math.PI / volume;

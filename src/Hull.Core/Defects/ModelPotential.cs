@@ -46,7 +46,7 @@ public static class ModelPotential
         double realCutoff = kernel.RealSpaceCutoff(x);
         List<Vector3D> lattice = frame.RealVectors(realCutoff + longest);
         lattice.Add(new Vector3D(0, 0, 0));
-        List<Vector3D> reciprocal = frame.ReciprocalVectors(2 * gamma * x);
+        List<Vector3D> reciprocal = frame.ReciprocalVectors(kernel.ReciprocalCutoff(x));
         var weights = new double[reciprocal.Count];
         for (int k = 0; k < reciprocal.Count; k++)
         {

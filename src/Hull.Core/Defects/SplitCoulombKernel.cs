@@ -35,7 +35,21 @@ internal sealed class SplitCoulombKernel
         // Relative spread of the eigenvalues at which the closed isotropic form is exact to rounding.
         _isIsotropic = !forceQuadrature && !_isPoint && (_c2 - _c0) <= 1e-15 * _c2;
         LargestVariance = _c2;
+        SmallestVariance = _c0;
+        // Terms of the sums are compared with the unscreened Coulomb value at the real-space cutoff distance.
+        _termScale = 1 / RealSpaceCutoff(1);
     }
+
+    private readonly double _termScale;
+
+    public double SmallestVariance { get; }
+
+    /// <summary>
+    /// Reciprocal-space cutoff (Å⁻¹) where the damping falls below e^{−x²}: from the split, or sooner from the
+    /// Gaussian's own transform e^{−GᵀCG/2} ≤ e^{−c_min G²/2}.
+    /// </summary>
+    public double ReciprocalCutoff(double x) =>
+        SmallestVariance > 0 ? x * Math.Min(2 * _gamma, Math.Sqrt(2 / SmallestVariance)) : 2 * _gamma * x;
 
     public double Gamma => _gamma;
 
@@ -79,8 +93,14 @@ internal sealed class SplitCoulombKernel
             return Math.Exp(-exponent) / Math.Sqrt(d0 * d1 * d2) * gamma / (u * u);
         }
 
-        double scale = 1 / Math.Max(distance, Math.Sqrt(_c2));
-        return TwoOverSqrtPi * SpecialFunctions.Integrate(Integrand, 0, 1, QuadratureRelativeTolerance * scale);
+        // The exponent grows with t, so the integrand is at most e^{−γ² Σ a_k/(1+2γ²c_k)} det(I+2t²C)^{−1/2}, whose
+        // integral is closed with the smallest eigenvalue: terms below the tolerance need no quadrature.
+        double g2 = gamma * gamma;
+        double bound = Math.Exp(-g2 * (a0 / (1 + 2 * g2 * c0) + a1 / (1 + 2 * g2 * c1) + a2 / (1 + 2 * g2 * c2)))
+            * (c0 > 0 ? 1 / Math.Sqrt(2 * c0) - gamma / Math.Sqrt(1 + 2 * c0 * g2) : double.PositiveInfinity);
+        double tolerance = QuadratureRelativeTolerance * _termScale;
+        if (TwoOverSqrtPi * bound <= tolerance) return 0;
+        return TwoOverSqrtPi * SpecialFunctions.Integrate(Integrand, 0, 1, tolerance);
     }
 
     /// <summary>The long-range part at r = 0 (Å⁻¹): the self term removed from the reciprocal sum.</summary>
