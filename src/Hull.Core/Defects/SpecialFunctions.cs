@@ -5,8 +5,8 @@ internal static class SpecialFunctions
 {
     private const double TwoOverSqrtPi = 1.1283791670955126;
 
-    // Below this argument the power series is used (1 − erf loses under two digits there), above it 80 terms of
-    // the continued fraction reach ~1e-15 relative (checked against SciPy in the tests).
+    // Below this argument the power series is used (1 − erf loses under two digits there), above it the continued
+    // fraction reaches ~1e-15 relative (checked against SciPy in the tests).
     private const double SeriesLimit = 1.5;
 
     /// <summary>erfc(x) to a few 1e-15 relative.</summary>
@@ -18,8 +18,10 @@ internal static class SpecialFunctions
         if (x > 27) return 0; // e^{-x²} underflows
 
         // erfc(x) = e^{-x²}/√π · 1/(x + (1/2)/(x + 1/(x + (3/2)/(x + …)))), evaluated from the tail.
+        // The fraction converges faster the larger x: 12 + 180/x² terms keep ~1e-15 from x = 1.5 on (80 at 1.5,
+        // 12 from x ≈ 4), checked against SciPy in the tests.
         double tail = x;
-        for (int n = 80; n >= 1; n--) tail = x + 0.5 * n / tail;
+        for (int n = 12 + (int)(180 / (x * x)); n >= 1; n--) tail = x + 0.5 * n / tail;
         return Math.Exp(-x * x) / (Math.Sqrt(Math.PI) * tail);
     }
 
