@@ -105,7 +105,7 @@ public static class PointsFileSolver
         int onHull = 0;
         for (int i = 0; i < energiesEvPerAtom.Length; i++)
         {
-            double e = hull.EnergyAboveHull(i);
+            double e = hull.EnergyAboveHullEvPerAtom(i);
             sum += e;
             if (e == 0.0) onHull++;
         }

@@ -3,6 +3,7 @@ using Grpc.Core;
 using Hull.Cli.Client;
 using Hull.Cli.Commands;
 using Hull.Cli.Input;
+using Hull.Cli.Output;
 
 namespace Hull.Cli;
 
@@ -64,10 +65,14 @@ public static class CliApp
                 context.Err.WriteLine($"hull: {input.Message}");
                 return ExitCodes.InputFile;
             case ImportRunner.BatchRefusedException refused:
-                context.Err.WriteLine($"hull: {refused.Message}");
+                context.Err.WriteLine(context.Format == OutputFormat.Json
+                    ? RpcFailure.DescribeJson(refused.Cause, context.ServerAddress, refused.Message)
+                    : $"hull: {refused.Message}");
                 return RpcFailure.ExitCodeOf(refused.Cause);
             case RpcException rpc:
-                context.Err.WriteLine($"hull: {RpcFailure.Describe(rpc, context.ServerAddress)}");
+                context.Err.WriteLine(context.Format == OutputFormat.Json
+                    ? RpcFailure.DescribeJson(rpc, context.ServerAddress)
+                    : $"hull: {RpcFailure.Describe(rpc, context.ServerAddress)}");
                 return RpcFailure.ExitCodeOf(rpc);
             case OperationCanceledException:
                 context.Err.WriteLine("hull: cancelled");

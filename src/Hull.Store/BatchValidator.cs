@@ -34,10 +34,10 @@ internal static class BatchValidator
                     $"row {i} (id '{row.Id}'): EnergyEv is {row.EnergyEv}; energies must be finite numbers of eV",
                     i, row.Id, nameof(EntryRow.EnergyEv));
             }
-            if (!EnergyBasisTokens.IsDefined(row.Basis))
+            if (!StoredBasisTokens.IsAccepted(row.Basis))
             {
                 throw new InvalidBatchException(
-                    $"row {i} (id '{row.Id}'): Basis {(int)row.Basis} is not a defined energy basis",
+                    $"row {i} (id '{row.Id}'): Basis '{row.Basis}' is not one of {string.Join(", ", StoredBasisTokens.All)}",
                     i, row.Id, nameof(EntryRow.Basis));
             }
             if (row.Metadata is not null) CheckText(i, row.Id, nameof(EntryRow.Metadata), row.Metadata);

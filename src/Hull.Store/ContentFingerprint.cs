@@ -48,7 +48,7 @@ public static class ContentFingerprint
             // -0.0 + 0.0 is +0.0; every other value is unchanged. SQLite gives back -0 as +0, so the two must agree.
             BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits(row.EnergyEv + 0.0));
             length += 8;
-            WriteText(EnergyBasisTokens.ToToken(row.Basis), ref length);
+            WriteText(row.Basis, ref length);
             WriteText(row.Metadata ?? string.Empty, ref length);
             _hash.AppendData(_buffer, 0, length);
         }

@@ -77,7 +77,7 @@ public sealed partial class DatasetStore
                 formula.Value = row.Formula;
                 // SQLite reads -0.0 back as 0.0; store the +0 it will return so the row reads back exactly.
                 energy.Value = row.EnergyEv + 0.0;
-                basis.Value = EnergyBasisTokens.ToToken(row.Basis);
+                basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
                 try
                 {

@@ -220,12 +220,7 @@ public sealed partial class DatasetStore
 
     private static EntryRow ReadEntry(SqliteDataReader reader)
     {
-        string token = reader.GetString(3);
-        if (!EnergyBasisTokens.TryParse(token, out EnergyBasis basis))
-        {
-            throw new InvalidDataException($"entry '{reader.GetString(0)}' has unknown energy basis '{token}' in the database");
-        }
-        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), basis, reader.GetString(4));
+        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4));
     }
 
     // Keeps a computed fingerprint with its version when no write is in progress; otherwise the next request computes

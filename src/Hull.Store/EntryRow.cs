@@ -2,11 +2,12 @@ namespace Hull.Store;
 
 /// <summary>
 /// One phase entry as stored: an id unique within a dataset version, the formula exactly as given, an energy in eV
-/// with the basis it refers to, and free-text metadata (empty when none). The Store does not interpret the formula.
+/// with the basis it refers to, and free-text metadata (empty when none). The Store interprets neither the formula nor the
+/// basis: the server reads both.
 /// </summary>
 /// <param name="Id">Entry id, unique within a dataset version; non-empty.</param>
 /// <param name="Formula">Formula text as given by the user, e.g. "Fe3O4"; non-empty.</param>
 /// <param name="EnergyEv">Energy in eV (per formula unit or per atom, see <paramref name="Basis"/>); finite.</param>
-/// <param name="Basis">What the energy refers to.</param>
+/// <param name="Basis">What the energy refers to, as a token (e.g. "total_per_atom"); kept as given, not interpreted.</param>
 /// <param name="Metadata">Free text; empty when none.</param>
-public sealed record EntryRow(string Id, string Formula, double EnergyEv, EnergyBasis Basis, string Metadata = "");
+public sealed record EntryRow(string Id, string Formula, double EnergyEv, string Basis, string Metadata = "");

@@ -73,7 +73,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         var csv = await CliRun.RunAsync("stability", "demo", "LiCoO2-b", "--server", Server, "--csv", "--version", "3");
         Assert.Equal(0, csv.ExitCode);
         string[] rows = csv.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
-        Assert.Equal("id,formula,system,formation_ev_per_atom,above_hull_ev_per_atom,vertex,decomposition_ev_per_atom,decomposition,dataset_version", rows[0]);
+        Assert.Equal("id,formula,system,formation_ev_per_atom,above_hull_ev_per_atom,stable,decomposition_ev_per_atom,decomposition,dataset_version", rows[0]);
         string[] cells = rows[1].Split(',');
         Assert.Equal(0.05, double.Parse(cells[4], System.Globalization.CultureInfo.InvariantCulture), 12);
         Assert.Equal("3", cells[^1]);
@@ -82,7 +82,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         Assert.Equal(0, assess.ExitCode);
         using (JsonDocument json = JsonDocument.Parse(assess.Out))
         {
-            Assert.True(json.RootElement.GetProperty("results")[0].GetProperty("is_stable").GetBoolean());
+            Assert.True(json.RootElement.GetProperty("results")[0].GetProperty("is_on_or_below_hull").GetBoolean());
             Assert.Equal("3", json.RootElement.GetProperty("used").GetProperty("version").GetString());
         }
 
@@ -162,6 +162,54 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         var notFound = await CliRun.RunAsync("stable", "nope", "--server", Server);
         Assert.Equal(ExitCodes.NotFound, notFound.ExitCode);
         Assert.Contains("'nope'", notFound.Err);
+        Assert.Contains("(NotFound, DATASET_NOT_FOUND)", notFound.Err);
+
+        // 7: with --json the refusal is one JSON object on stderr that scripts can branch on; stdout stays empty.
+        var notFoundJson = await CliRun.RunAsync("stable", "nope", "--json", "--server", Server);
+        Assert.Equal(ExitCodes.NotFound, notFoundJson.ExitCode);
+        Assert.Equal(string.Empty, notFoundJson.Out.Trim());
+        using (var error = System.Text.Json.JsonDocument.Parse(notFoundJson.Err))
+        {
+            var body = error.RootElement.GetProperty("error");
+            Assert.Equal("NOT_FOUND", body.GetProperty("status").GetString());
+            Assert.Equal("DATASET_NOT_FOUND", body.GetProperty("reason").GetString());
+            Assert.Equal("hull.v1", body.GetProperty("domain").GetString());
+            Assert.Equal("nope", body.GetProperty("metadata").GetProperty("dataset").GetString());
+            Assert.Equal(ExitCodes.NotFound, body.GetProperty("exit_code").GetInt32());
+        }
+
+        var badJson = await CliRun.RunAsync("import", "d", File("typo2.csv", "id,formula,energy_ev,basis\nbad,LiCoQ2,-1,formation_per_atom\n"), "--create", "--json", "--server", Server);
+        using (var error = System.Text.Json.JsonDocument.Parse(badJson.Err))
+        {
+            var body = error.RootElement.GetProperty("error");
+            Assert.Equal("INVALID_ENTRY", body.GetProperty("reason").GetString());
+            Assert.Contains("typo2.csv line 2", body.GetProperty("message").GetString());
+            Assert.Equal("entries[0].formula", body.GetProperty("field_violations")[0].GetProperty("field").GetString());
+        }
+    }
+
+    [Fact]
+    public async Task List_commands_follow_every_page()
+    {
+        var (server, folder) = await CliRun.StartServerAsync();
+        try
+        {
+            string address = server.Address.ToString();
+            foreach (string name in new[] { "p-c", "p-a", "p-b" })
+            {
+                Assert.Equal(ExitCodes.Ok, (await CliRun.RunAsync("datasets", "create", name, "--server", address)).ExitCode);
+            }
+
+            var listed = await CliRun.RunAsync("datasets", "list", "--page-size", "1", "--json", "--server", address);
+            Assert.Equal(ExitCodes.Ok, listed.ExitCode);
+            using var json = System.Text.Json.JsonDocument.Parse(listed.Out);
+            Assert.Equal(["p-a", "p-b", "p-c"], json.RootElement.GetProperty("datasets").EnumerateArray().Select(d => d.GetProperty("name").GetString()));
+        }
+        finally
+        {
+            await server.StopAsync();
+            Directory.Delete(folder, recursive: true);
+        }
     }
 
     [Fact]

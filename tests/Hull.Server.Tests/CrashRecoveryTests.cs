@@ -83,7 +83,7 @@ public sealed partial class CrashRecoveryTests
     /// <summary>Checks that the versions and entries are whole batches 0..m-1 and returns m.</summary>
     private static async Task<int> VerifyAsync(Clients c, int atLeast)
     {
-        var versions = (await c.Datasets.ListVersionsAsync(new ListVersionsRequest { Dataset = "big" }, c.Call())).Versions;
+        var versions = (await c.Datasets.ListVersionsAsync(new ListVersionsRequest { Dataset = "big", PageSize = 1000 }, c.Call())).Versions;
         int m = versions.Count;
         Assert.True(m >= atLeast, $"{m} versions after restart, but {atLeast} batches were acknowledged");
         for (int v = 0; v < m; v++)

@@ -19,7 +19,7 @@ public static class CrashBatches
                 Id: $"b{batch:D4}-e{i:D5}",
                 Formula: $"Fe{1 + i % 3}O{1 + (i + batch) % 4}",
                 EnergyEv: -1.0 - i / 7.0 - batch / 13.0,
-                Basis: (EnergyBasis)((i + batch) % 4),
+                Basis: StoredBasisTokens.All[(i + batch) % 4],
                 Metadata: i % 5 == 0 ? string.Empty : $"batch {batch} row {i}");
         }
         return rows;

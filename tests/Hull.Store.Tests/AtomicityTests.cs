@@ -30,7 +30,7 @@ public sealed class AtomicityTests : IDisposable
         { "empty id", Rows.Make(""), nameof(EntryRow.Id) },
         { "blank id", Rows.Make("  \t"), nameof(EntryRow.Id) },
         { "empty formula", Rows.Make("x3", formula: ""), nameof(EntryRow.Formula) },
-        { "undefined basis", Rows.Make("x3", basis: (EnergyBasis)17), nameof(EntryRow.Basis) },
+        { "undefined basis", Rows.Make("x3", basis: "total_per_electron"), nameof(EntryRow.Basis) },
         { "unpaired surrogate in metadata", Rows.Make("x3", metadata: "ok \uD800 broken"), nameof(EntryRow.Metadata) },
         { "unpaired surrogate in id", Rows.Make("x\uDC00"), nameof(EntryRow.Id) },
         { "null row", null, null },

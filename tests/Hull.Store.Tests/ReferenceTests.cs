@@ -39,8 +39,8 @@ public sealed class ReferenceTests : IDisposable
         string expected = ExternalTool.Run("/usr/bin/sha256sum", [file]).Split(' ')[0];
         Assert.Matches("^[0-9a-f]{64}$", expected);
 
-        EntryRow a = new("a", "Fe3O4", -1.5, EnergyBasis.FormationPerAtom, "");
-        EntryRow b = new("b\U0001D518", "O2", -0.0, EnergyBasis.TotalPerAtom, "µ = −4.9 eV");
+        EntryRow a = new("a", "Fe3O4", -1.5, "formation_per_atom", "");
+        EntryRow b = new("b\U0001D518", "O2", -0.0, "total_per_atom", "µ = −4.9 eV");
         Assert.Equal(expected, ContentFingerprint.Compute([b, a]));
 
         using DatasetStore store = DatasetStore.Open(_directory.Path);

@@ -4,7 +4,7 @@ namespace Hull.Store.Tests;
 internal static class Rows
 {
     public static EntryRow Make(string id, double energyEv = -1.25, string formula = "Fe3O4",
-        EnergyBasis basis = EnergyBasis.TotalPerFormulaUnit, string metadata = "") =>
+        string basis = "total_per_formula_unit", string metadata = "") =>
         new(id, formula, energyEv, basis, metadata);
 
     public static IReadOnlyList<EntryRow> Many(string prefix, int count, double offsetEv = 0) =>

@@ -45,10 +45,10 @@ public sealed class SchemaMigrationTests : IDisposable
         }
         SqliteConnection.ClearAllPools();
 
-        EntryRow a = new("a", "Fe3O4", -1.5, EnergyBasis.TotalPerFormulaUnit, "");
-        EntryRow oldB = new("b", "FeO", -2.5, EnergyBasis.FormationPerAtom, "old");
-        EntryRow newB = new("b", "FeO", -2.75, EnergyBasis.FormationPerAtom, "new");
-        EntryRow c = new("c", "O2", -4.25, EnergyBasis.TotalPerAtom, "");
+        EntryRow a = new("a", "Fe3O4", -1.5, "total_per_formula_unit", "");
+        EntryRow oldB = new("b", "FeO", -2.5, "formation_per_atom", "old");
+        EntryRow newB = new("b", "FeO", -2.75, "formation_per_atom", "new");
+        EntryRow c = new("c", "O2", -4.25, "total_per_atom", "");
         using (DatasetStore store = DatasetStore.Open(_directory.Path))
         {
             Rows.AssertSame([a, oldB], store.GetEntries("legacy", 1));

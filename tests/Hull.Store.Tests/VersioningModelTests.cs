@@ -67,7 +67,7 @@ public sealed class VersioningModelTests
             id,
             Formulas[random.Next(Formulas.Length)],
             random.NextDouble() * 20 - 15,
-            (EnergyBasis)random.Next(4),
+            StoredBasisTokens.All[random.Next(4)],
             Notes[random.Next(Notes.Length)])).ToList();
         if (count > 1 && random.NextDouble() < 0.1)
         {

@@ -15,7 +15,7 @@ public static class DatasetLpCheck
     public static string ScriptPath => Path.Combine(AppContext.BaseDirectory, "Scripts", "lp_dataset_check.py");
 
     /// <summary>LP energy above hull (eV/atom) of each sampled row.</summary>
-    public static double[] EnergyAboveHull(IReadOnlyList<DatasetRow> rows, IReadOnlyList<int> sample, string workDirectory, out double seconds)
+    public static double[] EnergyAboveHullEvPerAtom(IReadOnlyList<DatasetRow> rows, IReadOnlyList<int> sample, string workDirectory, out double seconds)
     {
         var reference = new Dictionary<string, double>(StringComparer.Ordinal);
         foreach (var r in rows)

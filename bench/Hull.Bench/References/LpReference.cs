@@ -16,7 +16,7 @@ public static class LpReference
     public static string ScriptPath => Path.Combine(AppContext.BaseDirectory, "Scripts", "lp_energy_above_hull.py");
 
     /// <summary>Returns the LP energy above hull (eV/atom) for each query index; throws if any LP fails.</summary>
-    public static double[] EnergyAboveHull(PointSet points, IReadOnlyList<int> queries, string workDirectory, out double seconds)
+    public static double[] EnergyAboveHullEvPerAtom(PointSet points, IReadOnlyList<int> queries, string workDirectory, out double seconds)
     {
         string pointsFile = Path.Combine(workDirectory, "lp-points.txt");
         string queryFile = Path.Combine(workDirectory, "lp-queries.txt");

@@ -64,7 +64,7 @@ public static class Dataset60Suite
             Console.WriteLine($"   median {median:F0} ms over {times.Count} ({string.Join(", ", times.Select(t => t.ToString("F0", CultureInfo.InvariantCulture)))}), hulls {result.HullSystems.Count}, on hull {onHull}, peak {peak:F0} MB");
             int lpSample = o.LpSample ?? 200;
             var sample = HullCaseRunner.ChooseLpQueries(rows.Count, lpSample, seed);
-            var lp = DatasetLpCheck.EnergyAboveHull(rows, sample, workDirectory, out double lpSeconds);
+            var lp = DatasetLpCheck.EnergyAboveHullEvPerAtom(rows, sample, workDirectory, out double lpSeconds);
             double worst = 0;
             for (int j = 0; j < sample.Count; j++)
             {

@@ -110,7 +110,7 @@ public static class HullCaseRunner
             result.Engine = solved.Summary.Engine;
             result.OnHull = solved.Summary.OnHull;
             ours = new double[pts.Count];
-            for (int i = 0; i < pts.Count; i++) ours[i] = solved.Hull.EnergyAboveHull(i);
+            for (int i = 0; i < pts.Count; i++) ours[i] = solved.Hull.EnergyAboveHullEvPerAtom(i);
             Console.WriteLine($"   in-process: median {result.InProcessMedianMs:F1} ms over {times.Count} ({Join(times)}); vertices {result.Vertices}, engine {result.Engine}, lower facets {result.Facets?.ToString() ?? "not built"}, on hull {result.OnHull}, peak {result.PeakInProcessMb:F0} MB");
         }
 
@@ -186,7 +186,7 @@ public static class HullCaseRunner
         if (plan.LpSample != 0 && ours.Length > 0)
         {
             var queries = ChooseLpQueries(pts.Count, plan.LpSample, seed);
-            var lp = LpReference.EnergyAboveHull(pts, queries, workDirectory, out double seconds);
+            var lp = LpReference.EnergyAboveHullEvPerAtom(pts, queries, workDirectory, out double seconds);
             double worst = 0;
             for (int j = 0; j < queries.Count; j++) worst = Math.Max(worst, Math.Abs(ours[queries[j]] - Math.Max(0.0, lp[j])));
             result.LpMaxAbsDiff = worst;

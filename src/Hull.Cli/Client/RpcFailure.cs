@@ -27,6 +27,33 @@ public static class RpcFailure
     public static IReadOnlyList<BadRequest.Types.FieldViolation> ViolationsOf(RpcException error) =>
         error.GetRpcStatus()?.GetDetail<BadRequest>()?.FieldViolations.ToArray() ?? [];
 
+    /// <summary>The server's google.rpc.ErrorInfo (reason code and domain), if the error carries one.</summary>
+    public static ErrorInfo? ReasonOf(RpcException error) => error.GetRpcStatus()?.GetDetail<ErrorInfo>();
+
+    /// <summary>
+    /// The error as one JSON object for --json: status, reason code, domain, message, metadata and field
+    /// violations, so that scripts branch on the reason rather than on the wording.
+    /// </summary>
+    public static string DescribeJson(RpcException error, Uri address, string? message = null)
+    {
+        ErrorInfo? info = ReasonOf(error);
+        var body = new Dictionary<string, object?>
+        {
+            ["status"] = StatusName(error.StatusCode),
+            ["reason"] = info?.Reason ?? string.Empty,
+            ["domain"] = info?.Domain ?? string.Empty,
+            ["message"] = message ?? Describe(error, address),
+            ["metadata"] = info?.Metadata.ToDictionary(p => p.Key, p => p.Value) ?? new Dictionary<string, string>(),
+            ["field_violations"] = ViolationsOf(error).Select(v => new Dictionary<string, string> { ["field"] = v.Field, ["description"] = v.Description }).ToArray(),
+            ["exit_code"] = ExitCodeOf(error),
+        };
+        return System.Text.Json.JsonSerializer.Serialize(new Dictionary<string, object?> { ["error"] = body });
+    }
+
+    /// <summary>"NOT_FOUND" for StatusCode.NotFound: the status as the gRPC specification spells it.</summary>
+    private static string StatusName(StatusCode code) =>
+        string.Concat(code.ToString().Select((c, i) => i > 0 && char.IsUpper(c) ? "_" + c : c.ToString())).ToUpperInvariant();
+
     /// <summary>Whether the call failed in the TLS handshake because the server's certificate was refused.</summary>
     private static bool IsCertificateFailure(RpcException error)
     {
@@ -56,7 +83,8 @@ public static class RpcFailure
             return $"the server at {address} did not answer in time; raise --timeout for long work";
         }
 
-        string text = $"server refused ({error.StatusCode}): {error.Status.Detail}";
+        string reason = ReasonOf(error)?.Reason is { Length: > 0 } code ? $", {code}" : string.Empty;
+        string text = $"server refused ({error.StatusCode}{reason}): {error.Status.Detail}";
         IReadOnlyList<BadRequest.Types.FieldViolation> violations = ViolationsOf(error);
         if (violations.Count > 1)
         {

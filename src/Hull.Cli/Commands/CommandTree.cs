@@ -51,14 +51,31 @@ public static class CommandTree
         },
     };
 
+    private static Option<int> PageSizeOption() => new("--page-size")
+    {
+        Description = "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
+        DefaultValueFactory = _ => 0,
+    };
+
     private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}";
 
     private static Command DatasetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
-        var list = new Command("list", "list the datasets");
+        var datasetsPageSize = PageSizeOption();
+        var list = new Command("list", "list the datasets") { datasetsPageSize };
         list.SetAction(wrap(async (c, t) =>
         {
-            ListDatasetsResponse response = await c.Server.Datasets.ListDatasetsAsync(new ListDatasetsRequest(), c.Server.Call(t));
+            // Follows every page, so the listing is whole; --json prints it as one response.
+            var response = new ListDatasetsResponse();
+            var request = new ListDatasetsRequest { PageSize = c.Get(datasetsPageSize) };
+            do
+            {
+                ListDatasetsResponse page = await c.Server.Datasets.ListDatasetsAsync(request, c.Server.Call(t));
+                response.Datasets.AddRange(page.Datasets);
+                request.PageToken = page.NextPageToken;
+            }
+            while (request.PageToken.Length > 0);
+
             c.Emit(response, () =>
             {
                 var table = new Table("name", "latest_version", "entries", "created_utc", "description");
@@ -233,10 +250,20 @@ public static class CommandTree
     private static Command VersionsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         var listName = DatasetArgument();
-        var list = new Command("list", "list a dataset's versions with their provenance") { listName };
+        var versionsPageSize = PageSizeOption();
+        var list = new Command("list", "list a dataset's versions with their provenance") { listName, versionsPageSize };
         list.SetAction(wrap(async (c, t) =>
         {
-            ListVersionsResponse response = await c.Server.Datasets.ListVersionsAsync(new ListVersionsRequest { Dataset = c.Get(listName)! }, c.Server.Call(t));
+            var response = new ListVersionsResponse();
+            var request = new ListVersionsRequest { Dataset = c.Get(listName)!, PageSize = c.Get(versionsPageSize) };
+            do
+            {
+                ListVersionsResponse page = await c.Server.Datasets.ListVersionsAsync(request, c.Server.Call(t));
+                response.Versions.AddRange(page.Versions);
+                request.PageToken = page.NextPageToken;
+            }
+            while (request.PageToken.Length > 0);
+
             c.Emit(response, () => VersionsTable(response.Versions));
             return ExitCodes.Ok;
         }));
@@ -306,10 +333,10 @@ public static class CommandTree
             AssessCandidatesResponse response = await c.Server.Stability.AssessCandidatesAsync(request, c.Server.Call(t));
             c.Emit(response, () =>
             {
-                var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "stable", "decomposition");
+                var table = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "above_hull_ev_per_atom", "on_or_below_hull", "decomposition");
                 foreach (CandidateAssessment a in response.Results)
                 {
-                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsStable, a.Decomposition.Reaction);
+                    table.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.EnergyAboveHullEvPerAtom, a.IsOnOrBelowHull, a.Decomposition.Reaction);
                 }
 
                 return table;
@@ -473,7 +500,7 @@ public static class CommandTree
 
     internal static Table StabilityTable(IEnumerable<Protos.V1.EntryStability> results, VersionUsed? used)
     {
-        var table = new Table("id", "formula", "system", "formation_ev_per_atom", "above_hull_ev_per_atom", "vertex", "decomposition_ev_per_atom", "decomposition", "dataset_version");
+        var table = new Table("id", "formula", "system", "formation_ev_per_atom", "above_hull_ev_per_atom", "stable", "decomposition_ev_per_atom", "decomposition", "dataset_version");
         foreach (Protos.V1.EntryStability r in results)
         {
             table.Add(r.EntryId, r.Formula, r.ChemicalSystem, r.FormationEnergyEvPerAtom, r.EnergyAboveHullEvPerAtom, r.IsHullVertex,
@@ -495,7 +522,7 @@ public static class CommandTree
         string[] columns = ["facet", "phases", .. response.Components.Select(c => $"mu_{c}_ev_per_atom")];
         var table = new Table(columns);
         int n = 0;
-        foreach (HullFacet f in response.Facets)
+        foreach (PhaseFacet f in response.Facets)
         {
             object?[] row = [++n, string.Join(" + ", f.PhaseIds), .. f.ChemicalPotentials.Select(p => (object?)p.ChemicalPotentialEvPerAtom)];
             table.Add(row);

@@ -1,6 +1,5 @@
 using System.CommandLine;
 using Hull.Server.Hosting;
-using Hull.Store;
 
 namespace Hull.Cli.Commands;
 
@@ -43,7 +42,7 @@ public static class ServeCommand
             {
                 server = await HullServer.StartAsync(options, cancellation);
             }
-            catch (StoreException e)
+            catch (Exception e) when (HullServer.IsStoreFailure(e))
             {
                 error.WriteLine($"hull serve: cannot open the store in '{options.DataDirectory}': {e.Message}");
                 return ExitCodes.InputFile;
@@ -56,7 +55,7 @@ public static class ServeCommand
 
             await using (server)
             {
-                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.Store.DataDirectory})");
+                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.DataDirectory})");
                 output.Flush();
                 try
                 {

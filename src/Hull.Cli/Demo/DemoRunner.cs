@@ -97,7 +97,7 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         TableRenderer.WriteAligned(output, CommandTree.VersionsTable(described.Versions), "  ");
 
         // 2. Whole-dataset analysis.
-        Heading("2. Stability of every entry (each from the hull of its largest chemical system)");
+        Heading("2. Stability of every entry (each from the smallest maximal chemical system that contains it)");
         var all = new List<Protos.V1.EntryStability>();
         AnalyzeDatasetResponse? head = null;
         using (var call = hull.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = DatasetName }, hull.Call(t)))
@@ -111,11 +111,11 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
 
         output.WriteLine($"Version {head!.Used.Version} (content sha256 {head.Used.ContentSha256[..16]}...): {head.EntryCount} entries; hulls of {string.Join(", ", head.HullSystems)}.");
         output.WriteLine("Elemental references for total energies: " +
-                         string.Join(", ", head.References.Select(r => $"{r.Symbol} {r.ReferenceEnergyEvPerAtom:F3} eV/atom ({r.SourceEntryId})")));
+                         string.Join(", ", head.References.Select(r => $"{r.Symbol} {r.TotalEnergyEvPerAtom:F3} eV/atom ({r.SourceEntryId})")));
         int stable = all.Count(r => r.IsHullVertex);
         int near = all.Count(r => !r.IsOnHull && r.EnergyAboveHullEvPerAtom <= 0.025);
         output.WriteLine($"{stable} stable phases; {near} more within 25 meV/atom of the hull; {all.Count - stable - near} further above.");
-        output.WriteLine("The ten least stable entries:");
+        output.WriteLine("The ten entries furthest above the hull:");
         TableRenderer.WriteAligned(output, CommandTree.StabilityTable(all.OrderByDescending(r => r.EnergyAboveHullEvPerAtom).Take(10), head.Used), "  ");
 
         // 3. Stable set.
@@ -139,10 +139,10 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         }
 
         AssessCandidatesResponse assessed = await hull.Stability.AssessCandidatesAsync(assess, hull.Call(t));
-        var candidateTable = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "stable", "competing phases");
+        var candidateTable = new Table("label", "formula", "system", "formation_ev_per_atom", "relative_to_hull_ev_per_atom", "on_or_below_hull", "competing phases");
         foreach (CandidateAssessment a in assessed.Results)
         {
-            candidateTable.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.IsStable, a.Decomposition.Reaction);
+            candidateTable.Add(a.Label, a.Formula, a.ChemicalSystem, a.FormationEnergyEvPerAtom, a.EnergyRelativeToHullEvPerAtom, a.IsOnOrBelowHull, a.Decomposition.Reaction);
         }
 
         TableRenderer.WriteAligned(output, candidateTable, "  ");

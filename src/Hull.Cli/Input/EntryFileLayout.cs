@@ -26,14 +26,15 @@ public static class EntryFileLayout
     /// <summary>The columns a file must have.</summary>
     public static IReadOnlyList<string> RequiredColumns { get; } = [Id, Formula, EnergyEv, Basis];
 
-    /// <summary>Basis tokens accepted in files, and what each means.</summary>
-    public static IReadOnlyDictionary<string, EnergyBasis> BasisTokens { get; } = new Dictionary<string, EnergyBasis>(StringComparer.Ordinal)
-    {
-        ["total_per_formula_unit"] = EnergyBasis.TotalPerFormulaUnit,
-        ["total_per_atom"] = EnergyBasis.TotalPerAtom,
-        ["formation_per_formula_unit"] = EnergyBasis.FormationPerFormulaUnit,
-        ["formation_per_atom"] = EnergyBasis.FormationPerAtom,
-    };
+    /// <summary>
+    /// Basis tokens accepted in files, and what each means: the contract's value names in lower case without their
+    /// prefix (ENERGY_BASIS_TOTAL_PER_ATOM is total_per_atom), so a basis the contract adds is readable at once and
+    /// the file tokens are the tokens the server stores.
+    /// </summary>
+    public static IReadOnlyDictionary<string, EnergyBasis> BasisTokens { get; } = EntriesReflection.Descriptor.EnumTypes
+        .Single(e => e.Name == nameof(EnergyBasis)).Values
+        .Where(v => v.Number != (int)EnergyBasis.Unspecified)
+        .ToDictionary(v => v.Name["ENERGY_BASIS_".Length..].ToLowerInvariant(), v => (EnergyBasis)v.Number, StringComparer.Ordinal);
 
     /// <summary>The file token of a wire basis.</summary>
     public static string TokenOf(EnergyBasis basis) =>

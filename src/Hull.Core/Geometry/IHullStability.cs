@@ -19,13 +19,13 @@ public interface IHullStability
     bool IsVertex(int pointIndex);
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
-    double EnergyAboveHull(int pointIndex);
+    double EnergyAboveHullEvPerAtom(int pointIndex);
 
     /// <summary>
     /// The hull energy at point i's composition with every point of that composition left out (eV/atom), or null for
     /// a pure component; for a point on the hull, its energy minus this is its decomposition energy.
     /// </summary>
-    double? HullEnergyWithoutComposition(int pointIndex);
+    double? HullEnergyWithoutCompositionEvPerAtom(int pointIndex);
 
     /// <summary>Hull energy and decomposition at the composition of input point i.</summary>
     HullPosition LocatePoint(int pointIndex);

@@ -133,7 +133,7 @@ public sealed class LinearProgramHull : IHullStability
     }
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
-    public double EnergyAboveHull(int pointIndex)
+    public double EnergyAboveHullEvPerAtom(int pointIndex)
     {
         int c = Solved(pointIndex);
         double above = _input.Energies[pointIndex] - _hullEnergy[c];
@@ -152,7 +152,7 @@ public sealed class LinearProgramHull : IHullStability
     /// for a pure component, which nothing else can make. For a point on the hull, its energy minus this is its
     /// decomposition energy.
     /// </summary>
-    public double? HullEnergyWithoutComposition(int pointIndex)
+    public double? HullEnergyWithoutCompositionEvPerAtom(int pointIndex)
     {
         double value = _hullEnergyWithout[Solved(pointIndex)];
         return double.IsNaN(value) ? null : value;

@@ -41,7 +41,7 @@ public sealed class LowerHull : IHullStability
 
     private readonly int _n;
     private readonly HullInput _input;
-    // For HullEnergyWithoutComposition: the finished hull's stars (built on first use) and buffers of past calls.
+    // For HullEnergyWithoutCompositionEvPerAtom: the finished hull's stars (built on first use) and buffers of past calls.
     private ExtremeCornerCheck.StarIndex? _stars;
     private readonly System.Collections.Concurrent.ConcurrentBag<ExtremeCornerCheck.Scratch> _spareScratch = new();
     private readonly double[] _energies;
@@ -158,7 +158,7 @@ public sealed class LowerHull : IHullStability
     /// decomposition energy. Removing a composition that is no vertex leaves the hull as it is; removing a vertex
     /// changes it only inside the vertex's star, so one small program over the star answers.
     /// </summary>
-    public double? HullEnergyWithoutComposition(int pointIndex)
+    public double? HullEnergyWithoutCompositionEvPerAtom(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
         HullInput input = _input;
@@ -185,7 +185,7 @@ public sealed class LowerHull : IHullStability
     }
 
     /// <summary>Energy above the hull of input point i, eV/atom: zero for points within tolerance of the hull.</summary>
-    public double EnergyAboveHull(int pointIndex)
+    public double EnergyAboveHullEvPerAtom(int pointIndex)
     {
         if ((uint)pointIndex >= (uint)_energies.Length) throw new ArgumentOutOfRangeException(nameof(pointIndex));
         double above = _energies[pointIndex] - _hullEnergy[_input.CompositionOf[pointIndex]];

@@ -27,8 +27,11 @@ public sealed class CandidateStability
     /// <summary>max(0, <see cref="EnergyRelativeToHullEvPerAtom"/>) (eV/atom).</summary>
     public double EnergyAboveHullEvPerAtom => Math.Max(0.0, EnergyRelativeToHullEvPerAtom);
 
-    /// <summary>True when the candidate would lie on or below the hull (it would be stable).</summary>
-    public bool IsStable => EnergyRelativeToHullEvPerAtom <= 0.0;
+    /// <summary>
+    /// True when the candidate would lie on the hull (within the hull tolerance) or below it. Only a candidate
+    /// strictly below (<see cref="IsBelowHull"/>) would become a stable phase, i.e. a hull vertex.
+    /// </summary>
+    public bool IsOnOrBelowHull => EnergyRelativeToHullEvPerAtom <= 0.0;
 
     /// <summary>True when the candidate would lie strictly below the hull and so change it.</summary>
     public bool IsBelowHull => EnergyRelativeToHullEvPerAtom < 0.0;

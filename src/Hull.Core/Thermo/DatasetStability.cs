@@ -8,8 +8,10 @@ namespace Hull.Core.Thermo;
 /// a subset of its own, so the dataset is never put into one hull: entries are grouped by chemical system, and a
 /// hull is built only for each maximal system (one contained in no other present system) over every entry whose
 /// elements it contains. The hull restricted to a face of its simplex is the hull of that face's own entries, so one
-/// hull answers for every entry inside it; each entry is reported once, from one hull. Hulls are built in parallel;
-/// the results are deterministic and independent of the input order.
+/// hull answers for every entry inside it. Each entry is reported once, from the smallest maximal system that
+/// contains it (fewest elements, then by ordinal name): every maximal system containing it gives the same energy
+/// above hull, so the rule only fixes which system is named. Hulls are built in parallel; the results are
+/// deterministic and independent of the input order.
 /// </summary>
 /// <remarks>
 /// The preparation runs once per call over loops of a hundred thousand rows and tens of thousands of systems, so

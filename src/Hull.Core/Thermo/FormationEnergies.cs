@@ -39,7 +39,7 @@ public static class FormationEnergies
         double formation = perAtom;
         foreach (string symbol in entry.Composition.Elements)
         {
-            formation -= entry.Composition.AtomicFraction(symbol) * references[symbol].EvPerAtom;
+            formation -= entry.Composition.AtomicFraction(symbol) * references[symbol].TotalEnergyEvPerAtom;
         }
 
         return formation;
@@ -122,7 +122,8 @@ public static class FormationEnergies
                     + $"Add a pure-{symbol} entry with a total energy, or give an explicit reference for {symbol}.{others}{mixing}"),
                 entryId: needing[0].Id,
                 rowIndex: needing[0].Row,
-                element: symbol);
+                element: symbol,
+                isMissingReference: true);
         }
 
         return resolved;

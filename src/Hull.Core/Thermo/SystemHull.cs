@@ -250,7 +250,7 @@ public sealed class SystemHull
     }
 
     /// <summary>The hull energy (formation energy of the hull, eV/atom) at any composition of the system.</summary>
-    public double HullEnergyAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
+    public double HullEnergyEvPerAtomAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
 
     /// <summary>How a phase of this composition and formation energy (eV/atom) would sit against the hull, without adding it.</summary>
     /// <exception cref="ThermoInputException">When the composition lies outside the system or the energy is not finite.</exception>
@@ -295,7 +295,7 @@ public sealed class SystemHull
             fromEndMembers = point.FormationEnergyEvPerAtom - corners;
         }
 
-        double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergy(i) : null;
+        double? decompositionEnergy = above == 0.0 && !point.IsPureComponent ? DecompositionEnergyEvPerAtom(i) : null;
         return new EntryStability(
             entry,
             point.RowIndex,
@@ -317,7 +317,7 @@ public sealed class SystemHull
     {
         int i = Array.FindIndex(_points, p => p.Entry is not null && string.Equals(p.Phase.Id, id, StringComparison.Ordinal));
         HullPoint point = _points[i];
-        if (point.IsPureComponent || _hull.EnergyAboveHull(i) > HullTolerances.EnergyEvPerAtom)
+        if (point.IsPureComponent || _hull.EnergyAboveHullEvPerAtom(i) > HullTolerances.EnergyEvPerAtom)
         {
             return null;
         }
@@ -329,10 +329,10 @@ public sealed class SystemHull
         return SnapDecompositionEnergy(point.FormationEnergyEvPerAtom - hullWithout);
     }
 
-    private double DecompositionEnergy(int i) =>
+    private double DecompositionEnergyEvPerAtom(int i) =>
         // Both engines know the hull at a composition without it (the program engine solved exactly that; the
         // incremental hull answers from the vertex's star).
-        SnapDecompositionEnergy(_points[i].FormationEnergyEvPerAtom - _hull.HullEnergyWithoutComposition(i)!.Value);
+        SnapDecompositionEnergy(_points[i].FormationEnergyEvPerAtom - _hull.HullEnergyWithoutCompositionEvPerAtom(i)!.Value);
 
     // An entry on the hull cannot lie above the hull without its composition; differences within the hull
     // tolerance are ties (an entry that only touches the hull), reported as exactly 0.

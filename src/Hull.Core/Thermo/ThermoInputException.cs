@@ -6,13 +6,17 @@ namespace Hull.Core.Thermo;
 /// </summary>
 public sealed class ThermoInputException : ArgumentException
 {
-    public ThermoInputException(string message, string? entryId = null, int? rowIndex = null, string? element = null)
+    public ThermoInputException(string message, string? entryId = null, int? rowIndex = null, string? element = null, bool isMissingReference = false)
         : base(message)
     {
         EntryId = entryId;
         RowIndex = rowIndex;
         Element = element;
+        IsMissingReference = isMissingReference;
     }
+
+    /// <summary>True when a total energy needs the reference of <see cref="Element"/> and none was found or given.</summary>
+    public bool IsMissingReference { get; }
 
     /// <summary>Id of the entry at fault, when one entry is.</summary>
     public string? EntryId { get; }

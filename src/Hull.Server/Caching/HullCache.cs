@@ -69,7 +69,7 @@ public sealed class HullCache
         }, Counters.CountHullHit, cancellation);
     }
 
-    /// <summary>The stability of every entry of the snapshot, each from the hull of its largest containing system.</summary>
+    /// <summary>The stability of every entry of the snapshot, each from the smallest maximal system that contains it.</summary>
     public Task<DatasetStabilityResult> GetAnalysisAsync(VersionSnapshot snapshot, CancellationToken cancellation)
     {
         foreach (IReadOnlyList<string> system in snapshot.MaximalSystems)
@@ -88,14 +88,14 @@ public sealed class HullCache
     {
         if (elements.Count > _limits.MaxComponentsPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
+            throw RpcErrors.LimitExceeded("max_components_per_system", _limits.MaxComponentsPerSystem,
                 $"chemical system {system} has {elements.Count} components; the limit is {_limits.MaxComponentsPerSystem} components per chemical system");
         }
 
         int count = snapshot.CountWithin(elements);
         if (count > _limits.MaxEntriesPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
+            throw RpcErrors.LimitExceeded("max_entries_per_system", _limits.MaxEntriesPerSystem,
                 $"chemical system {system} of dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version} has {count} entries; " +
                 $"the limit is {_limits.MaxEntriesPerSystem} entries per chemical system");
         }

@@ -21,7 +21,7 @@ public sealed class VersionResolver(DatasetStore store)
     /// without versions (unknown datasets and versions surface as store exceptions, translated upstream).</exception>
     public VersionRef Resolve(string dataset, long requested)
     {
-        if (DatasetName.Check(dataset) is { } problem) throw RpcErrors.InvalidArgument("dataset", problem);
+        if (DatasetName.Check(dataset) is { } problem) throw RpcErrors.InvalidArgument("dataset", problem, ErrorReasons.InvalidDatasetName);
         if (requested < 0) throw RpcErrors.InvalidArgument("version", $"version {requested} is negative; versions count from 1 and 0 means the latest");
 
         long version = requested;
@@ -30,7 +30,7 @@ public sealed class VersionResolver(DatasetStore store)
             version = store.GetLatestVersion(dataset);
             if (version == DatasetStore.NoVersion)
             {
-                throw RpcErrors.NotFound($"dataset '{dataset}' has no version yet; import entries first", "version");
+                throw RpcErrors.VersionNotFound(dataset, null, $"dataset '{dataset}' has no version yet; import entries first");
             }
         }
 

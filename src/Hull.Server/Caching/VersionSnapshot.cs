@@ -70,11 +70,12 @@ public sealed class VersionSnapshot
             if (!Composition.TryParse(row.Formula, out Composition? composition, out FormulaParseException? error))
             {
                 throw RpcErrors.FailedPrecondition(
-                    $"dataset '{version.Dataset}' version {version.Version}: stored entry '{row.Id}' has a formula the service cannot read: {error.Message}");
+                    $"dataset '{version.Dataset}' version {version.Version}: stored entry '{row.Id}' has a formula the service cannot read: {error.Message}",
+                    ErrorReasons.DatasetNotAnalysable, $"entry:{row.Id}");
             }
 
             formulas[i] = row.Formula;
-            entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.ToThermo(row.Basis));
+            entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.BasisOf(row));
         }
 
         return new VersionSnapshot(version, entries, formulas);

@@ -81,10 +81,11 @@ public sealed class ErrorTranslationInterceptor(ILogger<ErrorTranslationIntercep
     {
         RpcException result = error switch
         {
-            RpcException rpc => rpc,
+            // An error raised without the factories still leaves with an ErrorInfo: its status's general reason.
+            RpcException rpc => RpcErrors.WithErrorInfo(rpc),
             OperationCanceledException when context.Deadline <= DateTime.UtcNow =>
-                RpcErrors.Plain(StatusCode.DeadlineExceeded, "the deadline passed before the work finished"),
-            OperationCanceledException => RpcErrors.Plain(StatusCode.Cancelled, "the call was cancelled"),
+                RpcErrors.Plain(StatusCode.DeadlineExceeded, "the deadline passed before the work finished", ErrorReasons.DeadlineExceeded),
+            OperationCanceledException => RpcErrors.Plain(StatusCode.Cancelled, "the call was cancelled", ErrorReasons.Cancelled),
             _ => StoreErrorTranslation.Translate(error, DatasetFieldOf(context.Method)) ?? Internal(error, context),
         };
         LogCall(context, result.StatusCode, start, result.Status.Detail);
@@ -95,7 +96,8 @@ public sealed class ErrorTranslationInterceptor(ILogger<ErrorTranslationIntercep
     {
         string traceId = Activity.Current?.TraceId.ToString() ?? context.GetHttpContext().TraceIdentifier;
         logger.LogError(error, "Unexpected failure in {Method} (trace {TraceId})", context.Method, traceId);
-        return RpcErrors.Plain(StatusCode.Internal, $"internal error (trace {traceId}); the server log has the details");
+        return RpcErrors.Plain(StatusCode.Internal, $"internal error (trace {traceId}); the server log has the details",
+            ErrorReasons.InternalError, ("trace_id", traceId));
     }
 
     private void LogCall(ServerCallContext context, StatusCode code, long start, string? detail = null)

@@ -5,8 +5,9 @@ using Hull.Store;
 namespace Hull.Server.Errors;
 
 /// <summary>
-/// Turns the errors of the store and the science layer into gRPC statuses, so that every service method answers
-/// the same fault the same way. Anything else is a bug and stays an exception (logged, INTERNAL to the caller).
+/// Turns the errors of the store and the science layer into gRPC statuses with their reason codes, so that every
+/// service method answers the same fault the same way. Anything else is a bug and stays an exception (logged,
+/// INTERNAL to the caller).
 /// </summary>
 public static class StoreErrorTranslation
 {
@@ -16,18 +17,23 @@ public static class StoreErrorTranslation
     public static RpcException? Translate(Exception error, string datasetField = "dataset") => error switch
     {
         RpcException => null,
-        InvalidDatasetNameException e => RpcErrors.InvalidArgument(datasetField, e.Message),
-        DatasetNotFoundException e => RpcErrors.NotFound(e.Message, datasetField),
-        VersionNotFoundException e => RpcErrors.NotFound(e.Message, "version"),
-        DatasetAlreadyExistsException e => RpcErrors.AlreadyExists(e.Message, datasetField),
+        InvalidDatasetNameException e => RpcErrors.InvalidArgument(datasetField, e.Message, ErrorReasons.InvalidDatasetName),
+        DatasetNotFoundException e => RpcErrors.DatasetNotFound(e.DatasetName, e.Message, datasetField),
+        VersionNotFoundException e => RpcErrors.VersionNotFound(e.DatasetName, e.Version, e.Message),
+        DatasetAlreadyExistsException e =>
+            RpcErrors.AlreadyExists(e.Message, datasetField, ErrorReasons.DatasetExists, "hull.v1.Dataset", e.DatasetName),
         DuplicateEntryException { ExistingVersion: not null } e =>
-            RpcErrors.AlreadyExists(e.Message + "; choose the replace duplicate policy to supersede it", RowField(e)),
+            RpcErrors.AlreadyExists(e.Message + "; choose the replace duplicate policy to supersede it", RowField(e),
+                ErrorReasons.EntryIdExists, "hull.v1.Entry", e.EntryId ?? string.Empty),
         InvalidBatchException e => e.RowIndex is null
-            ? RpcErrors.InvalidArgument("entries", e.Message)
-            : RpcErrors.InvalidArgument(e.Message, [new FieldViolation(RowField(e), e.Message)]),
+            ? RpcErrors.InvalidArgument("entries", e.Message, ErrorReasons.InvalidEntry)
+            : RpcErrors.InvalidArgument(e.Message, [new FieldViolation(RowField(e), e.Message)], ErrorReasons.InvalidEntry),
+        ThermoInputException { IsMissingReference: true, Element: { } element } e =>
+            RpcErrors.MissingElementalReference(element, "the dataset version cannot be analysed: " + e.Message),
         ThermoInputException e => RpcErrors.FailedPrecondition(
-            "the dataset version cannot be analysed: " + e.Message
-            + (e.Element is null ? string.Empty : $" (element {e.Element})")),
+            "the dataset version cannot be analysed: " + e.Message + (e.Element is null ? string.Empty : $" (element {e.Element})"),
+            ErrorReasons.DatasetNotAnalysable,
+            e.EntryId is null ? (e.Element is null ? string.Empty : $"element:{e.Element}") : $"entry:{e.EntryId}"),
         _ => null,
     };
 

@@ -40,6 +40,15 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>The port actually bound (useful with port 0).</summary>
     public int Port => Address.Port;
 
+    /// <summary>The store's directory.</summary>
+    public string DataDirectory => _store.DataDirectory;
+
+    /// <summary>
+    /// Whether a failure of <see cref="StartAsync"/> means the store cannot be opened, so that a host (such as the
+    /// client's `hull serve`) can say so without referencing the store itself.
+    /// </summary>
+    public static bool IsStoreFailure(Exception error) => error is StoreException;
+
     /// <summary>The store the server runs on (for in-process callers such as tests).</summary>
     public DatasetStore Store => _store;
 

@@ -3,11 +3,11 @@ using Hull.Core.Thermo;
 using Hull.Protos.V1;
 using Hull.Server.Caching;
 using Hull.Store;
-using StoreBasis = Hull.Store.EnergyBasis;
 using ThermoBasis = Hull.Core.Thermo.EnergyBasis;
 using WireBasis = Hull.Protos.V1.EnergyBasis;
 using WireDecomposition = Hull.Protos.V1.Decomposition;
 using WireEntryStability = Hull.Protos.V1.EntryStability;
+using WirePhaseFacet = Hull.Protos.V1.PhaseFacet;
 using WireTieLine = Hull.Protos.V1.TieLine;
 
 namespace Hull.Server.Mapping;
@@ -15,30 +15,44 @@ namespace Hull.Server.Mapping;
 /// <summary>Translations between the wire messages, the store's records and the science layer's results.</summary>
 public static class WireMapping
 {
-    public static ThermoBasis ToThermo(StoreBasis basis) => basis switch
+    /// <summary>The wire's basis as the engine's; false for UNSPECIFIED or a number the contract does not define.</summary>
+    public static bool TryFromWire(WireBasis basis, out ThermoBasis mapped)
     {
-        StoreBasis.TotalPerFormulaUnit => ThermoBasis.TotalPerFormulaUnit,
-        StoreBasis.TotalPerAtom => ThermoBasis.TotalPerAtom,
-        StoreBasis.FormationPerFormulaUnit => ThermoBasis.FormationPerFormulaUnit,
-        StoreBasis.FormationPerAtom => ThermoBasis.FormationPerAtom,
+        switch (basis)
+        {
+            case WireBasis.TotalPerFormulaUnit: mapped = ThermoBasis.TotalPerFormulaUnit; return true;
+            case WireBasis.TotalPerAtom: mapped = ThermoBasis.TotalPerAtom; return true;
+            case WireBasis.FormationPerFormulaUnit: mapped = ThermoBasis.FormationPerFormulaUnit; return true;
+            case WireBasis.FormationPerAtom: mapped = ThermoBasis.FormationPerAtom; return true;
+            default: mapped = default; return false;
+        }
+    }
+
+    public static WireBasis ToWire(ThermoBasis basis) => basis switch
+    {
+        ThermoBasis.TotalPerFormulaUnit => WireBasis.TotalPerFormulaUnit,
+        ThermoBasis.TotalPerAtom => WireBasis.TotalPerAtom,
+        ThermoBasis.FormationPerFormulaUnit => WireBasis.FormationPerFormulaUnit,
+        ThermoBasis.FormationPerAtom => WireBasis.FormationPerAtom,
         _ => throw new ArgumentOutOfRangeException(nameof(basis), basis, "not a defined energy basis"),
     };
 
-    public static WireBasis ToWire(StoreBasis basis) => basis switch
-    {
-        StoreBasis.TotalPerFormulaUnit => WireBasis.TotalPerFormulaUnit,
-        StoreBasis.TotalPerAtom => WireBasis.TotalPerAtom,
-        StoreBasis.FormationPerFormulaUnit => WireBasis.FormationPerFormulaUnit,
-        StoreBasis.FormationPerAtom => WireBasis.FormationPerAtom,
-        _ => throw new ArgumentOutOfRangeException(nameof(basis), basis, "not a defined energy basis"),
-    };
+    /// <summary>
+    /// The basis of a stored row. The store's schema admits only the known tokens, so an unreadable one is a fault
+    /// of the file, not of the caller.
+    /// </summary>
+    /// <exception cref="InvalidDataException">When the stored token is not a basis.</exception>
+    public static ThermoBasis BasisOf(EntryRow row) =>
+        EnergyBasisTokens.TryParse(row.Basis, out ThermoBasis basis)
+            ? basis
+            : throw new InvalidDataException($"stored entry '{row.Id}' has the unknown energy basis '{row.Basis}'");
 
     public static Entry ToWire(EntryRow row) => new()
     {
         Id = row.Id,
         Formula = row.Formula,
         EnergyEv = row.EnergyEv,
-        Basis = ToWire(row.Basis),
+        Basis = ToWire(BasisOf(row)),
         Note = row.Metadata ?? string.Empty,
     };
 
@@ -123,9 +137,9 @@ public static class WireMapping
         IsElementalReference = phase.IsSynthetic,
     };
 
-    public static HullFacet ToWire(PhaseFacet facet)
+    public static WirePhaseFacet ToWire(Core.Thermo.PhaseFacet facet)
     {
-        var wire = new HullFacet();
+        var wire = new WirePhaseFacet();
         wire.PhaseIds.AddRange(facet.Phases.Select(p => p.Id));
         for (int k = 0; k < facet.Components.Count; k++)
         {
@@ -148,7 +162,7 @@ public static class WireMapping
     public static Protos.V1.ElementReference ToWire(Core.Thermo.ElementReference reference) => new()
     {
         Symbol = reference.Symbol,
-        ReferenceEnergyEvPerAtom = reference.EvPerAtom,
+        TotalEnergyEvPerAtom = reference.TotalEnergyEvPerAtom,
         SourceEntryId = reference.SourceEntryId ?? string.Empty,
     };
 }

@@ -68,14 +68,14 @@ public sealed class WriteTokenInterceptor : Interceptor
         if (header is null || !header.StartsWith(Scheme, StringComparison.OrdinalIgnoreCase))
         {
             throw RpcErrors.Plain(StatusCode.Unauthenticated,
-                "this server requires a bearer token for writes: send metadata 'authorization: Bearer <token>'");
+                "this server requires a bearer token for writes: send metadata 'authorization: Bearer <token>'", ErrorReasons.WriteTokenRequired);
         }
 
         byte[] given = Encoding.UTF8.GetBytes(header[Scheme.Length..].Trim());
         // Constant-time comparison: the time taken says nothing about how much of the token matched.
         if (!CryptographicOperations.FixedTimeEquals(given, _expected))
         {
-            throw RpcErrors.Plain(StatusCode.PermissionDenied, "the bearer token is not the server's write token");
+            throw RpcErrors.Plain(StatusCode.PermissionDenied, "the bearer token is not the server's write token", ErrorReasons.WriteTokenRejected);
         }
     }
 }

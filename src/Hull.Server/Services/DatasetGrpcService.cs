@@ -13,6 +13,9 @@ namespace Hull.Server.Services;
 public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versions, ServiceLimits limits)
     : DatasetService.DatasetServiceBase
 {
+    private const string DatasetsList = "datasets";
+    private const string VersionsList = "versions/";
+
     /// <summary>Entries per streamed export message when the caller does not say.</summary>
     public const int DefaultPageSize = 1000;
 
@@ -29,8 +32,13 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
 
     public override Task<ListDatasetsResponse> ListDatasets(ListDatasetsRequest request, ServerCallContext context)
     {
+        int pageSize = PageToken.PageSize(request.PageSize);
+        string? after = PageToken.Decode(request.PageToken, DatasetsList);
+        // Few datasets, so the page is cut from the ordered list; the key (the name) keeps pages stable under change.
+        var rest = store.ListDatasets().Where(d => after is null || string.CompareOrdinal(d.Name, after) > 0).ToList();
         var response = new ListDatasetsResponse();
-        response.Datasets.AddRange(store.ListDatasets().Select(WireMapping.ToWire));
+        response.Datasets.AddRange(rest.Take(pageSize).Select(WireMapping.ToWire));
+        if (rest.Count > pageSize) response.NextPageToken = PageToken.Encode(DatasetsList, rest[pageSize - 1].Name);
         return Task.FromResult(response);
     }
 
@@ -97,8 +105,24 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
     public override Task<ListVersionsResponse> ListVersions(ListVersionsRequest request, ServerCallContext context)
     {
         RequireName(request.Dataset, "dataset");
+        int pageSize = PageToken.PageSize(request.PageSize);
+        string list = VersionsList + request.Dataset;
+        string? token = PageToken.Decode(request.PageToken, list);
+        long after = 0;
+        if (token is not null && !long.TryParse(token, System.Globalization.NumberStyles.None, System.Globalization.CultureInfo.InvariantCulture, out after))
+        {
+            throw RpcErrors.InvalidArgument("page_token", "the page token is not one this server handed out; send next_page_token unchanged",
+                ErrorReasons.InvalidPageToken);
+        }
+
+        var rest = store.ListVersions(request.Dataset).Where(v => v.Version > after).ToList();
         var response = new ListVersionsResponse();
-        response.Versions.AddRange(store.ListVersions(request.Dataset).Select(WireMapping.ToWire));
+        response.Versions.AddRange(rest.Take(pageSize).Select(WireMapping.ToWire));
+        if (rest.Count > pageSize)
+        {
+            response.NextPageToken = PageToken.Encode(list, rest[pageSize - 1].Version.ToString(System.Globalization.CultureInfo.InvariantCulture));
+        }
+
         return Task.FromResult(response);
     }
 
@@ -132,6 +156,6 @@ public sealed class DatasetGrpcService(DatasetStore store, VersionResolver versi
 
     private static void RequireName(string name, string field)
     {
-        if (DatasetName.Check(name) is { } problem) throw RpcErrors.InvalidArgument(field, problem);
+        if (DatasetName.Check(name) is { } problem) throw RpcErrors.InvalidArgument(field, problem, ErrorReasons.InvalidDatasetName);
     }
 }

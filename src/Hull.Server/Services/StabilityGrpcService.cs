@@ -27,7 +27,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             if (!snapshot.TryFind(request.EntryIds[i], out rows[i]))
             {
-                throw RpcErrors.NotFound(
+                throw RpcErrors.EntryNotFound(snapshot.Version.Dataset, snapshot.Version.Version, request.EntryIds[i],
                     $"entry '{request.EntryIds[i]}' is not in dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}",
                     $"entry_ids[{i}]");
             }
@@ -59,11 +59,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 violations.Add(new($"candidates[{i}].energy_ev", $"the energy is {candidate.EnergyEv}; energies must be finite numbers of eV"));
             }
 
-            if (BatchValidation.TryMapBasis(candidate.Basis, out Store.EnergyBasis storeBasis))
-            {
-                bases[i] = WireMapping.ToThermo(storeBasis);
-            }
-            else
+            if (!WireMapping.TryFromWire(candidate.Basis, out bases[i]))
             {
                 violations.Add(new($"candidates[{i}].basis", BatchValidation.BasisProblem(candidate.Basis)));
             }
@@ -88,7 +84,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 FormationEnergyEvPerAtom = assessed.FormationEnergyEvPerAtom,
                 EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
                 EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
-                IsStable = assessed.IsStable,
+                IsOnOrBelowHull = assessed.IsOnOrBelowHull,
                 Decomposition = WireMapping.ToWire(assessed.Decomposition),
             });
         }
@@ -200,8 +196,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         if (count == 0) throw RpcErrors.InvalidArgument(field, $"no {what} given; send at least one");
         if (count > limits.MaxCompositionsPerRequest)
         {
-            throw RpcErrors.ResourceExhausted(
-                $"{count} {what}s in one request; the limit is {limits.MaxCompositionsPerRequest} compositions per request", field);
+            string message = $"{count} {what}s in one request; the limit is {limits.MaxCompositionsPerRequest} compositions per request";
+            throw RpcErrors.LimitExceeded("max_compositions_per_request", limits.MaxCompositionsPerRequest, message, [new FieldViolation(field, message)]);
         }
     }
 
@@ -215,9 +211,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
 
         if (composition.Elements.Count > limits.MaxComponentsPerSystem)
         {
-            throw RpcErrors.ResourceExhausted(
-                $"'{formula}' has {composition.Elements.Count} elements; the limit is {limits.MaxComponentsPerSystem} components per chemical system",
-                field);
+            string message = $"'{formula}' has {composition.Elements.Count} elements; the limit is {limits.MaxComponentsPerSystem} components per chemical system";
+            throw RpcErrors.LimitExceeded("max_components_per_system", limits.MaxComponentsPerSystem, message, [new FieldViolation(field, message)]);
         }
 
         return composition;
@@ -248,14 +243,14 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             if (!hull.References.Any(r => string.Equals(r.Symbol, element, StringComparison.Ordinal)))
             {
-                throw RpcErrors.WithViolations(StatusCode.FailedPrecondition,
+                throw RpcErrors.MissingElementalReference(element,
                     $"candidates[{index}] ({candidate.Formula}) is a total energy, but the dataset has no total-energy entry of pure {element} " +
                     "to serve as its elemental reference (missing elemental reference)",
                     [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);
             }
         }
 
-        var references = new ElementalReferences(hull.References.Select(r => KeyValuePair.Create(r.Symbol, r.EvPerAtom)));
+        var references = new ElementalReferences(hull.References.Select(r => KeyValuePair.Create(r.Symbol, r.TotalEnergyEvPerAtom)));
         return FormationEnergies.Compute([entry], references).FormationEnergiesEvPerAtom[0];
     }
 }

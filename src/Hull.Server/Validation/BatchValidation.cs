@@ -3,7 +3,9 @@ using Hull.Protos.V1;
 using Hull.Server.Errors;
 using Hull.Server.Hosting;
 using Hull.Store;
-using StoreBasis = Hull.Store.EnergyBasis;
+using Hull.Core.Thermo;
+using Hull.Server.Mapping;
+using ThermoBasis = Hull.Core.Thermo.EnergyBasis;
 using WireBasis = Hull.Protos.V1.EnergyBasis;
 using DuplicatePolicy = Hull.Store.DuplicatePolicy;
 
@@ -69,8 +71,7 @@ public static class BatchValidation
                 violations.Add(new($"{at}.energy_ev", $"the energy is {Describe(entry.EnergyEv)}; energies must be finite numbers of eV"));
             }
 
-            StoreBasis basis = default;
-            if (!TryMapBasis(entry.Basis, out basis))
+            if (!WireMapping.TryFromWire(entry.Basis, out ThermoBasis basis))
             {
                 violations.Add(new($"{at}.basis", BasisProblem(entry.Basis)));
             }
@@ -82,36 +83,23 @@ public static class BatchValidation
 
             if (violations.Count == before && violations.Count < RpcErrors.MaxViolationsReported)
             {
-                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, basis, entry.Note));
+                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note));
             }
         }
 
         if (violations.Count > 0)
         {
             var all = violations.Concat(limitViolations).ToList();
-            throw RpcErrors.InvalidArgument(Summarize("the batch was refused; nothing was written", all), all);
+            throw RpcErrors.InvalidArgument(Summarize("the batch was refused; nothing was written", all), all, ErrorReasons.InvalidEntry);
         }
 
         if (limitViolations.Count > 0)
         {
-            throw RpcErrors.WithViolations(Grpc.Core.StatusCode.ResourceExhausted,
+            throw RpcErrors.LimitExceeded("max_components_per_system", limits.MaxComponentsPerSystem,
                 Summarize("the batch was refused; nothing was written", limitViolations), limitViolations);
         }
 
         return (rows, policy);
-    }
-
-    /// <summary>Maps the wire basis; false for UNSPECIFIED or an unknown number.</summary>
-    public static bool TryMapBasis(WireBasis basis, out StoreBasis mapped)
-    {
-        switch (basis)
-        {
-            case WireBasis.TotalPerFormulaUnit: mapped = StoreBasis.TotalPerFormulaUnit; return true;
-            case WireBasis.TotalPerAtom: mapped = StoreBasis.TotalPerAtom; return true;
-            case WireBasis.FormationPerFormulaUnit: mapped = StoreBasis.FormationPerFormulaUnit; return true;
-            case WireBasis.FormationPerAtom: mapped = StoreBasis.FormationPerAtom; return true;
-            default: mapped = default; return false;
-        }
     }
 
     public static string BasisProblem(WireBasis basis) => basis == WireBasis.Unspecified

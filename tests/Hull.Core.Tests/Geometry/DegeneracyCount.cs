@@ -15,7 +15,7 @@ internal sealed record DegeneracyCount(int Vertices, int OnHullNotVertex, int Tw
         int onHull = 0, twins = 0, coplanar = 0;
         for (int i = 0; i < set.Count; i++)
         {
-            if (vertices.Contains(i) || hull.EnergyAboveHull(i) != 0.0) continue;
+            if (vertices.Contains(i) || hull.EnergyAboveHullEvPerAtom(i) != 0.0) continue;
             onHull++;
             if (set.Kinds[i] == "equal-energy twin") twins++;
             if (set.Kinds[i] == "coplanar") coplanar++;

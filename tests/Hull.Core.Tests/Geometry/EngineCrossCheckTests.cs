@@ -52,7 +52,7 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
         }
         for (int i = 0; i < set.Count; i++)
         {
-            double a = facets.EnergyAboveHull(i), b = programs.EnergyAboveHull(i);
+            double a = facets.EnergyAboveHullEvPerAtom(i), b = programs.EnergyAboveHullEvPerAtom(i);
             if (!(Math.Abs(a - b) <= SameEnergyEvPerAtom)) failures.Add($"{set.Describe(i)}: energy above hull {a:R} ({nameof(LowerHull)}), {b:R} ({nameof(LinearProgramHull)})");
             var p = programs.LocatePoint(i);
             double hf = facets.LocatePoint(i).HullEnergyEvPerAtom;
@@ -76,10 +76,10 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
             bool pure = set.Amounts[i].Count(a => a != 0) == 1;
             foreach (var (name, engine) in bothEngines)
             {
-                double? without = engine.HullEnergyWithoutComposition(i);
+                double? without = engine.HullEnergyWithoutCompositionEvPerAtom(i);
                 if (pure != (without is null)) failures.Add($"{set.Describe(i)}: hull energy without its composition {without?.ToString("R") ?? "null"} ({name})");
             }
-            if (!pure && (programs.EnergyAboveHull(i) == 0.0 || facets.EnergyAboveHull(i) == 0.0)) onHull.Add(i);
+            if (!pure && (programs.EnergyAboveHullEvPerAtom(i) == 0.0 || facets.EnergyAboveHullEvPerAtom(i) == 0.0)) onHull.Add(i);
         }
         var clock = Stopwatch.StartNew();
         var rebuilt = new Dictionary<string, double>();
@@ -97,7 +97,7 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
             }
             foreach (var (name, engine) in bothEngines)
             {
-                double ours = engine.HullEnergyWithoutComposition(i)!.Value;
+                double ours = engine.HullEnergyWithoutCompositionEvPerAtom(i)!.Value;
                 if (!(Math.Abs(ours - expected) <= SameEnergyEvPerAtom))
                 {
                     failures.Add($"{set.Describe(i)}: hull energy without its composition {ours:R} ({name}), {nameof(LowerHull)} rebuilt without it gives {expected:R}");
@@ -120,7 +120,7 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
             double without = answers[q].HullEnergyEvPerAtom;
             foreach (var (name, engine) in bothEngines)
             {
-                double ours = engine.HullEnergyWithoutComposition(i)!.Value;
+                double ours = engine.HullEnergyWithoutCompositionEvPerAtom(i)!.Value;
                 if (!(Math.Abs(ours - without) <= HullAgreement.EnergyToleranceEvPerAtom))
                 {
                     failures.Add($"{set.Describe(i)}: hull energy without its composition {ours:R} ({name}), SciPy HiGHS LP without it gives {without:R}");

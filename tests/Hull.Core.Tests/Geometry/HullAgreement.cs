@@ -35,7 +35,7 @@ internal sealed class HullAgreement(PointSet set, IHullStability hull)
         // Energy above hull = E - (LP minimum of sum lambda_j E_j at the point's composition) — the definition of the
         // lower hull as the LP optimum; common practice.
         double expected = Math.Max(0.0, e - lp.HullEnergyEvPerAtom);
-        double ours = hull.EnergyAboveHull(i);
+        double ours = hull.EnergyAboveHullEvPerAtom(i);
         if (!(Math.Abs(ours - expected) <= EnergyToleranceEvPerAtom))
         {
             Fail($"{set.Describe(i)}: energy above hull {ours:R}, {source} gives {expected:R} (hull energy {lp.HullEnergyEvPerAtom:R})");
@@ -106,7 +106,7 @@ internal sealed class HullAgreement(PointSet set, IHullStability hull)
         for (int j = 0; j < lp.Phases.Length; j++)
         {
             if (lp.Weights[j] <= LpPhaseWeight) continue;
-            double above = hull.EnergyAboveHull(lp.Phases[j]);
+            double above = hull.EnergyAboveHullEvPerAtom(lp.Phases[j]);
             if (!(above <= EnergyToleranceEvPerAtom))
             {
                 Fail($"{where}: {source} decomposes into {set.Describe(lp.Phases[j])} (weight {lp.Weights[j]:R}), which we place {above:R} above the hull");

@@ -96,6 +96,6 @@ public sealed class InputValidationTests
         Assert.StartsWith("Fractions sum to 0.9", Assert.Throws<ArgumentException>(() => hull.Locate([0.4, 0.5])).Message);
         Assert.Throws<ArgumentOutOfRangeException>(() => hull.LocatePoint(2));
         Assert.Throws<ArgumentOutOfRangeException>(() => hull.LocatePoint(-1));
-        Assert.Throws<ArgumentOutOfRangeException>(() => hull.EnergyAboveHull(2));
+        Assert.Throws<ArgumentOutOfRangeException>(() => hull.EnergyAboveHullEvPerAtom(2));
     }
 }

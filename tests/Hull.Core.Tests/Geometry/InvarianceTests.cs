@@ -45,7 +45,7 @@ public sealed class InvarianceTests(ITestOutputHelper output)
             Assert.Equal(stable, StableSet(shuffled, other));
             for (int j = 0; j < shuffled.Count; j++)
             {
-                double before = hull.EnergyAboveHull(order[j]), after = other.EnergyAboveHull(j);
+                double before = hull.EnergyAboveHullEvPerAtom(order[j]), after = other.EnergyAboveHullEvPerAtom(j);
                 Assert.True(Math.Abs(before - after) <= SameEnergyEvPerAtom,
                     $"{set.Describe(order[j])}: energy above hull {before:R} in input order, {after:R} after shuffle {shuffle}");
             }
@@ -82,8 +82,8 @@ public sealed class InvarianceTests(ITestOutputHelper output)
             for (int i = 0; i < set.Count; i++)
             {
                 AssertSame(alone.LocatePoint(i), other.LocatePoint(i), set.Describe(i));
-                Assert.Equal(alone.EnergyAboveHull(i), other.EnergyAboveHull(i));
-                Assert.Equal(alone.HullEnergyWithoutComposition(i), other.HullEnergyWithoutComposition(i));
+                Assert.Equal(alone.EnergyAboveHullEvPerAtom(i), other.EnergyAboveHullEvPerAtom(i));
+                Assert.Equal(alone.HullEnergyWithoutCompositionEvPerAtom(i), other.HullEnergyWithoutCompositionEvPerAtom(i));
             }
             foreach (var x in queries) AssertSame(alone.Locate(x), other.Locate(x), "a random composition");
         }

@@ -51,7 +51,7 @@ public sealed class ManyComponentExampleTests
         energies[n] = -1.0;
         var hull = HullEngine.Build(engine, amounts, energies);
         Assert.Equal(Enumerable.Range(0, n + 1), hull.VertexPoints);
-        Assert.Equal(0.0, hull.EnergyAboveHull(n));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(n));
         Assert.Equal(-1.0, hull.Locate(Enumerable.Repeat(1.0 / n, n).ToArray()).HullEnergyEvPerAtom, 12);
         // x = 1/2 * (1/n, ..., 1/n) + 1/2 * (1, 0, ..., 0)
         var half = Enumerable.Repeat(0.5 / n, n).ToArray();

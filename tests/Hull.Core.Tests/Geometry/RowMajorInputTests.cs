@@ -22,7 +22,7 @@ public sealed class RowMajorInputTests
         Assert.Equal(fromRows.VertexPoints, fromFlat.VertexPoints);
         for (int i = 0; i < set.Count; i++)
         {
-            Assert.Equal(fromRows.EnergyAboveHull(i), fromFlat.EnergyAboveHull(i));
+            Assert.Equal(fromRows.EnergyAboveHullEvPerAtom(i), fromFlat.EnergyAboveHullEvPerAtom(i));
             var a = fromRows.LocatePoint(i);
             var b = fromFlat.LocatePoint(i);
             Assert.Equal(a.VertexPoints, b.VertexPoints);

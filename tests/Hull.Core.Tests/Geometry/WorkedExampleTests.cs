@@ -26,12 +26,12 @@ public sealed class WorkedExampleTests
         Assert.Equal([0, 1, 2], hull.VertexPoints);
         // Hull at x_B = 2/3, on AB-B: -0.4 + (2/3 - 1/2) / (1 - 1/2) * (0 - -0.4) = -0.4 + 0.4/3 = -4/15 = -0.26667;
         // AB2 lies -0.2 - (-4/15) = 1/15 = 0.066667 eV/atom above.
-        Assert.Equal(1.0 / 15.0, hull.EnergyAboveHull(3), Digits);
+        Assert.Equal(1.0 / 15.0, hull.EnergyAboveHullEvPerAtom(3), Digits);
         var ab2 = hull.LocatePoint(3);
         Assert.Equal(-4.0 / 15.0, ab2.HullEnergyEvPerAtom, Digits);
         // Lever rule: fraction of atoms in AB = (1 - 2/3) / (1 - 1/2) = 2/3, in B = 1/3.
         AssertDecomposition(ab2, (2, 2.0 / 3.0), (1, 1.0 / 3.0));
-        Assert.Equal(0.0, hull.EnergyAboveHull(2));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(2));
 
         // At x_B = 1/4, between A and AB: hull energy -0.4 * (1/4) / (1/2) = -0.2; half the atoms in A, half in AB.
         var quarter = hull.Locate([0.75, 0.25]);
@@ -65,7 +65,7 @@ public sealed class WorkedExampleTests
         double[] energies = [0.0, 0.0, -0.4, -0.4];
         var hull = HullEngine.Build(engine, amounts, energies);
         Assert.Equal([0, 1, 2], hull.VertexPoints);
-        Assert.Equal(0.0, hull.EnergyAboveHull(3));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(3));
         AssertDecomposition(hull.LocatePoint(3), (2, 1.0));
 
         // The same with the twins listed in the other order: the vertex is again the lower index.
@@ -91,7 +91,7 @@ public sealed class WorkedExampleTests
     {
         var hull = HullEngine.Build(engine, TernaryAmounts, TernaryEnergies);
         Assert.Equal([0, 1, 2, 3], hull.VertexPoints);
-        Assert.Equal(0.0, hull.EnergyAboveHull(4));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(4));
         var p = hull.LocatePoint(4);
         Assert.Equal(-0.3, p.HullEnergyEvPerAtom, Digits);
         AssertDecomposition(p, (3, 0.75), (2, 0.25));
@@ -120,9 +120,9 @@ public sealed class WorkedExampleTests
         double[] energies = [0.0, 0.0, -0.2, -0.4, -0.1];
         var hull = HullEngine.Build(engine, amounts, energies);
         Assert.Equal([0, 1, 3], hull.VertexPoints);
-        Assert.Equal(0.0, hull.EnergyAboveHull(2));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(2));
         AssertDecomposition(hull.LocatePoint(2), (0, 0.5), (3, 0.5));
-        Assert.Equal(1.0 / 6.0, hull.EnergyAboveHull(4), Digits);
+        Assert.Equal(1.0 / 6.0, hull.EnergyAboveHullEvPerAtom(4), Digits);
         var a2b = hull.LocatePoint(4);
         Assert.Equal(-4.0 / 15.0, a2b.HullEnergyEvPerAtom, Digits);
         AssertDecomposition(a2b, (0, 1.0 / 3.0), (3, 2.0 / 3.0));
@@ -151,7 +151,7 @@ public sealed class WorkedExampleTests
         double[] energies = [0, 0, 0, -0.5151, -0.4521, -0.3802, pEnergy, -0.3961, -0.3264333519412636, -0.3186732684733653];
         var hull = HullEngine.Build(engine, amounts, energies);
         Assert.DoesNotContain(6, hull.VertexPoints);
-        Assert.Equal(0.0, hull.EnergyAboveHull(6));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(6));
         Assert.Equal(pEnergy, hull.LocatePoint(6).HullEnergyEvPerAtom, Digits);
         Assert.Contains(4, hull.VertexPoints);
         Assert.Contains(5, hull.VertexPoints);
@@ -169,10 +169,10 @@ public sealed class WorkedExampleTests
         double[] energies = [0.3, -0.2, -0.2, 0.1];
         var hull = HullEngine.Build(engine, amounts, energies);
         Assert.Equal([1], hull.VertexPoints);
-        Assert.Equal(0.5, hull.EnergyAboveHull(0), Digits);
-        Assert.Equal(0.0, hull.EnergyAboveHull(1));
-        Assert.Equal(0.0, hull.EnergyAboveHull(2));
-        Assert.Equal(0.3, hull.EnergyAboveHull(3), Digits);
+        Assert.Equal(0.5, hull.EnergyAboveHullEvPerAtom(0), Digits);
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(1));
+        Assert.Equal(0.0, hull.EnergyAboveHullEvPerAtom(2));
+        Assert.Equal(0.3, hull.EnergyAboveHullEvPerAtom(3), Digits);
         AssertDecomposition(hull.LocatePoint(2), (1, 1.0));
         Assert.Equal(-0.2, hull.Locate([1.0]).HullEnergyEvPerAtom, Digits);
     }

@@ -223,20 +223,20 @@ public sealed class BinaryWorkedExampleTests
         Assert.Equal(-0.60 + (2.0 / 3.0 - 0.5), alni2.HullEnergyEvPerAtom, Tolerance);
         Assert.Equal("AlNi2 -> 1/2 AlNi + 1/2 AlNi3", alni2.ToReactionString());
         AssertBalancedExactly(alni2);
-        Assert.Equal(-0.60 + (2.0 / 3.0 - 0.5), hull.HullEnergyAt(Composition.Parse("Al2Ni4")), Tolerance);
+        Assert.Equal(-0.60 + (2.0 / 3.0 - 0.5), hull.HullEnergyEvPerAtomAt(Composition.Parse("Al2Ni4")), Tolerance);
 
         CandidateStability below = hull.Assess(Composition.Parse("AlNi2"), -0.50);
-        Assert.True(below.IsStable);
+        Assert.True(below.IsOnOrBelowHull);
         Assert.True(below.IsBelowHull);
         Assert.Equal(-0.50 - alni2.HullEnergyEvPerAtom, below.EnergyRelativeToHullEvPerAtom, Tolerance);
         Assert.Equal(0.0, below.EnergyAboveHullEvPerAtom);
 
         CandidateStability above = hull.Assess(Composition.Parse("Al3Ni"), -0.25);
-        Assert.False(above.IsStable);
+        Assert.False(above.IsOnOrBelowHull);
         Assert.Equal(0.05, above.EnergyAboveHullEvPerAtom, Tolerance);
 
         CandidateStability onHull = hull.Assess(Composition.Parse("AlNi"), -0.60);
-        Assert.True(onHull.IsStable);
+        Assert.True(onHull.IsOnOrBelowHull);
         Assert.False(onHull.IsBelowHull);
 
         // The hull itself did not change.

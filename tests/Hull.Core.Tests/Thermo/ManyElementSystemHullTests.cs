@@ -150,7 +150,7 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
         bool Built() => ((Lazy<LowerHull>)facetEngine!.GetValue(hull)!).IsValueCreated;
         Assert.NotEmpty(hull.Entries);
         Assert.NotEmpty(hull.StablePhases);
-        hull.HullEnergyAt(Composition.Parse("CoFeLiMnNiO"));
+        hull.HullEnergyEvPerAtomAt(Composition.Parse("CoFeLiMnNiO"));
         Assert.False(Built(), "stability queries built the facets");
         var clock = Stopwatch.StartNew();
         var facets = hull.Facets;

@@ -1,8 +1,8 @@
-namespace Hull.Store;
+namespace Hull.Core.Thermo;
 
 /// <summary>
-/// The text tokens an <see cref="EnergyBasis"/> is stored as. Text rather than the enum's integer so that the
-/// database stays readable and a reordering of the enum can never change what stored rows mean.
+/// The text names of the energy bases: what entry files write, what the store keeps in its rows and what the wire
+/// enum's value names say in lower case without their prefix. They are persisted, so they never change.
 /// </summary>
 public static class EnergyBasisTokens
 {
@@ -11,7 +11,12 @@ public static class EnergyBasisTokens
     public const string FormationPerFormulaUnit = "formation_per_formula_unit";
     public const string FormationPerAtom = "formation_per_atom";
 
-    /// <summary>The token for a basis; throws for a value outside the enum.</summary>
+    /// <summary>Every basis, in declaration order.</summary>
+    public static IReadOnlyList<EnergyBasis> All { get; } =
+        [EnergyBasis.TotalPerFormulaUnit, EnergyBasis.TotalPerAtom, EnergyBasis.FormationPerFormulaUnit, EnergyBasis.FormationPerAtom];
+
+    /// <summary>The token of a basis.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">For a value outside the enum.</exception>
     public static string ToToken(EnergyBasis basis) => basis switch
     {
         EnergyBasis.TotalPerFormulaUnit => TotalPerFormulaUnit,
@@ -21,7 +26,7 @@ public static class EnergyBasisTokens
         _ => throw new ArgumentOutOfRangeException(nameof(basis), basis, "not a defined energy basis"),
     };
 
-    /// <summary>Parses a token; returns false for anything else (exact, case-sensitive match).</summary>
+    /// <summary>Reads a token (exact, case-sensitive); false for anything else.</summary>
     public static bool TryParse(string? token, out EnergyBasis basis)
     {
         switch (token)
@@ -33,8 +38,4 @@ public static class EnergyBasisTokens
             default: basis = default; return false;
         }
     }
-
-    internal static bool IsDefined(EnergyBasis basis) =>
-        basis is EnergyBasis.TotalPerFormulaUnit or EnergyBasis.TotalPerAtom
-            or EnergyBasis.FormationPerFormulaUnit or EnergyBasis.FormationPerAtom;
 }
