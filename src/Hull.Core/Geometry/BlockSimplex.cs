@@ -44,6 +44,7 @@ internal sealed class BlockSimplex
     private readonly double[] _weights;
     private readonly double[] _plane;
     private readonly double[] _direction;
+    private int _rows;
 
     public BlockSimplex(int maxRows)
     {
@@ -67,6 +68,7 @@ internal sealed class BlockSimplex
     {
         int k = block.Components.Length;
         if (k > _maxRows) throw new ArgumentException($"The block has {k} rows; this solver was sized for {_maxRows}.");
+        _rows = k;
         if (warm && !(TryFactor(block, basis, k) && PrimalFeasible(x, k) && !Contains(basis, k, excluded)
             && (excludedColumns is null || !ContainsFlagged(basis, k, excludedColumns))))
         {
@@ -140,6 +142,14 @@ internal sealed class BlockSimplex
         }
         return value;
     }
+
+    /// <summary>
+    /// The dual solution of the last <see cref="Solve"/>: the plane through its optimal basis, mu per row of the
+    /// block (E = mu·x on the plane, eV/atom), computed from the final factorisation when optimality was
+    /// established. Every column lies on or above it (to <see cref="EnteringReducedCost"/>), so it is the plane of a
+    /// lower-hull facet holding the composition solved for.
+    /// </summary>
+    public ReadOnlySpan<double> Plane => _plane.AsSpan(0, _rows);
 
     private static bool Contains(Span<int> basis, int k, int column)
     {

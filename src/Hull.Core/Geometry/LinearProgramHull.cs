@@ -177,6 +177,34 @@ public sealed class LinearProgramHull : IHullStability
         return new HullPosition(-1, points, fractionsOut, energy);
     }
 
+    /// <summary>
+    /// Chemical potentials (eV/atom, one per component) at these fractions: the dual of the hull program over all
+    /// components and every composition, i.e. the plane through its optimal basis (a lower-hull facet holding the
+    /// fractions; where several do, the one the simplex method ended on). See <see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>.
+    /// </summary>
+    /// <remarks>
+    /// The program runs over all components even when some fractions are zero: restricted to the composition's own
+    /// face it would leave the potentials of the absent components undetermined.
+    /// </remarks>
+    /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
+    public double[] ChemicalPotentialsEvPerAtomAt(ReadOnlySpan<double> fractions)
+    {
+        HullInput.CheckFractions(fractions, ComponentCount);
+        int n = ComponentCount;
+        ulong all = n == 64 ? ulong.MaxValue : (1UL << n) - 1;
+        var block = _locateBlocks.GetOrAdd(all, m => ColumnBlock.Gather(m, _groups, _input));
+        Span<double> x = stackalloc double[n];
+        block.Restrict(fractions, x);
+        Span<int> basis = stackalloc int[n];
+        Span<double> weights = stackalloc double[n];
+        var solver = new BlockSimplex(n);
+        solver.Solve(block, x, excluded: -1, basis, weights, warm: false);
+        var mu = new double[n];
+        // Rows of the full block are the components in order.
+        solver.Plane.CopyTo(mu);
+        return mu;
+    }
+
     /// <summary>The components present in an amount row, as bits.</summary>
     private static ulong MaskOf(ReadOnlySpan<long> row)
     {

@@ -216,6 +216,16 @@ public sealed class LowerHull : IHullStability
         return PositionIn(facet, fractions);
     }
 
+    /// <summary>Chemical potentials (eV/atom, one per component) of the facet that holds these fractions; see <see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>.</summary>
+    /// <exception cref="ArgumentException">Wrong length, negative or non-finite fractions, or a sum other than 1.</exception>
+    public double[] ChemicalPotentialsEvPerAtomAt(ReadOnlySpan<double> fractions)
+    {
+        HullInput.CheckFractions(fractions, _n);
+        Span<double> lambda = stackalloc double[_n];
+        int facet = Walk(fractions, 0, lambda);
+        return _facetMu.AsSpan(facet * _n, _n).ToArray();
+    }
+
     private HullPosition PositionIn(int facet, ReadOnlySpan<double> x)
     {
         Span<double> lambda = stackalloc double[_n];

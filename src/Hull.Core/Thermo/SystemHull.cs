@@ -249,6 +249,18 @@ public sealed class SystemHull
         return BuildDecomposition(composition, atoms, position);
     }
 
+    /// <summary>
+    /// The chemical potential of each component (in <see cref="Components"/> order) at a composition of the system:
+    /// eV per atom of that component, relative to its reference (the formation-energy axis: the potentials at a pure
+    /// component's own corner are 0), those of a hull facet that holds the composition, so that the hull energy there
+    /// is Σ_k mu_k x_k. Unique inside a facet; where facets meet (a tie-line, a stable phase, the edge of the system)
+    /// one facet's, and the set of all of them is the composition's chemical-potential window
+    /// (<see cref="IHullStability.ChemicalPotentialsEvPerAtomAt"/>).
+    /// </summary>
+    /// <exception cref="ThermoInputException">When the composition lies outside the system.</exception>
+    public IReadOnlyList<double> ChemicalPotentialsEvPerAtomAt(Composition composition) =>
+        Array.AsReadOnly(_hull.ChemicalPotentialsEvPerAtomAt(FractionsOf(MapQuery(composition))));
+
     /// <summary>The hull energy (formation energy of the hull, eV/atom) at any composition of the system.</summary>
     public double HullEnergyEvPerAtomAt(Composition composition) => DecompositionAt(composition).HullEnergyEvPerAtom;
 

@@ -80,16 +80,16 @@ public sealed class QhullVertexTests(ITestOutputHelper output)
         Assert.True(ourFacets.SetEquals(referenceFacets),
             $"{ourFacets.Except(referenceFacets).Count()} of our facets not in qconvex, {referenceFacets.Except(ourFacets).Count()} qconvex lower facets not ours");
 
-        // The facet plane n . (x_1..x_{n-1}, E) + offset = 0 gives E = sum_k mu_k x_k with mu_n = -offset / n_E at
-        // the corner of the last component and mu_k = -(offset + n_k) / n_E at the others (qconvex manual, 'n').
+        // The facet plane n . (x_1..x_{n-1}, E) + offset = 0 as chemical potentials (qconvex manual, 'n').
         var byKey = hull.Facets.ToDictionary(f => FacetKey(f.VertexPoints));
         foreach (var f in lower)
         {
             var mu = byKey[FacetKey(f.Vertices)].ChemicalPotentialsEvPerAtom;
             double nE = f.OutwardNormal[^1];
+            var planeMu = f.ChemicalPotentials();
             for (int k = 0; k < components; k++)
             {
-                double fromPlane = k == components - 1 ? -f.Offset / nE : -(f.Offset + f.OutwardNormal[k]) / nE;
+                double fromPlane = planeMu[k];
                 Assert.True(Math.Abs(mu[k] - fromPlane) <= ChemicalPotentialTolerance * (1.0 / Math.Abs(nE)),
                     $"facet {FacetKey(f.Vertices)}: mu[{k}] = {mu[k]:R}, qconvex plane gives {fromPlane:R}");
             }

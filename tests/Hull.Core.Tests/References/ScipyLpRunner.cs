@@ -57,7 +57,7 @@ public static class ScipyLpRunner
                 throw new ReferenceToolException($"SciPy's LP for query {q} misses the composition by {parsed.List[q].Residual:R}.");
             }
         }
-        return parsed.List.Select(a => new HullLpAnswer(a.HullEnergy, a.Phases, a.Weights)).ToList();
+        return parsed.List.Select(a => new HullLpAnswer(a.HullEnergy, a.Phases, a.Weights, a.Duals)).ToList();
     }
 
     private sealed record Problem(
@@ -74,5 +74,6 @@ public static class ScipyLpRunner
         [property: JsonPropertyName("hull_energy")] double HullEnergy,
         [property: JsonPropertyName("phases")] int[] Phases,
         [property: JsonPropertyName("weights")] double[] Weights,
-        [property: JsonPropertyName("residual")] double Residual);
+        [property: JsonPropertyName("residual")] double Residual,
+        [property: JsonPropertyName("duals")] double[]? Duals);
 }

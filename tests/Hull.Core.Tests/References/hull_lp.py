@@ -8,7 +8,8 @@ usage: python3 hull_lp.py problem.json answers.json
 problem.json: {"amounts": [[int, ...], ...], "energies": [float, ...], "queries": [[float, ...], ...],
                "excluded": [[int, ...], ...]}   (optional; per query, points whose lambda is held at 0)
 answers.json: {"scipy": version, "answers": [{"hull_energy": float, "phases": [int], "weights": [float],
-               "residual": float}, ...]}   (one answer per query, in order)
+               "residual": float, "duals": [float]}, ...]}   (one answer per query, in order; duals are HiGHS's
+               eqlin.marginals, d hull_energy / d x_q per component: the chemical potentials of a facet holding x_q)
 """
 import json
 import sys
@@ -57,6 +58,7 @@ def main():
             "phases": [int(p) for p in phases],
             "weights": [float(lam[p]) for p in phases],
             "residual": float(np.max(np.abs(a_eq @ lam - b_eq))),
+            "duals": [float(v) for v in result.eqlin.marginals],
         })
     with open(sys.argv[2], "w") as f:
         json.dump({"scipy": scipy.__version__, "answers": answers}, f)

@@ -263,4 +263,30 @@ public sealed class BinaryWorkedExampleTests
             }
         }
     }
+
+    /// <summary>
+    /// Chemical potentials (eV/atom, relative to the pure elements) solved by hand from the facet planes:
+    /// Al–AlNi: mu_Al = 0, (mu_Al + mu_Ni)/2 = −0.60, so mu_Ni = −1.2; AlNi–AlNi3: (mu_Al + mu_Ni)/2 = −0.60 and
+    /// (mu_Al + 3 mu_Ni)/4 = −0.35 give mu_Al = −1.1, mu_Ni = −0.1; AlNi3–Ni: mu_Ni = 0, mu_Al/4 = −0.35, mu_Al = −1.4.
+    /// </summary>
+    [Theory]
+    [InlineData("Al3Ni", 0.0, -1.2)]
+    [InlineData("Al2Ni3", -1.1, -0.1)]
+    [InlineData("AlNi7", -1.4, 0.0)]
+    public void Chemical_potentials_are_those_of_the_facet_holding_the_composition(string formula, double muAl, double muNi)
+    {
+        SystemHull hull = SystemHull.OverElements(FormationSet());
+        IReadOnlyList<double> mu = hull.ChemicalPotentialsEvPerAtomAt(Composition.Parse(formula));
+        Assert.Equal(2, mu.Count);
+        Assert.Equal(muAl, mu[0], Tolerance);
+        Assert.Equal(muNi, mu[1], Tolerance);
+    }
+
+    [Fact]
+    public void Chemical_potentials_outside_the_system_are_refused()
+    {
+        SystemHull hull = SystemHull.OverElements(FormationSet());
+        var e = Assert.Throws<ThermoInputException>(() => hull.ChemicalPotentialsEvPerAtomAt(Composition.Parse("AlO")));
+        Assert.Contains("AlO", e.Message);
+    }
 }
