@@ -87,6 +87,22 @@ internal static class Schema
 
             CREATE INDEX import_sessions_by_dataset ON import_sessions (dataset_id);
             """),
+        new(4, "defect studies: immutable versions of a study file kept as given, per dataset", """
+            -- Each import of a study name adds a version; a version is never changed, so old versions answer as
+            -- before. The study file's texts are kept exactly as given so that an export returns the same bytes.
+            CREATE TABLE defect_studies (
+                dataset_id        INTEGER NOT NULL REFERENCES datasets (dataset_id) ON DELETE CASCADE,
+                study_name        TEXT NOT NULL CHECK (length(study_name) > 0),
+                study_version     INTEGER NOT NULL CHECK (study_version >= 1),
+                committed_at_utc  TEXT NOT NULL,
+                source_label      TEXT NOT NULL,
+                note              TEXT NOT NULL,
+                study_json        TEXT NOT NULL,
+                charge_states_csv TEXT NOT NULL,
+                content_sha256    TEXT NOT NULL,
+                PRIMARY KEY (dataset_id, study_name, study_version)
+            ) WITHOUT ROWID;
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>
