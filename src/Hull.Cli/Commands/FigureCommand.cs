@@ -22,9 +22,9 @@ public static class FigureCommand
         };
         var version = CommandTree.VersionOption();
         var endMembers = EndMemberOption.Create();
-        var cutoff = new Option<double?>("--max-above-hull") { Description = "leave out entries further above the hull than this, eV/atom (default 0.2)" };
-        var azimuth = new Option<double?>("--azimuth") { Description = "quaternary view: turn about the vertical, degrees (default 25)" };
-        var elevation = new Option<double?>("--elevation") { Description = "quaternary view: tilt towards the viewer, degrees (default 20)" };
+        var cutoff = ValueOptions.OptionalNumber("--max-above-hull", "leave out entries further above the hull than this, eV/atom (default 0.2)", "an energy in eV/atom");
+        var azimuth = ValueOptions.OptionalNumber("--azimuth", "quaternary view: turn about the vertical, degrees (default 25)", "an angle in degrees");
+        var elevation = ValueOptions.OptionalNumber("--elevation", "quaternary view: tilt towards the viewer, degrees (default 20)", "an angle in degrees");
         var output = new Option<string?>("--output", "-o") { Description = "SVG file to write (default: DATASET-vVERSION-SYSTEM.svg in the current folder)" };
         var command = new Command("figure", "draw the phase diagram of a binary, ternary or quaternary hull (elements or end-members) as SVG")
         {

@@ -33,12 +33,12 @@ public static class WindowCommands
     }
 
     private static Common Options() => new(
-        new Argument<string>("dataset") { Description = "dataset name" },
+        CommandTree.DatasetArgument(),
         new Argument<string>("compound") { Description = "entry id of the compound (or a formula with --by-formula)" },
         new Option<bool>("--by-formula") { Description = "read the compound as a formula: its lowest-energy entry" },
-        new Option<long>("--version") { Description = "dataset version to read (default: the latest)", DefaultValueFactory = _ => 0 },
-        new Option<double?>("--above-hull-tolerance") { Description = "treat a compound at most this far above the hull (eV/atom) as lowered below it" },
-        new Option<double?>("--lowering") { Description = "how far below the hull such a compound is placed, eV/atom (default 0.001)" },
+        CommandTree.VersionOption(),
+        ValueOptions.OptionalNumber("--above-hull-tolerance", "treat a compound at most this far above the hull (eV/atom) as lowered below it", "an energy in eV/atom"),
+        ValueOptions.OptionalNumber("--lowering", "how far below the hull such a compound is placed, eV/atom (default 0.001)", "an energy in eV/atom"),
         new Option<string>("--projection-omits") { Description = "element left out of the projected size (default: the one with most atoms)" });
 
     private static Command WindowCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
