@@ -49,16 +49,7 @@ public static class ImportRun
             batchTicks[b] = Stopwatch.GetTimestamp() - t0;
         }
 
-        double seconds = Stopwatch.GetElapsedTime(start).TotalSeconds;
-        double serverCpu = server.CpuSeconds() - cpu0;
-        int tenth = Math.Max(1, batches / 10);
-        double EntriesPerSecond(IEnumerable<long> ticks) => tenth * (double)batchSize / (ticks.Sum() / (double)Stopwatch.Frequency);
-        long[] sorted = batchTicks.Order().ToArray();
-        return new ImportSample(
-            entries.Count, batches, seconds, entries.Count / seconds,
-            QueryLoadMilliseconds(QueryLoad.Percentile(sorted, 0.5)), QueryLoadMilliseconds(sorted[^1]),
-            EntriesPerSecond(batchTicks.Take(tenth)), EntriesPerSecond(batchTicks.Skip(batches - tenth)),
-            serverCpu / seconds, ProcFiles.LoadAverage1Minute());
+        return Summarize(entries.Count, batchSize, batchTicks, start, server.CpuSeconds() - cpu0);
     }
 
     /// <summary>
@@ -99,16 +90,22 @@ public static class ImportRun
             batchTicks[b] = Stopwatch.GetTimestamp() - t0;
         }
 
+        return Summarize(entries.Count, batchSize, batchTicks, start, server.CpuSeconds() - cpu0);
+    }
+
+    /// <summary>Rates and latencies of one timed import from its per-batch ticks (both import paths report alike).</summary>
+    private static ImportSample Summarize(int entryCount, int batchSize, long[] batchTicks, long start, double serverCpuSeconds)
+    {
         double seconds = Stopwatch.GetElapsedTime(start).TotalSeconds;
-        double serverCpu = server.CpuSeconds() - cpu0;
+        int batches = batchTicks.Length;
         int tenth = Math.Max(1, batches / 10);
         double EntriesPerSecond(IEnumerable<long> ticks) => tenth * (double)batchSize / (ticks.Sum() / (double)Stopwatch.Frequency);
         long[] sorted = batchTicks.Order().ToArray();
         return new ImportSample(
-            entries.Count, batches, seconds, entries.Count / seconds,
+            entryCount, batches, seconds, entryCount / seconds,
             QueryLoadMilliseconds(QueryLoad.Percentile(sorted, 0.5)), QueryLoadMilliseconds(sorted[^1]),
             EntriesPerSecond(batchTicks.Take(tenth)), EntriesPerSecond(batchTicks.Skip(batches - tenth)),
-            serverCpu / seconds, ProcFiles.LoadAverage1Minute());
+            serverCpuSeconds / seconds, ProcFiles.LoadAverage1Minute());
     }
 
     private static double QueryLoadMilliseconds(long ticks) => ticks * 1000.0 / Stopwatch.Frequency;
