@@ -1,3 +1,5 @@
+using Hull.Core.Chemistry;
+
 namespace Hull.Core.Thermo;
 
 /// <summary>
@@ -21,6 +23,31 @@ public static class StablePhaseUnion
             {
                 phases.TryAdd((phase.Id, phase.IsSynthetic), phase);
             }
+        }
+
+        return phases.Values.ToArray();
+    }
+
+    /// <summary>
+    /// The stable phases of a whole-dataset analysis, each once, sorted like <see cref="Of(IEnumerable{SystemHull})"/>:
+    /// every entry that is a hull vertex, and a synthetic elemental reference for each element that some hull system
+    /// holds no entry of (it sits at 0 on the formation-energy axis). Systems the analysis could not answer add nothing.
+    /// </summary>
+    public static IReadOnlyList<HullPhase> Of(DatasetStabilityResult analysis)
+    {
+        ArgumentNullException.ThrowIfNull(analysis);
+        var phases = new SortedDictionary<(string Id, bool IsSynthetic), HullPhase>(PhaseKeyOrder.Instance);
+        foreach (EntryStability entry in analysis.Entries)
+        {
+            if (!entry.IsHullVertex) continue;
+            phases.TryAdd(
+                (entry.Id, false),
+                new HullPhase(entry.Id, isSynthetic: false, entry.Composition, entry.AxisEnergyEvPerAtom, entry.FormationEnergyEvPerAtom));
+        }
+
+        foreach (string symbol in analysis.Coverage.SelectMany(c => c.ComponentsAtZeroByDefinition))
+        {
+            phases.TryAdd((symbol, true), new HullPhase(symbol, isSynthetic: true, Composition.OfElement(symbol), 0.0, 0.0));
         }
 
         return phases.Values.ToArray();

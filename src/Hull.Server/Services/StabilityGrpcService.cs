@@ -203,24 +203,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         // corners are the elements no hull system has an entry of. A system that cannot be analysed is reported, not
         // fatal.
         DatasetStabilityResult analysis = await cache.GetAnalysisAsync(snapshot, context.CancellationToken, references);
-        // Keyed by (id, is a synthetic corner): an entry whose id is an element symbol must not hide that corner.
-        var phases = new SortedDictionary<(string Id, bool Synthetic), StablePhase>();
-        foreach (Core.Thermo.EntryStability entry in analysis.Entries.Where(e => e.IsHullVertex))
-        {
-            phases[(entry.Id, false)] = new StablePhase
-            {
-                PhaseId = entry.Id,
-                Formula = entry.Composition.Formula,
-                FormationEnergyEvPerAtom = entry.AxisEnergyEvPerAtom, // the analysis hulls formation energies
-            };
-        }
-
-        foreach (string symbol in analysis.Coverage.SelectMany(c => c.ComponentsAtZeroByDefinition).Distinct())
-        {
-            phases.TryAdd((symbol, true), new StablePhase { PhaseId = symbol, Formula = symbol, IsElementalReference = true });
-        }
-
-        response.Phases.AddRange(phases.Values);
+        response.Phases.AddRange(StablePhaseUnion.Of(analysis).Select(WireMapping.ToWire));
         response.Coverage.AddRange(analysis.Coverage.Select(WireMapping.ToWire));
         response.References.AddRange(analysis.References.Select(WireMapping.ToWire));
         response.SystemProblems.AddRange(analysis.Problems.Select(WireMapping.ToWire));

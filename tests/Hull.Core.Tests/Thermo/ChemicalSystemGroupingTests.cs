@@ -82,6 +82,8 @@ public sealed class ChemicalSystemGroupingTests
         DatasetStabilityResult analysis = DatasetStability.Analyze(entries);
         string[] vertexEntries = analysis.Entries.Where(e => e.IsHullVertex).Select(e => e.Id).Order(StringComparer.Ordinal).ToArray();
         Assert.Equal(vertexEntries, merged.Where(p => !p.IsSynthetic).Select(p => p.Id));
+        // The same union read off the analysis, as the whole-dataset stable-phase call does.
+        Assert.Equal(merged.Select(p => (p.Id, p.IsSynthetic)), StablePhaseUnion.Of(analysis).Select(p => (p.Id, p.IsSynthetic)));
         Assert.Equal(["Al", "Fe", "Ni", "O"], merged.Where(p => p.IsSynthetic).Select(p => p.Id));
         Assert.Equal(merged.Select(p => (p.Id, p.IsSynthetic)).Distinct().Count(), merged.Count);
         int fe = merged.ToList().FindIndex(p => p.Id == "Fe");
