@@ -53,7 +53,7 @@ public static class FiguresSuite
                 _ = hull.TieLines.Count;
                 double built = Stopwatch.GetElapsedTime(start).TotalMilliseconds;
                 long inputStart = Stopwatch.GetTimestamp();
-                FigureInput input = FigureInput.FromHull(hull, EnergyAxis.FormationEnergy, metadata);
+                FigureInput input = FigureInput.FromHull(hull, metadata);
                 double placed = Stopwatch.GetElapsedTime(inputStart).TotalMilliseconds;
                 long drawStart = Stopwatch.GetTimestamp();
                 figure = PhaseDiagram.Draw(input);

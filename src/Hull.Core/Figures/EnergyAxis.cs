@@ -1,3 +1,5 @@
+using Hull.Core.Thermo;
+
 namespace Hull.Core.Figures;
 
 /// <summary>
@@ -10,6 +12,17 @@ public sealed record EnergyAxis(string Name, string Unit)
 {
     /// <summary>Formation energy per atom from the elemental references: what a closed hull is built over.</summary>
     public static EnergyAxis FormationEnergy { get; } = new("Formation energy", "eV/atom");
+
+    /// <summary>
+    /// The energy axis of <paramref name="axis"/>: its display name with a capital first letter, and its unit, so a
+    /// grand-potential or free-energy hull is labelled as what it plots.
+    /// </summary>
+    public static EnergyAxis Of(HullAxis axis)
+    {
+        ArgumentNullException.ThrowIfNull(axis);
+        string name = axis.DisplayName.Length == 0 ? axis.DisplayName : char.ToUpperInvariant(axis.DisplayName[0]) + axis.DisplayName[1..];
+        return new EnergyAxis(name, axis.Unit);
+    }
 
     /// <summary>"Name (unit)".</summary>
     public string Title => $"{Name} ({Unit})";

@@ -77,11 +77,12 @@ public sealed class FigureInput
     /// phases (synthetic references at their corner), and every tie-line.
     /// </summary>
     /// <param name="hull">The hull, over elements or end-members.</param>
-    /// <param name="axis">Name and unit of the energy the hull was built over.</param>
     /// <param name="metadata">The data's provenance.</param>
-    public static FigureInput FromHull(SystemHull hull, EnergyAxis axis, FigureMetadata metadata)
+    /// <remarks>The energy axis's name and unit are the hull's own (<see cref="SystemHull.Axis"/>).</remarks>
+    public static FigureInput FromHull(SystemHull hull, FigureMetadata metadata)
     {
         ArgumentNullException.ThrowIfNull(hull);
+        EnergyAxis axis = EnergyAxis.Of(hull.Axis);
         var points = new List<FigurePoint>(hull.PointCount);
         foreach (var (entry, fractions, energy, above, isVertex) in hull.PlotPoints())
         {

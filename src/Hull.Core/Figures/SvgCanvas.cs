@@ -85,7 +85,9 @@ internal sealed class SvgCanvas
     public void Title(FigurePlan plan)
     {
         double size = FigurePalette.TitleFontSize;
-        _body.Append($"<text x=\"20\" y=\"30\" font-size=\"{Px(size)}\" font-weight=\"bold\" fill=\"{FigurePalette.Text}\">");
+        // xml:space="preserve": the space before the kind words starts a tspan (after a subscript), and renderers
+        // drop a tspan's leading white space otherwise, joining the last formula to "pseudo-ternary".
+        _body.Append($"<text x=\"20\" y=\"30\" xml:space=\"preserve\" font-size=\"{Px(size)}\" font-weight=\"bold\" fill=\"{FigurePalette.Text}\">");
         bool below = false;
         for (int k = 0; k < plan.Input.Components.Count; k++)
         {

@@ -61,8 +61,7 @@ public sealed class FigureGrpcService(VersionResolver versions, HullCache cache)
             : await cache.GetHullAsync(snapshot, elements!, context.CancellationToken);
 
         var metadata = new FigureMetadata(resolved.Dataset, resolved.Version, resolved.Fingerprint);
-        // The hull is over formation energies today; the axis is named here so that other hulls draw the same way.
-        FigureInput input = FigureInput.FromHull(hull.Hull, EnergyAxis.FormationEnergy, metadata);
+        FigureInput input = FigureInput.FromHull(hull.Hull, metadata);
         FigureResult figure = PhaseDiagram.Draw(input, options);
         var response = new DrawPhaseDiagramResponse
         {

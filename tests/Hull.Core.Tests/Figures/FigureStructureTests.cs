@@ -90,13 +90,4 @@ public sealed class FigureStructureTests
         Assert.True(SvgFigure.Attr(sub, "font-size") < SvgFigure.Attr(label, "font-size"), "a subscript is smaller");
         Assert.True(sub.Value.All(c => char.IsAsciiDigit(c) || c == '.'), $"subscript '{sub.Value}' holds only the amount");
     }
-
-    [Fact]
-    public void Energy_axis_name_and_unit_come_from_the_input()
-    {
-        (SystemHull hull, _) = FigureTestData.Random(["Fe", "O"], 10, 2);
-        var axis = new EnergyAxis("Grand potential", "eV/atom");
-        string svg = PhaseDiagram.Draw(FigureInput.FromHull(hull, axis, FigureTestData.Metadata)).Svg;
-        Assert.Contains(">Grand potential (eV/atom)<", svg, StringComparison.Ordinal);
-    }
 }

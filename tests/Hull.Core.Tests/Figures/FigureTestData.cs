@@ -36,7 +36,7 @@ internal static class FigureTestData
     public static long[] Unit(int n, int k) => Enumerable.Range(0, n).Select(j => j == k ? 1L : 0L).ToArray();
 
     public static FigureResult Draw(SystemHull hull, FigureOptions? options = null) =>
-        PhaseDiagram.Draw(FigureInput.FromHull(hull, EnergyAxis.FormationEnergy, Metadata), options);
+        PhaseDiagram.Draw(FigureInput.FromHull(hull, Metadata), options);
 
     /// <summary>Atom fractions of integer amounts.</summary>
     public static double[] Fractions(long[] amounts) => amounts.Select(a => a / (double)amounts.Sum()).ToArray();
