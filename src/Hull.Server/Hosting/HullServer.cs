@@ -157,6 +157,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<DiagnosticsGrpcService>();
         app.MapGrpcService<FigureGrpcService>();
         app.MapGrpcService<WindowGrpcService>();
+        app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;
