@@ -1,14 +1,16 @@
 namespace Hull.Core.Figures;
 
 /// <summary>
-/// Line colours and dash patterns of a formation-energy figure: hues spread round the CIE LCh circle at two
-/// lightness levels, and a dash pattern per defect too, so that lines stay apart without colour.
+/// Line colours and dash patterns of a formation-energy figure: CIE LCh colours at one chroma, hue and lightness
+/// chosen together so that the first four (a study's usual native defects and a dopant) stay apart under simulated
+/// protanopia, deuteranopia and tritanopia, and all lie inside the sRGB gamut at lightness ≤ 60, dark enough on
+/// white. Each defect has its own dash pattern too, so lines stay apart without colour.
 /// </summary>
 internal static class DefectLineStyles
 {
-    // Hue (degrees), lightness: neighbours in the list differ in hue by ≥ 100° and alternate in lightness.
+    // Hue (degrees), lightness: dark green, dark violet, rose, sky blue, then olive, wine, mid blue, ochre.
     private static readonly (double Hue, double Lightness)[] Tones =
-        [(265, 38), (45, 58), (150, 45), (330, 52), (95, 62), (215, 55), (10, 42), (185, 40)];
+        [(135, 30), (315, 30), (15, 54), (255, 60), (90, 48), (0, 36), (270, 48), (90, 60)];
 
     private static readonly string[] Dashes = ["", "7 3", "2 2.5", "9 3 2 3", "4 4", "1.5 3.5"];
 
