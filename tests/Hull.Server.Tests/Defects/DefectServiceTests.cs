@@ -173,12 +173,49 @@ public sealed class DefectServiceTests : IAsyncLifetime
         Assert.Equal((-17.367466445561 - 3 * response.Gas.DeltaMuEv) / 2, p.Point.Potentials.Single(x => x.Element == "Al").DeltaMuEv, 1e-9);
         Assert.Equal(5.05 + response.Gas.DeltaMuEv, Of(p, "V_O", 0).FormationEnergyEv, Tolerance);
 
+        // A computed molecule instead: E_ref = E_mol + ZPE, anchored at 0 K, so Δμ adds H°(298.15) − H°(0) = 8.683
+        // kJ/mol (NIST-JANAF, from memory) and half the zero-point energy, which the answer writes out. With
+        // E_mol = 2 ORef and ZPE = 0.1 eV: Δμ_O = 0.05 + (8.683 + 22.703 − 243.578) / 2 / 96.4853321233.
+        request.Conditions.Gas.Reference = DefectGasReference.ComputedMolecule;
+        request.Conditions.Gas.MoleculeEnergyEv = 2 * ORef;
+        request.Conditions.Gas.ZeroPointEnergyEv = 0.1;
+        var computed = await C.Defects.GetDefectFormationEnergiesAsync(request, C.Call());
+        Assert.Equal(0.05 + (8.683 + 22.703 - 243.578) / 2 / 96.4853321233, computed.Gas.DeltaMuEv, 2e-4);
+        Assert.Equal(0.05, computed.Gas.ZeroPointOffsetEv, 12);
+        request.Conditions.Gas.Reference = DefectGasReference.Fitted;
+
         // So hot and thin a gas that Al2O3 gives up its oxygen: the host is not stable there.
         request.Conditions.Gas.TemperatureK = 3000;
         request.Conditions.Gas.PressureBar = 1e-20;
         var unstable = await Assert.ThrowsAsync<RpcException>(() => C.Defects.GetDefectFormationEnergiesAsync(request, C.Call()).ResponseAsync);
         Assert.Equal(StatusCode.FailedPrecondition, unstable.StatusCode);
         Assert.Contains("is not stable with O2 at 3000 K", unstable.Status.Detail, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public async Task A_given_point_is_used_as_given_and_warned_about_when_off_the_window()
+    {
+        // On the corundum plane (2Δμ_Al + 3Δμ_O = h_A): Δμ_O = −3, Δμ_Al = (h_A + 9)/2 = −4.183733222781; Mg given
+        // at −5 eV, below its limit there (spinel: h_S − 2Δμ_Al − 4Δμ_O = −3.469 eV; MgO: h_M − Δμ_O = −3.235 eV).
+        var point = new DefectGivenPoint();
+        point.Potentials.Add(new DefectElementPotential { Element = "O", DeltaMuEv = -3 });
+        point.Potentials.Add(new DefectElementPotential { Element = "Al", DeltaMuEv = -4.183733222781 });
+        point.Potentials.Add(new DefectElementPotential { Element = "Mg", DeltaMuEv = -5 });
+        var request = new GetDefectFormationEnergiesRequest { Dataset = "d", StudyName = "s", Conditions = new DefectConditions { Point = point } };
+        var on = await C.Defects.GetDefectFormationEnergiesAsync(request, C.Call());
+        Assert.Empty(on.Warnings);
+        DefectPointEnergies p = Assert.Single(on.Points);
+        Assert.Equal("given", p.Point.Label);
+        Assert.True(Assert.Single(p.Point.Dopants).Given);
+        Assert.Equal(5.05 - 3, Of(p, "V_O", 0).FormationEnergyEv, Tolerance);
+        Assert.Equal(5.85 + 5 - 4.183733222781, Of(p, "Mg_Al", 0).FormationEnergyEv, Tolerance);
+
+        // Off the plane by 1 eV in Δμ_O, and Mg above its spinel limit there (h_S − 2Δμ_Al − 4Δμ_O = −7.469 eV).
+        point.Potentials[0].DeltaMuEv = -2;
+        point.Potentials[2].DeltaMuEv = -1;
+        var off = await C.Defects.GetDefectFormationEnergiesAsync(request, C.Call());
+        Assert.Contains(off.Warnings, w => w.Contains("off the host's formation energy", StringComparison.Ordinal));
+        Assert.Contains(off.Warnings, w => w.Contains("above its solubility limit", StringComparison.Ordinal));
     }
 
     [Fact]
