@@ -11,7 +11,8 @@ namespace Hull.Server.Mapping;
 /// <summary>Defect studies and their results from Core's types to the wire.</summary>
 public static class DefectWireMapping
 {
-    public static DefectStudyInfo Info(DefectStudyRecord record, DefectStudy study) => new()
+    /// <summary>The study version's provenance, with the host's formula and levels when <paramref name="study"/> is given.</summary>
+    public static DefectStudyInfo Info(DefectStudyRecord record, DefectStudy? study) => new()
     {
         StudyName = record.StudyName,
         StudyVersion = record.Version,
@@ -19,9 +20,9 @@ public static class DefectWireMapping
         SourceLabel = record.SourceLabel,
         Note = record.Note,
         ContentSha256 = record.ContentSha256,
-        HostFormula = study.Host.Formula,
-        BandGapEv = study.Bulk.BandGapEv,
-        VbmEv = study.Bulk.VbmEv,
+        HostFormula = study?.Host.Formula ?? string.Empty,
+        BandGapEv = study?.Bulk.BandGapEv ?? 0,
+        VbmEv = study?.Bulk.VbmEv ?? 0,
     };
 
     public static DefectSummary Summary(CoreDefect defect)

@@ -16,14 +16,15 @@ namespace Hull.Server.Services;
 /// The defect service: stores study files beside a dataset, and evaluates a study version against a dataset
 /// version (references, the host's window, the dopants' limits) through Core's defect module.
 /// </summary>
-public sealed class DefectGrpcService(DatasetStore store, VersionResolver versions, HullCache cache) : DefectService.DefectServiceBase
+public sealed class DefectGrpcService(DatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
 {
     public override async Task<ImportDefectStudyResponse> ImportDefectStudy(ImportDefectStudyRequest request, ServerCallContext context)
     {
         DefectStudy study;
         try
         {
-            study = DefectStudyFile.Read(request.StudyJson, request.ChargeStatesCsv);
+            // The same fingerprint the Store gives the stored version, so later calls find the study read here.
+            study = studies.Get(DefectStudyFingerprint.Compute(request.StudyJson, request.ChargeStatesCsv), request.StudyJson, request.ChargeStatesCsv);
         }
         catch (DefectInputException e)
         {
@@ -56,7 +57,16 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
     {
         if (request.StudyVersion < 0) throw RpcErrors.InvalidArgument("study_version", $"study version {request.StudyVersion} is negative; 0 means the latest");
         DefectStudyRecord record = DefectEvaluation.Stored(() => store.GetDefectStudy(request.Dataset, request.StudyName, request.StudyVersion == 0 ? null : request.StudyVersion));
-        DefectStudy study = DefectEvaluation.Core(() => DefectStudyFile.Read(record.StudyJson, record.ChargeStatesCsv));
+        // The bytes are given back whatever this server makes of them; the host's summary only when it still reads them.
+        DefectStudy? study = null;
+        try
+        {
+            study = DefectStudyFile.Read(record.StudyJson, record.ChargeStatesCsv);
+        }
+        catch (DefectInputException)
+        {
+        }
+
         return Task.FromResult(new ExportDefectStudyResponse
         {
             Study = DefectWireMapping.Info(record, study),
@@ -161,13 +171,13 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
     {
         DefectEvaluation ev = await LoadAsync(request.Dataset, request.Version, request.StudyName, request.StudyVersion, request.HostEntryId, context);
         IReadOnlyList<Core.Defects.Defect> defects = ev.Select(request.Defects);
-        (CorePoint point, _) = ev.SinglePoint(request.Conditions);
+        (CorePoint point, DefectGasPoint? gas) = ev.SinglePoint(request.Conditions);
         FormationEnergyCalculator calculator = ev.Calculator(point);
         Protos.V1.DefectConditionPoint wirePoint = DefectWireMapping.Point(point, ev.Window.Elements);
         string description = string.Join(", ", wirePoint.Potentials.Select(p => string.Create(CultureInfo.InvariantCulture, $"Δμ({p.Element}) = {p.DeltaMuEv:0.###} eV")));
         var input = new DefectFigureInput(
             ev.Study.Host.Formula,
-            point.VertexNumber > 0 ? $"window vertex {point.VertexNumber} (with {point.Label})" : point.Label,
+            point.VertexNumber > 0 && gas is null ? $"window vertex {point.VertexNumber} (with {point.Label})" : point.Label,
             description,
             ev.Study.Bulk.BandGapEv,
             request.HasFermiMinEv ? request.FermiMinEv : 0.0,
@@ -200,5 +210,5 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
     }
 
     private Task<DefectEvaluation> LoadAsync(string dataset, long version, string studyName, long studyVersion, string hostEntryId, ServerCallContext context) =>
-        DefectEvaluation.LoadAsync(store, versions, cache, dataset, version, studyName, studyVersion, hostEntryId, context.CancellationToken);
+        DefectEvaluation.LoadAsync(store, versions, cache, studies, dataset, version, studyName, studyVersion, hostEntryId, context.CancellationToken);
 }
