@@ -57,7 +57,7 @@ public static class DefectFormationFigure
         canvas.Raw($"<text x=\"20\" y=\"30\" xml:space=\"preserve\" font-size=\"{Px(titleSize)}\" font-weight=\"bold\" fill=\"{FigurePalette.Text}\">Defect formation energies in ");
         canvas.Raw(FormulaText.Markup(input.HostFormula, titleSize));
         canvas.Raw("</text>\n");
-        canvas.Text(20, 50, $"at {input.PointLabel}: {input.PointDescription}", FigurePalette.SmallFontSize);
+        canvas.Text(20, 50, $"{input.PointLabel}: {input.PointDescription}", FigurePalette.SmallFontSize);
 
         // Outside the gap the Fermi level lies in a band: shaded, so levels there read as outside.
         string band = "#ededed";

@@ -177,7 +177,8 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
         string description = string.Join(", ", wirePoint.Potentials.Select(p => string.Create(CultureInfo.InvariantCulture, $"Δμ({p.Element}) = {p.DeltaMuEv:0.###} eV")));
         var input = new DefectFigureInput(
             ev.Study.Host.Formula,
-            point.VertexNumber > 0 && gas is null ? $"window vertex {point.VertexNumber} (with {point.Label})" : point.Label,
+            point.VertexNumber > 0 && gas is null ? $"window vertex {point.VertexNumber} (with {point.Label})"
+                : point.VertexNumber == 0 ? "given point" : point.Label,
             description,
             ev.Study.Bulk.BandGapEv,
             request.HasFermiMinEv ? request.FermiMinEv : 0.0,
