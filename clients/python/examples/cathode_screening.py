@@ -18,7 +18,15 @@
 import os
 from pathlib import Path
 
+import pandas as pd
+
 from hullclient import HullClient, NotFoundError, decomposition_products
+
+try:
+    from IPython.display import display  # a notebook draws DataFrames as tables; a script prints them
+except ImportError:
+    display = print
+pd.set_option("display.width", 160, "display.max_columns", 12, "display.max_colwidth", 60)
 
 # The repository's data-demo/ folder: $HULL_DEMO_DATA, else found above this file (or the notebook's folder).
 here = Path(globals().get("__file__", Path.cwd() / "cathode_screening.py")).resolve().parent
@@ -45,7 +53,7 @@ for path in sorted((demo / "round1").iterdir()):
     print(f"{path.name}: version {result.dataset_version}, {result.inserted_count} new entries")
 result = hull.import_table(dataset, demo / "round2" / "04-rerelaxed-layered.csv", on_duplicate="replace")
 print(f"round 2: version {result.dataset_version}, {result.replaced_count} entries replaced")
-hull.list_versions(dataset)
+display(hull.list_versions(dataset))
 
 # %% [markdown]
 # ## Whole-dataset stability as a DataFrame
@@ -54,29 +62,29 @@ hull.list_versions(dataset)
 stability = hull.analyze_dataset(dataset)
 print(f"{len(stability)} entries, version {stability.attrs['used'].version}, hull systems {stability.attrs['hull_systems']}")
 near_hull = stability[stability.energy_above_hull_ev_per_atom <= 0.025]
-near_hull[["entry_id", "formula", "energy_above_hull_ev_per_atom", "is_hull_vertex", "reaction"]]
+display(near_hull[["entry_id", "formula", "energy_above_hull_ev_per_atom", "is_hull_vertex", "reaction"]])
 
 # %%
 layered = stability[stability.entry_id.str.startswith("nmc-")]
-layered.groupby("is_on_hull").energy_above_hull_ev_per_atom.describe()
+display(layered.groupby("is_on_hull").energy_above_hull_ev_per_atom.describe())
 
 # %% [markdown]
 # ## Stable phases, candidates and what the unstable ones decompose into
 
 # %%
 stable = hull.get_stable_phases(dataset, "Li-Co-O")
-stable
+display(stable)
 
 # %%
 candidates = hull.assess_candidates(dataset, demo / "candidates.csv")
-candidates[["label", "formula", "energy_above_hull_ev_per_atom", "is_on_or_below_hull", "reaction"]]
+display(candidates[["label", "formula", "energy_above_hull_ev_per_atom", "is_on_or_below_hull", "reaction"]])
 
 # %%
-decomposition_products(candidates)[["label", "phase_id", "formula", "atom_fraction", "formula_units_exact"]]
+display(decomposition_products(candidates)[["label", "phase_id", "formula", "atom_fraction", "formula_units_exact"]])
 
 # %%
 facets = hull.get_hull_facets(dataset, "Li-Co-O")
-facets.facets
+display(facets.facets)
 
 # %% [markdown]
 # ## The layered cathode's chemical-potential window, and how much Al it tolerates
@@ -84,7 +92,7 @@ facets.facets
 # %%
 window = hull.get_stability_window(dataset, "entry:ter-LiCoO2-r3m").window
 print(f"{window.formula}: {window.kind} window of dimension {window.dimension}")
-window.vertices
+display(window.vertices)
 
 # %%
 limits = hull.get_dopant_limits(dataset, "entry:ter-LiCoO2-r3m", ["Al"])

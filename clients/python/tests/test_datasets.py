@@ -136,3 +136,30 @@ def test_a_refused_candidate_is_named(client, demo):
         client.assess_candidates(DEMO_DATASET, candidates)
     assert caught.value.rows == ("DataFrame row 1",)
     assert [v.field for v in caught.value.field_violations] == ["candidates[1].energy_ev"]
+
+
+def test_an_interrupted_import_cancels_its_session_and_writes_nothing(client, demo):
+    frame = read_entries(ROUND1[1])
+    before = client.describe_dataset(DEMO_DATASET).dataset
+
+    def interrupt(done, total):
+        if done >= 100:
+            raise KeyboardInterrupt  # as Ctrl+C in a notebook
+    opened = []
+    begin = client.begin_import
+
+    def remember(*args, **kwargs):
+        opened.append(begin(*args, **kwargs))
+        return opened[-1]
+    remember.hull_rpc = begin.hull_rpc
+    client.begin_import = remember
+    try:
+        with pytest.raises(KeyboardInterrupt):
+            client.import_table(DEMO_DATASET, frame.assign(id=frame.id + "-again"), batch_size=50, progress=interrupt)
+    finally:
+        del client.begin_import
+    assert client.describe_dataset(DEMO_DATASET).dataset == before
+    from hullclient import NotFoundError
+    with pytest.raises(NotFoundError) as caught:
+        client.commit_import(opened[0].session_id)
+    assert caught.value.reason == "IMPORT_SESSION_NOT_FOUND"
