@@ -77,7 +77,8 @@ def test_import_table_create_makes_the_dataset(client, demo):
     assert client.describe_dataset("created-on-import").dataset.entry_count == len(read_entries(ROUND1[2]))
 
 
-def test_limits_and_cache_counters(client, demo):
+def test_limits_cache_counters_and_health(client, demo):
+    assert client.health() == "SERVING"
     limits = client.get_server_limits()
     assert limits.max_components_per_system >= 5 and limits.max_compositions_per_request > 0
     before = client.get_cache_statistics()

@@ -32,6 +32,8 @@ def test_server_down_is_unavailable_naming_the_address():
         hull.list_datasets()
     assert caught.value.address == address and address in str(caught.value)
     assert caught.value.method == "hull.v1.DatasetService/ListDatasets"
+    with HullClient(address, timeout=10) as hull, pytest.raises(UnavailableError):
+        hull.health()
 
 
 def test_unknown_dataset_is_not_found_with_reason_and_resource(client, demo):

@@ -128,7 +128,7 @@ class HullClient:
     token:    bearer token sent with every call (write calls need it when the server has one); default $HULL_TOKEN.
     ca_file:  PEM certificates trusted for an https:// server besides the system's (a private authority or the
               server's self-signed certificate); the server's name is still checked; default $HULL_CA_FILE.
-    timeout:  deadline of each call, seconds (default 120).
+    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls.
     warn_coverage: emit CoverageWarning / SystemProblemWarning where the CLI prints its warnings.
 
     Use as a context manager, or call close().
@@ -215,6 +215,26 @@ class HullClient:
                     f"with the elements"), stacklevel=3)
         for problem in problems:
             warnings.warn(SystemProblemWarning(problem.message), stacklevel=3)
+
+    # --- the standard health service (grpc.health.v1, not part of hull.v1) ---------------------------------------
+
+    def health(self) -> str:
+        """The server's standard gRPC health status: 'SERVING' while its store answers, else 'NOT_SERVING' (or
+        'UNKNOWN'); raises UnavailableError when the server cannot be reached."""
+        name = "grpc.health.v1.Health/Check"
+        # HealthCheckRequest with the empty service name is the empty message; the reply's only field is
+        # `status = 1` (an enum, a varint), read here without a generated module of its own.
+        check = self._channel.unary_unary("/" + name, request_serializer=lambda _: b"", response_deserializer=bytes)
+        reply = self._call(check, name, None)
+        status = 0
+        if reply[:1] == b"\x08":
+            shift = 0
+            for byte in reply[1:]:
+                status |= (byte & 0x7F) << shift
+                shift += 7
+                if byte < 0x80:
+                    break
+        return {1: "SERVING", 2: "NOT_SERVING", 3: "SERVICE_UNKNOWN"}.get(status, "UNKNOWN")
 
     # --- DatasetService -----------------------------------------------------------------------------------------
 
