@@ -80,6 +80,9 @@ passed=$((passed + py_passed)); failed=$((failed + py_failed)); skipped=$((skipp
 rc=$status
 if [ "$generated" -ne 0 ]; then echo "error: the Python client's stubs could not be generated (see above)" >&2; rc=1; fi
 if [ "$py_status" -ne 0 ]; then rc=1; fi
+if [ "$generated" -eq 0 ] && [ "$py_status" -ne 0 ] && [ "$py_failed" -eq 0 ]; then
+  echo "error: the Python test run failed (pytest exit ${py_status}, no test failure counted)" >&2
+fi
 if [ "$py_passed" -eq 0 ]; then echo "error: no Python client test ran" >&2; rc=1; fi
 if [ "$passed" -eq 0 ]; then echo "error: no test ran" >&2; rc=1; fi
 if [ "$skipped" -ne 0 ]; then echo "error: ${skipped} test(s) skipped; skips are not allowed" >&2; rc=1; fi

@@ -169,3 +169,20 @@ def test_a_system_without_competing_phases_warns(client):
                                                 "basis": ["formation_per_atom"] * 2}))
     with pytest.warns(CoverageWarning, match="no competing phase"):
         client.get_hull_energies("lonely", ["Li2O"])
+
+
+def test_explicit_references_equal_the_cli_and_are_reported(client, server, demo):
+    ids = ["bin-CoO", "ter-LiCoO2-r3m"]
+    table = client.get_entry_stability(DEMO_DATASET, ids, references={"O": -5.1})
+    default = client.get_entry_stability(DEMO_DATASET, ids)
+    expected = cli_json(server.url, "stability", DEMO_DATASET, *ids, "--reference", "O=-5.1")
+    for row, want in zip(table.to_dict("records"), expected["results"]):
+        assert_stability_row(row, want)
+    (oxygen,) = [r for r in table.attrs["references"] if r.symbol == "O"]
+    assert oxygen.given_by_caller and oxygen.total_energy_ev_per_atom == -5.1 and oxygen.source_entry_id == ""
+    # A lower O reference makes an oxide's formation energy less negative by the difference per O atom (E_f is
+    # measured from the references; common practice): CoO has one O in two atoms.
+    (stored,) = [r for r in default.attrs["references"] if r.symbol == "O"]
+    assert not stored.given_by_caller and stored.source_entry_id
+    shift = (stored.total_energy_ev_per_atom - -5.1) * (1 / 2)
+    assert table.formation_energy_ev_per_atom[0] == pytest.approx(default.formation_energy_ev_per_atom[0] + shift, abs=1e-12)
