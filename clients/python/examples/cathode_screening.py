@@ -104,8 +104,10 @@ print(f"highest Δμ_Al in the window: {al.overall_max_ev:.4f} eV, limited by {'
 
 # %%
 figures.mkdir(parents=True, exist_ok=True)
+ternary = hull.draw_phase_diagram(dataset, "Li-Co-O")
+display(ternary)  # a notebook draws the SVG inline
 saved = [
-    hull.draw_phase_diagram(dataset, "Li-Co-O").save(figures / "ternary-Li-Co-O.svg"),
+    ternary.save(figures / "ternary-Li-Co-O.svg"),
     hull.draw_phase_diagram(dataset, end_members=["LiCoO2", "LiNiO2", "LiMnO2"]).save(figures / "pseudo-ternary-layered.svg"),
     hull.draw_phase_diagram(dataset, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15).save(figures / "quaternary-Co-Li-Ni-O.svg"),
 ]

@@ -67,4 +67,6 @@ def test_the_notebook_executes_headless(server, demo, tmp_path):
     # The stability table is shown as a DataFrame (an HTML table), the figures are written.
     assert any("text/html" in o.get("data", {}) and "energy_above_hull_ev_per_atom" in "".join(o["data"]["text/html"])
                for o in outputs)
+    # The ternary is drawn inline (Figure._repr_svg_).
+    assert any("<svg" in "".join(o.get("data", {}).get("image/svg+xml", "")) for o in outputs)
     assert_figures(figures)
