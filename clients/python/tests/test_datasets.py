@@ -93,6 +93,8 @@ def test_limits_cache_counters_and_health(client, demo):
     (pd.DataFrame({"id": ["a"], "formula": ["Li"], "energy_ev": [1.0], "basis": ["per_atom"]}), "row 0", "basis"),
     (pd.DataFrame({"id": ["a"], "formula": [""], "energy_ev": [1.0], "basis": ["total_per_atom"]}), "row 0", "formula"),
     (pd.DataFrame({"id": ["a"], "formula": ["Li"], "energy": [1.0], "basis": ["total_per_atom"]}), "DataFrame", "energy"),
+    (pd.DataFrame({"id": ["a", None], "formula": ["Li", "O"], "energy_ev": [1.0, 2.0], "basis": ["total_per_atom"] * 2}),
+     "row 1", "column 'id' is empty"),
 ])
 def test_local_checks_name_the_row_and_column(client, bad, where, problem):
     from hullclient import EntryInputError

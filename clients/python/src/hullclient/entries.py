@@ -45,9 +45,17 @@ class PreparedEntries:
         return len(self.entries)
 
 
+def _text(record, column):
+    """A text cell; a missing one (None, or NaN as pandas fills gaps) is empty, never the text 'nan'."""
+    value = record.get(column)
+    if value is None or (isinstance(value, float) and math.isnan(value)):
+        return ""
+    return str(value)
+
+
 def _entry(where, record):
-    ident = str(record.get("id", "") if record.get("id") is not None else "").strip()
-    formula = str(record.get("formula", "") if record.get("formula") is not None else "").strip()
+    ident = _text(record, "id").strip()
+    formula = _text(record, "formula").strip()
     if not ident:
         raise EntryInputError(where, "column 'id' is empty")
     if not formula:
@@ -59,12 +67,11 @@ def _entry(where, record):
         value = math.nan
     if isinstance(energy, bool) or not math.isfinite(value):
         raise EntryInputError(where, f"column 'energy_ev': '{energy}' is not a finite number (use a '.' decimal point, e.g. -2.345)")
-    token = str(record.get("basis") if record.get("basis") is not None else "").strip()
+    token = _text(record, "basis").strip()
     tokens = basis_tokens()
     if token not in tokens:
         raise EntryInputError(where, f"column 'basis': '{token}' is not one of {', '.join(tokens)}")
-    note = record.get("note")
-    note = "" if note is None or (isinstance(note, float) and math.isnan(note)) else str(note)
+    note = _text(record, "note")
     return entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note)
 
 
