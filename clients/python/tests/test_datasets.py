@@ -6,8 +6,8 @@ import json
 import pandas as pd
 import pytest
 
-from conftest import DEMO_DATASET, ROUND1, ROUND2, cli_json
-from hullclient import read_entries
+from conftest import DEMO_DATASET, ROUND1, ROUND2, cli_json, run_cli
+from hullclient import read_entries, write_entries
 
 
 def test_demo_import_makes_one_version_per_file_and_the_cli_sees_them(client, server, demo):
@@ -166,3 +166,26 @@ def test_an_interrupted_import_cancels_its_session_and_writes_nothing(client, de
     with pytest.raises(NotFoundError) as caught:
         client.commit_import(opened[0].session_id)
     assert caught.value.reason == "IMPORT_SESSION_NOT_FOUND"
+
+
+@pytest.mark.parametrize("suffix", [".csv", ".json"])
+def test_an_export_written_as_a_file_equals_the_cli_export_and_imports_again(client, server, demo, tmp_path, suffix):
+    exported = client.export_entries(DEMO_DATASET, version=2)
+    mine = write_entries(exported, tmp_path / f"mine{suffix}")
+    theirs = tmp_path / f"cli{suffix}"
+    run_cli(server.url, "export", DEMO_DATASET, "--version", "2", "--" + suffix[1:], "-o", str(theirs))
+    # Read back through the same reader: every field, energies to the last bit.
+    pd.testing.assert_frame_equal(read_entries(mine), read_entries(theirs))
+    pd.testing.assert_frame_equal(read_entries(mine), exported)
+    name = f"rewritten{suffix[1:]}"
+    client.import_table(name, mine, create=True)
+    assert client.get_stable_phases(name).attrs["used"].content_sha256 == \
+        client.get_stable_phases(DEMO_DATASET, version=2).attrs["used"].content_sha256
+
+
+def test_write_entries_refuses_a_bad_row_and_writes_nothing(tmp_path):
+    from hullclient import EntryInputError
+    bad = pd.DataFrame({"id": ["a"], "formula": ["Li"], "energy_ev": [float("inf")], "basis": ["total_per_atom"]})
+    with pytest.raises(EntryInputError, match="row 0: column 'energy_ev'"):
+        write_entries(bad, tmp_path / "bad.csv")
+    assert not (tmp_path / "bad.csv").exists()

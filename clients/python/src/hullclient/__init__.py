@@ -11,7 +11,7 @@ carrying the server's reason code and field violations.
 """
 
 from hullclient.client import CoverageWarning, HullClient, SystemProblemWarning
-from hullclient.entries import read_entries
+from hullclient.entries import read_entries, write_entries
 from hullclient.errors import (
     AlreadyExistsError,
     DeadlineExceededError,
@@ -49,4 +49,5 @@ __all__ = [
     "coverage_frame",
     "decomposition_products",
     "read_entries",
+    "write_entries",
 ]

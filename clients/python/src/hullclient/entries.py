@@ -180,6 +180,27 @@ def to_frame(entries) -> pd.DataFrame:
     }, columns=list(COLUMNS))
 
 
+def write_entries(frame: pd.DataFrame, path) -> Path:
+    """Writes entries (an export, or any frame with the entry columns) as a CSV or JSON entry file, by the path's
+    suffix, in the layouts `read_entries`, `import_table` and `hull import` read; every row is checked first, so a
+    bad row is refused naming it and no file is written. Energies keep every digit (shortest round-trip text)."""
+    target = Path(path)
+    suffix = target.suffix.lower()
+    if suffix not in (".csv", ".json"):
+        raise EntryInputError(str(target), "unknown file type: an entry file ends in .csv or .json")
+    checked = to_frame(from_frame(frame).entries)
+    records = checked.to_dict("records")
+    if suffix == ".json":
+        target.write_text(json.dumps({"entries": records}, indent=1, ensure_ascii=False) + "\n", encoding="utf-8")
+        return target
+    with target.open("w", newline="", encoding="utf-8") as handle:
+        writer = csv.writer(handle, lineterminator="\n")
+        writer.writerow(COLUMNS)
+        for r in records:
+            writer.writerow([r["id"], r["formula"], repr(float(r["energy_ev"])), r["basis"], r["note"]])
+    return target
+
+
 def prepare(source, name=None) -> PreparedEntries:
     """A DataFrame, a path to an entry file, or already prepared entries."""
     if isinstance(source, PreparedEntries):
