@@ -170,3 +170,15 @@ def test_bad_addresses_are_refused_with_the_address():
         HullClient("127.0.0.1:50551")
     with pytest.raises(ValueError, match="timeout"):
         HullClient("http://127.0.0.1:50551", timeout=0)
+
+
+def test_errors_survive_pickling_for_worker_processes(client, demo):
+    import pickle
+    from hullclient import EntryInputError
+    with pytest.raises(NotFoundError) as caught:
+        client.get_entry_stability(DEMO_DATASET, ["missing-id"])
+    again = pickle.loads(pickle.dumps(caught.value))
+    assert type(again) is NotFoundError and str(again) == str(caught.value)
+    assert again.reason == "ENTRY_NOT_FOUND" and again.field_violations == caught.value.field_violations
+    local = pickle.loads(pickle.dumps(EntryInputError("f.csv:3", "column 'id' is empty")))
+    assert str(local) == "f.csv:3: column 'id' is empty" and local.where == "f.csv:3"

@@ -71,6 +71,10 @@ class HullError(Exception):
                            resource_type=self.resource_type)
         return clone
 
+    def __reduce__(self):
+        # Keyword-only construction: pickle (multiprocessing workers, say) rebuilds from the attributes.
+        return _rebuild, (type(self), dict(self.__dict__))
+
     @property
     def rows(self):
         """The rows named by the violations (DataFrame index labels or file lines), in order, without repeats."""
@@ -79,6 +83,13 @@ class HullError(Exception):
             if v.row and v.row not in seen:
                 seen.append(v.row)
         return tuple(seen)
+
+
+def _rebuild(cls, state):
+    error = cls.__new__(cls)
+    error.__dict__.update(state)
+    Exception.__init__(error, error._text())
+    return error
 
 
 class InvalidArgumentError(HullError, ValueError):
@@ -180,6 +191,9 @@ class EntryInputError(ValueError):
         self.where = where
         self.problem = problem
         super().__init__(f"{where}: {problem}")
+
+    def __reduce__(self):
+        return type(self), (self.where, self.problem)
 
 
 __all__ = [
