@@ -1,0 +1,118 @@
+# %% [markdown]
+# # Cathode screening with hullclient
+#
+# The invented demo scenario of `data-demo/` (every number in it is made up): layered lithium transition-metal
+# oxides and alumina coatings. This walk-through imports the files as versions, reads the whole-dataset stability
+# as a DataFrame, places candidates against the hull, and saves the server's phase diagrams as SVG files.
+#
+# Run it as a script (`/usr/bin/python3 clients/python/examples/cathode_screening.py`) or as the notebook
+# `cathode_screening.ipynb` beside it; both have the same cells. It talks to the server at `$HULL_SERVER`
+# (default http://127.0.0.1:50551), started for instance with
+# `dotnet run --project src/Hull.Server -- --data-dir ./hull-data --port 50551`.
+#
+# Safety: "stable" here says nothing about how to make or handle a phase. Lithium metal reacts violently with
+# water; cobalt and nickel oxide dusts are toxic and sensitising. Follow your institution's safety rules, the
+# safety data sheets and licensed laboratory practice.
+
+# %%
+import os
+from pathlib import Path
+
+import pandas as pd
+
+from hullclient import HullClient, NotFoundError, decomposition_products
+
+try:
+    from IPython.display import display  # a notebook draws DataFrames as tables; a script prints them
+except ImportError:
+    display = print
+pd.set_option("display.width", 160, "display.max_columns", 12, "display.max_colwidth", 60)
+
+# The repository's data-demo/ folder: $HULL_DEMO_DATA, else found above this file (or the notebook's folder).
+here = Path(globals().get("__file__", Path.cwd() / "cathode_screening.py")).resolve().parent
+found = [p / "data-demo" for p in [here, *here.parents] if (p / "data-demo").is_dir()]
+demo = Path(os.environ.get("HULL_DEMO_DATA") or (found[0] if found else "data-demo"))
+if not demo.is_dir():
+    raise SystemExit(f"no data-demo folder at {demo}: set HULL_DEMO_DATA to the repository's data-demo/")
+dataset = os.environ.get("HULL_DEMO_DATASET", "cathodes")
+figures = Path(os.environ.get("HULL_FIGURES_DIR", "hull-figures"))
+hull = HullClient()  # $HULL_SERVER, $HULL_TOKEN and $HULL_CA_FILE, as the CLI reads them
+print(hull)
+
+# %% [markdown]
+# ## Import: one version per file, then a re-relaxation that replaces 16 entries
+
+# %%
+try:
+    hull.delete_dataset(dataset)  # start afresh: this walk-through owns its dataset
+except NotFoundError:
+    pass
+hull.create_dataset(dataset, "invented cathode-screening scenario (data-demo/)")
+for path in sorted((demo / "round1").iterdir()):
+    result = hull.import_table(dataset, path, progress=lambda done, total: None)
+    print(f"{path.name}: version {result.dataset_version}, {result.inserted_count} new entries")
+result = hull.import_table(dataset, demo / "round2" / "04-rerelaxed-layered.csv", on_duplicate="replace")
+print(f"round 2: version {result.dataset_version}, {result.replaced_count} entries replaced")
+display(hull.list_versions(dataset))
+
+# %% [markdown]
+# ## Whole-dataset stability as a DataFrame
+
+# %%
+stability = hull.analyze_dataset(dataset)
+print(f"{len(stability)} entries, version {stability.attrs['used'].version}, hull systems {stability.attrs['hull_systems']}")
+near_hull = stability[stability.energy_above_hull_ev_per_atom <= 0.025]
+display(near_hull[["entry_id", "formula", "energy_above_hull_ev_per_atom", "is_hull_vertex", "reaction"]])
+
+# %%
+layered = stability[stability.entry_id.str.startswith("nmc-")]
+display(layered.groupby("is_on_hull").energy_above_hull_ev_per_atom.describe())
+
+# %% [markdown]
+# ## Stable phases, candidates and what the unstable ones decompose into
+
+# %%
+stable = hull.get_stable_phases(dataset, "Li-Co-O")
+display(stable)
+
+# %%
+candidates = hull.assess_candidates(dataset, demo / "candidates.csv")
+display(candidates[["label", "formula", "energy_above_hull_ev_per_atom", "is_on_or_below_hull", "reaction"]])
+
+# %%
+display(decomposition_products(candidates)[["label", "phase_id", "formula", "atom_fraction", "formula_units_exact"]])
+
+# %%
+facets = hull.get_hull_facets(dataset, "Li-Co-O")
+display(facets.facets)
+
+# %% [markdown]
+# ## The layered cathode's chemical-potential window, and how much Al it tolerates
+
+# %%
+window = hull.get_stability_window(dataset, "entry:ter-LiCoO2-r3m").window
+print(f"{window.formula}: {window.kind} window of dimension {window.dimension}")
+display(window.vertices)
+
+# %%
+limits = hull.get_dopant_limits(dataset, "entry:ter-LiCoO2-r3m", ["Al"])
+al = limits.limits[0]
+print(f"highest Δμ_Al in the window: {al.overall_max_ev:.4f} eV, limited by {', '.join(al.overall_limiting_phase_ids)}")
+
+# %% [markdown]
+# ## Phase diagrams drawn by the server, saved as SVG
+
+# %%
+figures.mkdir(parents=True, exist_ok=True)
+ternary = hull.draw_phase_diagram(dataset, "Li-Co-O")
+display(ternary)  # a notebook draws the SVG inline
+saved = [
+    ternary.save(figures / "ternary-Li-Co-O.svg"),
+    hull.draw_phase_diagram(dataset, end_members=["LiCoO2", "LiNiO2", "LiMnO2"]).save(figures / "pseudo-ternary-layered.svg"),
+    hull.draw_phase_diagram(dataset, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15).save(figures / "quaternary-Co-Li-Ni-O.svg"),
+]
+for path in saved:
+    print(path, path.stat().st_size, "bytes")
+
+# %%
+hull.close()

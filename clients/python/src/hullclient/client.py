@@ -1,0 +1,616 @@
+"""HullClient: one Python method per gRPC call of hull.v1, plus the single-version import of a table or file.
+
+Each method that makes a call is marked with the call it makes (`@_calls`); `HullClient.calls()` lists them, and a
+test holds that list against the services declared in protos/hull/v1, so a call added to the contract without its
+Python method fails the tests.
+"""
+
+import os
+import re
+import ssl
+import urllib.parse
+import warnings
+from pathlib import Path
+from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Union
+
+import grpc
+import pandas as pd
+
+from hullclient import entries as entry_input
+from hullclient import results as r
+from hullclient import _stubs as wire
+from hullclient.errors import EntryInputError, HullError, NotFoundError, from_rpc_error
+
+DEFAULT_ADDRESS = "http://127.0.0.1:50551"
+# Seconds per call, as the CLI's --timeout default.
+DEFAULT_TIMEOUT_SECONDS = 120.0
+# Rows per StageEntries call, as the CLI's --batch-size default.
+DEFAULT_BATCH_SIZE = 1000
+# Largest response accepted: the server's default send limit (the CLI accepts the same).
+MAX_RECEIVE_MESSAGE_BYTES = 64 * 1024 * 1024
+ENTRY_PREFIX = "entry:"
+
+_ROW_FIELD = re.compile(r"^(entries|staged|candidates)\[(\d+)\]")
+_DUPLICATE_POLICIES = {"reject": wire.datasets_pb2.DUPLICATE_POLICY_REJECT, "replace": wire.datasets_pb2.DUPLICATE_POLICY_REPLACE}
+
+
+class CoverageWarning(UserWarning):
+    """An answer from a chemical system with an element at 0 by definition or no competing phase."""
+
+
+class SystemProblemWarning(UserWarning):
+    """A chemical system the server could not analyse (no elemental reference, or an energy out of range)."""
+
+
+def _calls(service: str, method: str):
+    def mark(function):
+        function.hull_rpc = f"hull.v1.{service}/{method}"
+        return function
+    return mark
+
+
+def _field_row(origins, offset=0):
+    """Maps a server field name (`entries[i].x`, `staged[k].x`, `candidates[i].x`) to the row it came from:
+    `entries[i]` and `candidates[i]` count within the call's batch (from `offset`), `staged[k]` within the session."""
+
+    def label(field):
+        match = _ROW_FIELD.match(field or "")
+        if not match:
+            return None
+        index = int(match.group(2)) + (0 if match.group(1) == "staged" else offset)
+        return origins[index] if 0 <= index < len(origins) else None
+    return label
+
+
+def _references(references: Optional[Mapping[str, float]]):
+    if not references:
+        return []
+    if not isinstance(references, Mapping):
+        raise TypeError("references must be a mapping of element symbol to total energy per atom, e.g. {'O': -4.95}")
+    return [wire.stability_pb2.ElementReferenceEnergy(symbol=s, energy_ev_per_atom=float(e)) for s, e in references.items()]
+
+
+def _end_members(end_members: Optional[Sequence[str]]):
+    if end_members is None:
+        return []
+    if isinstance(end_members, str):
+        end_members = [p.strip() for p in end_members.split(",") if p.strip()]
+    members = []
+    for member in end_members:
+        if member.startswith(ENTRY_PREFIX):
+            members.append(wire.stability_pb2.EndMember(entry_id=member[len(ENTRY_PREFIX):]))
+        else:
+            members.append(wire.stability_pb2.EndMember(formula=member))
+    return members
+
+
+def _compound(compound: str):
+    if not isinstance(compound, str) or not compound:
+        raise ValueError("compound must be a formula, or 'entry:ID' for a stored entry")
+    if compound.startswith(ENTRY_PREFIX):
+        return wire.windows_pb2.CompoundRef(entry_id=compound[len(ENTRY_PREFIX):])
+    return wire.windows_pb2.CompoundRef(formula=compound)
+
+
+def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits):
+    settings = wire.windows_pb2.WindowSettings(projection_omits=projection_omits or "")
+    if above_hull_tolerance_ev_per_atom is not None:
+        settings.above_hull_tolerance_ev_per_atom = above_hull_tolerance_ev_per_atom
+    if lowering_ev_per_atom is not None:
+        settings.lowering_ev_per_atom = lowering_ev_per_atom
+    return settings
+
+
+def _system_roots() -> bytes:
+    paths = ssl.get_default_verify_paths()
+    for candidate in (paths.cafile, "/etc/ssl/certs/ca-certificates.crt"):
+        if candidate and Path(candidate).is_file():
+            return Path(candidate).read_bytes()
+    return b""
+
+
+def _read_ca_file(ca_file) -> bytes:
+    path = Path(ca_file)
+    try:
+        data = path.read_bytes()
+    except OSError as e:
+        raise ValueError(f"ca_file '{ca_file}': cannot read the certificate file: {e.strerror or e}") from e
+    if b"-----BEGIN CERTIFICATE-----" not in data:
+        raise ValueError(f"ca_file '{ca_file}': holds no PEM certificate (-----BEGIN CERTIFICATE-----)")
+    return data
+
+
+class HullClient:
+    """A connection to one hull server.
+
+    address:  http://HOST:PORT (plaintext) or https://HOST:PORT (TLS); default $HULL_SERVER or
+              http://127.0.0.1:50551.
+    token:    bearer token sent with every call (write calls need it when the server has one); default $HULL_TOKEN.
+    ca_file:  PEM certificates trusted for an https:// server besides the system's (a private authority or the
+              server's self-signed certificate); the server's name is still checked; default $HULL_CA_FILE.
+    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls.
+    warn_coverage: emit CoverageWarning / SystemProblemWarning where the CLI prints its warnings.
+
+    Use as a context manager, or call close().
+    """
+
+    def __init__(self, address: Optional[str] = None, *, token: Optional[str] = None, ca_file=None,
+                 timeout: float = DEFAULT_TIMEOUT_SECONDS, warn_coverage: bool = True):
+        address = address or os.environ.get("HULL_SERVER") or DEFAULT_ADDRESS
+        token = token if token is not None else (os.environ.get("HULL_TOKEN") or None)
+        ca_file = ca_file if ca_file is not None else (os.environ.get("HULL_CA_FILE") or None)
+        if not (isinstance(timeout, (int, float)) and timeout > 0):
+            raise ValueError(f"timeout must be a positive number of seconds, not {timeout!r}")
+        parts = urllib.parse.urlsplit(address)
+        if parts.scheme not in ("http", "https") or not parts.hostname:
+            raise ValueError(f"address '{address}' is not a server URL: use http://HOST:PORT or https://HOST:PORT")
+        try:
+            port = parts.port or (443 if parts.scheme == "https" else 80)
+        except ValueError as e:
+            raise ValueError(f"address '{address}': {e}") from e
+        host = f"[{parts.hostname}]" if ":" in parts.hostname else parts.hostname
+        target = f"{host}:{port}"
+        options = [("grpc.max_receive_message_length", MAX_RECEIVE_MESSAGE_BYTES)]
+        if parts.scheme == "https":
+            roots = _system_roots() + (b"\n" + _read_ca_file(ca_file) if ca_file else b"")
+            self._channel = grpc.secure_channel(target, grpc.ssl_channel_credentials(root_certificates=roots or None), options)
+        else:
+            if ca_file:
+                raise ValueError(f"ca_file applies to https:// servers only; '{address}' is plaintext")
+            self._channel = grpc.insecure_channel(target, options)
+        self.address = address
+        self.timeout = float(timeout)
+        self.warn_coverage = warn_coverage
+        self._metadata = (("authorization", f"Bearer {token}"),) if token else ()
+        self._datasets = wire.datasets_pb2_grpc.DatasetServiceStub(self._channel)
+        self._stability = wire.stability_pb2_grpc.StabilityServiceStub(self._channel)
+        self._figures = wire.figures_pb2_grpc.FigureServiceStub(self._channel)
+        self._diagnostics = wire.diagnostics_pb2_grpc.DiagnosticsServiceStub(self._channel)
+        self._windows = wire.windows_pb2_grpc.WindowServiceStub(self._channel)
+
+    # --- plumbing -----------------------------------------------------------------------------------------------
+
+    def close(self):
+        self._channel.close()
+
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *exc):
+        self.close()
+
+    def __repr__(self):
+        return f"HullClient({self.address!r}, timeout={self.timeout})"
+
+    @classmethod
+    def calls(cls) -> Dict[str, str]:
+        """{'hull.v1.Service/Method': python method name} for every call this client makes."""
+        return {getattr(cls, name).hull_rpc: name for name in dir(cls) if hasattr(getattr(cls, name), "hull_rpc")}
+
+    def _call(self, stub_method, name, request, timeout=None):
+        try:
+            return stub_method(request, timeout=timeout or self.timeout, metadata=self._metadata)
+        except grpc.RpcError as e:
+            raise from_rpc_error(e, name, self.address) from None
+
+    def _stream(self, stub_method, name, request, timeout=None):
+        try:
+            for message in stub_method(request, timeout=timeout or self.timeout, metadata=self._metadata):
+                yield message
+        except grpc.RpcError as e:
+            raise from_rpc_error(e, name, self.address) from None
+
+    def _warn(self, coverage=(), problems=()):
+        if not self.warn_coverage:
+            return
+        for system in coverage:
+            missing = [e.symbol for e in system.elements if e.zero_by_definition]
+            if missing:
+                warnings.warn(CoverageWarning(
+                    f"{system.chemical_system}: the dataset has no entry of {', '.join(missing)}; its formation energy is "
+                    f"set to 0 by definition and no computed phase of it was compared"), stacklevel=3)
+            elif system.competing_phase_count == 0:
+                warnings.warn(CoverageWarning(
+                    f"{system.chemical_system}: no competing phase (no other compound entry); the answer only compares "
+                    f"with the elements"), stacklevel=3)
+        for problem in problems:
+            warnings.warn(SystemProblemWarning(problem.message), stacklevel=3)
+
+    # --- the standard health service (grpc.health.v1, not part of hull.v1) ---------------------------------------
+
+    def health(self) -> str:
+        """The server's standard gRPC health status: 'SERVING' while its store answers, else 'NOT_SERVING' (or
+        'UNKNOWN'); raises UnavailableError when the server cannot be reached."""
+        name = "grpc.health.v1.Health/Check"
+        # HealthCheckRequest with the empty service name is the empty message; the reply's only field is
+        # `status = 1` (an enum, a varint), read here without a generated module of its own.
+        check = self._channel.unary_unary("/" + name, request_serializer=lambda _: b"", response_deserializer=bytes)
+        reply = self._call(check, name, None)
+        status = 0
+        if reply[:1] == b"\x08":
+            shift = 0
+            for byte in reply[1:]:
+                status |= (byte & 0x7F) << shift
+                shift += 7
+                if byte < 0x80:
+                    break
+        return {1: "SERVING", 2: "NOT_SERVING", 3: "SERVICE_UNKNOWN"}.get(status, "UNKNOWN")
+
+    # --- DatasetService -----------------------------------------------------------------------------------------
+
+    @_calls("DatasetService", "CreateDataset")
+    def create_dataset(self, name: str, description: str = "") -> r.Dataset:
+        """Creates an empty dataset (no version until the first import)."""
+        reply = self._call(self._datasets.CreateDataset, self.create_dataset.hull_rpc,
+                           wire.datasets_pb2.CreateDatasetRequest(name=name, description=description))
+        return r.dataset(reply)
+
+    @_calls("DatasetService", "ListDatasets")
+    def list_datasets(self, page_size: int = 0) -> pd.DataFrame:
+        """Every dataset, by name (all pages): name, description, created_at, latest_version, entry_count."""
+        items, token = [], ""
+        while True:
+            reply = self._call(self._datasets.ListDatasets, self.list_datasets.hull_rpc,
+                               wire.datasets_pb2.ListDatasetsRequest(page_size=page_size, page_token=token))
+            items.extend(reply.datasets)
+            token = reply.next_page_token
+            if not token:
+                return r.datasets_frame(items)
+
+    @_calls("DatasetService", "DescribeDataset")
+    def describe_dataset(self, name: str) -> r.DatasetDescription:
+        reply = self._call(self._datasets.DescribeDataset, self.describe_dataset.hull_rpc,
+                           wire.datasets_pb2.DescribeDatasetRequest(name=name))
+        return r.DatasetDescription(r.dataset(reply.dataset), r.versions_frame(reply.versions))
+
+    @_calls("DatasetService", "DeleteDataset")
+    def delete_dataset(self, name: str) -> None:
+        """Deletes a dataset with all its versions."""
+        self._call(self._datasets.DeleteDataset, self.delete_dataset.hull_rpc, wire.datasets_pb2.DeleteDatasetRequest(name=name))
+
+    @_calls("DatasetService", "ImportEntries")
+    def import_entries(self, dataset: str, entries, *, on_duplicate: str = "reject", source_label: str = "",
+                       note: str = "") -> r.ImportResult:
+        """One batch (a DataFrame or an entry file) in one call, as one new version. For large tables use
+        import_table, which sends many batches and still makes one version."""
+        prepared = entry_input.prepare(entries)
+        request = wire.datasets_pb2.ImportEntriesRequest(dataset=dataset, entries=prepared.entries,
+                                                    duplicate_policy=self._policy(on_duplicate),
+                                                    source_label=source_label or self._label(entries), note=note)
+        try:
+            reply = self._call(self._datasets.ImportEntries, self.import_entries.hull_rpc, request)
+        except HullError as e:
+            raise e.with_rows(_field_row(prepared.origins)) from None
+        return r.ImportResult(reply.dataset_version, reply.inserted_count, reply.replaced_count)
+
+    @_calls("DatasetService", "BeginImport")
+    def begin_import(self, dataset: str, *, on_duplicate: str = "reject", source_label: str = "",
+                     note: str = "") -> r.ImportSession:
+        """Opens an import session (see import_table, which runs a whole session)."""
+        reply = self._call(self._datasets.BeginImport, self.begin_import.hull_rpc,
+                           wire.datasets_pb2.BeginImportRequest(dataset=dataset, duplicate_policy=self._policy(on_duplicate),
+                                                           source_label=source_label, note=note))
+        return r.import_session(reply)
+
+    @_calls("DatasetService", "StageEntries")
+    def stage_entries(self, session_id: str, entries) -> r.ImportSession:
+        """Adds one batch to an open session, all or nothing."""
+        prepared = entry_input.prepare(entries)
+        try:
+            reply = self._call(self._datasets.StageEntries, self.stage_entries.hull_rpc,
+                               wire.datasets_pb2.StageEntriesRequest(session_id=session_id, entries=prepared.entries))
+        except HullError as e:
+            raise e.with_rows(_field_row(prepared.origins)) from None
+        return r.import_session(reply)
+
+    @_calls("DatasetService", "CommitImport")
+    def commit_import(self, session_id: str) -> r.ImportResult:
+        """Writes every staged row as one new version and closes the session."""
+        reply = self._call(self._datasets.CommitImport, self.commit_import.hull_rpc,
+                           wire.datasets_pb2.CommitImportRequest(session_id=session_id))
+        return r.ImportResult(reply.dataset_version, reply.inserted_count, reply.replaced_count)
+
+    @_calls("DatasetService", "CancelImport")
+    def cancel_import(self, session_id: str) -> None:
+        self._call(self._datasets.CancelImport, self.cancel_import.hull_rpc,
+                   wire.datasets_pb2.CancelImportRequest(session_id=session_id))
+
+    @_calls("DatasetService", "ExportEntries")
+    def export_entries(self, dataset: str, version: int = 0, page_size: int = 0) -> pd.DataFrame:
+        """Every entry of a version in id order, with the file columns (id, formula, energy_ev, basis, note); the
+        frame imports again unchanged. attrs['version'] is the version read."""
+        rows, version_read = [], 0
+        for message in self._stream(self._datasets.ExportEntries, self.export_entries.hull_rpc,
+                                    wire.datasets_pb2.ExportEntriesRequest(dataset=dataset, version=version, page_size=page_size)):
+            version_read = message.dataset_version
+            rows.extend(message.entries)
+        table = entry_input.to_frame(rows)
+        table.attrs["version"] = version_read
+        return table
+
+    @_calls("DatasetService", "ListVersions")
+    def list_versions(self, dataset: str, page_size: int = 0) -> pd.DataFrame:
+        """The live versions with their provenance, oldest first (all pages)."""
+        items, token = [], ""
+        while True:
+            reply = self._call(self._datasets.ListVersions, self.list_versions.hull_rpc,
+                               wire.datasets_pb2.ListVersionsRequest(dataset=dataset, page_size=page_size, page_token=token))
+            items.extend(reply.versions)
+            token = reply.next_page_token
+            if not token:
+                return r.versions_frame(items)
+
+    @_calls("DatasetService", "DeleteVersion")
+    def delete_version(self, dataset: str, version: int) -> None:
+        self._call(self._datasets.DeleteVersion, self.delete_version.hull_rpc,
+                   wire.datasets_pb2.DeleteVersionRequest(dataset=dataset, version=version))
+
+    def import_table(self, dataset: str, entries, *, on_duplicate: str = "reject", create: bool = False,
+                     batch_size: int = DEFAULT_BATCH_SIZE, source_label: str = "", note: str = "",
+                     progress: Optional[Callable[[int, int], None]] = None) -> r.ImportResult:
+        """Imports a DataFrame or an entry file (CSV/JSON) as ONE new version, in batches of `batch_size` rows
+        through an import session: every row is checked here first, then each batch by the server; a refused row,
+        an exception or Ctrl+C cancels the session and nothing is written. `progress(staged, total)` is called
+        after each batch. A refused row is named by its DataFrame index label or file line (HullError.rows).
+        With create=True a missing dataset is created first."""
+        if not (isinstance(batch_size, int) and batch_size > 0):
+            raise ValueError(f"batch_size must be a positive integer, not {batch_size!r}")
+        prepared = entry_input.prepare(entries)
+        if len(prepared) == 0:
+            raise EntryInputError(self._label(entries) or "entries", "no entries to import")
+        first_row = {}
+        for entry, origin in zip(prepared.entries, prepared.origins):
+            if entry.id in first_row:
+                raise EntryInputError(origin, f"id '{entry.id}' repeats {first_row[entry.id]}")
+            first_row[entry.id] = origin
+        self._policy(on_duplicate)
+        if create:
+            try:
+                self.describe_dataset(dataset)
+            except NotFoundError:
+                self.create_dataset(dataset)
+        session = self.begin_import(dataset, on_duplicate=on_duplicate, source_label=source_label or self._label(entries),
+                                    note=note)
+        done = False
+        try:
+            total = len(prepared)
+            for start in range(0, total, batch_size):
+                batch = entry_input.PreparedEntries(prepared.entries[start:start + batch_size],
+                                                    prepared.origins[start:start + batch_size])
+                try:
+                    self.stage_entries(session.session_id, batch)
+                except HullError as e:
+                    raise e.with_rows(_field_row(prepared.origins, offset=start)) from None
+                if progress is not None:
+                    progress(min(start + batch_size, total), total)
+            try:
+                result = self.commit_import(session.session_id)
+            except HullError as e:
+                raise e.with_rows(_field_row(prepared.origins)) from None
+            done = True
+            return result
+        finally:
+            if not done:
+                try:
+                    self.cancel_import(session.session_id)
+                except HullError:
+                    pass  # the session lapses on the server by itself; the first error is the one to see
+
+    @staticmethod
+    def _policy(on_duplicate: str) -> int:
+        if on_duplicate not in _DUPLICATE_POLICIES:
+            raise ValueError(f"on_duplicate must be 'reject' or 'replace', not {on_duplicate!r}")
+        return _DUPLICATE_POLICIES[on_duplicate]
+
+    @staticmethod
+    def _label(entries) -> str:
+        if isinstance(entries, (str, Path)):
+            return Path(entries).name
+        return "pandas DataFrame" if isinstance(entries, pd.DataFrame) else ""
+
+    # --- StabilityService ---------------------------------------------------------------------------------------
+
+    @_calls("StabilityService", "GetEntryStability")
+    def get_entry_stability(self, dataset: str, entry_ids: Union[str, Iterable[str]], *, version: int = 0,
+                            references: Optional[Mapping[str, float]] = None,
+                            end_members: Optional[Sequence[str]] = None) -> pd.DataFrame:
+        """Energy above hull, decomposition and decomposition energy of stored entries, in request order.
+        end_members: formulas or 'entry:ID' for a hull over compound end-members."""
+        ids = [entry_ids] if isinstance(entry_ids, str) else list(entry_ids)
+        reply = self._call(self._stability.GetEntryStability, self.get_entry_stability.hull_rpc,
+                           wire.stability_pb2.GetEntryStabilityRequest(dataset=dataset, version=version, entry_ids=ids,
+                                                                  elemental_references=_references(references),
+                                                                  end_members=_end_members(end_members)))
+        table = r.frame([r.entry_stability_row(m) for m in reply.results], r.ENTRY_STABILITY_COLUMNS, **r.answer_attrs(reply))
+        self._warn(table.attrs["coverage"])
+        return table
+
+    @_calls("StabilityService", "AssessCandidates")
+    def assess_candidates(self, dataset: str, candidates, *, version: int = 0,
+                          references: Optional[Mapping[str, float]] = None) -> pd.DataFrame:
+        """Places ad-hoc compositions with an energy against the hull, without storing them. candidates: a
+        DataFrame (or entry file) with the entry columns (`id` becomes the label), or (formula, energy_ev, basis)
+        tuples."""
+        if isinstance(candidates, (pd.DataFrame, str, Path)):
+            prepared = entry_input.prepare(candidates)
+            sent = [wire.stability_pb2.Candidate(label=e.id, formula=e.formula, energy_ev=e.energy_ev, basis=e.basis)
+                    for e in prepared.entries]
+            origins = prepared.origins
+        else:
+            tokens = entry_input.basis_tokens()
+            sent, origins = [], []
+            for i, item in enumerate(candidates):
+                formula, energy, basis = item
+                if basis not in tokens:
+                    raise EntryInputError(f"candidates[{i}]", f"basis '{basis}' is not one of {', '.join(tokens)}")
+                sent.append(wire.stability_pb2.Candidate(label=formula, formula=formula, energy_ev=float(energy), basis=tokens[basis]))
+                origins.append(f"candidates[{i}] {formula}")
+        try:
+            reply = self._call(self._stability.AssessCandidates, self.assess_candidates.hull_rpc,
+                               wire.stability_pb2.AssessCandidatesRequest(dataset=dataset, version=version, candidates=sent,
+                                                                     elemental_references=_references(references)))
+        except HullError as e:
+            raise e.with_rows(_field_row(origins)) from None
+        table = r.frame([r.candidate_row(m) for m in reply.results], r.CANDIDATE_COLUMNS, **r.answer_attrs(reply))
+        self._warn(table.attrs["coverage"])
+        return table
+
+    @_calls("StabilityService", "GetHullEnergies")
+    def get_hull_energies(self, dataset: str, formulas: Union[str, Iterable[str]], *, version: int = 0,
+                          references: Optional[Mapping[str, float]] = None) -> pd.DataFrame:
+        """Hull energy and decomposition at compositions (no energy needed)."""
+        formulas = [formulas] if isinstance(formulas, str) else list(formulas)
+        reply = self._call(self._stability.GetHullEnergies, self.get_hull_energies.hull_rpc,
+                           wire.stability_pb2.GetHullEnergiesRequest(dataset=dataset, version=version, formulas=formulas,
+                                                                elemental_references=_references(references)))
+        table = r.frame([r.hull_energy_row(m) for m in reply.results], r.HULL_ENERGY_COLUMNS, **r.answer_attrs(reply))
+        self._warn(table.attrs["coverage"])
+        return table
+
+    @_calls("StabilityService", "GetStablePhases")
+    def get_stable_phases(self, dataset: str, chemical_system: str = "", *, version: int = 0,
+                          references: Optional[Mapping[str, float]] = None,
+                          end_members: Optional[Sequence[str]] = None) -> pd.DataFrame:
+        """The stable phases (hull vertices) of one chemical system ("Li-Co-O"), of end-members, or of the whole
+        dataset (no system): phase_id, formula, formation_energy_ev_per_atom, is_elemental_reference.
+        attrs['system_problems'] lists systems the whole-dataset answer could not analyse."""
+        reply = self._call(self._stability.GetStablePhases, self.get_stable_phases.hull_rpc,
+                           wire.stability_pb2.GetStablePhasesRequest(dataset=dataset, version=version,
+                                                                chemical_system=chemical_system or "",
+                                                                elemental_references=_references(references),
+                                                                end_members=_end_members(end_members)))
+        table = r.stable_phases_frame(reply.phases)
+        table.attrs.update(r.answer_attrs(reply), chemical_system=reply.chemical_system,
+                           system_problems=tuple(r.system_problem(p) for p in reply.system_problems))
+        self._warn(table.attrs["coverage"], table.attrs["system_problems"])
+        return table
+
+    @_calls("StabilityService", "GetHullFacets")
+    def get_hull_facets(self, dataset: str, chemical_system: str = "", *, version: int = 0,
+                        references: Optional[Mapping[str, float]] = None,
+                        end_members: Optional[Sequence[str]] = None) -> r.HullFacets:
+        """Facets with the chemical potentials at which their phases coexist, tie-lines and stable phases."""
+        reply = self._call(self._stability.GetHullFacets, self.get_hull_facets.hull_rpc,
+                           wire.stability_pb2.GetHullFacetsRequest(dataset=dataset, version=version,
+                                                              chemical_system=chemical_system or "",
+                                                              elemental_references=_references(references),
+                                                              end_members=_end_members(end_members)))
+        components = tuple(reply.components)
+        mu_columns = [f"chemical_potential_{c}_ev_per_atom" for c in components]
+        facets = pd.DataFrame(
+            [{"phase_ids": tuple(f.phase_ids),
+              **{f"chemical_potential_{p.component}_ev_per_atom": p.chemical_potential_ev_per_atom for p in f.chemical_potentials}}
+             for f in reply.facets], columns=["phase_ids"] + mu_columns)
+        ties = pd.DataFrame([{"first_phase_id": t.first_phase_id, "second_phase_id": t.second_phase_id} for t in reply.tie_lines],
+                            columns=["first_phase_id", "second_phase_id"])
+        attrs = r.answer_attrs(reply)
+        self._warn(attrs["coverage"])
+        return r.HullFacets(attrs["used"], reply.chemical_system, components, facets, ties,
+                            r.stable_phases_frame(reply.stable_phases), attrs["coverage"], attrs["references"])
+
+    @_calls("StabilityService", "AnalyzeDataset")
+    def analyze_dataset(self, dataset: str, *, version: int = 0, page_size: int = 0,
+                        references: Optional[Mapping[str, float]] = None,
+                        progress: Optional[Callable[[int, int], None]] = None) -> pd.DataFrame:
+        """Stability of every entry of the version, streamed into one DataFrame in entry id order (columns as
+        get_entry_stability). attrs: used, hull_systems, references, coverage, system_problems,
+        unanswered_entry_count. progress(received, total) after each streamed message."""
+        rows, attrs = [], {}
+        coverage = []
+        for message in self._stream(self._stability.AnalyzeDataset, self.analyze_dataset.hull_rpc,
+                                    wire.stability_pb2.AnalyzeDatasetRequest(dataset=dataset, version=version, page_size=page_size,
+                                                                        elemental_references=_references(references))):
+            if not attrs:
+                attrs = {"used": r.version_used(message.used), "hull_systems": tuple(message.hull_systems),
+                         "references": tuple(r.element_reference(x) for x in message.references),
+                         "system_problems": tuple(r.system_problem(p) for p in message.system_problems),
+                         "unanswered_entry_count": message.unanswered_entry_count}
+            coverage.extend(r.system_coverage(c) for c in message.coverage)
+            rows.extend(r.entry_stability_row(m) for m in message.results)
+            if progress is not None:
+                progress(len(rows), message.entry_count)
+        table = r.frame(rows, r.ENTRY_STABILITY_COLUMNS, **attrs)
+        table.attrs["coverage"] = tuple(coverage)
+        self._warn(table.attrs["coverage"], table.attrs.get("system_problems", ()))
+        return table
+
+    # --- FigureService ------------------------------------------------------------------------------------------
+
+    @_calls("FigureService", "DrawPhaseDiagram")
+    def draw_phase_diagram(self, dataset: str, chemical_system: str = "", *, version: int = 0,
+                           end_members: Optional[Sequence[str]] = None,
+                           max_above_hull_ev_per_atom: Optional[float] = None,
+                           azimuth_degrees: Optional[float] = None,
+                           elevation_degrees: Optional[float] = None) -> r.Figure:
+        """A phase diagram of 2 to 4 elements ("Li-Co-O") or end-members, drawn by the server; Figure.svg is the
+        SVG text, Figure.save(path) writes it. Quaternaries take a view (azimuth, elevation)."""
+        request = wire.figures_pb2.DrawPhaseDiagramRequest(dataset=dataset, version=version, chemical_system=chemical_system or "",
+                                                      end_members=_end_members(end_members))
+        if max_above_hull_ev_per_atom is not None:
+            request.max_above_hull_ev_per_atom = max_above_hull_ev_per_atom
+        if azimuth_degrees is not None:
+            request.view_azimuth_degrees = azimuth_degrees
+        if elevation_degrees is not None:
+            request.view_elevation_degrees = elevation_degrees
+        reply = self._call(self._figures.DrawPhaseDiagram, self.draw_phase_diagram.hull_rpc, request)
+        return r.Figure(r.version_used(reply.used), reply.chemical_system, tuple(reply.components),
+                        r.enum_token(wire.figures_pb2.FigureKind, reply.kind, "FIGURE_KIND_"), reply.svg,
+                        reply.stable_phase_count, reply.edge_count, reply.unstable_shown_count,
+                        reply.hidden_above_cutoff_count, reply.max_above_hull_ev_per_atom)
+
+    # --- DiagnosticsService -------------------------------------------------------------------------------------
+
+    @_calls("DiagnosticsService", "GetServerLimits")
+    def get_server_limits(self) -> r.ServerLimits:
+        m = self._call(self._diagnostics.GetServerLimits, self.get_server_limits.hull_rpc, wire.diagnostics_pb2.GetServerLimitsRequest())
+        return r.ServerLimits(m.max_components_per_system, m.max_entries_per_system, m.max_compositions_per_request,
+                              m.max_receive_message_bytes, m.max_send_message_bytes)
+
+    @_calls("DiagnosticsService", "GetCacheStatistics")
+    def get_cache_statistics(self) -> r.CacheStatistics:
+        m = self._call(self._diagnostics.GetCacheStatistics, self.get_cache_statistics.hull_rpc,
+                       wire.diagnostics_pb2.GetCacheStatisticsRequest())
+        return r.CacheStatistics(m.hull_builds, m.hull_cache_hits, m.version_loads, m.dataset_analyses, m.cached_hulls)
+
+    # --- WindowService ------------------------------------------------------------------------------------------
+
+    @_calls("WindowService", "GetStabilityWindow")
+    def get_stability_window(self, dataset: str, compound: str, *, version: int = 0,
+                             above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                             lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowAnswer:
+        """The chemical-potential window of a compound (a formula, or 'entry:ID')."""
+        reply = self._call(self._windows.GetStabilityWindow, self.get_stability_window.hull_rpc,
+                           wire.windows_pb2.GetStabilityWindowRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits)))
+        return r.WindowAnswer(r.version_used(reply.used), r.stability_window(reply.window, wire.windows_pb2))
+
+    @_calls("WindowService", "SliceStabilityWindow")
+    def slice_stability_window(self, dataset: str, compound: str, fixed_potentials: Mapping[str, float], *,
+                               version: int = 0, allow_above_reference: bool = False,
+                               above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                               lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowSlice:
+        """The window with some Δμ held fixed ({'O': -1.0}, eV); when it misses, the nearest window point."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials).items()]
+        reply = self._call(self._windows.SliceStabilityWindow, self.slice_stability_window.hull_rpc,
+                           wire.windows_pb2.SliceStabilityWindowRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits),
+                               fixed_potentials=fixed, allow_above_reference=allow_above_reference))
+        return r.WindowSlice(r.version_used(reply.used), r.stability_window(reply.whole, wire.windows_pb2),
+                             r.stability_window(reply.slice, wire.windows_pb2), reply.misses, tuple(reply.nearest_point_ev),
+                             reply.distance_ev if reply.HasField("distance_ev") else None)
+
+    @_calls("WindowService", "GetDopantLimits")
+    def get_dopant_limits(self, dataset: str, compound: str, dopants: Union[str, Iterable[str]], *, version: int = 0,
+                          above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                          lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.DopantLimits:
+        """The highest Δμ of each dopant that the host's window allows, per host vertex and overall."""
+        dopants = [dopants] if isinstance(dopants, str) else list(dopants)
+        reply = self._call(self._windows.GetDopantLimits, self.get_dopant_limits.hull_rpc,
+                           wire.windows_pb2.GetDopantLimitsRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits),
+                               dopants=dopants))
+        return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
+                              tuple(r.dopant_limit(m) for m in reply.limits))

@@ -1,0 +1,72 @@
+"""Figures as SVG text with save(), and chemical-potential windows: equal to the CLI's answers for the same
+requests, and each window vertex on the compound's own formation-energy plane worked here from the export."""
+
+import xml.etree.ElementTree as ET
+
+import pytest
+
+from conftest import DEMO_DATASET, cli_json, run_cli
+from reference_hull import formation_energies
+
+CATHODE = "ter-LiCoO2-r3m"
+TOLERANCE_EV = 1e-9  # as the hull checks: far above rounding, far below any physical difference (common practice)
+
+
+def test_a_ternary_figure_is_the_svg_the_cli_writes(client, server, demo, tmp_path):
+    figure = client.draw_phase_diagram(DEMO_DATASET, "Li-Co-O", max_above_hull_ev_per_atom=0.1)
+    assert figure.kind == "ternary" and set(figure.components) == {"Li", "Co", "O"}
+    assert figure.stable_phase_count > 3 and figure.edge_count >= figure.stable_phase_count - 1
+    saved = figure.save(tmp_path / "li-co-o.svg")
+    root = ET.parse(saved).getroot()
+    assert root.tag.endswith("svg")
+    cli_file = tmp_path / "cli.svg"
+    run_cli(server.url, "figure", DEMO_DATASET, "Li-Co-O", "--max-above-hull", "0.1", "--output", str(cli_file))
+    assert cli_file.read_text(encoding="utf-8") == figure.svg
+
+
+def test_a_quaternary_view_and_an_end_member_figure(client, demo):
+    quaternary = client.draw_phase_diagram(DEMO_DATASET, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15)
+    assert quaternary.kind == "quaternary"
+    pseudo = client.draw_phase_diagram(DEMO_DATASET, end_members=["LiCoO2", "LiNiO2", "LiMnO2"])
+    assert pseudo.kind == "ternary" and pseudo.components == ("LiCoO2", "LiNiO2", "LiMnO2")
+    assert pseudo._repr_svg_() == pseudo.svg
+
+
+def test_the_window_equals_the_cli_json_and_its_vertices_lie_on_the_compound_plane(client, server, demo):
+    answer = client.get_stability_window(DEMO_DATASET, f"entry:{CATHODE}")
+    window = answer.window
+    expected = cli_json(server.url, "window", DEMO_DATASET, CATHODE)["window"]
+    assert window.kind == "full" and window.dimension == int(expected["dimension"])
+    assert list(window.elements) == expected["elements"]
+    for (_, row), want in zip(window.vertices.iterrows(), expected["vertices"]):
+        assert [row[f"delta_mu_{e}_ev"] for e in window.elements] == [float(v) for v in want["chemical_potentials_ev"]]
+        assert row["limiting_phase_ids"] == tuple(want.get("limiting_phase_ids", []))
+        for volt in want.get("voltages", []):
+            assert row[f"volts_against_{volt['element']}_metal"] == volt["volts_against_metal"]
+    assert len(window.vertices) == len(expected["vertices"])
+
+    comp, per_atom = formation_energies(client.export_entries(DEMO_DATASET))[CATHODE]
+    per_formula_unit = per_atom * float(sum(comp.values()))
+    for _, row in window.vertices.iterrows():
+        # The window's defining equality: Σ n_i Δμ_i = the compound's formation energy per formula unit.
+        total = sum(float(comp[e]) * row[f"delta_mu_{e}_ev"] for e in window.elements)
+        assert total == pytest.approx(per_formula_unit, abs=TOLERANCE_EV)
+        assert all(row[f"delta_mu_{e}_ev"] <= TOLERANCE_EV for e in window.elements)
+    assert set(window.extremes.element) == set(window.elements)
+
+
+def test_a_slice_and_dopant_limits_equal_the_cli_json(client, server, demo):
+    sliced = client.slice_stability_window(DEMO_DATASET, f"entry:{CATHODE}", {"O": -1.0})
+    expected = cli_json(server.url, "window-slice", DEMO_DATASET, CATHODE, "--fix", "O=-1.0")
+    assert sliced.misses == expected.get("misses", False)
+    assert list(sliced.nearest_point_ev) == [float(v) for v in expected.get("nearest_point_ev", [])]
+    assert len(sliced.slice.vertices) == len(expected["slice"].get("vertices", []))
+
+    limits = client.get_dopant_limits(DEMO_DATASET, f"entry:{CATHODE}", "Al")
+    expected = cli_json(server.url, "dopant-limits", DEMO_DATASET, CATHODE, "Al")
+    (al,) = limits.limits
+    (want,) = expected["limits"]
+    assert al.dopant == "Al" and al.overall_max_ev == want["overall_max_ev"]
+    assert al.overall_limiting_phase_ids == tuple(want["overall_limiting_phase_ids"])
+    assert list(al.per_host_vertex.max_dopant_potential_ev) == [v["max_dopant_potential_ev"] for v in want["per_host_vertex"]]
+    assert len(limits.host.vertices) == len(expected["host"]["vertices"])
