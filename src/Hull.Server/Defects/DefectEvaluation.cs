@@ -204,6 +204,12 @@ public sealed class DefectEvaluation
             throw RpcErrors.InvalidArgument("conditions.gas.molecule_energy_ev", e.Message);
         }
 
+        if (!double.IsFinite(gas.PressureBar) || gas.PressureBar <= 0)
+        {
+            throw RpcErrors.InvalidArgument("conditions.gas.pressure_bar", string.Create(CultureInfo.InvariantCulture,
+                $"the pressure of {species.Formula} must be a positive number of bar, not {gas.PressureBar}"));
+        }
+
         ChemicalPotentialShift shift;
         try
         {
@@ -211,8 +217,8 @@ public sealed class DefectEvaluation
         }
         catch (ThermoInputException e)
         {
-            string field = e.Message.Contains("ressure", StringComparison.Ordinal) ? "conditions.gas.pressure_bar" : "conditions.gas.temperature_k";
-            throw RpcErrors.InvalidArgument(field, e.Message);
+            // The pressure and the reference are checked above, so what is left is the temperature.
+            throw RpcErrors.InvalidArgument("conditions.gas.temperature_k", e.Message);
         }
 
         var answer = new DefectGasPoint

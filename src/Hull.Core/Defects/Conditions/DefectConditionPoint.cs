@@ -6,7 +6,7 @@ namespace Hull.Core.Defects.Conditions;
 /// </summary>
 /// <param name="Point">Δμ of every element (host elements and dopants) and the point's label.</param>
 /// <param name="VertexNumber">1-based vertex number in the window or slice; 0 for a given point.</param>
-/// <param name="CoexistingPhaseIds">Phases the host coexists with here, sorted by id (elements at their reference included by their reference's id).</param>
+/// <param name="CoexistingPhaseIds">Competing phases at their formation limit here, sorted by id (elements at their reference are named in the label).</param>
 /// <param name="Dopants">Where each dopant's Δμ came from, in element order.</param>
 public sealed record DefectConditionPoint(
     ChemicalPotentialPoint Point,
