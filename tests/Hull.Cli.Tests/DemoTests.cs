@@ -28,6 +28,12 @@ public sealed class DemoTests
 
         Assert.Contains("on the LiCoO2-LiNiO2-LiMnO2 hull", run.Out);
         Assert.Contains("Li-Co-Ni-Mn-O is refused: InvalidArgument", run.Out);
+        Assert.Contains("11. Defects in the Al2O3 coating", run.Out);
+        Assert.Contains("(host entry coat-Al2O3-corundum)", run.Out);
+        Assert.Contains("Mg at its limit, set by dop-MgAl2O4-spinel", run.Out);
+        Assert.Contains("The study exports byte for byte as imported: yes", run.Out);
+        Assert.DoesNotContain("warning: the study's bulk", run.Out);
+        Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-formation-energies-O-rich.svg")));
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();

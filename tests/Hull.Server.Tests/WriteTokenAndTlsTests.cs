@@ -31,6 +31,7 @@ public sealed class WriteTokenAndTlsTests
                      async () => await wrong.Datasets.ImportEntriesAsync(Data.Batch("d", DuplicatePolicy.Reject, Data.Formation("x", "Li2O2", -1)), wrong.Call()),
                      async () => await wrong.Datasets.DeleteVersionAsync(new DeleteVersionRequest { Dataset = "d", Version = 1 }, wrong.Call()),
                      async () => await wrong.Datasets.DeleteDatasetAsync(new DeleteDatasetRequest { Name = "d" }, wrong.Call()),
+                     async () => await wrong.Defects.ImportDefectStudyAsync(new ImportDefectStudyRequest { Dataset = "d", StudyName = "s", StudyJson = "{}" }, wrong.Call()),
                  })
         {
             Assert.Equal(StatusCode.PermissionDenied, (await Assert.ThrowsAsync<RpcException>(call)).StatusCode);

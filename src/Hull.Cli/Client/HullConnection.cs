@@ -40,6 +40,7 @@ public sealed class HullConnection : IDisposable
         Windows = new WindowService.WindowServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
+        Defects = new DefectService.DefectServiceClient(_channel);
     }
 
     public Uri Address { get; }
@@ -55,6 +56,8 @@ public sealed class HullConnection : IDisposable
     public Health.HealthClient Health { get; }
 
     public FigureService.FigureServiceClient Figures { get; }
+
+    public DefectService.DefectServiceClient Defects { get; }
 
     /// <summary>Options for one call: the bearer token when given, the deadline, and cancellation.</summary>
     public CallOptions Call(CancellationToken cancellation)

@@ -31,6 +31,7 @@ public static class CommandTree
         foreach (Command windowCommand in WindowCommands.Build(wrap)) root.Subcommands.Add(windowCommand);
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
+        root.Subcommands.Add(DefectCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());

@@ -39,4 +39,11 @@ public static class DefectTolerances
     /// atoms ≥ 0.5 Å apart, so anything nearer is a misplaced defect position.
     /// </summary>
     public const double PointChargeSiteDistanceAngstrom = 1e-3;
+
+    /// <summary>
+    /// A given chemical-potential point may miss the host's formation energy, or exceed a competing phase's, by this
+    /// much (eV/atom) before a warning: a point typed to four decimals is within it, and a defect's energy moves by
+    /// less than 1e-3 eV for such a slip.
+    /// </summary>
+    public const double GivenPointOffPlaneEvPerAtom = 1e-4;
 }

@@ -137,6 +137,7 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton<VersionResolver>();
         builder.Services.AddSingleton<HullCache>();
         builder.Services.AddSingleton<ImportGate>();
+        builder.Services.AddSingleton<Defects.DefectStudyCache>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
         builder.Services.AddHostedService<ImportSessionSweeper>();
         builder.Services.AddGrpc(grpc =>
@@ -157,6 +158,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<DiagnosticsGrpcService>();
         app.MapGrpcService<FigureGrpcService>();
         app.MapGrpcService<WindowGrpcService>();
+        app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

@@ -23,6 +23,7 @@ public sealed class WriteTokenInterceptor : Interceptor
         "/hull.v1.DatasetService/CommitImport",
         "/hull.v1.DatasetService/CancelImport",
         "/hull.v1.DatasetService/DeleteVersion",
+        "/hull.v1.DefectService/ImportDefectStudy",
     };
 
     private const string Scheme = "Bearer ";

@@ -59,6 +59,31 @@ public sealed class ColourScienceTests
         }
     }
 
+    /// <summary>
+    /// The formation-energy figure's first four line colours (a study's native defects and a dopant, the usual size)
+    /// stay apart under every simulation; the dash patterns tell lines apart beyond that.
+    /// </summary>
+    [Fact]
+    public void Defect_line_colours_stay_apart_under_simulated_colour_vision_deficiencies()
+    {
+        const double minimumLineDifference = 20;
+        var simulations = new[] { ("normal", Normal), ("protanopia", Protanopia), ("deuteranopia", Deuteranopia), ("tritanopia", Tritanopia) };
+        string[] colours = [.. DefectLineStyles.All.Take(4)];
+        foreach ((string name, double[,] matrix) in simulations)
+        {
+            for (int i = 0; i < colours.Length; i++)
+            {
+                for (int j = i + 1; j < colours.Length; j++)
+                {
+                    double d = Ciede2000(Lab(Simulate(colours[i], matrix)), Lab(Simulate(colours[j], matrix)));
+                    Assert.True(d >= minimumLineDifference, $"{colours[i]} and {colours[j]} differ by ΔE00 {d:F1} under {name}");
+                }
+            }
+        }
+
+        Assert.Equal(DefectLineStyles.All.Count, DefectLineStyles.All.Distinct().Count());
+    }
+
     [Fact]
     public void Above_hull_scale_lightness_rises_steadily()
     {

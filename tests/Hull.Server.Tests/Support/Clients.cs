@@ -22,6 +22,7 @@ public sealed class Clients : IDisposable
         Figures = new FigureService.FigureServiceClient(Channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(Channel);
         Windows = new WindowService.WindowServiceClient(Channel);
+        Defects = new DefectService.DefectServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -35,6 +36,8 @@ public sealed class Clients : IDisposable
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
 
     public WindowService.WindowServiceClient Windows { get; }
+
+    public DefectService.DefectServiceClient Defects { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>

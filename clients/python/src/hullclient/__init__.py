@@ -11,6 +11,7 @@ carrying the server's reason code and field violations.
 """
 
 from hullclient.client import CoverageWarning, HullClient, SystemProblemWarning
+from hullclient.defects import DefectWarning
 from hullclient.entries import read_entries, write_entries
 from hullclient.errors import (
     AlreadyExistsError,
@@ -34,6 +35,7 @@ __all__ = [
     "AlreadyExistsError",
     "CoverageWarning",
     "DeadlineExceededError",
+    "DefectWarning",
     "EntryInputError",
     "FailedPreconditionError",
     "FieldViolation",

@@ -5,6 +5,8 @@ try:
     from hullclient._wire.hull.v1 import (
         datasets_pb2,
         datasets_pb2_grpc,
+        defects_pb2,
+        defects_pb2_grpc,
         diagnostics_pb2,
         diagnostics_pb2_grpc,
         entries_pb2,
@@ -22,12 +24,14 @@ except ImportError as error:  # pragma: no cover - only without a generation
     ) from error
 
 # Every generated module that declares services: the client-coverage test reads their descriptors.
-SERVICE_MODULES = (datasets_pb2, diagnostics_pb2, figures_pb2, stability_pb2, windows_pb2)
+SERVICE_MODULES = (datasets_pb2, defects_pb2, diagnostics_pb2, figures_pb2, stability_pb2, windows_pb2)
 
 __all__ = [
     "SERVICE_MODULES",
     "datasets_pb2",
     "datasets_pb2_grpc",
+    "defects_pb2",
+    "defects_pb2_grpc",
     "diagnostics_pb2",
     "diagnostics_pb2_grpc",
     "entries_pb2",

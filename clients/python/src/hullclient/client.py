@@ -16,6 +16,7 @@ from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Union
 import grpc
 import pandas as pd
 
+from hullclient import defects as d
 from hullclient import entries as entry_input
 from hullclient import results as r
 from hullclient import _stubs as wire
@@ -167,6 +168,7 @@ class HullClient:
         self._figures = wire.figures_pb2_grpc.FigureServiceStub(self._channel)
         self._diagnostics = wire.diagnostics_pb2_grpc.DiagnosticsServiceStub(self._channel)
         self._windows = wire.windows_pb2_grpc.WindowServiceStub(self._channel)
+        self._defects = wire.defects_pb2_grpc.DefectServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -614,3 +616,98 @@ class HullClient:
                                dopants=dopants))
         return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
                               tuple(r.dopant_limit(m) for m in reply.limits))
+
+    # --- DefectService ------------------------------------------------------------------------------------------
+
+    def _defect_warnings(self, texts):
+        for text in texts:
+            warnings.warn(d.DefectWarning(text), stacklevel=3)
+
+    @_calls("DefectService", "ImportDefectStudy")
+    def import_defect_study(self, dataset: str, study_name: str, study_json, charge_states_csv, *,
+                            source_label: str = "", note: str = "") -> d.DefectStudyImport:
+        """Stores a study file (the JSON document and the charge-state CSV, as text or as paths) as the next version
+        of `study_name`, checked first against the dataset's latest version."""
+        texts = []
+        for given in (study_json, charge_states_csv):
+            if isinstance(given, Path) or (isinstance(given, str) and "\n" not in given and Path(given).is_file()):
+                with open(given, encoding="utf-8", newline="") as f:
+                    texts.append(f.read())
+            else:
+                texts.append(str(given))
+        reply = self._call(self._defects.ImportDefectStudy, self.import_defect_study.hull_rpc,
+                           wire.defects_pb2.ImportDefectStudyRequest(dataset=dataset, study_name=study_name, study_json=texts[0],
+                                                                     charge_states_csv=texts[1], source_label=source_label, note=note))
+        self._defect_warnings(reply.warnings)
+        return d.DefectStudyImport(d.study_info(reply.study), d.defects_frame(reply.defects), tuple(reply.warnings))
+
+    @_calls("DefectService", "ListDefectStudies")
+    def list_defect_studies(self, dataset: str) -> pd.DataFrame:
+        """The dataset's study names with their latest versions."""
+        reply = self._call(self._defects.ListDefectStudies, self.list_defect_studies.hull_rpc,
+                           wire.defects_pb2.ListDefectStudiesRequest(dataset=dataset))
+        return pd.DataFrame([{"study_name": s.study_name, "latest_version": s.latest_version} for s in reply.studies],
+                            columns=["study_name", "latest_version"])
+
+    @_calls("DefectService", "ExportDefectStudy")
+    def export_defect_study(self, dataset: str, study_name: str, study_version: int = 0) -> d.DefectStudyExport:
+        """A study version's texts exactly as imported (0 = the latest)."""
+        reply = self._call(self._defects.ExportDefectStudy, self.export_defect_study.hull_rpc,
+                           wire.defects_pb2.ExportDefectStudyRequest(dataset=dataset, study_name=study_name, study_version=study_version))
+        return d.DefectStudyExport(d.study_info(reply.study), reply.study_json, reply.charge_states_csv)
+
+    @_calls("DefectService", "GetDefectFormationEnergies")
+    def get_defect_formation_energies(self, dataset: str, study_name: str, *, version: int = 0, study_version: int = 0,
+                                      vertex=None, point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
+                                      fermi_levels_ev: Iterable[float] = (), defects: Iterable[str] = (),
+                                      host_entry_id: str = "") -> pd.DataFrame:
+        """Formation energies of every charge state, one row per point, defect, charge and Fermi level (eV above the
+        VBM; default 0), every term in its own column. Points: every vertex of the host's window (default), one
+        `vertex` (number or name), a `point` {'Al': ..., 'O': ...}, or a `gas` {'gas': 'O2', 'temperature_k': ...,
+        'pressure_bar': ...}. attrs: used, study, host_entry_id, points, corrections (a DataFrame), gas, warnings."""
+        request = wire.defects_pb2.GetDefectFormationEnergiesRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version,
+            fermi_levels_ev=[float(x) for x in fermi_levels_ev], defects=list(defects), host_entry_id=host_entry_id)
+        chosen = d.conditions(vertex, point, gas)
+        if chosen is not None:
+            request.conditions.CopyFrom(chosen)
+        reply = self._call(self._defects.GetDefectFormationEnergies, self.get_defect_formation_energies.hull_rpc, request)
+        self._defect_warnings(reply.warnings)
+        return d.energies_frame(reply)
+
+    @_calls("DefectService", "GetChargeTransitionLevels")
+    def get_charge_transition_levels(self, dataset: str, study_name: str, *, version: int = 0, study_version: int = 0,
+                                     vertex=None, point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
+                                     defects: Iterable[str] = (), host_entry_id: str = "") -> d.TransitionLevels:
+        """Transition levels (thermodynamic and between non-ground states), effective U and complex binding energies;
+        the formation energy at each level is at one point (default: the window's first vertex)."""
+        request = wire.defects_pb2.GetChargeTransitionLevelsRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version, defects=list(defects),
+            host_entry_id=host_entry_id)
+        chosen = d.conditions(vertex, point, gas)
+        if chosen is not None:
+            request.conditions.CopyFrom(chosen)
+        reply = self._call(self._defects.GetChargeTransitionLevels, self.get_charge_transition_levels.hull_rpc, request)
+        self._defect_warnings(reply.warnings)
+        return d.levels(reply)
+
+    @_calls("DefectService", "DrawDefectFormationFigure")
+    def draw_defect_formation_figure(self, dataset: str, study_name: str, *, version: int = 0, study_version: int = 0,
+                                     vertex=None, point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
+                                     defects: Iterable[str] = (), host_entry_id: str = "",
+                                     fermi_min_ev: Optional[float] = None, fermi_max_ev: Optional[float] = None) -> d.DefectFigure:
+        """Formation energy against Fermi level at one point (default: the window's first vertex), as SVG."""
+        request = wire.defects_pb2.DrawDefectFormationFigureRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version, defects=list(defects),
+            host_entry_id=host_entry_id)
+        chosen = d.conditions(vertex, point, gas)
+        if chosen is not None:
+            request.conditions.CopyFrom(chosen)
+        if fermi_min_ev is not None:
+            request.fermi_min_ev = fermi_min_ev
+        if fermi_max_ev is not None:
+            request.fermi_max_ev = fermi_max_ev
+        reply = self._call(self._defects.DrawDefectFormationFigure, self.draw_defect_formation_figure.hull_rpc, request)
+        self._defect_warnings(reply.warnings)
+        return d.DefectFigure(r.version_used(reply.used), d.study_info(reply.study), d.point(reply.point), reply.svg,
+                              reply.defect_count, reply.marked_level_count, tuple(reply.warnings))
