@@ -85,7 +85,8 @@ public static class InsertionVoltages
 
         double inserted = plateaus[^1].IonsPerHostTo - x0;
         double average = plateaus.Sum(p => p.VoltsAgainstMetal * p.IonsPerHostWidth) / plateaus.Sum(p => p.IonsPerHostWidth);
-        Composition full = host + Composition.FromAmounts((ion, insertedExact));
+        // The ion first, as the trade writes inserted hosts (Li0.5CoO2).
+        Composition full = Composition.FromAmounts((ion, insertedExact)) + host;
         double perHost = Capacity(z, inserted, host);
         double perFull = Capacity(z, inserted, full);
         return new VoltageProfile(
