@@ -27,7 +27,7 @@ public sealed record IonStabilityWindow(
     public bool Exists => HighestIonPotentialEvPerAtom is not null;
 
     /// <summary>The lowest voltage against A metal at which the phase is stable (V).</summary>
-    public double? ReductionLimitVolts => HighestIonPotentialEvPerAtom is { } mu ? -mu / ChargeNumber : null;
+    public double? ReductionLimitVolts => HighestIonPotentialEvPerAtom is { } mu ? 0.0 - (mu / ChargeNumber) : null; // 0.0 − : never −0 V
 
     /// <summary>The highest voltage against A metal at which the phase is stable (V); null: no upper limit in this system.</summary>
     public double? OxidationLimitVolts => LowestIonPotentialEvPerAtom is { } mu ? -mu / ChargeNumber : null;

@@ -46,6 +46,10 @@ public static class IonStabilityWindows
         bool hasClosedAtoms = phase.Composition.Elements.Any(e => !string.Equals(e, ion, StringComparison.Ordinal));
         // A window that reaches Δμ_A = 0 ends at the ion's own metal (0 V), not at a reaction of the phase.
         bool toMetal = highest >= -Geometry.HullTolerances.EnergyEvPerAtom;
+        if (toMetal)
+        {
+            highest = 0.0;
+        }
         Decomposition? reduced = hasClosedAtoms && !toMetal ? Beyond(hull, phase, ion, highest) : null;
         Decomposition? oxidised = hasClosedAtoms && low is { } l ? Beyond(hull, phase, ion, l) : null;
         return new IonStabilityWindow(phase, ion, z, highest, low, reduced, oxidised);
