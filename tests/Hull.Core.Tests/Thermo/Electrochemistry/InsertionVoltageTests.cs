@@ -67,6 +67,21 @@ public sealed class InsertionVoltageTests
         Assert.Equal(2.0, plateau.IonsPerHostTo, 12);
     }
 
+    /// <summary>
+    /// A divalent ion, hand-worked: Mg2Sn at −1.0 eV per formula unit gives one plateau 0 ≤ x ≤ 2 with slope −0.5 eV
+    /// per Mg, so V = 0.5/2 = 0.25 V (z = 2 for Mg, common practice), and the capacity counts two electrons per Mg.
+    /// </summary>
+    [Fact]
+    public void Magnesium_counts_two_electrons()
+    {
+        PhaseEntry[] entries = [Formation("Mg", "Mg", 0), Formation("Sn", "Sn", 0), Formation("Mg2Sn", "Mg2Sn", -1.0)];
+        VoltageProfile profile = InsertionVoltages.Profile(SystemHull.OverElements(entries), Composition.Parse("Sn"), "Mg");
+        Assert.Equal(2, profile.ChargeNumber);
+        Assert.Equal(0.25, Assert.Single(profile.Plateaus).VoltsAgainstMetal, 12);
+        Assert.Equal(InsertionVoltages.Capacity(1, 4.0, Composition.Parse("Sn")), profile.CapacityPerHostMassMilliampHoursPerGram, 9);
+        Assert.Equal(0.125, InsertionVoltages.Profile(SystemHull.OverElements(entries), Composition.Parse("Sn"), "Mg", chargeNumber: 4).Plateaus[0].VoltsAgainstMetal, 12);
+    }
+
     /// <summary>LiCoO2 at Δx = 1: 273.8 mAh/g per mass of LiCoO2 and 294.7 per mass of CoO2 (common practice, from the molar masses).</summary>
     [Fact]
     public void Lithium_cobalt_oxide_theoretical_capacity()
