@@ -141,6 +141,41 @@ public sealed class InsertionVoltageTests
         }
     }
 
+    /// <summary>
+    /// On total energies: the LP over total energies per atom has the absolute μ_Li as its dual y_Li, and each
+    /// plateau's voltage is −(y_Li − E_Li)/z with E_Li lithium's reference energy per atom (common practice).
+    /// </summary>
+    [Fact]
+    public void Plateau_voltage_is_minus_the_scipy_dual_less_the_metal_energy_on_total_energies()
+    {
+        var references = new Dictionary<string, double> { ["Fe"] = -8.3, ["Li"] = -1.9, ["Mn"] = -9.0, ["O"] = -4.9 };
+        PhaseEntry[] totals = DecompositionEnergyReferenceTests.RandomQuaternary(seed: 54, compounds: 200).Select(e =>
+        {
+            double perUnit = (e.EnergyEv * e.Composition.AtomsPerFormulaUnit.ToDouble())
+                + e.Composition.Elements.Sum(s => e.Composition.AmountOf(s).ToDouble() * references[s]);
+            return new PhaseEntry(e.Id, e.Composition, perUnit, EnergyBasis.TotalPerFormulaUnit);
+        }).ToArray();
+        SystemHull hull = SystemHull.OverElements(totals, new ElementalReferences(references));
+        Composition host = Composition.Parse("FeMnO4");
+        VoltageProfile profile = InsertionVoltages.Profile(hull, host, "Li");
+        Assert.True(profile.Plateaus.Count >= 2);
+
+        string[] components = [.. hull.Components];
+        double[][] queries = profile.Plateaus.Select(p =>
+        {
+            double mid = (p.IonsPerHostFrom + p.IonsPerHostTo) / 2;
+            double[] amounts = components.Select(c => host.AmountOf(c).ToDouble() + (c == "Li" ? mid : 0)).ToArray();
+            return amounts.Select(a => a / amounts.Sum()).ToArray();
+        }).ToArray();
+        long[][] amounts = totals.Select(e => components.Select(c => (long)e.Composition.AmountOf(c).ToDouble()).ToArray()).ToArray();
+        IReadOnlyList<HullLpAnswer> lp = ScipyLpRunner.Solve(new HullLpProblem(amounts, totals.Select(e => e.EnergyEvPerAtom).ToArray(), queries));
+        int li = Array.IndexOf(components, "Li");
+        for (int k = 0; k < profile.Plateaus.Count; k++)
+        {
+            Assert.Equal(-(lp[k].Duals![li] - references["Li"]) / 1, profile.Plateaus[k].VoltsAgainstMetal, 1e-7);
+        }
+    }
+
     [Fact]
     public void Bad_input_names_what_and_where()
     {
