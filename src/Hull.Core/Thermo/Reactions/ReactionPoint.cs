@@ -1,5 +1,4 @@
 using Hull.Core.Chemistry;
-using Hull.Core.Thermo.Lines;
 
 namespace Hull.Core.Thermo.Reactions;
 
@@ -19,6 +18,3 @@ public sealed record ReactionPoint(
     double ReactionEnergyEvPerAtom,
     double ReactionEnergyEvPerFormulaUnit,
     IReadOnlyList<ReactionProduct> Products);
-
-/// <summary>A product of a reaction, in formula units (as written) per atom of mixture.</summary>
-public sealed record ReactionProduct(HullPhase Phase, Rational FormulaUnitsPerMixtureAtom);
