@@ -80,6 +80,15 @@ public sealed class ElectrochemistryServiceTests : IAsyncLifetime
         Assert.Equal(["Fe", "LiF"], best.Products.Select(p => p.Phase.PhaseId));
         Assert.Contains("kind=\"reaction-profile\"", r.FigureSvg);
 
+        // With F open the reaction is counted per closed-element atom (Li, Fe).
+        var withOpen = reaction.Clone();
+        withOpen.IncludeFigure = false;
+        withOpen.OpenElements.Add(new OpenElementPotential { Element = "F", ChemicalPotentialEvPerAtom = -3.5 });
+        GetReactionProfileResponse open = await Ec.GetReactionProfileAsync(withOpen, C.Call());
+        Assert.Equal("eV per closed-element atom", open.EnergyUnit);
+        Assert.Equal("Fe-Li", open.ChemicalSystem);
+        Assert.Contains("F open at -3.5", open.EnergyAxis);
+
         GetElectrochemicalWindowResponse w = await Ec.GetElectrochemicalWindowAsync(
             new GetElectrochemicalWindowRequest { Dataset = "f", Phase = new CompoundRef { EntryId = "FeF2" }, Ion = "Li" }, C.Call());
         Assert.True(w.Exists);
