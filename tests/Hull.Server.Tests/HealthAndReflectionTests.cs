@@ -42,6 +42,7 @@ public sealed class HealthAndReflectionTests
         Assert.Contains("hull.v1.DatasetService", services);
         Assert.Contains("hull.v1.StabilityService", services);
         Assert.Contains("hull.v1.DiagnosticsService", services);
+        Assert.Contains("hull.v1.ElectrochemistryService", services);
         Assert.Contains("grpc.health.v1.Health", services);
 
         await call.RequestStream.WriteAsync(new ServerReflectionRequest { FileContainingSymbol = "hull.v1.StabilityService" });

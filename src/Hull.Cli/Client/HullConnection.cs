@@ -38,6 +38,7 @@ public sealed class HullConnection : IDisposable
         Stability = new StabilityService.StabilityServiceClient(_channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
         Windows = new WindowService.WindowServiceClient(_channel);
+        Electrochemistry = new ElectrochemistryService.ElectrochemistryServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
@@ -52,6 +53,8 @@ public sealed class HullConnection : IDisposable
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
 
     public WindowService.WindowServiceClient Windows { get; }
+
+    public ElectrochemistryService.ElectrochemistryServiceClient Electrochemistry { get; }
 
     public Health.HealthClient Health { get; }
 

@@ -29,6 +29,7 @@ public static class CommandTree
         root.Subcommands.Add(StableCommand(wrap));
         root.Subcommands.Add(FacetsCommand(wrap));
         foreach (Command windowCommand in WindowCommands.Build(wrap)) root.Subcommands.Add(windowCommand);
+        foreach (Command electrochemistryCommand in ElectrochemistryCommands.Build(wrap)) root.Subcommands.Add(electrochemistryCommand);
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));

@@ -116,13 +116,8 @@ public static class WindowCommands
 
     internal static FixedPotential ParseFixed(string text)
     {
-        int eq = text.IndexOf('=');
-        if (eq <= 0 || !double.TryParse(text[(eq + 1)..], NumberStyles.Float, CultureInfo.InvariantCulture, out double value))
-        {
-            throw new UsageException($"--fix '{text}' is not ELEMENT=EV (e.g. O=-1.5)");
-        }
-
-        return new FixedPotential { Element = text[..eq].Trim(), ChemicalPotentialEv = value };
+        (string element, double value) = ElectrochemistryCommands.ParseElementValue(text, "--fix", "O=-1.5");
+        return new FixedPotential { Element = element, ChemicalPotentialEv = value };
     }
 
     internal static string Caption(VersionUsed used, StabilityWindow w)

@@ -1,5 +1,3 @@
-using Hull.Core.Chemistry;
-
 namespace Hull.Core.Thermo;
 
 /// <summary>
@@ -27,26 +25,10 @@ public static class GrandPotentialEntries
         var placed = new List<HullAxisEntry>(entries.Count);
         for (int row = 0; row < entries.Count; row++)
         {
-            Composition composition = entries[row].Composition;
-            double perFormulaUnit = formation.FormationEnergiesEvPerAtom[row] * composition.AtomsPerFormulaUnit.ToDouble();
-            double closedAtoms = 0.0;
-            foreach (string symbol in composition.Elements)
+            double formationEvPerAtom = formation.FormationEnergiesEvPerAtom[row];
+            if (OpenElementHull.GrandPotentialEvPerClosedAtom(entries[row].Composition, formationEvPerAtom, axis) is { } phi)
             {
-                double amount = composition.AmountOf(symbol).ToDouble();
-                OpenElement? open = axis.OpenElements.FirstOrDefault(o => string.Equals(o.Symbol, symbol, StringComparison.Ordinal));
-                if (open is null)
-                {
-                    closedAtoms += amount;
-                }
-                else
-                {
-                    perFormulaUnit -= amount * open.ChemicalPotentialEvPerAtom;
-                }
-            }
-
-            if (closedAtoms > 0)
-            {
-                placed.Add(new HullAxisEntry(entries[row], perFormulaUnit / closedAtoms, formation.FormationEnergiesEvPerAtom[row]));
+                placed.Add(new HullAxisEntry(entries[row], phi, formationEvPerAtom));
             }
         }
 

@@ -136,6 +136,7 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton(new CacheSettings(options.MaxCachedHulls));
         builder.Services.AddSingleton<VersionResolver>();
         builder.Services.AddSingleton<HullCache>();
+        builder.Services.AddSingleton<CompoundResolution>();
         builder.Services.AddSingleton<ImportGate>();
         builder.Services.AddSingleton<Defects.DefectStudyCache>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
@@ -159,6 +160,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<FigureGrpcService>();
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
+        app.MapGrpcService<ElectrochemistryGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

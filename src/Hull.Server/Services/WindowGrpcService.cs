@@ -14,7 +14,7 @@ namespace Hull.Server.Services;
 /// The window service: resolves the compound in the dataset version, takes its system's hull (and for dopants the
 /// extended system's) from the cache and translates the science layer's windows, slices and dopant limits.
 /// </summary>
-public sealed class WindowGrpcService(VersionResolver versions, HullCache cache) : WindowService.WindowServiceBase
+public sealed class WindowGrpcService(CompoundResolution compounds) : WindowService.WindowServiceBase
 {
     public override async Task<GetStabilityWindowResponse> GetStabilityWindow(GetStabilityWindowRequest request, ServerCallContext context)
     {
@@ -120,58 +120,13 @@ public sealed class WindowGrpcService(VersionResolver versions, HullCache cache)
     /// <summary>The version, the hull of the compound's elements, the entry id and its row.</summary>
     private async Task<(VersionSnapshot, CachedHull, string, int)> ResolveAsync(string dataset, long version, CompoundRef? compound, ServerCallContext context)
     {
-        if (compound is null || compound.WhichCase == CompoundRef.WhichOneofCase.None)
-        {
-            throw RpcErrors.InvalidArgument("compound", "no compound given; name an entry id or a formula");
-        }
-
-        Composition? parsed = null;
-        if (compound.WhichCase == CompoundRef.WhichOneofCase.Formula
-            && !Composition.TryParse(compound.Formula, out parsed, out FormulaParseException? error))
-        {
-            throw RpcErrors.InvalidArgument("compound.formula", error.Message);
-        }
-
-        VersionRef resolved = versions.Resolve(dataset, version);
-        VersionSnapshot snapshot = await cache.GetSnapshotAsync(resolved, context.CancellationToken);
-        string where = $"dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}";
-        if (compound.WhichCase == CompoundRef.WhichOneofCase.EntryId)
-        {
-            if (!snapshot.TryFind(compound.EntryId, out int row))
-            {
-                throw RpcErrors.NotFound($"entry '{compound.EntryId}' is not in {where}", "compound.entry_id");
-            }
-
-            CachedHull hull = await HullAsync(snapshot, snapshot.Entries[row].Composition.Elements, context);
-            return (snapshot, hull, compound.EntryId, row);
-        }
-
-        CachedHull byFormula = await HullAsync(snapshot, parsed!.Elements, context);
-        Core.Thermo.EntryStability? lowest = byFormula.Hull.Entries
-            .Where(e => e.Composition.HasSameProportions(parsed))
-            .OrderBy(e => e.FormationEnergyEvPerAtom)
-            .ThenBy(e => e.Id, StringComparer.Ordinal)
-            .FirstOrDefault();
-        if (lowest is null || !snapshot.TryFind(lowest.Id, out int found))
-        {
-            throw RpcErrors.NotFound($"no entry of composition {parsed.Formula} in {where}", "compound.formula");
-        }
-
-        return (snapshot, byFormula, lowest.Id, found);
+        VersionSnapshot snapshot = await compounds.SnapshotAsync(dataset, version, context);
+        (CachedHull hull, string id, int row) = await compounds.ResolveAsync(snapshot, compound, "compound", context);
+        return (snapshot, hull, id, row);
     }
 
-    private async Task<CachedHull> HullAsync(VersionSnapshot snapshot, IReadOnlyList<string> elements, ServerCallContext context)
-    {
-        try
-        {
-            return await cache.GetHullAsync(snapshot, elements.Order(StringComparer.Ordinal).ToArray(), context.CancellationToken);
-        }
-        catch (ThermoInputException e) when (e.Element is not null)
-        {
-            throw RpcErrors.FailedPrecondition(
-                $"the hull of {string.Join('-', elements.Order(StringComparer.Ordinal))} cannot be built (missing elemental reference for {e.Element}): {e.Message}");
-        }
-    }
+    private Task<CachedHull> HullAsync(VersionSnapshot snapshot, IReadOnlyList<string> elements, ServerCallContext context) =>
+        compounds.HullAsync(snapshot, elements, context);
 
     /// <summary>Runs the science layer's call and turns its input errors into INVALID_ARGUMENT or NOT_FOUND naming the field.</summary>
     private static T Answer<T>(Func<T> call, Func<string?, string>? fieldOf = null)
