@@ -13,6 +13,8 @@ namespace Hull.Store;
 // moment it commits; version numbers follow commit order. Under Reject, an id that another session committed in
 // the meantime fails the later commit (nothing written, the session stays open to be cancelled or to lapse).
 // Repeated and already-stored ids are found at the commit, which names the row by its place in the session.
+// The server checks the staged rows (ReadStagedImport) before the commit; the commit takes the count it checked and
+// refuses when a batch was staged since, so no row reaches a version unchecked.
 public sealed partial class DatasetStore
 {
     /// <summary>
@@ -104,6 +106,28 @@ public sealed partial class DatasetStore
     }
 
     /// <summary>
+    /// The open session with every row staged so far, in staging order (row i is <c>staged[i]</c> in errors), so that
+    /// the server can check them as one batch before <see cref="CommitImport"/>.
+    /// </summary>
+    /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
+    public StagedImport ReadStagedImport(string sessionId)
+    {
+        ArgumentNullException.ThrowIfNull(sessionId);
+        DateTimeOffset now = _clock.GetUtcNow();
+        return Read((connection, transaction) =>
+        {
+            OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            using SqliteCommand select = connection.Command(transaction,
+                $"SELECT entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} ORDER BY rowid");
+            using SqliteDataReader reader = select.ExecuteReader();
+            var rows = new List<EntryRow>(checked((int)session.StagedCount));
+            while (reader.Read()) rows.Add(ReadEntry(reader));
+            return new StagedImport(
+                new ImportSessionInfo(sessionId, session.DatasetName, session.Policy, session.StagedCount, session.ExpiresAtUtc), rows);
+        });
+    }
+
+    /// <summary>
     /// Writes every staged row of the session as one new version (latest issued version + 1) and closes the session,
     /// in one transaction. A refusal writes nothing and leaves the session open.
     /// </summary>
@@ -111,7 +135,11 @@ public sealed partial class DatasetStore
     /// <exception cref="DuplicateEntryException">An id staged twice, or under Reject one the latest version holds; the row
     /// index is the row's 0-based place in the whole session.</exception>
     /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
-    public ImportResult CommitImport(string sessionId)
+    /// <exception cref="ImportSessionChangedException">The session no longer holds <paramref name="checkedStagedCount"/> rows.</exception>
+    /// <param name="sessionId">The session to commit.</param>
+    /// <param name="checkedStagedCount">How many rows the caller checked (from <see cref="ReadStagedImport"/>); a batch
+    /// staged since then would be written unchecked, so the commit is refused. Null commits whatever is staged.</param>
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -119,6 +147,10 @@ public sealed partial class DatasetStore
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             if (session.StagedCount == 0) throw new InvalidBatchException($"import session '{sessionId}' has no staged entries; stage at least one before committing");
+            if (checkedStagedCount is long expected && expected != session.StagedCount)
+            {
+                throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
+            }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
@@ -228,7 +260,8 @@ public sealed partial class DatasetStore
     });
 
     private sealed record OpenSession(
-        long Key, long DatasetId, string DatasetName, long LastVersionIssued, DuplicatePolicy Policy, BatchProvenance Provenance, long StagedCount);
+        long Key, long DatasetId, string DatasetName, long LastVersionIssued, DuplicatePolicy Policy, BatchProvenance Provenance, long StagedCount,
+        DateTimeOffset ExpiresAtUtc);
 
     private const string StagingPrefix = "staged_";
 
@@ -247,7 +280,7 @@ public sealed partial class DatasetStore
         if (!reader.Read()) throw new ImportSessionNotFoundException(sessionId, expired: false);
         if (reader.GetInt64(8) <= now.ToUnixTimeMilliseconds()) throw new ImportSessionNotFoundException(sessionId, expired: true);
         return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), ParsePolicy(reader.GetString(4)),
-            new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7));
+            new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7), DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)));
     }
 
     /// <summary>Which staged row broke the open-row index: the first repeat inside the session, else the first stored id.</summary>

@@ -108,6 +108,26 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task A_session_import_refused_at_its_commit_names_the_file_line_and_makes_no_version()
+    {
+        // One row per batch, so the import is a session and the range rule for the total energy is met at the commit:
+        // -2e4 eV per formula unit of MgO against these references implies about -1e4 eV/atom of formation energy.
+        string file = File("totals.csv", """
+            id,formula,energy_ev,basis
+            O2,O2,-4.93,total_per_atom
+            Mg,Mg,-1.54,total_per_atom
+            bad,MgO,-20000,total_per_formula_unit
+            """);
+        var run = await CliRun.RunAsync("import", "totals", file, "--create", "--batch-size", "1", "--server", Server);
+
+        Assert.Equal(ExitCodes.Rejected, run.ExitCode);
+        Assert.Contains("totals.csv line 4 (id 'bad'), energy_ev: id 'bad' (MgO): formation energy", run.Err);
+        var show = await CliRun.RunAsync("versions", "list", "totals", "--json", "--server", Server);
+        Assert.Equal(0, show.ExitCode);
+        Assert.DoesNotContain("\"version\"", show.Out);
+    }
+
+    [Fact]
     public async Task Export_round_trips_through_import_to_the_same_content()
     {
         string file = File("licoo.csv", LiCoO);

@@ -31,8 +31,10 @@ public static class ImportReferenceCheck
     /// <param name="policy">The batch's duplicate policy (under replace, its rows supersede stored ones of the same id).</param>
     /// <param name="ledger">The base version's pure-element total-energy entries.</param>
     /// <param name="baseEntries">Reads the base version's entries; called only when the batch changes a reference.</param>
+    /// <param name="rowsField">What the violations call the rows: "entries" for a request's, "staged" for a session's at commit.</param>
     public static async Task<(IReadOnlyList<FieldViolation> Violations, ReferenceLedger Next)> CheckAsync(
-        IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, ReferenceLedger ledger, Func<Task<IReadOnlyList<PhaseEntry>>> baseEntries)
+        IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, ReferenceLedger ledger, Func<Task<IReadOnlyList<PhaseEntry>>> baseEntries,
+        string rowsField = "entries")
     {
         var batch = new PhaseEntry[rows.Count];
         for (int i = 0; i < rows.Count; i++)
@@ -60,8 +62,8 @@ public static class ImportReferenceCheck
         {
             if (ImpliedFormation(batch[i], next) is double formation && !FormationEnergyRange.Contains(formation))
             {
-                violations.Add(new($"entries[{i}].energy_ev",
-                    $"id '{batch[i].Id}': {FormationEnergyRange.Describe(formation)}, implied by its total energy and the references "
+                violations.Add(new($"{rowsField}[{i}].energy_ev",
+                    $"id '{batch[i].Id}' ({rows[i].Formula}): {FormationEnergyRange.Describe(formation)}, implied by its total energy and the references "
                     + $"{DescribeReferences(batch[i], next)}; check the number and its energy basis"));
             }
         }
@@ -91,7 +93,7 @@ public static class ImportReferenceCheck
                 string element = batch[cause].Composition.Elements.Count == 1 ? batch[cause].Composition.Elements[0] : "its element";
                 ElementReference? now = changed.Values.FirstOrDefault(c => c.CauseRow == cause).Reference;
                 string setTo = now is null ? "leaves no reference" : $"sets the {element} reference to {FormationEnergyRange.Show(now.TotalEnergyEvPerAtom)} eV/atom";
-                violations.Add(new($"entries[{cause}].energy_ev",
+                violations.Add(new($"{rowsField}[{cause}].energy_ev",
                     $"id '{batch[cause].Id}' {setTo}, which puts stored entries outside the accepted ±{FormationEnergyRange.MaxMagnitudeEvPerAtom:0} eV/atom "
                     + $"formation energy: {string.Join(", ", named)}; check the number, or replace those entries in the same import"));
             }
