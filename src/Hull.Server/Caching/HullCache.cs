@@ -177,7 +177,9 @@ public sealed class HullCache
             if (excess <= 0) return;
             // Drop a tenth more than needed so that eviction runs rarely rather than on every insertion.
             int drop = Math.Min(slots.Count - 1, excess + capacity / 10);
-            foreach (KeyValuePair<TKey, Slot<T>> old in slots.OrderBy(p => p.Value.LastUse).Take(drop).ToArray())
+            // The dictionary's own ToArray takes a snapshot under its locks. LINQ over the dictionary would read its
+            // count and then copy, and a slot another query adds in between (adds do not take this lock) fails the copy.
+            foreach (KeyValuePair<TKey, Slot<T>> old in slots.ToArray().OrderBy(p => p.Value.LastUse).Take(drop))
             {
                 slots.TryRemove(old);
             }
