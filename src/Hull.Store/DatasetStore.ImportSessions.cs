@@ -106,22 +106,35 @@ public sealed partial class DatasetStore
     }
 
     /// <summary>
-    /// The open session with every row staged so far, in staging order (row i is <c>staged[i]</c> in errors), so that
-    /// the server can check them as one batch before <see cref="CommitImport"/>.
+    /// The open session with the rows staged so far, in staging order, each with its 0-based place in the whole
+    /// session (<c>staged[k]</c> in errors), so that the server can check them as one batch before
+    /// <see cref="CommitImport"/>.
     /// </summary>
+    /// <param name="sessionId">The session.</param>
+    /// <param name="bases">Only rows whose basis token is one of these (matched as text, not interpreted); null for every row.</param>
     /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
-    public StagedImport ReadStagedImport(string sessionId)
+    public StagedImport ReadStagedImport(string sessionId, IReadOnlyCollection<string>? bases = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
+        string[]? tokens = bases?.Distinct(StringComparer.Ordinal).ToArray();
         return Read((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            string filter = tokens is null ? string.Empty
+                : tokens.Length == 0 ? "WHERE 0"
+                : "WHERE energy_basis IN (" + string.Join(", ", tokens.Select((_, i) => $"$b{i}")) + ")";
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
+            for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
-            var rows = new List<EntryRow>(checked((int)session.StagedCount));
-            while (reader.Read()) rows.Add(ReadEntry(reader));
+            var rows = new List<StagedRow>();
+            while (reader.Read())
+            {
+                // Staging tables are appended to only, so rowid k+1 is the session's row k.
+                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5));
+                rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
+            }
             return new StagedImport(
                 new ImportSessionInfo(sessionId, session.DatasetName, session.Policy, session.StagedCount, session.ExpiresAtUtc), rows);
         });

@@ -84,9 +84,12 @@ public sealed class ImportSessionServiceTests
     private static Entry PerAtom(string id, string formula, double evPerAtom) =>
         new() { Id = id, Formula = formula, EnergyEv = evPerAtom, Basis = EnergyBasis.TotalPerAtom };
 
-    private static async Task<ImportSession> StageAsync(Clients c, string dataset, params Entry[][] batches)
+    private static Task<ImportSession> StageAsync(Clients c, string dataset, params Entry[][] batches) =>
+        StageAsync(c, dataset, DuplicatePolicy.Reject, batches);
+
+    private static async Task<ImportSession> StageAsync(Clients c, string dataset, DuplicatePolicy policy, params Entry[][] batches)
     {
-        ImportSession session = await c.Datasets.BeginImportAsync(new BeginImportRequest { Dataset = dataset, DuplicatePolicy = DuplicatePolicy.Reject }, c.Call());
+        ImportSession session = await c.Datasets.BeginImportAsync(new BeginImportRequest { Dataset = dataset, DuplicatePolicy = policy }, c.Call());
         foreach (Entry[] batch in batches)
         {
             var stage = new StageEntriesRequest { SessionId = session.SessionId };
@@ -142,6 +145,16 @@ public sealed class ImportSessionServiceTests
         Assert.Contains("'MgO' (MgO)", violation.Description);
         Assert.Single((await c.Datasets.ListVersionsAsync(new ListVersionsRequest { Dataset = "d" }, c.Call())).Versions);
         Assert.Equal(1, running.Server.Store.CountStagedRows());
+        await c.Datasets.CancelImportAsync(new CancelImportRequest { SessionId = session.SessionId }, c.Call());
+
+        // Under replace a row of any basis can change a reference: a formation-energy row that supersedes the Mg
+        // entry leaves Mg-high (+20 eV/atom) as the reference, and MgO-edge, at (-196.47/2) - 0.5 (-1.54) - 0.5 (-4.93)
+        // = -95 eV/atom today, would go to (-196.47/2) - 0.5 (20) - 0.5 (-4.93), about -105.8 eV/atom.
+        await Data.CreateWithAsync(c, "r", PerAtom("O2", "O2", -4.93), PerAtom("Mg", "Mg", -1.54), PerAtom("Mg-high", "Mg", 20), Data.Total("MgO-edge", "MgO", -196.47));
+        ImportSession replacing = await StageAsync(c, "r", DuplicatePolicy.Replace, [Data.Formation("x", "MgO2", -1.0)], [Data.Formation("Mg", "Mg", 0)]);
+        var replaced = await RefusedCommitAsync(c, replacing, "staged[1].energy_ev");
+        Assert.Contains("id 'Mg' sets the Mg reference to 20 eV/atom", replaced.Description);
+        Assert.Contains("'MgO-edge' (MgO)", replaced.Description);
     }
 
     [Fact]

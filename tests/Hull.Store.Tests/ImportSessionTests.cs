@@ -193,7 +193,13 @@ public sealed class ImportSessionTests : IDisposable
 
         Assert.Equal(("d", DuplicatePolicy.Replace, 4L), (staged.Session.DatasetName, staged.Session.Policy, staged.Session.StagedCount));
         // Staging order, not id order; -0.0 reads back as the +0 the store keeps.
-        Rows.AssertSame([Rows.Make("z", 0.0), first[1], .. Rows.Many("m", 2)], staged.Rows);
+        Rows.AssertSame([Rows.Make("z", 0.0), first[1], .. Rows.Many("m", 2)], staged.Rows.Select(r => r.Row).ToList());
+        Assert.Equal([0, 1, 2, 3], staged.Rows.Select(r => r.Index));
+        // Asked for one basis, the rows keep their places in the whole session.
+        StagedRow only = Assert.Single(_store.ReadStagedImport(session.SessionId, ["total_per_atom", "total_per_atom"]).Rows);
+        Assert.Equal((1, "a"), (only.Index, only.Row.Id));
+        Assert.Empty(_store.ReadStagedImport(session.SessionId, []).Rows);
+        Assert.Equal(4, _store.ReadStagedImport(session.SessionId, []).Session.StagedCount);
 
         _store.StageBatch(session.SessionId, Rows.Many("late", 1), Idle);
         var changed = Assert.Throws<ImportSessionChangedException>(() => _store.CommitImport(session.SessionId, staged.Session.StagedCount));

@@ -17,6 +17,8 @@ public sealed class DatasetGrpcService(
     private const string DatasetsList = "datasets";
     private const string VersionsList = "versions/";
 
+    private static readonly string[] TotalEnergyTokens = [Core.Thermo.EnergyBasisTokens.TotalPerFormulaUnit, Core.Thermo.EnergyBasisTokens.TotalPerAtom];
+
     /// <summary>Entries per streamed export message when the caller does not say.</summary>
     public const int DefaultPageSize = 1000;
 
@@ -95,14 +97,14 @@ public sealed class DatasetGrpcService(
     /// Runs <see cref="ImportReferenceCheck"/> on <paramref name="rows"/> over the dataset's latest version (call it under
     /// the dataset's import lock) and returns the ledger of the version they would make; refuses with every violation.
     /// </summary>
-    private async Task<ReferenceLedger> CheckReferencesAsync(
-        string dataset, IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy, string rowsField, string refusal, CancellationToken cancellation)
+    private async Task<ReferenceLedger> CheckReferencesAsync(string dataset, IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy,
+        string rowsField, string refusal, CancellationToken cancellation, IReadOnlyList<int>? rowIndexes = null)
     {
         long latest = store.GetLatestVersion(dataset);
         ReferenceLedger ledger = await LedgerAsync(dataset, latest, cancellation);
         (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
             rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest, cancellation)).Entries,
-            rowsField);
+            rowsField, rowIndexes);
         if (violations.Count > 0)
         {
             throw RpcErrors.InvalidArgument(BatchValidation.Summarize(refusal, violations), violations, ErrorReasons.InvalidEntry);
@@ -144,14 +146,18 @@ public sealed class DatasetGrpcService(
     public override async Task<ImportEntriesResponse> CommitImport(CommitImportRequest request, ServerCallContext context)
     {
         RequireSessionId(request.SessionId);
-        StagedImport staged = await Task.Run(() => store.ReadStagedImport(request.SessionId));
+        // Under reject only the total-energy rows take part in the reference check, so only they are read; under
+        // replace any row may supersede a stored reference entry.
+        StagedImport staged = await Task.Run(() => store.ReadStagedImport(request.SessionId, TotalEnergyTokens));
+        if (staged.Session.Policy == Store.DuplicatePolicy.Replace) staged = await Task.Run(() => store.ReadStagedImport(request.SessionId));
         string dataset = staged.Session.DatasetName;
         ImportResult result;
         // The same reference check as ImportEntries, under the same lock, over the whole session as one batch.
         using (await imports.EnterAsync(dataset, context.CancellationToken))
         {
-            ReferenceLedger next = await CheckReferencesAsync(dataset, staged.Rows, staged.Session.Policy, "staged",
-                "the commit was refused; nothing was written and the session is still open", context.CancellationToken);
+            ReferenceLedger next = await CheckReferencesAsync(dataset, staged.Rows.Select(r => r.Row).ToArray(), staged.Session.Policy,
+                "staged", "the commit was refused; nothing was written and the session is still open", context.CancellationToken,
+                staged.Rows.Select(r => r.Index).ToArray());
             try
             {
                 result = await Task.Run(() => store.CommitImport(request.SessionId, staged.Session.StagedCount));
