@@ -179,4 +179,16 @@ public sealed class ImportSessionServiceTests
             Data.Batch("d", DuplicatePolicy.Reject, PerAtom("Mg-low", "Mg", -1000)), c.Call()));
         Assert.Contains("'MgO' (MgO)", Assert.Single(Data.Violations(pushed)).Description);
     }
+    [Fact]
+    public void A_batch_staged_during_the_commit_check_is_answered_as_failed_precondition_naming_the_session()
+    {
+        // The Store refuses such a commit (ImportSessionTests); this is what the caller then reads.
+        RpcException? answer = Hull.Server.Errors.StoreErrorTranslation.Translate(new Hull.Store.ImportSessionChangedException("abc", 4, 5));
+
+        Assert.NotNull(answer);
+        Assert.Equal(StatusCode.FailedPrecondition, answer.StatusCode);
+        Assert.Contains("import session 'abc' received more entries while its commit was being checked (4 checked, 5 staged)", answer.Status.Detail);
+        var failure = answer.GetRpcStatus()!.GetDetail<Google.Rpc.PreconditionFailure>();
+        Assert.Equal("import_session:abc", failure.Violations.Single().Subject);
+    }
 }
