@@ -2,7 +2,8 @@ using Hull.Server.Hosting;
 using Hull.Store;
 
 // hull-server: parse options, open the store, listen, and run until SIGTERM / Ctrl+C.
-// Exit codes: 0 stopped normally, 2 bad options, 3 the store cannot be opened, 4 the address cannot be bound.
+// Exit codes: 0 stopped normally, 2 bad options (a missing or unusable TLS file too), 3 the store cannot be opened,
+// 4 the address cannot be bound.
 HullServerOptions? options = ServerCommandLine.Parse(args, out string? error, out bool help);
 if (help)
 {
@@ -20,6 +21,11 @@ HullServer server;
 try
 {
     server = await HullServer.StartAsync(options);
+}
+catch (TlsFileException e)
+{
+    Console.Error.WriteLine($"hull-server: {e.Message}");
+    return 2;
 }
 catch (StoreException e)
 {

@@ -13,6 +13,8 @@ namespace Hull.Store;
 // moment it commits; version numbers follow commit order. Under Reject, an id that another session committed in
 // the meantime fails the later commit (nothing written, the session stays open to be cancelled or to lapse).
 // Repeated and already-stored ids are found at the commit, which names the row by its place in the session.
+// The server checks the staged rows (ReadStagedImport) before the commit; the commit takes the count it checked and
+// refuses when a batch was staged since, so no row reaches a version unchecked.
 public sealed partial class DatasetStore
 {
     /// <summary>
@@ -104,6 +106,41 @@ public sealed partial class DatasetStore
     }
 
     /// <summary>
+    /// The open session with the rows staged so far, in staging order, each with its 0-based place in the whole
+    /// session (<c>staged[k]</c> in errors), so that the server can check them as one batch before
+    /// <see cref="CommitImport"/>.
+    /// </summary>
+    /// <param name="sessionId">The session.</param>
+    /// <param name="bases">Only rows whose basis token is one of these (matched as text, not interpreted); null for every row.</param>
+    /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
+    public StagedImport ReadStagedImport(string sessionId, IReadOnlyCollection<string>? bases = null)
+    {
+        ArgumentNullException.ThrowIfNull(sessionId);
+        DateTimeOffset now = _clock.GetUtcNow();
+        string[]? tokens = bases?.Distinct(StringComparer.Ordinal).ToArray();
+        return Read((connection, transaction) =>
+        {
+            OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            string filter = tokens is null ? string.Empty
+                : tokens.Length == 0 ? "WHERE 0"
+                : "WHERE energy_basis IN (" + string.Join(", ", tokens.Select((_, i) => $"$b{i}")) + ")";
+            using SqliteCommand select = connection.Command(transaction,
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
+            for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
+            using SqliteDataReader reader = select.ExecuteReader();
+            var rows = new List<StagedRow>();
+            while (reader.Read())
+            {
+                // Staging tables are appended to only, so rowid k+1 is the session's row k.
+                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5));
+                rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
+            }
+            return new StagedImport(
+                new ImportSessionInfo(sessionId, session.DatasetName, session.Policy, session.StagedCount, session.ExpiresAtUtc), rows);
+        });
+    }
+
+    /// <summary>
     /// Writes every staged row of the session as one new version (latest issued version + 1) and closes the session,
     /// in one transaction. A refusal writes nothing and leaves the session open.
     /// </summary>
@@ -111,7 +148,11 @@ public sealed partial class DatasetStore
     /// <exception cref="DuplicateEntryException">An id staged twice, or under Reject one the latest version holds; the row
     /// index is the row's 0-based place in the whole session.</exception>
     /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
-    public ImportResult CommitImport(string sessionId)
+    /// <exception cref="ImportSessionChangedException">The session no longer holds <paramref name="checkedStagedCount"/> rows.</exception>
+    /// <param name="sessionId">The session to commit.</param>
+    /// <param name="checkedStagedCount">How many rows the caller checked (from <see cref="ReadStagedImport"/>); a batch
+    /// staged since then would be written unchecked, so the commit is refused. Null commits whatever is staged.</param>
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -119,6 +160,10 @@ public sealed partial class DatasetStore
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             if (session.StagedCount == 0) throw new InvalidBatchException($"import session '{sessionId}' has no staged entries; stage at least one before committing");
+            if (checkedStagedCount is long expected && expected != session.StagedCount)
+            {
+                throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
+            }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
@@ -228,7 +273,8 @@ public sealed partial class DatasetStore
     });
 
     private sealed record OpenSession(
-        long Key, long DatasetId, string DatasetName, long LastVersionIssued, DuplicatePolicy Policy, BatchProvenance Provenance, long StagedCount);
+        long Key, long DatasetId, string DatasetName, long LastVersionIssued, DuplicatePolicy Policy, BatchProvenance Provenance, long StagedCount,
+        DateTimeOffset ExpiresAtUtc);
 
     private const string StagingPrefix = "staged_";
 
@@ -247,7 +293,7 @@ public sealed partial class DatasetStore
         if (!reader.Read()) throw new ImportSessionNotFoundException(sessionId, expired: false);
         if (reader.GetInt64(8) <= now.ToUnixTimeMilliseconds()) throw new ImportSessionNotFoundException(sessionId, expired: true);
         return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), ParsePolicy(reader.GetString(4)),
-            new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7));
+            new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7), DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)));
     }
 
     /// <summary>Which staged row broke the open-row index: the first repeat inside the session, else the first stored id.</summary>

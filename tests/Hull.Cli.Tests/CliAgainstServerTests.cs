@@ -1,38 +1,11 @@
 using System.Diagnostics;
 using System.Text.Json;
-using Hull.Server.Hosting;
 
 namespace Hull.Cli.Tests;
 
 /// <summary>`hull` against a real server on a loopback port: commands, output formats and exit codes.</summary>
-public sealed class CliAgainstServerTests : IAsyncLifetime
+public sealed class CliAgainstServerTests : ServerBackedTests
 {
-    private HullServer _server = null!;
-    private string _folder = null!;
-    private string _files = null!;
-
-    private string Server => _server.Address.ToString();
-
-    public async Task InitializeAsync()
-    {
-        (_server, _folder) = await CliRun.StartServerAsync();
-        _files = Path.Combine(_folder, "files");
-        Directory.CreateDirectory(_files);
-    }
-
-    public async Task DisposeAsync()
-    {
-        await _server.StopAsync();
-        Directory.Delete(_folder, recursive: true);
-    }
-
-    private string File(string name, string text)
-    {
-        string path = Path.Combine(_files, name);
-        System.IO.File.WriteAllText(path, text);
-        return path;
-    }
-
     private const string LiCoO = """
         id,formula,energy_ev,basis,note
         Li,Li,0,formation_per_atom,
@@ -108,13 +81,33 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task A_session_import_refused_at_its_commit_names_the_file_line_and_makes_no_version()
+    {
+        // One row per batch, so the import is a session and the range rule for the total energy is met at the commit:
+        // -2e4 eV per formula unit of MgO against these references implies about -1e4 eV/atom of formation energy.
+        string file = File("totals.csv", """
+            id,formula,energy_ev,basis
+            O2,O2,-4.93,total_per_atom
+            Mg,Mg,-1.54,total_per_atom
+            bad,MgO,-20000,total_per_formula_unit
+            """);
+        var run = await CliRun.RunAsync("import", "totals", file, "--create", "--batch-size", "1", "--server", Server);
+
+        Assert.Equal(ExitCodes.Rejected, run.ExitCode);
+        Assert.Contains("totals.csv line 4 (id 'bad'), energy_ev: id 'bad' (MgO): formation energy", run.Err);
+        var show = await CliRun.RunAsync("versions", "list", "totals", "--json", "--server", Server);
+        Assert.Equal(0, show.ExitCode);
+        Assert.DoesNotContain("\"version\"", show.Out);
+    }
+
+    [Fact]
     public async Task Export_round_trips_through_import_to_the_same_content()
     {
         string file = File("licoo.csv", LiCoO);
         Assert.Equal(0, (await CliRun.RunAsync("import", "one", file, "--create", "--server", Server)).ExitCode);
-        string exported = Path.Combine(_files, "exported.csv");
+        string exported = Path.Combine(Folder, "exported.csv");
         Assert.Equal(0, (await CliRun.RunAsync("export", "one", "--csv", "-o", exported, "--server", Server)).ExitCode);
-        string exportedJson = Path.Combine(_files, "exported.json");
+        string exportedJson = Path.Combine(Folder, "exported.json");
         Assert.Equal(0, (await CliRun.RunAsync("export", "one", "--json", "-o", exportedJson, "--server", Server)).ExitCode);
         Assert.Equal(0, (await CliRun.RunAsync("import", "two", exported, "--create", "--server", Server)).ExitCode);
         Assert.Equal(0, (await CliRun.RunAsync("import", "three", exportedJson, "--create", "--server", Server)).ExitCode);
@@ -142,7 +135,7 @@ public sealed class CliAgainstServerTests : IAsyncLifetime
         Assert.Equal(ExitCodes.Usage, (await CliRun.RunAsync("datasets", "list", "--server", "ftp://x")).ExitCode);
 
         // 3: input file.
-        var missing = await CliRun.RunAsync("import", "d", Path.Combine(_files, "none.csv"), "--server", Server);
+        var missing = await CliRun.RunAsync("import", "d", Path.Combine(Folder, "none.csv"), "--server", Server);
         Assert.Equal(ExitCodes.InputFile, missing.ExitCode);
         Assert.Contains("no such file", missing.Err);
         var badNumber = await CliRun.RunAsync("import", "d", File("bad.csv", "id,formula,energy_ev,basis\nx,Li,1.2.3,total_per_atom\n"), "--server", Server);

@@ -1,29 +1,16 @@
 using System.Xml.Linq;
-using Hull.Server.Hosting;
 
 namespace Hull.Cli.Tests;
 
 /// <summary>`hull figure` and `--end-members` against a real server: the SVG the server drew lands in the named file.</summary>
-public sealed class FigureCommandTests : IAsyncLifetime
+public sealed class FigureCommandTests : ServerBackedTests
 {
-    private HullServer _server = null!;
-    private string _folder = null!;
-
-    private string Server => _server.Address.ToString();
-
-    public async Task InitializeAsync() => (_server, _folder) = await CliRun.StartServerAsync();
-
-    public async Task DisposeAsync()
-    {
-        await _server.StopAsync();
-        Directory.Delete(_folder, recursive: true);
-    }
 
     [Fact]
     public async Task Figure_writes_the_servers_svg_and_end_members_reach_the_stability_calls()
     {
-        string data = Path.Combine(_folder, "entries.csv");
-        File.WriteAllText(data, """
+        string data = Path.Combine(Folder, "entries.csv");
+        System.IO.File.WriteAllText(data, """
             id,formula,energy_ev,basis,note
             Li,Li,0,formation_per_atom,
             Co,Co,0,formation_per_atom,
@@ -37,7 +24,7 @@ public sealed class FigureCommandTests : IAsyncLifetime
             """);
         Assert.Equal(0, (await CliRun.RunAsync("import", "cli-fig", data, "--create", "--server", Server)).ExitCode);
 
-        string svgPath = Path.Combine(_folder, "out.svg");
+        string svgPath = Path.Combine(Folder, "out.svg");
         var drawn = await CliRun.RunAsync("figure", "cli-fig", "Li-Co-O", "--output", svgPath, "--max-above-hull", "0.5", "--server", Server);
         Assert.True(drawn.ExitCode == 0, drawn.Err);
         Assert.Contains("ternary", drawn.Out);
@@ -46,12 +33,12 @@ public sealed class FigureCommandTests : IAsyncLifetime
 
         // The default file name comes from the dataset, version and system.
         string previous = Environment.CurrentDirectory;
-        Environment.CurrentDirectory = _folder;
+        Environment.CurrentDirectory = Folder;
         try
         {
             var named = await CliRun.RunAsync("figure", "cli-fig", "--end-members", "LiCoO2,entry:LiNiO2", "--server", Server);
             Assert.True(named.ExitCode == 0, named.Err);
-            Assert.True(File.Exists(Path.Combine(_folder, "cli-fig-v1-LiCoO2-LiNiO2.svg")), named.Out);
+            Assert.True(System.IO.File.Exists(Path.Combine(Folder, "cli-fig-v1-LiCoO2-LiNiO2.svg")), named.Out);
         }
         finally
         {

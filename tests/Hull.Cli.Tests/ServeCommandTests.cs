@@ -31,4 +31,30 @@ public sealed class ServeCommandTests
         Assert.True(File.Exists(Path.Combine(folder, Hull.Store.DatasetStore.DatabaseFileName)));
         Directory.Delete(folder, recursive: true);
     }
+    [Fact]
+    public async Task Serve_names_a_missing_or_unusable_tls_file()
+    {
+        string folder = Path.Combine(Path.GetTempPath(), "hull-serve-" + Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(folder);
+        try
+        {
+            string garbage = Path.Combine(folder, "garbage.pem");
+            await File.WriteAllTextAsync(garbage, "not a certificate\n");
+            string missing = Path.Combine(folder, "none.pem");
+            foreach ((string file, string expected) in new[]
+                     {
+                         (garbage, $"hull serve: --tls-cert '{garbage}' is not a usable PEM file"),
+                         (missing, $"hull serve: --tls-cert '{missing}': no such file"),
+                     })
+            {
+                var run = await CliRun.RunAsync("serve", "--data-dir", Path.Combine(folder, "data"), "--port", "0", "--tls-cert", file);
+                Assert.Equal(ExitCodes.InputFile, run.ExitCode);
+                Assert.Contains(expected, run.Err);
+            }
+        }
+        finally
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+    }
 }

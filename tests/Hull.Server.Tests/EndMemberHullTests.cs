@@ -122,6 +122,53 @@ public sealed class EndMemberHullTests
         Assert.Equal(StatusCode.InvalidArgument, e.StatusCode);
     }
 
+    [Fact]
+    public async Task Explicit_references_apply_to_an_end_member_hull_and_do_not_share_its_cache_slot()
+    {
+        // Totals built from formation energies by the textbook formula E = N F + sum n_el mu_el (common practice).
+        double li = ReferenceEvPerAtom["Li"], co = ReferenceEvPerAtom["Co"], o = ReferenceEvPerAtom["O"];
+        double li2CoO2 = 5 * -1.75 + 2 * li + co + 2 * o;
+        Entry[] entries =
+        [
+            Total("Li-ref", "Li", li), Total("Co-ref", "Co", co), Total("O-ref", "O", o),
+            Total("Li2O", "Li2O", 3 * -2.0 + 2 * li + o), Total("CoO", "CoO", 2 * -1.2 + co + o), Total("Li2CoO2", "Li2CoO2", li2CoO2),
+        ];
+        await using var s = await RunningServer.StartAsync();
+        await Data.CreateWithAsync(s.Clients, "pair", entries);
+
+        GetEntryStabilityRequest Query(double? explicitLi)
+        {
+            var request = new GetEntryStabilityRequest { Dataset = "pair", EntryIds = { "Li2CoO2" } };
+            request.EndMembers.Add(new EndMember { Formula = "Li2O" });
+            request.EndMembers.Add(new EndMember { Formula = "CoO" });
+            if (explicitLi is double given) request.ElementalReferences.Add(new ElementReferenceEnergy { Symbol = "Li", EnergyEvPerAtom = given });
+            return request;
+        }
+
+        GetEntryStabilityResponse stored = await s.Clients.Stability.GetEntryStabilityAsync(Query(null), s.Clients.Call());
+        GetEntryStabilityResponse given = await s.Clients.Stability.GetEntryStabilityAsync(Query(-1.5), s.Clients.Call());
+        GetEntryStabilityResponse again = await s.Clients.Stability.GetEntryStabilityAsync(Query(null), s.Clients.Call());
+
+        Assert.Equal(-1.75, stored.Results.Single().FormationEnergyEvPerAtom, 1e-9);
+        // The same total against Li at -1.5 eV/atom: F = (E - 2 (-1.5) - mu_Co - 2 mu_O) / 5.
+        Assert.Equal((li2CoO2 - 2 * -1.5 - co - 2 * o) / 5, given.Results.Single().FormationEnergyEvPerAtom, 1e-9);
+        ElementReference liUsed = given.References.Single(r => r.Symbol == "Li");
+        Assert.True(liUsed.GivenByCaller);
+        Assert.Equal(-1.5, liUsed.TotalEnergyEvPerAtom);
+        Assert.Equal(stored.Results.Single(), again.Results.Single());
+        Assert.Equal("Li-ref", again.References.Single(r => r.Symbol == "Li").SourceEntryId);
+
+        var facets = new GetHullFacetsRequest { Dataset = "pair", ElementalReferences = { new ElementReferenceEnergy { Symbol = "Li", EnergyEvPerAtom = -1.5 } } };
+        facets.EndMembers.Add(new EndMember { Formula = "Li2O" });
+        facets.EndMembers.Add(new EndMember { Formula = "CoO" });
+        GetHullFacetsResponse pseudo = await s.Clients.Stability.GetHullFacetsAsync(facets, s.Clients.Call());
+        Assert.True(pseudo.References.Single(r => r.Symbol == "Li").GivenByCaller);
+        var phases = new GetStablePhasesRequest { Dataset = "pair", EndMembers = { facets.EndMembers }, ElementalReferences = { facets.ElementalReferences } };
+        GetStablePhasesResponse stable = await s.Clients.Stability.GetStablePhasesAsync(phases, s.Clients.Call());
+        Assert.True(stable.References.Single(r => r.Symbol == "Li").GivenByCaller);
+        Assert.Equal("Li2O-CoO", stable.Coverage.Single().ChemicalSystem);
+    }
+
     private static long[] Unit(int k) => Enumerable.Range(0, 3).Select(j => j == k ? 1L : 0L).ToArray();
 
     private static Entry Total(string id, string formula, double ev) =>

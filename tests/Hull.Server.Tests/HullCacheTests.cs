@@ -1,4 +1,7 @@
+using Hull.Core.Chemistry;
 using Hull.Protos.V1;
+using Hull.Server.Caching;
+using Hull.Server.Hosting;
 using Hull.Server.Tests.Support;
 
 namespace Hull.Server.Tests;
@@ -67,5 +70,39 @@ public sealed class HullCacheTests
         var third = await c.Stability.GetEntryStabilityAsync(query, c.Call());
         Assert.Equal(1, third.Used.Version);
         Assert.Equal(0.05, third.Results[0].EnergyAboveHullEvPerAtom, 9);
+    }
+    [Fact]
+    public async Task Eviction_while_other_queries_add_hulls_never_fails_a_query()
+    {
+        // Eviction ranked a snapshot of the slots that other threads were adding to; a slot added between the
+        // snapshot's count and its copy failed a query with an ArgumentException (INTERNAL). Many distinct systems
+        // through a cache of two hulls make every call evict while the other threads add.
+        using var folder = new TempFolder();
+        using var store = Hull.Store.DatasetStore.Open(folder.Path);
+        store.CreateDataset("d");
+        store.ImportBatch("d", [new Hull.Store.EntryRow("H", "H", 0, "formation_per_atom")], Hull.Store.DuplicatePolicy.Reject, Hull.Store.BatchProvenance.None);
+        var cache = new HullCache(store, ServiceLimits.Default, new CacheSettings(MaxCachedHulls: 2));
+        VersionSnapshot snapshot = await cache.GetSnapshotAsync(new VersionRef("d", 1, "content"), CancellationToken.None);
+        string[] symbols = ElementTable.All.Take(48).Select(e => e.Symbol).ToArray();
+        string[][] systems = symbols.SelectMany((a, i) => symbols.Skip(i + 1).Select(b => new[] { a, b }.Order(StringComparer.Ordinal).ToArray())).ToArray();
+
+        using var start = new ManualResetEventSlim(false);
+        Task[] workers = Enumerable.Range(0, 8).Select(w => Task.Run(async () =>
+        {
+            start.Wait();
+            var order = new Random(w);
+            for (int round = 0; round < 5; round++)
+            {
+                foreach (string[] system in systems.OrderBy(_ => order.Next()))
+                {
+                    CachedHull hull = await cache.GetHullAsync(snapshot, system, CancellationToken.None);
+                    Assert.Equal(string.Join('-', system), hull.Hull.SystemName);
+                }
+            }
+        })).ToArray();
+        start.Set();
+        await Task.WhenAll(workers);
+
+        Assert.InRange(cache.CachedHullCount, 1, 2 + 8);
     }
 }

@@ -75,4 +75,45 @@ public sealed class WriteTokenAndTlsTests
             await plain.Datasets.ListDatasetsAsync(new ListDatasetsRequest(), plain.Call(TimeSpan.FromSeconds(10))));
         Assert.NotEqual(StatusCode.OK, e.StatusCode);
     }
+    [Fact]
+    public async Task The_standalone_server_names_an_unusable_tls_file_and_exits_2_instead_of_crashing()
+    {
+        using var folder = new TempFolder();
+        using RSA key = RSA.Create(2048), otherKey = RSA.Create(2048);
+        var request = new CertificateRequest("CN=localhost", key, HashAlgorithmName.SHA256, RSASignaturePadding.Pkcs1);
+        using X509Certificate2 certificate = request.CreateSelfSigned(DateTimeOffset.UtcNow.AddMinutes(-5), DateTimeOffset.UtcNow.AddDays(1));
+        string File(string name, string text)
+        {
+            string path = Path.Combine(folder.Path, name);
+            System.IO.File.WriteAllText(path, text);
+            return path;
+        }
+
+        string certOnly = File("cert-only.pem", certificate.ExportCertificatePem());
+        string garbage = File("garbage.pem", "not a certificate\n");
+        string garbagePkcs12 = File("garbage.pfx", "not a certificate either\n");
+        string wrongKey = File("other.key", otherKey.ExportPkcs8PrivateKeyPem());
+        string data = Path.Combine(folder.Path, "data");
+        var cases = new (string[] Args, string Expected)[]
+        {
+            (["--tls-cert", Path.Combine(folder.Path, "none.pem")], $"--tls-cert '{Path.Combine(folder.Path, "none.pem")}': no such file"),
+            (["--tls-cert", certOnly, "--tls-key", Path.Combine(folder.Path, "none.key")], "--tls-key '" + Path.Combine(folder.Path, "none.key") + "': no such file"),
+            (["--tls-cert", garbage], $"--tls-cert '{garbage}' is not a usable PEM file"),
+            (["--tls-cert", certOnly], $"--tls-cert '{certOnly}' is not a usable PEM file holding a certificate and its private key"),
+            (["--tls-cert", garbagePkcs12], $"--tls-cert '{garbagePkcs12}' is not a usable PKCS#12 file"),
+            (["--tls-cert", certOnly, "--tls-key", garbage], $"--tls-cert '{certOnly}' with --tls-key '{garbage}' is not a usable PEM certificate and private key"),
+            (["--tls-cert", certOnly, "--tls-key", wrongKey], $"--tls-cert '{certOnly}' with --tls-key '{wrongKey}' is not a usable PEM certificate and private key"),
+            (["--tls-key", wrongKey], $"--tls-key '{wrongKey}' needs --tls-cert as well"),
+        };
+
+        foreach ((string[] args, string expected) in cases)
+        {
+            (int exitCode, string output, string error) = await ChildServer.RunToExitAsync(data, args);
+            string context = $"{string.Join(' ', args)}: exit {exitCode}, stderr {error}";
+            Assert.True(exitCode == 2, context);
+            Assert.Contains("hull-server: " + expected, error);
+            Assert.DoesNotContain("Unhandled exception", error);
+            Assert.DoesNotContain("listening", output);
+        }
+    }
 }

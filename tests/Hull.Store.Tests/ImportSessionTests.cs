@@ -181,4 +181,33 @@ public sealed class ImportSessionTests : IDisposable
 
         public override DateTimeOffset GetUtcNow() => Now;
     }
+    [Fact]
+    public void The_staged_rows_read_back_in_staging_order_and_a_batch_staged_after_that_read_refuses_the_commit()
+    {
+        ImportSessionInfo session = _store.BeginImport("d", DuplicatePolicy.Replace, BatchProvenance.None, Idle);
+        var first = new[] { Rows.Make("z", -0.0), Rows.Make("a", 1e300, "O2", "total_per_atom", "note") };
+        _store.StageBatch(session.SessionId, first, Idle);
+        _store.StageBatch(session.SessionId, Rows.Many("m", 2), Idle);
+
+        StagedImport staged = _store.ReadStagedImport(session.SessionId);
+
+        Assert.Equal(("d", DuplicatePolicy.Replace, 4L), (staged.Session.DatasetName, staged.Session.Policy, staged.Session.StagedCount));
+        // Staging order, not id order; -0.0 reads back as the +0 the store keeps.
+        Rows.AssertSame([Rows.Make("z", 0.0), first[1], .. Rows.Many("m", 2)], staged.Rows.Select(r => r.Row).ToList());
+        Assert.Equal([0, 1, 2, 3], staged.Rows.Select(r => r.Index));
+        // Asked for one basis, the rows keep their places in the whole session.
+        StagedRow only = Assert.Single(_store.ReadStagedImport(session.SessionId, ["total_per_atom", "total_per_atom"]).Rows);
+        Assert.Equal((1, "a"), (only.Index, only.Row.Id));
+        Assert.Empty(_store.ReadStagedImport(session.SessionId, []).Rows);
+        Assert.Equal(4, _store.ReadStagedImport(session.SessionId, []).Session.StagedCount);
+
+        _store.StageBatch(session.SessionId, Rows.Many("late", 1), Idle);
+        var changed = Assert.Throws<ImportSessionChangedException>(() => _store.CommitImport(session.SessionId, staged.Session.StagedCount));
+        Assert.Contains("4 checked, 5 staged", changed.Message);
+        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(5, _store.CountStagedRows());
+
+        Assert.Equal(new ImportResult(1, 5, 0), _store.CommitImport(session.SessionId, _store.ReadStagedImport(session.SessionId).Session.StagedCount));
+        Assert.Throws<ImportSessionNotFoundException>(() => _store.ReadStagedImport(session.SessionId));
+    }
 }

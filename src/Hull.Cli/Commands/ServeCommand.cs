@@ -38,23 +38,14 @@ public static class ServeCommand
                 return ExitCodes.Usage;
             }
 
-            foreach ((string name, string? path) in new[] { ("--tls-cert", serverOptions.TlsCertificatePath), ("--tls-key", serverOptions.TlsKeyPath) })
-            {
-                if (path is not null && !File.Exists(path))
-                {
-                    error.WriteLine($"hull serve: {name} '{path}': no such file");
-                    return ExitCodes.InputFile;
-                }
-            }
-
             HullServer server;
             try
             {
                 server = await HullServer.StartAsync(serverOptions, cancellation);
             }
-            catch (System.Security.Cryptography.CryptographicException e)
+            catch (TlsFileException e)
             {
-                error.WriteLine($"hull serve: --tls-cert '{serverOptions.TlsCertificatePath}' (with --tls-key) is not a usable PEM certificate and key: {e.Message}");
+                error.WriteLine($"hull serve: {e.Message}");
                 return ExitCodes.InputFile;
             }
             catch (Exception e) when (HullServer.IsStoreFailure(e))

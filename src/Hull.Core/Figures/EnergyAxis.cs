@@ -10,9 +10,6 @@ namespace Hull.Core.Figures;
 /// <param name="Unit">Its unit, e.g. "eV/atom".</param>
 public sealed record EnergyAxis(string Name, string Unit)
 {
-    /// <summary>Formation energy per atom from the elemental references: what a closed hull is built over.</summary>
-    public static EnergyAxis FormationEnergy { get; } = new("Formation energy", "eV/atom");
-
     /// <summary>
     /// The energy axis of <paramref name="axis"/>: its display name with a capital first letter, and its unit, so a
     /// grand-potential or free-energy hull is labelled as what it plots.

@@ -11,9 +11,11 @@ public static class EndMemberHull
 {
     /// <param name="entries">Candidates; entries off the cone are left out; ids unique.</param>
     /// <param name="basis">The end-members, in the hull's component order.</param>
+    /// <param name="references">Explicit elemental references (eV/atom) for total energies; they override the
+    /// pure-element entries of the list.</param>
     /// <exception cref="ThermoInputException">An end-member without entry, a total energy whose element has no
     /// reference, or bad rows.</exception>
-    public static SystemHull Build(IReadOnlyList<PhaseEntry> entries, EndMemberBasis basis)
+    public static SystemHull Build(IReadOnlyList<PhaseEntry> entries, EndMemberBasis basis, ElementalReferences? references = null)
     {
         ArgumentNullException.ThrowIfNull(entries);
         ArgumentNullException.ThrowIfNull(basis);
@@ -29,7 +31,7 @@ public static class EndMemberHull
             if (inside || entry.Composition.Elements.Count == 1) forReferences.Add(entry);
         }
 
-        FormationEnergySet formation = FormationEnergies.Compute(forReferences);
+        FormationEnergySet formation = FormationEnergies.Compute(forReferences, references);
         var byId = new Dictionary<string, double>(forReferences.Count, StringComparer.Ordinal);
         for (int row = 0; row < forReferences.Count; row++) byId[forReferences[row].Id] = formation.FormationEnergiesEvPerAtom[row];
 

@@ -75,11 +75,14 @@ public sealed class HullCache
 
     /// <summary>
     /// The hull over the compound end-members of <paramref name="basis"/>: every entry of the snapshot that is a
-    /// non-negative combination of them, with the elemental references of the end-members' elements.
+    /// non-negative combination of them, with the elemental references of the end-members' elements (the caller's
+    /// explicit ones where given).
     /// </summary>
     /// <exception cref="Grpc.Core.RpcException">RESOURCE_EXHAUSTED past the component or entry limit.</exception>
-    public Task<CachedHull> GetEndMemberHullAsync(VersionSnapshot snapshot, EndMemberBasis basis, CancellationToken cancellation)
+    public Task<CachedHull> GetEndMemberHullAsync(
+        VersionSnapshot snapshot, EndMemberBasis basis, CancellationToken cancellation, ElementalReferenceList? references = null)
     {
+        references ??= ElementalReferenceList.None;
         // Component order matters (it is the hull's axis order), so the key keeps the order given.
         string system = string.Join('-', basis.Names);
         if (basis.Names.Count > _limits.MaxComponentsPerSystem)
@@ -89,10 +92,10 @@ public sealed class HullCache
         }
 
         CheckSystemLimits(snapshot, basis.Elements, string.Join('-', basis.Elements));
-        return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, "end-members:" + system, string.Empty), _maxHulls, () =>
+        return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, "end-members:" + system, references.KeyFor(basis.Elements)), _maxHulls, () =>
         {
             Counters.CountHullBuild();
-            return new CachedHull(EndMemberHull.Build(snapshot.EntriesWithin(basis.Elements), basis));
+            return new CachedHull(EndMemberHull.Build(snapshot.EntriesWithin(basis.Elements), basis, references.References));
         }, Counters.CountHullHit, cancellation);
     }
 
@@ -177,7 +180,9 @@ public sealed class HullCache
             if (excess <= 0) return;
             // Drop a tenth more than needed so that eviction runs rarely rather than on every insertion.
             int drop = Math.Min(slots.Count - 1, excess + capacity / 10);
-            foreach (KeyValuePair<TKey, Slot<T>> old in slots.OrderBy(p => p.Value.LastUse).Take(drop).ToArray())
+            // The dictionary's own ToArray takes a snapshot under its locks. LINQ over the dictionary would read its
+            // count and then copy, and a slot another query adds in between (adds do not take this lock) fails the copy.
+            foreach (KeyValuePair<TKey, Slot<T>> old in slots.ToArray().OrderBy(p => p.Value.LastUse).Take(drop))
             {
                 slots.TryRemove(old);
             }

@@ -1,3 +1,4 @@
+using System.Security.Cryptography;
 using System.Security.Cryptography.X509Certificates;
 using Hull.Server.Caching;
 using Hull.Server.Errors;
@@ -58,6 +59,7 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
     /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
+    /// <exception cref="TlsFileException">A TLS file is missing or unusable.</exception>
     public static async Task<HullServer> StartAsync(HullServerOptions options, CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(options);
@@ -166,21 +168,43 @@ public sealed class HullServer : IAsyncDisposable
         return app;
     }
 
+    /// <exception cref="TlsFileException">A TLS file is missing or not a usable certificate with its private key.</exception>
     private static X509Certificate2? LoadCertificate(HullServerOptions options)
     {
-        if (options.TlsCertificatePath is null)
+        string? cert = options.TlsCertificatePath, key = options.TlsKeyPath;
+        if (cert is null)
         {
-            if (options.TlsKeyPath is not null) throw new ArgumentException("--tls-key needs --tls-cert as well");
+            if (key is not null) throw new TlsFileException($"--tls-key '{key}' needs --tls-cert as well");
             return null;
         }
 
-        if (options.TlsKeyPath is not null)
+        foreach ((string option, string? path) in new[] { ("--tls-cert", cert), ("--tls-key", key) })
         {
-            return X509Certificate2.CreateFromPemFile(options.TlsCertificatePath, options.TlsKeyPath);
+            if (path is not null && !File.Exists(path)) throw new TlsFileException($"{option} '{path}': no such file");
         }
 
-        return options.TlsCertificatePath.EndsWith(".pem", StringComparison.OrdinalIgnoreCase)
-            ? X509Certificate2.CreateFromPemFile(options.TlsCertificatePath)
-            : X509CertificateLoader.LoadPkcs12FromFile(options.TlsCertificatePath, password: null);
+        bool pem = key is not null || cert.EndsWith(".pem", StringComparison.OrdinalIgnoreCase);
+        X509Certificate2 certificate;
+        try
+        {
+            certificate = key is not null ? X509Certificate2.CreateFromPemFile(cert, key)
+                : pem ? X509Certificate2.CreateFromPemFile(cert)
+                : X509CertificateLoader.LoadPkcs12FromFile(cert, password: null);
+        }
+        catch (Exception e) when (e is CryptographicException or IOException or UnauthorizedAccessException or ArgumentException)
+        {
+            string what = key is not null ? $"--tls-cert '{cert}' with --tls-key '{key}' is not a usable PEM certificate and private key"
+                : pem ? $"--tls-cert '{cert}' is not a usable PEM file holding a certificate and its private key (or give the key with --tls-key)"
+                : $"--tls-cert '{cert}' is not a usable PKCS#12 file without a password (a PEM certificate needs a name ending in .pem, or --tls-key)";
+            throw new TlsFileException($"{what}: {e.Message}", e);
+        }
+
+        if (!certificate.HasPrivateKey)
+        {
+            certificate.Dispose();
+            throw new TlsFileException($"--tls-cert '{cert}' holds no private key; give it with --tls-key");
+        }
+
+        return certificate;
     }
 }

@@ -17,6 +17,8 @@ public sealed class DatasetGrpcService(
     private const string DatasetsList = "datasets";
     private const string VersionsList = "versions/";
 
+    private static readonly string[] TotalEnergyTokens = [Core.Thermo.EnergyBasisTokens.TotalPerFormulaUnit, Core.Thermo.EnergyBasisTokens.TotalPerAtom];
+
     /// <summary>Entries per streamed export message when the caller does not say.</summary>
     public const int DefaultPageSize = 1000;
 
@@ -75,15 +77,8 @@ public sealed class DatasetGrpcService(
         ImportResult result;
         using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
         {
-            long latest = store.GetLatestVersion(request.Dataset);
-            ReferenceLedger ledger = await LedgerAsync(request.Dataset, latest, context.CancellationToken);
-            (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
-                rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(request.Dataset, latest, context.CancellationToken)).Entries);
-            if (violations.Count > 0)
-            {
-                throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the batch was refused; nothing was written", violations), violations, ErrorReasons.InvalidEntry);
-            }
-
+            ReferenceLedger next = await CheckReferencesAsync(
+                request.Dataset, rows, policy, "entries", "the batch was refused; nothing was written", context.CancellationToken);
             // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
             result = await Task.Run(
                 () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
@@ -96,6 +91,26 @@ public sealed class DatasetGrpcService(
             InsertedCount = result.Inserted,
             ReplacedCount = result.Replaced,
         };
+    }
+
+    /// <summary>
+    /// Runs <see cref="ImportReferenceCheck"/> on <paramref name="rows"/> over the dataset's latest version (call it under
+    /// the dataset's import lock) and returns the ledger of the version they would make; refuses with every violation.
+    /// </summary>
+    private async Task<ReferenceLedger> CheckReferencesAsync(string dataset, IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy,
+        string rowsField, string refusal, CancellationToken cancellation, IReadOnlyList<int>? rowIndexes = null)
+    {
+        long latest = store.GetLatestVersion(dataset);
+        ReferenceLedger ledger = await LedgerAsync(dataset, latest, cancellation);
+        (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
+            rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest, cancellation)).Entries,
+            rowsField, rowIndexes);
+        if (violations.Count > 0)
+        {
+            throw RpcErrors.InvalidArgument(BatchValidation.Summarize(refusal, violations), violations, ErrorReasons.InvalidEntry);
+        }
+
+        return next;
     }
 
     /// <summary>The reference ledger of <paramref name="version"/> (empty for none), remembered or read once.</summary>
@@ -131,18 +146,32 @@ public sealed class DatasetGrpcService(
     public override async Task<ImportEntriesResponse> CommitImport(CommitImportRequest request, ServerCallContext context)
     {
         RequireSessionId(request.SessionId);
+        // Under reject only the total-energy rows take part in the reference check, so only they are read; under
+        // replace any row may supersede a stored reference entry.
+        StagedImport staged = await Task.Run(() => store.ReadStagedImport(request.SessionId, TotalEnergyTokens));
+        if (staged.Session.Policy == Store.DuplicatePolicy.Replace) staged = await Task.Run(() => store.ReadStagedImport(request.SessionId));
+        string dataset = staged.Session.DatasetName;
         ImportResult result;
-        try
+        // The same reference check as ImportEntries, under the same lock, over the whole session as one batch.
+        using (await imports.EnterAsync(dataset, context.CancellationToken))
         {
-            result = await Task.Run(() => store.CommitImport(request.SessionId));
-        }
-        catch (DuplicateEntryException e)
-        {
-            // At commit the row is named by its place in the whole session, not in a request's entries.
-            string field = $"staged[{e.RowIndex}].id";
-            throw e.ExistingVersion is null
-                ? RpcErrors.InvalidArgument(e.Message, [new FieldViolation(field, e.Message)], ErrorReasons.InvalidEntry)
-                : RpcErrors.EntryIdExists(e.EntryId ?? string.Empty, e.Message + "; choose the replace duplicate policy to supersede it", field, e.Message);
+            ReferenceLedger next = await CheckReferencesAsync(dataset, staged.Rows.Select(r => r.Row).ToArray(), staged.Session.Policy,
+                "staged", "the commit was refused; nothing was written and the session is still open", context.CancellationToken,
+                staged.Rows.Select(r => r.Index).ToArray());
+            try
+            {
+                result = await Task.Run(() => store.CommitImport(request.SessionId, staged.Session.StagedCount));
+            }
+            catch (DuplicateEntryException e)
+            {
+                // At commit the row is named by its place in the whole session, not in a request's entries.
+                string field = $"staged[{e.RowIndex}].id";
+                throw e.ExistingVersion is null
+                    ? RpcErrors.InvalidArgument(e.Message, [new FieldViolation(field, e.Message)], ErrorReasons.InvalidEntry)
+                    : RpcErrors.EntryIdExists(e.EntryId ?? string.Empty, e.Message + "; choose the replace duplicate policy to supersede it", field, e.Message);
+            }
+
+            imports.Remember(dataset, result.NewVersion, next);
         }
 
         return new ImportEntriesResponse

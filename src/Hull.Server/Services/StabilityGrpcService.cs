@@ -38,7 +38,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         EndMemberBasis? basis = EndMemberList.Read(request.EndMembers, snapshot, "end_members");
         if (basis is not null)
         {
-            CachedHull pseudo = await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken);
+            CachedHull pseudo = await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken, references);
             for (int i = 0; i < rows.Length; i++)
             {
                 if (!pseudo.TryStabilityOf(request.EntryIds[i], out Core.Thermo.EntryStability stability))
@@ -51,6 +51,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
                 response.Results.Add(WireMapping.ToWire(stability, snapshot.FormulasAsStored[rows[i]]));
             }
 
+            response.Coverage.Add(WireMapping.ToWire(pseudo.Hull.Coverage));
+            response.References.AddRange(pseudo.Hull.References.Select(WireMapping.ToWire));
             return response;
         }
 
@@ -178,10 +180,12 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        if (await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, context) is { } pseudo)
+        if (await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, references, context) is { } pseudo)
         {
             var onEndMembers = new GetStablePhasesResponse { Used = WireMapping.ToWire(snapshot.Version), ChemicalSystem = pseudo.Hull.SystemName };
             onEndMembers.Phases.AddRange(pseudo.Hull.StablePhases.Select(WireMapping.ToWire));
+            onEndMembers.Coverage.Add(WireMapping.ToWire(pseudo.Hull.Coverage));
+            onEndMembers.References.AddRange(pseudo.Hull.References.Select(WireMapping.ToWire));
             return onEndMembers;
         }
 
@@ -215,7 +219,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         IReadOnlyList<string>? elements = request.EndMembers.Count > 0 ? null : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        CachedHull hull = await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, context)
+        CachedHull hull = await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, references, context)
                           ?? await cache.GetHullAsync(snapshot, elements!, context.CancellationToken, references);
         var response = new GetHullFacetsResponse
         {
@@ -271,8 +275,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
     }
 
     /// <summary>The hull over the request's end-members, or null when it names none.</summary>
-    private async Task<CachedHull?> EndMemberHullAsync(
-        IReadOnlyList<EndMember> endMembers, string chemicalSystem, VersionSnapshot snapshot, ServerCallContext context)
+    private async Task<CachedHull?> EndMemberHullAsync(IReadOnlyList<EndMember> endMembers, string chemicalSystem,
+        VersionSnapshot snapshot, ElementalReferenceList references, ServerCallContext context)
     {
         if (endMembers.Count == 0) return null;
         if (chemicalSystem.Length > 0)
@@ -282,7 +286,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
 
         EndMemberBasis basis = EndMemberList.Read(endMembers, snapshot, "end_members")!;
-        return await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken);
+        return await cache.GetEndMemberHullAsync(snapshot, basis, context.CancellationToken, references);
     }
 
     private async Task<VersionSnapshot> SnapshotAsync(string dataset, long version, ServerCallContext context)

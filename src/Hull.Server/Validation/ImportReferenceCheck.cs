@@ -31,19 +31,30 @@ public static class ImportReferenceCheck
     /// <param name="policy">The batch's duplicate policy (under replace, its rows supersede stored ones of the same id).</param>
     /// <param name="ledger">The base version's pure-element total-energy entries.</param>
     /// <param name="baseEntries">Reads the base version's entries; called only when the batch changes a reference.</param>
+    /// <param name="rowsField">What the violations call the rows: "entries" for a request's, "staged" for a session's at commit.</param>
+    /// <param name="rowIndexes">Each row's index in the violations' field names (a session's rows read in part keep
+    /// their place in the whole session); null when it is the row's position in <paramref name="rows"/>. Under the
+    /// reject policy, <paramref name="rows"/> may hold the total-energy rows only: the others neither set nor take a
+    /// reference; under replace every row is needed, since any of them may supersede a stored reference.</param>
     public static async Task<(IReadOnlyList<FieldViolation> Violations, ReferenceLedger Next)> CheckAsync(
-        IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, ReferenceLedger ledger, Func<Task<IReadOnlyList<PhaseEntry>>> baseEntries)
+        IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, ReferenceLedger ledger, Func<Task<IReadOnlyList<PhaseEntry>>> baseEntries,
+        string rowsField = "entries", IReadOnlyList<int>? rowIndexes = null)
     {
-        var batch = new PhaseEntry[rows.Count];
+        // Only total energies take or set references, so only they are parsed: a session can hold many rows.
+        var totals = new List<(int Row, PhaseEntry Entry)>();
         for (int i = 0; i < rows.Count; i++)
         {
-            batch[i] = new PhaseEntry(rows[i].Id, Composition.Parse(rows[i].Formula), rows[i].EnergyEv, Mapping.WireMapping.BasisOf(rows[i]));
+            EnergyBasis basis = Mapping.WireMapping.BasisOf(rows[i]);
+            if (basis is EnergyBasis.TotalPerFormulaUnit or EnergyBasis.TotalPerAtom)
+            {
+                totals.Add((i, new PhaseEntry(rows[i].Id, Composition.Parse(rows[i].Formula), rows[i].EnergyEv, basis)));
+            }
         }
 
         // Under the reject policy a repeated id fails the batch in the store anyway; either way the batch's row is
         // what the new version would hold.
         var batchIds = new HashSet<string>(rows.Select(r => r.Id), StringComparer.Ordinal);
-        ReferenceLedger next = ledger.With(batch, policy == DuplicatePolicy.Replace ? batchIds : []);
+        ReferenceLedger next = ledger.With(totals.Select(t => t.Entry), policy == DuplicatePolicy.Replace ? batchIds : []);
 
         var changed = new Dictionary<string, (ElementReference? Reference, int CauseRow)>(StringComparer.Ordinal);
         foreach (string element in ledger.Elements.Concat(next.Elements).Distinct())
@@ -52,17 +63,17 @@ public static class ImportReferenceCheck
             if (before == after) continue;
             // The row that sets the new reference, else the row that replaced the old one.
             string causeId = after is not null && batchIds.Contains(after.SourceEntryId!) ? after.SourceEntryId! : before!.SourceEntryId!;
-            changed[element] = (after, Array.FindIndex(batch, e => e.Id == causeId));
+            changed[element] = (after, FindRow(rows, causeId));
         }
 
         var violations = new List<FieldViolation>();
-        for (int i = 0; i < batch.Length; i++)
+        foreach ((int i, PhaseEntry entry) in totals)
         {
-            if (ImpliedFormation(batch[i], next) is double formation && !FormationEnergyRange.Contains(formation))
+            if (ImpliedFormation(entry, next) is double formation && !FormationEnergyRange.Contains(formation))
             {
-                violations.Add(new($"entries[{i}].energy_ev",
-                    $"id '{batch[i].Id}': {FormationEnergyRange.Describe(formation)}, implied by its total energy and the references "
-                    + $"{DescribeReferences(batch[i], next)}; check the number and its energy basis"));
+                violations.Add(new($"{rowsField}[{rowIndexes?[i] ?? i}].energy_ev",
+                    $"id '{entry.Id}' ({rows[i].Formula}): {FormationEnergyRange.Describe(formation)}, implied by its total energy and the references "
+                    + $"{DescribeReferences(entry, next)}; check the number and its energy basis"));
             }
         }
 
@@ -88,16 +99,27 @@ public static class ImportReferenceCheck
 
             foreach ((int cause, List<string> named) in pushedOut)
             {
-                string element = batch[cause].Composition.Elements.Count == 1 ? batch[cause].Composition.Elements[0] : "its element";
+                Composition causeComposition = Composition.Parse(rows[cause].Formula);
+                string element = causeComposition.Elements.Count == 1 ? causeComposition.Elements[0] : "its element";
                 ElementReference? now = changed.Values.FirstOrDefault(c => c.CauseRow == cause).Reference;
                 string setTo = now is null ? "leaves no reference" : $"sets the {element} reference to {FormationEnergyRange.Show(now.TotalEnergyEvPerAtom)} eV/atom";
-                violations.Add(new($"entries[{cause}].energy_ev",
-                    $"id '{batch[cause].Id}' {setTo}, which puts stored entries outside the accepted ±{FormationEnergyRange.MaxMagnitudeEvPerAtom:0} eV/atom "
+                violations.Add(new($"{rowsField}[{rowIndexes?[cause] ?? cause}].energy_ev",
+                    $"id '{rows[cause].Id}' {setTo}, which puts stored entries outside the accepted ±{FormationEnergyRange.MaxMagnitudeEvPerAtom:0} eV/atom "
                     + $"formation energy: {string.Join(", ", named)}; check the number, or replace those entries in the same import"));
             }
         }
 
         return (violations, next);
+    }
+
+    private static int FindRow(IReadOnlyList<EntryRow> rows, string id)
+    {
+        for (int i = 0; i < rows.Count; i++)
+        {
+            if (rows[i].Id == id) return i;
+        }
+
+        return -1;
     }
 
     /// <summary>The formation energy per atom a total-energy entry implies with the ledger's references; null when it

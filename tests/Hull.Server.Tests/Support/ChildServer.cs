@@ -19,7 +19,7 @@ public sealed class ChildServer : IDisposable
 
     public bool HasExited => _process.HasExited;
 
-    public static async Task<ChildServer> StartAsync(string dataDirectory, params string[] extraArguments)
+    private static ProcessStartInfo StartInfo(string dataDirectory, string[] extraArguments)
     {
         string serverDll = typeof(HullServer).Assembly.Location;
         var start = new ProcessStartInfo("dotnet")
@@ -33,7 +33,32 @@ public sealed class ChildServer : IDisposable
             start.ArgumentList.Add(arg);
         }
 
-        var process = Process.Start(start) ?? throw new InvalidOperationException("could not start the server process");
+        return start;
+    }
+
+    /// <summary>Runs a server that is expected to refuse to start; its exit code and both outputs (killed after the start timeout).</summary>
+    public static async Task<(int ExitCode, string Out, string Err)> RunToExitAsync(string dataDirectory, params string[] extraArguments)
+    {
+        using var process = Process.Start(StartInfo(dataDirectory, extraArguments)) ?? throw new InvalidOperationException("could not start the server process");
+        Task<string> output = process.StandardOutput.ReadToEndAsync();
+        Task<string> error = process.StandardError.ReadToEndAsync();
+        using var timeout = new CancellationTokenSource(StartTimeout);
+        try
+        {
+            await process.WaitForExitAsync(timeout.Token);
+        }
+        catch (OperationCanceledException)
+        {
+            process.Kill();
+            throw new InvalidOperationException($"the server did not exit within {StartTimeout}: {await output}");
+        }
+
+        return (process.ExitCode, await output, await error);
+    }
+
+    public static async Task<ChildServer> StartAsync(string dataDirectory, params string[] extraArguments)
+    {
+        var process = Process.Start(StartInfo(dataDirectory, extraArguments)) ?? throw new InvalidOperationException("could not start the server process");
         process.ErrorDataReceived += (_, _) => { };
         process.BeginErrorReadLine();
         using var timeout = new CancellationTokenSource(StartTimeout);
