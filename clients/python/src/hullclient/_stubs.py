@@ -9,6 +9,8 @@ try:
         defects_pb2_grpc,
         diagnostics_pb2,
         diagnostics_pb2_grpc,
+        electrochemistry_pb2,
+        electrochemistry_pb2_grpc,
         entries_pb2,
         figures_pb2,
         figures_pb2_grpc,
@@ -24,7 +26,8 @@ except ImportError as error:  # pragma: no cover - only without a generation
     ) from error
 
 # Every generated module that declares services: the client-coverage test reads their descriptors.
-SERVICE_MODULES = (datasets_pb2, defects_pb2, diagnostics_pb2, figures_pb2, stability_pb2, windows_pb2)
+SERVICE_MODULES = (datasets_pb2, defects_pb2, diagnostics_pb2, electrochemistry_pb2, figures_pb2, stability_pb2,
+                   windows_pb2)
 
 __all__ = [
     "SERVICE_MODULES",
@@ -34,6 +37,8 @@ __all__ = [
     "defects_pb2_grpc",
     "diagnostics_pb2",
     "diagnostics_pb2_grpc",
+    "electrochemistry_pb2",
+    "electrochemistry_pb2_grpc",
     "entries_pb2",
     "error_details_pb2",
     "figures_pb2",

@@ -17,6 +17,7 @@ import grpc
 import pandas as pd
 
 from hullclient import defects as d
+from hullclient import electrochemistry as ec
 from hullclient import entries as entry_input
 from hullclient import results as r
 from hullclient import _stubs as wire
@@ -169,6 +170,7 @@ class HullClient:
         self._diagnostics = wire.diagnostics_pb2_grpc.DiagnosticsServiceStub(self._channel)
         self._windows = wire.windows_pb2_grpc.WindowServiceStub(self._channel)
         self._defects = wire.defects_pb2_grpc.DefectServiceStub(self._channel)
+        self._electrochemistry = wire.electrochemistry_pb2_grpc.ElectrochemistryServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -498,11 +500,7 @@ class HullClient:
                                                               elemental_references=_references(references),
                                                               end_members=_end_members(end_members)))
         components = tuple(reply.components)
-        mu_columns = [f"chemical_potential_{c}_ev_per_atom" for c in components]
-        facets = pd.DataFrame(
-            [{"phase_ids": tuple(f.phase_ids),
-              **{f"chemical_potential_{p.component}_ev_per_atom": p.chemical_potential_ev_per_atom for p in f.chemical_potentials}}
-             for f in reply.facets], columns=["phase_ids"] + mu_columns)
+        facets = r.facets_frame(components, reply.facets)
         ties = pd.DataFrame([{"first_phase_id": t.first_phase_id, "second_phase_id": t.second_phase_id} for t in reply.tie_lines],
                             columns=["first_phase_id", "second_phase_id"])
         attrs = r.answer_attrs(reply)
@@ -711,3 +709,64 @@ class HullClient:
         self._defect_warnings(reply.warnings)
         return d.DefectFigure(r.version_used(reply.used), d.study_info(reply.study), d.point(reply.point), reply.svg,
                               reply.defect_count, reply.marked_level_count, tuple(reply.warnings))
+
+    # --- ElectrochemistryService --------------------------------------------------------------------------------
+
+    @_calls("ElectrochemistryService", "GetOpenElementHull")
+    def get_open_element_hull(self, dataset: str, chemical_system: str, open_elements: Mapping[str, float], *,
+                              version: int = 0, absolute: bool = False,
+                              allow_above_reference: bool = False) -> pd.DataFrame:
+        """The hull of `chemical_system` (every element, open ones included: "Li-Co-O") with elements open to a
+        reservoir ({'O': -1.5}: Δμ relative to the element's reference, eV/atom; with `absolute`, μ on the total
+        energies' scale). One row per entry in id order: grand potential and energy above the open hull per
+        closed-element atom, decomposition (balancing the closed elements only). attrs: used, chemical_system,
+        components (the closed elements), energy_axis, energy_unit, open_elements ({element: Δμ}), stable_phase_ids,
+        facets (closed elements' chemical potentials), excluded_entry_ids (open elements only: the reservoir)."""
+        reply = self._call(self._electrochemistry.GetOpenElementHull, self.get_open_element_hull.hull_rpc,
+                           wire.electrochemistry_pb2.GetOpenElementHullRequest(
+                               dataset=dataset, version=version, chemical_system=chemical_system,
+                               open_elements=ec.open_elements(open_elements, absolute),
+                               allow_above_reference=allow_above_reference))
+        return ec.open_hull_frame(reply)
+
+    @_calls("ElectrochemistryService", "GetVoltageProfile")
+    def get_voltage_profile(self, dataset: str, host_formula: str, ion: str, *, version: int = 0,
+                            charge_number: Optional[int] = None, inserted_end_formula: str = "",
+                            include_figure: bool = False) -> ec.VoltageProfile:
+        """The voltage profile of inserting `ion` ("Li") into the ion-poorest end-member `host_formula` ("CoO2"), up
+        to `inserted_end_formula` ("LiCoO2"; default: until the ion's metal comes in): plateaus (a DataFrame: x
+        range in ions per host formula unit, volts against the metal, phases), mean voltage, capacity and energy
+        density. charge_number: z (default 1 for Li, Na, K; 2 for Mg, Ca, Zn). include_figure: also the step-curve
+        figure (VoltageProfile.figure, SVG)."""
+        reply = self._call(self._electrochemistry.GetVoltageProfile, self.get_voltage_profile.hull_rpc,
+                           wire.electrochemistry_pb2.GetVoltageProfileRequest(
+                               dataset=dataset, version=version, host_formula=host_formula, ion=ion,
+                               inserted_end_formula=inserted_end_formula or "", include_figure=include_figure,
+                               **ec.charge_number(charge_number)))
+        return ec.voltage_profile(reply)
+
+    @_calls("ElectrochemistryService", "GetReactionProfile")
+    def get_reaction_profile(self, dataset: str, first: str, second: str, *, version: int = 0,
+                             open_elements: Optional[Mapping[str, float]] = None, absolute: bool = False,
+                             allow_above_reference: bool = False, include_figure: bool = False) -> ec.ReactionProfile:
+        """The reaction energy of two phases in contact (each a formula, its lowest-energy entry, or 'entry:ID')
+        over the whole mixing ratio: every breakpoint (a DataFrame, x = share of the mixture's atoms from `first`),
+        the most negative and its products. open_elements as get_open_element_hull (energies then per
+        closed-element atom). include_figure: also the profile figure (ReactionProfile.figure, SVG)."""
+        reply = self._call(self._electrochemistry.GetReactionProfile, self.get_reaction_profile.hull_rpc,
+                           wire.electrochemistry_pb2.GetReactionProfileRequest(
+                               dataset=dataset, version=version, first=_compound(first), second=_compound(second),
+                               open_elements=ec.open_elements(open_elements, absolute),
+                               allow_above_reference=allow_above_reference, include_figure=include_figure))
+        return ec.reaction_profile(reply)
+
+    @_calls("ElectrochemistryService", "GetElectrochemicalWindow")
+    def get_electrochemical_window(self, dataset: str, phase: str, ion: str, *, version: int = 0,
+                                   charge_number: Optional[int] = None) -> ec.ElectrochemicalWindow:
+        """The voltages against ion/ion+ ("Li": against Li/Li+) between which `phase` (a formula or 'entry:ID') is
+        stable, Δμ of the ion at each end, and what the phase turns into beyond each."""
+        reply = self._call(self._electrochemistry.GetElectrochemicalWindow, self.get_electrochemical_window.hull_rpc,
+                           wire.electrochemistry_pb2.GetElectrochemicalWindowRequest(
+                               dataset=dataset, version=version, phase=_compound(phase), ion=ion,
+                               **ec.charge_number(charge_number)))
+        return ec.electrochemical_window(reply)

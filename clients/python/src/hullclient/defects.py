@@ -15,7 +15,7 @@ from typing import Mapping, Optional, Tuple
 import pandas as pd
 
 from hullclient import _stubs as wire
-from hullclient.results import VersionUsed, timestamp
+from hullclient.results import SvgText, VersionUsed, timestamp
 
 
 class DefectWarning(UserWarning):
@@ -107,7 +107,7 @@ class TransitionLevels:
 
 
 @dataclass(frozen=True)
-class DefectFigure:
+class DefectFigure(SvgText):
     """Formation energy against Fermi level at one point, drawn by the server."""
 
     used: VersionUsed
@@ -117,14 +117,6 @@ class DefectFigure:
     defect_count: int
     marked_level_count: int
     warnings: Tuple[str, ...]
-
-    def save(self, path) -> Path:
-        target = Path(path)
-        target.write_text(self.svg, encoding="utf-8")
-        return target
-
-    def _repr_svg_(self):
-        return self.svg
 
 
 _GAS_REFERENCES = {"fitted": 1, "computed": 2}

@@ -126,8 +126,22 @@ class CacheStatistics:
     cached_hulls: int
 
 
+class SvgText:
+    """A figure drawn by the server, for dataclasses with an `svg` field (the SVG text): save() writes it, and
+    notebooks draw it inline."""
+
+    def save(self, path) -> Path:
+        """Writes the SVG (UTF-8) and returns the path."""
+        target = Path(path)
+        target.write_text(self.svg, encoding="utf-8")
+        return target
+
+    def _repr_svg_(self):
+        return self.svg
+
+
 @dataclass(frozen=True)
-class Figure:
+class Figure(SvgText):
     """A phase diagram drawn by the server: SVG text and what it shows."""
 
     used: VersionUsed
@@ -140,16 +154,6 @@ class Figure:
     unstable_shown_count: int
     hidden_above_cutoff_count: int
     max_above_hull_ev_per_atom: float
-
-    def save(self, path) -> Path:
-        """Writes the SVG (UTF-8) and returns the path."""
-        target = Path(path)
-        target.write_text(self.svg, encoding="utf-8")
-        return target
-
-    def _repr_svg_(self):
-        # Notebooks draw the figure inline.
-        return self.svg
 
 
 @dataclass(frozen=True)
@@ -354,6 +358,15 @@ def hull_energy_row(m) -> dict:
 
 
 STABLE_PHASE_COLUMNS = ("phase_id", "formula", "formation_energy_ev_per_atom", "is_elemental_reference")
+
+
+def facets_frame(components, facets) -> pd.DataFrame:
+    """One row per facet: `phase_ids` and `chemical_potential_<component>_ev_per_atom` per component."""
+    mu_columns = [f"chemical_potential_{c}_ev_per_atom" for c in components]
+    return pd.DataFrame(
+        [{"phase_ids": tuple(f.phase_ids),
+          **{f"chemical_potential_{p.component}_ev_per_atom": p.chemical_potential_ev_per_atom for p in f.chemical_potentials}}
+         for f in facets], columns=["phase_ids"] + mu_columns)
 
 
 def stable_phases_frame(messages) -> pd.DataFrame:
