@@ -425,7 +425,10 @@ public sealed class LinearProgramHull : IHullStability
         {
             foreach (int q in current)
             {
-                if (!IsVertexColumn(q)) excluded[Array.IndexOf(block.Points, q)] = true;
+                // A first decomposition may come from a larger block (a vertex candidate solved over every column)
+                // and name a column this block lacks: it cannot come back from a solve here.
+                int column = IsVertexColumn(q) ? -1 : Array.IndexOf(block.Points, q);
+                if (column >= 0) excluded[column] = true;
             }
             solver.Solve(block, x, -1, basis, weights, warm: false, excluded);
             var (points, fractions) = Decomposition(block, basis, weights);
