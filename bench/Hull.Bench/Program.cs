@@ -8,7 +8,7 @@ using Hull.Bench.Suites;
 //                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
-    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|dataset60|figures|windows|defect-ewald|electrochemistry> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     return 2;
 }
@@ -21,10 +21,14 @@ if (args[0] == "solve-file")
 
 if (args[0] == "write-points")
 {
-    // write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse SEED PATH: one generated case, for profiling by hand.
-    if (args.Length != 7) { Console.Error.WriteLine("usage: Hull.Bench write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse SEED PATH"); return 2; }
-    var dist = Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[4], ignoreCase: true);
-    var pts = Hull.Bench.Data.LatticeGenerator.Generate(int.Parse(args[1]), int.Parse(args[2]), int.Parse(args[3]), dist, int.Parse(args[5]));
+    // write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse|pair|faceted SEED PATH: one generated case, for profiling
+    // by hand (pair and faceted ignore MAX_ATOMS; the suites' families use 12).
+    if (args.Length != 7) { Console.Error.WriteLine("usage: Hull.Bench write-points COMPONENTS ENTRIES MAX_ATOMS dense|sparse|pair|faceted SEED PATH"); return 2; }
+    var family = Enum.Parse<Hull.Bench.Data.PointFamily>(args[4], ignoreCase: true);
+    var pts = family is Hull.Bench.Data.PointFamily.Pair or Hull.Bench.Data.PointFamily.Faceted
+        ? Hull.Bench.Data.PointFamilies.Generate(family, int.Parse(args[1]), int.Parse(args[2]), int.Parse(args[5]))
+        : Hull.Bench.Data.LatticeGenerator.Generate(int.Parse(args[1]), int.Parse(args[2]), int.Parse(args[3]),
+            family == Hull.Bench.Data.PointFamily.Dense ? Hull.Bench.Data.EnergyDistribution.Dense : Hull.Bench.Data.EnergyDistribution.Sparse, int.Parse(args[5]));
     pts.WriteAmountsFile(args[6]);
     pts.WriteQhullFile(args[6] + ".qhull");
     return 0;
@@ -65,7 +69,9 @@ try
         WindowsSuite.Name => WindowsSuite.Run(options, work),
         DefectEwaldSuite.Name => DefectEwaldSuite.Run(options, repoRoot),
         ElectrochemistrySuite.Name => ElectrochemistrySuite.Run(options, work),
-        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, dataset60, figures, windows, defect-ewald, electrochemistry)"),
+        EngineChoiceSuite.Name => EngineChoiceSuite.Run(options),
+        FamiliesSuite.Name => FamiliesSuite.Run(options, work, repoRoot),
+        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, families, engine-choice, dataset60, figures, windows, defect-ewald, electrochemistry)"),
     };
     report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";
     MarkdownReport.Write(repoRoot, options.Quick ? suite + "-quick" : suite, report);

@@ -10,15 +10,19 @@ public sealed partial class DatasetStore
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
     private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata";
 
-    /// <summary>The latest live version, or <see cref="NoVersion"/> when the dataset has none.</summary>
+    /// <summary>
+    /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
+    /// commit to the database by any connection or process (see <see cref="LatestVersionMemory"/>).
+    /// </summary>
     public long GetLatestVersion(string datasetName)
     {
         DatasetName.Validate(datasetName);
-        return Read((connection, transaction) =>
+        ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
+        return _latest.Get(datasetName, () => Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
-        });
+        }));
     }
 
     /// <summary>Every live version with its provenance, oldest first.</summary>

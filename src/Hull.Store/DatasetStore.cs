@@ -27,6 +27,7 @@ public sealed partial class DatasetStore : IDisposable
     private const int SqliteNotADatabase = 26;
 
     private readonly ConnectionFactory _connections;
+    private readonly LatestVersionMemory _latest;
     private readonly TimeProvider _clock;
 
     // One writer at a time inside this process; other processes are kept out by SQLite's own write lock.
@@ -36,6 +37,7 @@ public sealed partial class DatasetStore : IDisposable
     private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock)
     {
         _connections = connections;
+        _latest = new LatestVersionMemory(connections);
         _clock = clock;
         DataDirectory = dataDirectory;
     }
@@ -140,6 +142,7 @@ public sealed partial class DatasetStore : IDisposable
     public void Dispose()
     {
         if (Interlocked.Exchange(ref _disposed, 1) != 0) return;
+        _latest.Dispose();
         _connections.ClearPool();
     }
 

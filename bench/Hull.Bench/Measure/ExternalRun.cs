@@ -7,6 +7,9 @@ namespace Hull.Bench.Measure;
 public sealed record ExternalRunResult(double WallMilliseconds, double PeakMegabytes, int ExitCode, bool TimedOut, string StandardOutput, string StandardError)
 {
     public bool Succeeded => !TimedOut && ExitCode == 0;
+
+    /// <summary>User plus system CPU time of the child (GNU time), ms: on a shared machine its work, apart from the waits.</summary>
+    public double CpuMilliseconds { get; init; } = double.NaN;
 }
 
 /// <summary>
@@ -52,16 +55,26 @@ public static class ExternalRun
             p.WaitForExit();
         }
         sw.Stop();
-        double peak = double.NaN;
+        double peak = double.NaN, userSeconds = double.NaN, systemSeconds = double.NaN;
         try
         {
             foreach (var line in File.ReadLines(timeFile))
             {
                 var t = line.Trim();
                 const string key = "Maximum resident set size (kbytes):";
+                const string user = "User time (seconds):";
+                const string system = "System time (seconds):";
                 if (t.StartsWith(key, StringComparison.Ordinal))
                 {
                     peak = double.Parse(t.Substring(key.Length).Trim(), CultureInfo.InvariantCulture) / 1024.0;
+                }
+                else if (t.StartsWith(user, StringComparison.Ordinal))
+                {
+                    userSeconds = double.Parse(t.Substring(user.Length).Trim(), CultureInfo.InvariantCulture);
+                }
+                else if (t.StartsWith(system, StringComparison.Ordinal))
+                {
+                    systemSeconds = double.Parse(t.Substring(system.Length).Trim(), CultureInfo.InvariantCulture);
                 }
             }
         }
@@ -69,6 +82,9 @@ public static class ExternalRun
         {
             File.Delete(timeFile);
         }
-        return new ExternalRunResult(sw.Elapsed.TotalMilliseconds, peak, exited ? p.ExitCode : -1, !exited, stdout.Result, stderr.Result);
+        return new ExternalRunResult(sw.Elapsed.TotalMilliseconds, peak, exited ? p.ExitCode : -1, !exited, stdout.Result, stderr.Result)
+        {
+            CpuMilliseconds = 1000 * (userSeconds + systemSeconds),
+        };
     }
 }

@@ -12,6 +12,9 @@ public sealed class HullCaseResult
     public double ProcessMedianMs { get; set; } = double.NaN;
     public int ProcessReps { get; set; }
     public double QconvexMedianMs { get; set; } = double.NaN;
+    /// <summary>Medians of the whole processes' CPU time (user + system, ms): ours summed over its threads.</summary>
+    public double ProcessCpuMedianMs { get; set; } = double.NaN;
+    public double QconvexCpuMedianMs { get; set; } = double.NaN;
     public int QconvexReps { get; set; }
     /// <summary>"ok", or why qconvex has no time (e.g. "no finish in 120 s", "exit 2").</summary>
     public string QconvexStatus { get; set; } = "not run";
@@ -34,4 +37,5 @@ public sealed class HullCaseResult
 
     public double RatioToProcess => QconvexMedianMs / ProcessMedianMs;
     public double RatioToInProcess => QconvexMedianMs / InProcessMedianMs;
+    public double CpuRatioToProcess => QconvexCpuMedianMs / ProcessCpuMedianMs;
 }

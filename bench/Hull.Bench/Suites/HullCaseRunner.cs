@@ -57,6 +57,8 @@ public static class HullCaseRunner
         CheckReadBack(oursFile, pts);
 
         var procTimes = new List<double>();
+        var procCpu = new List<double>();
+        var qCpu = new List<double>();
         var procPeaks = new List<double>();
         bool oursFinished = true;
         if (plan.OursCap is { } oursCap)
@@ -126,6 +128,7 @@ public static class HullCaseRunner
                 if (!run.Succeeded) throw new InvalidOperationException($"our whole-process run failed (exit {run.ExitCode}): {run.StandardError}");
                 CheckProcessSummary(run.StandardOutput, result, inProcessSummary);
                 procTimes.Add(run.WallMilliseconds);
+                procCpu.Add(run.CpuMilliseconds);
                 procPeaks.Add(run.PeakMegabytes);
                 if (run.WallMilliseconds > LongRunMs && procTimes.Count < plan.ProcessReps)
                 {
@@ -152,6 +155,7 @@ public static class HullCaseRunner
                 else
                 {
                     qTimes.Add(q.Process.WallMilliseconds);
+                    qCpu.Add(q.Process.CpuMilliseconds);
                     qPeaks.Add(q.Process.PeakMegabytes);
                     result.QconvexFacets = q.Facets;
                     result.QconvexStatus = "ok";
@@ -167,6 +171,7 @@ public static class HullCaseRunner
         if (procTimes.Count > 0)
         {
             result.ProcessMedianMs = Stats.Median(procTimes);
+            result.ProcessCpuMedianMs = Stats.Median(procCpu);
             result.ProcessReps = procTimes.Count;
             result.PeakProcessMb = procPeaks.Max();
             Console.WriteLine($"   ours whole process: median {result.ProcessMedianMs:F1} ms over {procTimes.Count} ({Join(procTimes)}), peak {result.PeakProcessMb:F0} MB");
@@ -174,6 +179,7 @@ public static class HullCaseRunner
         if (qTimes.Count > 0)
         {
             result.QconvexMedianMs = Stats.Median(qTimes);
+            result.QconvexCpuMedianMs = Stats.Median(qCpu);
             result.QconvexReps = qTimes.Count;
             result.PeakQconvexMb = qPeaks.Max();
             Console.WriteLine($"   qconvex whole process: median {result.QconvexMedianMs:F1} ms over {qTimes.Count} ({Join(qTimes)}), full-hull facets {result.QconvexFacets}, peak {result.PeakQconvexMb:F0} MB");
@@ -286,7 +292,7 @@ public static class HullCaseRunner
         }
     }
 
-    private static int CountDistinctCompositions(PointSet pts)
+    public static int CountDistinctCompositions(PointSet pts)
     {
         var set = new HashSet<string>();
         foreach (var row in pts.Amounts)

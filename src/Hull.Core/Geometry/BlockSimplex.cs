@@ -200,6 +200,12 @@ internal sealed class BlockSimplex
         return value;
     }
 
+    /// <summary>
+    /// Whether some column other than <paramref name="excluded"/> lies below the plane <paramref name="mu"/> (over the
+    /// block's rows) by more than the entering threshold: false means the plane is optimal over the whole block.
+    /// </summary>
+    public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded) => LowestBelow(block, mu, excluded) >= 0;
+
     /// <summary>The column with the most negative reduced cost E_j − mu·x_j below −threshold, or -1 (Dantzig's rule).</summary>
     private static int LowestBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded)
     {

@@ -264,43 +264,131 @@ public sealed class LinearProgramHull : IHullStability
                 continue;
             }
             var block = ColumnBlock.Gather(mask, _groups, _input);
-            int chunks = (points.Length + ChunkSize - 1) / ChunkSize;
-            int rows = block.Components.Length;
-            // Each chunk warm-starts from its own previous composition only, so the result (including which of
-            // several equal decompositions is reported) does not depend on how threads share the chunks.
-            void SolveChunk(int chunk)
-            {
-                var solver = new BlockSimplex(rows);
-                var basis = new int[rows];
-                var weights = new double[rows];
-                var x = new double[rows];
-                bool warm = false;
-                int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
-                for (int q = chunk * ChunkSize; q < end; q++)
-                {
-                    int p = points[q];
-                    block.Restrict(_input.FractionsOf(p), x);
-                    double without = solver.Solve(block, x, block.OwnGroupStart + q, basis, weights, warm);
-                    warm = true;
-                    Record(p, block, basis, weights, without);
-                }
-            }
-
-            // Small groups (the many small hulls of a dataset, already built in parallel one level up) run inline:
-            // handing them to the thread pool costs more than it saves and makes the outer workers spin.
-            bool parallel = chunks > 1 && (long)points.Length * block.Count * rows >= ParallelWork;
-            if (parallel) Parallel.For(0, chunks, SolveChunk);
-            else for (int chunk = 0; chunk < chunks; chunk++) SolveChunk(chunk);
-
-            // Every subset mask is numerically smaller, so all columns of this block now have their vertex status.
-            void FinishChunk(int chunk)
-            {
-                int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
-                for (int q = chunk * ChunkSize; q < end; q++) FinishDecomposition(points[q], block);
-            }
-            if (parallel) Parallel.For(0, chunks, FinishChunk);
-            else for (int chunk = 0; chunk < chunks; chunk++) FinishChunk(chunk);
+            if (!TrySolveGroupOverCandidates(block, points)) SolveGroup(block, points);
         }
+    }
+
+    /// <summary>Runs <paramref name="work"/> for every chunk of a group, on all cores when the group is large.</summary>
+    private static void ForEachChunk(int count, long workPerPoint, Action<int> work)
+    {
+        int chunks = (count + ChunkSize - 1) / ChunkSize;
+        // Small groups (the many small hulls of a dataset, already built in parallel one level up) run inline:
+        // handing them to the thread pool costs more than it saves and makes the outer workers spin.
+        if (chunks > 1 && count * workPerPoint >= ParallelWork) Parallel.For(0, chunks, work);
+        else for (int chunk = 0; chunk < chunks; chunk++) work(chunk);
+    }
+
+    /// <summary>What to do with one composition's optimum; returns whether the next solve may start from this basis.</summary>
+    private delegate bool SolvedHandler(int q, int point, double[] x, BlockSimplex solver, int[] basis, double[] weights, double value);
+
+    /// <summary>
+    /// Solves the program of each of <paramref name="points"/> (one group) over <paramref name="columns"/>, without
+    /// column <paramref name="excludedColumn"/>(q) (-1: none), chunk by chunk. Each chunk warm-starts from its own
+    /// previous composition only, so the result (including which of several equal decompositions is reported) does
+    /// not depend on how threads share the chunks.
+    /// </summary>
+    private void SolveEach(int[] points, ColumnBlock columns, Func<int, int> excludedColumn, SolvedHandler onSolved)
+    {
+        int rows = columns.Components.Length;
+        ForEachChunk(points.Length, (long)columns.Count * rows, chunk =>
+        {
+            var solver = new BlockSimplex(rows);
+            var basis = new int[rows];
+            var weights = new double[rows];
+            var x = new double[rows];
+            bool warm = false;
+            int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
+            for (int q = chunk * ChunkSize; q < end; q++)
+            {
+                int p = points[q];
+                columns.Restrict(_input.FractionsOf(p), x);
+                double value = solver.Solve(columns, x, excludedColumn(q), basis, weights, warm);
+                warm = onSolved(q, p, x, solver, basis, weights, value);
+            }
+        });
+    }
+
+    /// <summary>Makes every decomposition of the group one into vertices, over the columns of <paramref name="columns"/>.</summary>
+    private void FinishGroup(int[] points, ColumnBlock columns)
+    {
+        ForEachChunk(points.Length, (long)columns.Count * columns.Components.Length, chunk =>
+        {
+            int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
+            for (int q = chunk * ChunkSize; q < end; q++) FinishDecomposition(points[q], columns);
+        });
+    }
+
+    /// <summary>The group's compositions each against every other column of the block.</summary>
+    private void SolveGroup(ColumnBlock block, int[] points)
+    {
+        SolveEach(points, block, q => block.OwnGroupStart + q, (_, p, _, _, basis, weights, without) =>
+        {
+            Record(p, block, basis, weights, without);
+            return true;
+        });
+        // Every subset mask is numerically smaller, so all columns of this block now have their vertex status.
+        FinishGroup(points, block);
+    }
+
+    /// <summary>
+    /// Above this share of vertices among the subset columns a group is solved over all its columns: nearly every
+    /// column would be kept, and the first pass below would be spent for nothing.
+    /// </summary>
+    private const double CandidatesUpToVertexShare = 0.5;
+
+    /// <summary>
+    /// Solves a group over the columns that can matter, when few of the block's columns are vertices. The lower
+    /// hull of a set is the hull of its vertices, and the subset columns' vertex status is known (their groups come
+    /// first), so only three kinds of column take part: the subset vertices; the group's own candidates, those
+    /// below the hull of the subset vertices by more than the tolerance (every vertex of the group is one, as the
+    /// hull without a vertex lies at or below that hull); and, where a composition turns out a vertex, every column
+    /// of the block, since removing a vertex can expose points that are no vertex of the whole set. Its
+    /// hull energy without itself is then checked against the plane of the small program's optimum: the answer
+    /// stands when no column of the block lies below that plane (the optimality condition over the whole block),
+    /// and is solved over the whole block otherwise. A composition that is no vertex has the hull of all vertices
+    /// above it, which the small program holds in full. Returns false, having done nothing, where most subset
+    /// columns are vertices.
+    /// </summary>
+    private bool TrySolveGroupOverCandidates(ColumnBlock block, int[] points)
+    {
+        int own = block.OwnGroupStart;
+        var subsetVertices = new List<int>();
+        for (int j = 0; j < own; j++) if (_isVertex[block.Points[j]]) subsetVertices.Add(block.Points[j]);
+        if (subsetVertices.Count > CandidatesUpToVertexShare * own) return false;
+
+        var bound = ColumnBlock.FromPoints(block.Components, subsetVertices, _input);
+        var candidate = new bool[points.Length];
+        SolveEach(points, bound, _ => -1, (q, p, _, _, _, _, above) =>
+        {
+            candidate[q] = _input.Energies[p] < above - HullTolerances.EnergyEvPerAtom;
+            return true;
+        });
+
+        var kept = new List<int>(subsetVertices);
+        var columnOf = new int[points.Length];
+        for (int q = 0; q < points.Length; q++)
+        {
+            columnOf[q] = candidate[q] ? kept.Count : -1;
+            if (candidate[q]) kept.Add(points[q]);
+        }
+        var small = ColumnBlock.FromPoints(block.Components, kept, _input);
+        int rows = block.Components.Length;
+        SolveEach(points, small, q => columnOf[q], (q, p, x, solver, basis, weights, without) =>
+        {
+            if (!(_input.Energies[p] < without - HullTolerances.EnergyEvPerAtom && BlockSimplex.AnyColumnBelow(block, solver.Plane, own + q)))
+            {
+                Record(p, small, basis, weights, without);
+                return true;
+            }
+            // A vertex whose removal exposes a column left out: its program over the whole block, from the corners.
+            var wholeBasis = new int[rows];
+            without = new BlockSimplex(rows).Solve(block, x, own + q, wholeBasis, weights, warm: false);
+            Record(p, block, wholeBasis, weights, without);
+            return true;
+        });
+        // Every vertex of the block is a column of the small one, so decompositions into vertices are found there.
+        FinishGroup(points, small);
+        return true;
     }
 
     /// <summary>
@@ -326,7 +414,8 @@ public sealed class LinearProgramHull : IHullStability
     {
         int rows = block.Components.Length;
         var excluded = new bool[block.Count];
-        if (ownPoint >= 0) excluded[Array.IndexOf(block.Points, ownPoint)] = true;
+        int ownColumn = ownPoint < 0 ? -1 : Array.IndexOf(block.Points, ownPoint);
+        if (ownColumn >= 0) excluded[ownColumn] = true;
         var solver = new BlockSimplex(rows);
         var basis = new int[rows];
         var weights = new double[rows];
@@ -336,7 +425,10 @@ public sealed class LinearProgramHull : IHullStability
         {
             foreach (int q in current)
             {
-                if (!IsVertexColumn(q)) excluded[Array.IndexOf(block.Points, q)] = true;
+                // A first decomposition may come from a larger block (a vertex candidate solved over every column)
+                // and name a column this block lacks: it cannot come back from a solve here.
+                int column = IsVertexColumn(q) ? -1 : Array.IndexOf(block.Points, q);
+                if (column >= 0) excluded[column] = true;
             }
             solver.Solve(block, x, -1, basis, weights, warm: false, excluded);
             var (points, fractions) = Decomposition(block, basis, weights);

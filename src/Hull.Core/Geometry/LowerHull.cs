@@ -56,8 +56,9 @@ public sealed class LowerHull : IHullStability
     private readonly int[] _compositionFacet;
     private readonly double[] _hullEnergy;
 
-    private LowerHull(HullInput input)
+    private LowerHull(HullInput input, FacetLimits limits)
     {
+        _limits = limits;
         _n = input.ComponentCount;
         _input = input;
         _energies = input.Energies;
@@ -145,12 +146,26 @@ public sealed class LowerHull : IHullStability
         return Build(HullInput.Check(amounts, energiesEvPerAtom));
     }
 
-    internal static LowerHull Build(HullInput input)
+    internal static LowerHull Build(HullInput input) => Build(input, FacetLimits.None);
+
+    /// <summary>
+    /// As <see cref="Build(HullInput)"/>, stopping with <see cref="FacetBudgetExceededException"/> at the first of
+    /// the <paramref name="limits"/> reached (rebuilds count towards the total).
+    /// </summary>
+    internal static LowerHull Build(HullInput input, FacetLimits limits)
     {
-        var hull = new LowerHull(input);
+        var hull = new LowerHull(input, limits);
         hull.Construct();
         return hull;
     }
+
+    /// <summary>Facets construction made, removed ones and rebuilds included: the work the hull took.</summary>
+    public long FacetsMade { get; private set; }
+
+    /// <summary>Points construction added, rebuilds included (each builds its star of new facets).</summary>
+    public long PointsAdded { get; private set; }
+
+    private readonly FacetLimits _limits;
 
     /// <summary>
     /// The hull energy at point i's composition when every point of that composition is left out (eV/atom), or null
@@ -294,24 +309,32 @@ public sealed class LowerHull : IHullStability
     private void BuildAndRepair(HullInput input, int[] pure, int[] building, int[] candidates, bool[] left)
     {
         int[] compositionOf = input.CompositionOf;
-        var builder = new LowerHullBuilder(input);
-        var facets = builder.Build(pure, building);
-        for (int round = 0; ; round++)
+        var builder = new LowerHullBuilder(input, _limits.After(FacetsMade));
+        try
         {
-            SetFacets(facets, builder.LowerNeighbors());
-            var below = LocateCandidates(candidates);
-            // A point left out may lie below a hull that is not complete yet; it is judged on the completed one.
-            var handBack = below.Where(b => !left[compositionOf[b.Point]]).ToList();
-            if (handBack.Count == 0)
+            var facets = builder.Build(pure, building);
+            for (int round = 0; ; round++)
             {
-                handBack = below.Where(b => _hullEnergy[compositionOf[b.Point]] - _energies[b.Point] > LeftOutSlackEvPerAtom).ToList();
+                SetFacets(facets, builder.LowerNeighbors());
+                var below = LocateCandidates(candidates);
+                // A point left out may lie below a hull that is not complete yet; it is judged on the completed one.
+                var handBack = below.Where(b => !left[compositionOf[b.Point]]).ToList();
+                if (handBack.Count == 0)
+                {
+                    handBack = below.Where(b => _hullEnergy[compositionOf[b.Point]] - _energies[b.Point] > LeftOutSlackEvPerAtom).ToList();
+                }
+                if (handBack.Count == 0) break;
+                if (round == MaxRepairRounds)
+                {
+                    throw new InvalidOperationException($"The hull could not be completed: {handBack.Count} points remain below it after {MaxRepairRounds} repairs.");
+                }
+                facets = builder.Repair(handBack.Select(b => (b.Point, builder.InternalId(b.Facet))).ToList());
             }
-            if (handBack.Count == 0) break;
-            if (round == MaxRepairRounds)
-            {
-                throw new InvalidOperationException($"The hull could not be completed: {handBack.Count} points remain below it after {MaxRepairRounds} repairs.");
-            }
-            facets = builder.Repair(handBack.Select(b => (b.Point, builder.InternalId(b.Facet))).ToList());
+        }
+        finally
+        {
+            FacetsMade += builder.FacetsMade;
+            PointsAdded += builder.PointsAdded;
         }
     }
 

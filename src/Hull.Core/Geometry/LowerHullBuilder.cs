@@ -53,8 +53,25 @@ internal sealed class LowerHullBuilder
     private readonly int[] _pivots;
     private readonly long[] _exact;
 
-    public LowerHullBuilder(HullInput input)
+    /// <summary>Facets made so far, removed ones included: the construction's work.</summary>
+    public long FacetsMade { get; private set; }
+
+    /// <summary>Points added so far (each removes the facets it lies below and builds its star).</summary>
+    public long PointsAdded { get; private set; }
+
+    /// <summary>
+    /// The facet rate is judged as if at least this many points had been added: the first stars, built on the few
+    /// facets of the start, are not representative, and this allowance (the rate limit times this many facets, a
+    /// few milliseconds of work) is about all an exploding hull costs before it is given up.
+    /// </summary>
+    public const int JudgeRateFromPoints = 50;
+
+    // Construction stops with FacetBudgetExceededException beyond either limit (see FacetLimits).
+    private readonly FacetLimits _limits;
+
+    public LowerHullBuilder(HullInput input, FacetLimits limits)
     {
+        _limits = limits;
         _n = input.ComponentCount;
         _input = input;
         _fractions = input.CompositionFractions;
@@ -157,6 +174,10 @@ internal sealed class LowerHullBuilder
 
     private void AddPoint(int start, int apex, List<int> visible, List<(int, int)> horizon, List<int> created)
     {
+        if (FacetsMade > _limits.FacetsPerPointAdded * Math.Max(++PointsAdded, JudgeRateFromPoints) || FacetsMade > _limits.TotalFacets)
+        {
+            throw new FacetBudgetExceededException(FacetsMade, PointsAdded);
+        }
         _stamp++;
         visible.Clear();
         MarkVisibleRegion(start, apex, visible);
@@ -575,6 +596,7 @@ internal sealed class LowerHullBuilder
                 mu.CopyTo(solved);
             }
         }
+        FacetsMade++;
         int f;
         if (_freeFacets.Count > 0)
         {

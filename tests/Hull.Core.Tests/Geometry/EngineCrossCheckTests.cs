@@ -37,6 +37,51 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
     public void Engines_agree_on_degenerate_data(int components, int points, int seed)
     {
         var set = DegenerateDataGenerator.Generate(components, points, seed);
+        var degeneracy = CheckEngines(set, seed);
+        // The data must exercise both kinds: vertices (their removal raises the hull there) and on-hull non-vertices.
+        Assert.True(degeneracy.Vertices >= components + 5 && degeneracy.OnHullNotVertex >= 5, $"generated data not degenerate enough: {degeneracy}");
+    }
+
+    /// <summary>
+    /// The same checks on the benchmark's own families (bench/Hull.Bench/Data, compiled into this project), smaller:
+    /// "pair" (independent amounts of every component, random pair interactions, few stable) and "faceted" (a
+    /// piecewise-planar surface with many entries exactly on hull planes), and the engine the library picks for
+    /// them, which must give the same answers as both.
+    /// </summary>
+    [Theory]
+    [InlineData("pair", 3, 1000, 601)]
+    [InlineData("pair", 4, 1000, 602)]
+    [InlineData("pair", 5, 1000, 603)]
+    [InlineData("pair", 6, 1000, 604)]
+    [InlineData("pair", 7, 300, 605)]
+    [InlineData("pair", 8, 300, 606)]
+    [InlineData("faceted", 3, 1000, 611)]
+    [InlineData("faceted", 4, 1000, 612)]
+    [InlineData("faceted", 5, 1000, 613)]
+    [InlineData("faceted", 6, 1000, 614)]
+    [InlineData("faceted", 7, 300, 615)]
+    [InlineData("faceted", 8, 200, 616)]
+    public void Engines_agree_on_bench_families(string family, int components, int points, int seed)
+    {
+        var set = BenchFamilies.Generate(family, components, points, seed);
+        // In 7–8 components a whole-hull rebuild of these data takes seconds: a few, SciPy checks every composition.
+        var degeneracy = CheckEngines(set, seed, maxRebuilds: components >= 7 ? 2 : MaxRebuilds);
+        var chosen = HullStability.Build(set.Amounts, set.EnergiesEvPerAtom);
+        var programs = LinearProgramHull.Build(set.Amounts, set.EnergiesEvPerAtom);
+        Assert.Equal(programs.VertexPoints, chosen.VertexPoints);
+        for (int i = 0; i < set.Count; i++)
+        {
+            Assert.True(Math.Abs(chosen.EnergyAboveHullEvPerAtom(i) - programs.EnergyAboveHullEvPerAtom(i)) <= SameEnergyEvPerAtom,
+                $"{set.Describe(i)}: energy above hull {chosen.EnergyAboveHullEvPerAtom(i):R} (chosen engine {chosen.GetType().Name}), {programs.EnergyAboveHullEvPerAtom(i):R} ({nameof(LinearProgramHull)})");
+        }
+        // Faceted data put many entries exactly on hull planes without being vertices.
+        if (family == "faceted") Assert.True(degeneracy.OnHullNotVertex >= 5, $"generated data not degenerate enough: {degeneracy}");
+    }
+
+    /// <summary>Every check of the engines against each other, LowerHull rebuilds and SciPy; returns how degenerate the data were.</summary>
+    private DegeneracyCount CheckEngines(PointSet set, int seed, int maxRebuilds = MaxRebuilds)
+    {
+        int components = set.ComponentCount;
         var engines = BothEngines.Build(set);
         var (facets, programs) = (engines.Facets, engines.Programs);
         var failures = new List<string>();
@@ -89,7 +134,7 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
             string key = CompositionKey(set.Amounts[i]);
             if (!rebuilt.TryGetValue(key, out double expected))
             {
-                if (rebuilt.Count == MaxRebuilds) continue;
+                if (rebuilt.Count == maxRebuilds) continue;
                 var excluded = byComposition[key].ToHashSet();
                 var keep = Enumerable.Range(0, set.Count).Where(j => !excluded.Contains(j)).ToArray();
                 var subset = LowerHull.Build(keep.Select(j => set.Amounts[j]).ToList(), keep.Select(j => set.EnergiesEvPerAtom[j]).ToList());
@@ -155,8 +200,7 @@ public sealed class EngineCrossCheckTests(ITestOutputHelper output)
             + $"{referenceVertices.Count} vertices by SciPy, {onHull.Count} non-pure points on the hull, {rebuilt.Count} rebuilds {rebuildTime.TotalMilliseconds:F0} ms, "
             + $"SciPy {referenceTime.TotalMilliseconds:F0} ms");
         Assert.True(failures.Count == 0, $"{failures.Count} disagreement(s):\n" + string.Join("\n", failures.Take(25)));
-        // The data must exercise both kinds: vertices (their removal raises the hull there) and on-hull non-vertices.
-        Assert.True(referenceVertices.Count >= components + 5 && degeneracy.OnHullNotVertex >= 5, $"generated data not degenerate enough: {degeneracy}");
+        return degeneracy with { Vertices = referenceVertices.Count };
     }
 
     private static string Tie(PointSet set, int v, List<int> onHull, IReadOnlyList<HullLpAnswer> answers)

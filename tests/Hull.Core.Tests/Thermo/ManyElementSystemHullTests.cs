@@ -27,7 +27,7 @@ public sealed class ManyElementSystemHullTests(ITestOutputHelper output)
     [InlineData(7, 150, 602)]
     public void Entries_agree_with_full_rebuild_and_scipy_lp(int elements, int points, int seed)
     {
-        Assert.True(elements >= HullStability.LinearProgramFromComponents, "the system must be large enough for the program engine");
+        Assert.True(elements >= HullStability.OnDemandProgramsFromComponents, "the system must be as large as the hulls a dataset solves by programs");
         var (entries, set) = Entries(elements, points, seed);
         var clock = Stopwatch.StartNew();
         var hull = SystemHull.OverElements(entries);

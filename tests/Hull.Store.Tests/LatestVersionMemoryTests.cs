@@ -1,0 +1,81 @@
+using System.Diagnostics;
+using Hull.Store.CrashHost;
+
+namespace Hull.Store.Tests;
+
+/// <summary>
+/// The latest version is kept in memory between commits (SQLite's PRAGMA data_version says when anyone committed):
+/// every way a commit can happen must be seen at once, from this store, another store on the same file, and
+/// another process.
+/// </summary>
+public sealed class LatestVersionMemoryTests : IDisposable
+{
+    private readonly TempDirectory _directory = new();
+    private readonly DatasetStore _store;
+
+    public LatestVersionMemoryTests()
+    {
+        _store = DatasetStore.Open(_directory.Path);
+    }
+
+    public void Dispose()
+    {
+        _store.Dispose();
+        _directory.Dispose();
+    }
+
+    [Fact]
+    public void A_commit_by_another_process_is_seen_by_the_next_question()
+    {
+        string host = Path.Combine(AppContext.BaseDirectory, "Hull.Store.CrashHost.dll");
+        RunWriter(host, batches: 1);
+        Assert.Equal(1, _store.GetLatestVersion(CrashBatches.DatasetName));
+        Assert.Equal(1, _store.GetLatestVersion(CrashBatches.DatasetName));
+
+        // The host continues from version 1 and commits versions 2 and 3 in its own process.
+        RunWriter(host, batches: 3);
+        Assert.Equal(3, _store.GetLatestVersion(CrashBatches.DatasetName));
+        Assert.Equal(3, _store.GetEntries(CrashBatches.DatasetName).Count / 4);
+    }
+
+    [Fact]
+    public void Imports_deletions_and_sessions_through_this_or_another_store_are_seen()
+    {
+        _store.CreateDataset("d");
+        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        _store.ImportBatch("d", Rows.Many("a", 2), DuplicatePolicy.Reject, BatchProvenance.None);
+        Assert.Equal(1, _store.GetLatestVersion("d"));
+
+        using (var other = DatasetStore.Open(_directory.Path))
+        {
+            Assert.Equal(1, other.GetLatestVersion("d"));
+            other.ImportBatch("d", Rows.Many("b", 2), DuplicatePolicy.Reject, BatchProvenance.None);
+            Assert.Equal(2, _store.GetLatestVersion("d"));
+            Assert.Equal(2, other.GetLatestVersion("d"));
+        }
+
+        // A session's staged batches are commits too, but no version: the latest stays until the session commits.
+        ImportSessionInfo session = _store.BeginImport("d", DuplicatePolicy.Reject, BatchProvenance.None, TimeSpan.FromMinutes(5));
+        _store.StageBatch(session.SessionId, Rows.Many("c", 3), TimeSpan.FromMinutes(5));
+        Assert.Equal(2, _store.GetLatestVersion("d"));
+        _store.CommitImport(session.SessionId);
+        Assert.Equal(3, _store.GetLatestVersion("d"));
+
+        _store.DeleteVersion("d", 3);
+        Assert.Equal(2, _store.GetLatestVersion("d"));
+
+        _store.DeleteDataset("d");
+        Assert.Throws<DatasetNotFoundException>(() => _store.GetLatestVersion("d"));
+    }
+
+    private void RunWriter(string host, int batches)
+    {
+        var start = new ProcessStartInfo("dotnet") { RedirectStandardOutput = true, RedirectStandardError = true, UseShellExecute = false };
+        foreach (string argument in new[] { host, _directory.Path, $"{batches}", "4" }) start.ArgumentList.Add(argument);
+        using var process = Process.Start(start)!;
+        string output = process.StandardOutput.ReadToEnd();
+        string errors = process.StandardError.ReadToEnd();
+        process.WaitForExit();
+        Assert.True(process.ExitCode == 0, $"writer process failed ({process.ExitCode}): {errors}\n{output}");
+    }
+}
