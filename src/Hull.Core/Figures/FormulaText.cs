@@ -82,6 +82,33 @@ internal static class FormulaText
         return b.ToString();
     }
 
+    /// <summary>
+    /// A line of plain text and formulas (each part: its text and whether it is a formula), as the content of one
+    /// text element: formulas with subscripts, the text after a subscript back on the baseline.
+    /// </summary>
+    public static string Sentence(double fontSize, params (string Text, bool IsFormula)[] parts)
+    {
+        var b = new StringBuilder();
+        bool below = false;
+        foreach ((string text, bool isFormula) in parts)
+        {
+            if (isFormula)
+            {
+                if (below) b.Append($"<tspan dy=\"{SvgText.Px(-SubscriptDrop * fontSize)}\"></tspan>");
+                b.Append(Markup(text, fontSize, out below));
+            }
+            else
+            {
+                b.Append(After(text, below, fontSize));
+                below = false;
+            }
+        }
+
+        // Back on the baseline at the end too, so that a line's drops and rises always cancel.
+        if (below) b.Append($"<tspan dy=\"{SvgText.Px(-SubscriptDrop * fontSize)}\"></tspan>");
+        return b.ToString();
+    }
+
     /// <summary>Plain text after a formula, back on the baseline.</summary>
     public static string After(string text, bool formulaEndedBelow, double fontSize) => formulaEndedBelow
         ? $"<tspan dy=\"{SvgText.Px(-SubscriptDrop * fontSize)}\">{SvgText.Escape(text)}</tspan>"

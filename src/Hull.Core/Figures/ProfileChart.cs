@@ -48,11 +48,20 @@ internal sealed class ProfileChart
 
     public double PageY(double y) => BoxBottom - ((y - Y.Min) / (Y.Max - Y.Min) * (BoxBottom - BoxTop));
 
-    /// <summary>Heading, grid, ticks, frame and the two axis names.</summary>
-    public void DrawFrame(string heading, string xName, string yName)
+    /// <summary>One line of plain text and formulas (formulas with subscripts); <paramref name="anchor"/> is start, middle or end.</summary>
+    public void Sentence(double x, double y, double size, string anchor, (string Text, bool IsFormula)[] parts, string? extra = null) =>
+        Canvas.Raw($"<text x=\"{Px(x)}\" y=\"{Px(y)}\" xml:space=\"preserve\" font-size=\"{Px(size)}\" text-anchor=\"{anchor}\" "
+            + $"fill=\"{FigurePalette.Text}\"{(extra is null ? string.Empty : " " + extra)}>{FormulaText.Sentence(size, parts)}</text>\n");
+
+    /// <summary>
+    /// Heading, grid, ticks, frame and the two axis names; the heading and the x name are parts of plain text and
+    /// formulas (formulas drawn with subscripts, see <see cref="FormulaText.Sentence"/>).
+    /// </summary>
+    public void DrawFrame((string Text, bool IsFormula)[] heading, (string Text, bool IsFormula)[] xName, string yName)
     {
         SvgCanvas c = Canvas;
-        c.Text(20, 30, heading, FigurePalette.TitleFontSize, extra: "font-weight=\"bold\"");
+        double titleSize = FigurePalette.TitleFontSize, labelSize = FigurePalette.LabelFontSize;
+        Sentence(20, 30, titleSize, "start", heading, "font-weight=\"bold\"");
         for (double v = X.Min; v <= X.Max + (X.Step * 1e-6); v += X.Step)
         {
             double px = PageX(v);
@@ -68,9 +77,9 @@ internal sealed class ProfileChart
         }
 
         c.Raw($"<rect x=\"{Px(BoxLeft)}\" y=\"{Px(BoxTop)}\" width=\"{Px(BoxRight - BoxLeft)}\" height=\"{Px(BoxBottom - BoxTop)}\" fill=\"none\" stroke=\"{FigurePalette.Frame}\" stroke-width=\"1\"/>\n");
-        c.Text((BoxLeft + BoxRight) / 2, BoxBottom + 40, xName, FigurePalette.LabelFontSize, "middle");
+        Sentence((BoxLeft + BoxRight) / 2, BoxBottom + 40, labelSize, "middle", xName);
         double yMid = (BoxTop + BoxBottom) / 2;
-        c.Text(24, yMid, yName, FigurePalette.LabelFontSize, "middle", $"transform=\"rotate(-90 24 {Px(yMid)})\"");
+        c.Text(24, yMid, yName, labelSize, "middle", $"transform=\"rotate(-90 24 {Px(yMid)})\"");
     }
 
     /// <summary>A path through page points with the given stroke; data-kind names what it is.</summary>

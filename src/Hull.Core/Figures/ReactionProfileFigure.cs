@@ -19,7 +19,10 @@ public static class ReactionProfileFigure
         double low = Math.Min(0, profile.Points.Min(p => p.ReactionEnergyEvPerAtom));
         var chart = new ProfileChart(Width, Height, (0, 1), (low * 1.15, Math.Max(0, -low * 0.08)));
         string a = profile.First.Composition.Formula, b = profile.Second.Composition.Formula;
-        chart.DrawFrame($"Reaction of {a} with {b}", $"atom fraction of {a} in the mixture", $"reaction energy ({profile.Axis.Unit})");
+        chart.DrawFrame(
+            [("Reaction of ", false), (a, true), (" with ", false), (b, true)],
+            [("atom fraction of ", false), (a, true), (" in the mixture", false)],
+            $"reaction energy ({profile.Axis.Unit})");
         chart.Path([(0, 0), (1, 0)], FigurePalette.Frame, 1, "zero", "3 3");
         chart.Path(profile.Points.Select(p => (p.AtomFractionOfFirst.ToDouble(), p.ReactionEnergyEvPerAtom)).ToArray(), FigurePalette.HullEdge, 2.4, "reaction-energy");
         foreach (ReactionPoint p in profile.Points)
@@ -35,8 +38,8 @@ public static class ReactionProfileFigure
         chart.Canvas.Text(bx, by + 38,
             string.Create(CultureInfo.InvariantCulture, $"{best.ReactionEnergyEvPerAtom:0.000} eV at x = {best.AtomFractionOfFirst.ToDouble():0.###}"),
             FigurePalette.SmallFontSize, anchor);
-        chart.Canvas.Text(chart.BoxLeft + 4, chart.BoxTop + 16, b + Above(profile.Second.EnergyAboveHullEvPerAtom), FigurePalette.SmallFontSize);
-        chart.Canvas.Text(chart.BoxRight - 4, chart.BoxTop + 16, a + Above(profile.First.EnergyAboveHullEvPerAtom), FigurePalette.SmallFontSize, "end");
+        chart.Sentence(chart.BoxLeft + 4, chart.BoxTop + 16, FigurePalette.SmallFontSize, "start", [(b, true), (Above(profile.Second.EnergyAboveHullEvPerAtom), false)]);
+        chart.Sentence(chart.BoxRight - 4, chart.BoxTop + 16, FigurePalette.SmallFontSize, "end", [(a, true), (Above(profile.First.EnergyAboveHullEvPerAtom), false)]);
         chart.Footer(
             $"{profile.Axis.DisplayName}; system {profile.ChemicalSystem}; ends at the reactants' own energies"
             + (metadata is null ? string.Empty : $" · {metadata.Dataset} v{metadata.Version}"), 0);

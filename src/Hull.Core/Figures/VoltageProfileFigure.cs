@@ -26,8 +26,8 @@ public static class VoltageProfileFigure
         string host = profile.Host.Formula;
         string ionName = $"{profile.Ion}/{profile.Ion}{(profile.ChargeNumber == 1 ? "⁺" : profile.ChargeNumber + "⁺")}";
         chart.DrawFrame(
-            $"Voltage profile: {profile.Ion} into {host}",
-            $"x, {profile.Ion} per formula unit of {host}",
+            [("Voltage profile: ", false), (profile.Ion, true), (" into ", false), (host, true)],
+            [("x, ", false), (profile.Ion, true), (" per formula unit of ", false), (host, true)],
             $"Voltage against {ionName} (V)");
 
         // Capacity per host mass along the top edge, at the x ticks.
@@ -39,7 +39,7 @@ public static class VoltageProfileFigure
             chart.Canvas.Text(chart.PageX(v), chart.BoxTop - 6, q.ToString("0", CultureInfo.InvariantCulture), FigurePalette.SmallFontSize, "middle");
         }
 
-        chart.Canvas.Text(chart.BoxRight, chart.BoxTop - 22, $"mAh/g of {host}", FigurePalette.SmallFontSize, "end");
+        chart.Sentence(chart.BoxRight, chart.BoxTop - 22, FigurePalette.SmallFontSize, "end", [("mAh/g of ", false), (host, true)]);
 
         var steps = new List<(double X, double Y)>();
         foreach (VoltagePlateau p in profile.Plateaus)

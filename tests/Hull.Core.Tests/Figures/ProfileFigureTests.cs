@@ -59,6 +59,32 @@ public sealed class ProfileFigureTests
         AssertRenders(svg, (string)curve.Attribute("d")!);
     }
 
+    [Fact]
+    public void Headings_and_x_names_write_formulas_with_subscripts_and_return_to_the_baseline()
+    {
+        SystemHull hull = SystemHull.OverElements(
+        [
+            Formation("Li", "Li", 0), Formation("Fe", "Fe", 0), Formation("F", "F", 0),
+            Formation("LiF", "LiF", -6.0), Formation("FeF2", "FeF2", -7.0),
+        ]);
+        XDocument doc = XDocument.Parse(ReactionProfileFigure.Render(PhaseReactions.Profile(hull, "Li", "FeF2")));
+        XElement heading = doc.Descendants(Svg + "text").First(t => t.Value.StartsWith("Reaction of", StringComparison.Ordinal));
+        XElement xName = doc.Descendants(Svg + "text").Single(t => t.Value.StartsWith("atom fraction of", StringComparison.Ordinal));
+        // The read text stays the plain sentence; the amount 2 of FeF2 is a lowered, smaller run (common practice for
+        // chemical formulas), and the drops and rises of each line sum to zero so that what follows is on the baseline.
+        Assert.Equal("Reaction of Li with FeF2", heading.Value);
+        Assert.Equal("atom fraction of Li in the mixture", xName.Value);
+        foreach (XElement line in new[] { heading, xName })
+        {
+            Assert.Equal("preserve", (string?)line.Attribute(XNamespace.Xml + "space"));
+            double net = line.Descendants(Svg + "tspan").Sum(t => double.Parse((string?)t.Attribute("dy") ?? "0", CultureInfo.InvariantCulture));
+            Assert.Equal(0.0, net, 9);
+        }
+
+        XElement two = heading.Descendants(Svg + "tspan").Single(t => t.Value == "2");
+        Assert.True(double.Parse((string)two.Attribute("dy")!, CultureInfo.InvariantCulture) > 0);
+    }
+
     private static (double X, double Y)[] PathPoints(string d) =>
         d.Split(['M', 'L'], StringSplitOptions.RemoveEmptyEntries)
             .Select(p => p.Trim().Split(' '))
