@@ -21,8 +21,11 @@ internal sealed class NeutralityEquation
     private readonly double[] _logWeight, _intercept;
     private readonly double[] _groupLogPrefactor;
     private readonly bool[] _groupNormalised, _groupHasEmptySite;
-    private readonly double[] _x, _denominator;
+    private readonly double[] _x, _denominator, _logMagnitude;
     private readonly double _logDonors, _logAcceptors;
+    // Dilute equilibrium only: Σ over states of charge q of |q| N g e^{−a/k_BT}, in logs, so that each evaluation
+    // costs one exponential per distinct charge instead of one per state.
+    private readonly (int Charge, double LogAmplitude)[]? _byCharge;
     private readonly List<double> _positive = [], _negative = [];
 
     public NeutralityEquation(DefectEnsemble ensemble, CarrierModel model, double temperatureK, BandEdges edges, IReadOnlyList<double>? frozenTotals)
@@ -102,6 +105,14 @@ internal sealed class NeutralityEquation
         _groupNormalised = [.. normalised];
         _groupHasEmptySite = [.. emptySite];
         _denominator = new double[_groupLogPrefactor.Length];
+        _logMagnitude = [.. _charge.Select(q => Math.Log(Math.Abs(q)))];
+        if (!_groupNormalised.Any(n => n))
+        {
+            _byCharge = [.. Enumerable.Range(0, count)
+                .Where(i => _charge[i] != 0)
+                .GroupBy(i => _charge[i])
+                .Select(g => (g.Key, LogSum.Of([.. g.Select(i => _groupLogPrefactor[_group[i]] + _logWeight[i] - _intercept[i] / _kt + _logMagnitude[i])])))];
+        }
     }
 
     /// <summary>Site densities of one set may differ by rounding of the inputs (typed to ~6 digits) and no more.</summary>
@@ -114,18 +125,23 @@ internal sealed class NeutralityEquation
     /// <summary>h(E_F) = ln(positive charge) − ln(negative charge).</summary>
     public double Balance(double fermiLevelEv)
     {
-        Fill(fermiLevelEv);
         _positive.Clear();
         _negative.Clear();
         _positive.Add(_model.Bands.LogHoles(fermiLevelEv, _temperatureK, _edges, _model.Statistics));
         _negative.Add(_model.Bands.LogElectrons(fermiLevelEv, _temperatureK, _edges, _model.Statistics));
         _positive.Add(_logDonors);
         _negative.Add(_logAcceptors);
-        for (int i = 0; i < _charge.Length; i++)
+        if (_byCharge is not null)
         {
-            if (_charge[i] == 0) continue;
-            double log = LogConcentration(i) + Math.Log(Math.Abs(_charge[i]));
-            (_charge[i] > 0 ? _positive : _negative).Add(log);
+            foreach (var (q, amplitude) in _byCharge) (q > 0 ? _positive : _negative).Add(amplitude - q * fermiLevelEv / _kt);
+        }
+        else
+        {
+            Fill(fermiLevelEv);
+            for (int i = 0; i < _charge.Length; i++)
+            {
+                if (_charge[i] != 0) (_charge[i] > 0 ? _positive : _negative).Add(LogConcentration(i) + _logMagnitude[i]);
+            }
         }
 
         return LogSum.Of(_positive) - LogSum.Of(_negative);

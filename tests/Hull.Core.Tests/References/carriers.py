@@ -10,11 +10,14 @@ Every formula is written here from its textbook definition, not from the library
                  c_q = N g_q exp(-E_q/kT) / (1 + sum over the site set of g_j exp(-E_j/kT)) (site blocking),
                  c_q = C g_q exp(-E_q/kT) / sum over the defect of g_j exp(-E_j/kT) (fixed total C),
                E_q = a_q + q E_F, E_V = 0 and E_C = gap unless edges are given.
+  sweep        neutrality at each of "temperatures", the whole sweep timed "repeat" times (median seconds; bench/)
   quartic      the positive root y of a y^4 + b y^3 + c y^2 + d y + e = 0 by mpmath polyroots at 50 digits
 """
 import json
 import math
+import statistics
 import sys
+import time
 
 import mpmath
 from scipy import integrate, optimize
@@ -103,6 +106,15 @@ def quartic(task):
     return positive
 
 
+def sweep(task):
+    times, levels = [], []
+    for _ in range(task.get("repeat", 1)):
+        start = time.perf_counter()
+        levels = [neutrality(dict(task, T=t))["fermi"] for t in task["temperatures"]]
+        times.append(time.perf_counter() - start)
+    return {"fermi": levels, "median_seconds": statistics.median(times)}
+
+
 def main():
     with open(sys.argv[1]) as f:
         tasks = json.load(f)["tasks"]
@@ -113,6 +125,8 @@ def main():
             results.append({"quad": [fd_quad(e) for e in task["eta"]], "polylog": [fd_polylog(e) for e in task["eta"]]})
         elif kind == "neutrality":
             results.append(neutrality(task))
+        elif kind == "sweep":
+            results.append(sweep(task))
         elif kind == "quartic":
             results.append(quartic(task))
         else:
