@@ -101,7 +101,14 @@ internal sealed class SvgCanvas
     public void Raw(string markup) => _body.Append(markup);
 
     /// <summary>The whole document: root, title, metadata, background, then the body.</summary>
-    public string Finish(FigureKind kind, FigureInput input, string title)
+    public string Finish(FigureKind kind, FigureInput input, string title) => Finish(title,
+        $"kind=\"{kind.ToString().ToLowerInvariant()}\" system=\"{Escape(input.SystemName)}\" " +
+        $"components=\"{Escape(string.Join(' ', input.Components))}\" over-end-members=\"{(input.OverEndMembers ? "true" : "false")}\" " +
+        $"dataset=\"{Escape(input.Metadata.Dataset)}\" version=\"{input.Metadata.Version}\" content-sha256=\"{Escape(input.Metadata.ContentSha256)}\" " +
+        $"energy-axis=\"{Escape(input.Axis.Name)}\" energy-unit=\"{Escape(input.Axis.Unit)}\"");
+
+    /// <summary>The whole document with the metadata element's attributes given (already escaped).</summary>
+    public string Finish(string title, string metadataAttributes)
     {
         var b = new StringBuilder(_body.Length + 1024);
         b.Append("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
@@ -109,10 +116,7 @@ internal sealed class SvgCanvas
             .Append($"font-family=\"{FigurePalette.FontFamily}\">\n");
         b.Append($"<title>{Escape(title)}</title>\n");
         b.Append("<metadata>\n");
-        b.Append($"<hull:figure xmlns:hull=\"{FigureMetadataNames.Namespace}\" kind=\"{kind.ToString().ToLowerInvariant()}\" system=\"{Escape(input.SystemName)}\" ")
-            .Append($"components=\"{Escape(string.Join(' ', input.Components))}\" over-end-members=\"{(input.OverEndMembers ? "true" : "false")}\" ")
-            .Append($"dataset=\"{Escape(input.Metadata.Dataset)}\" version=\"{input.Metadata.Version}\" content-sha256=\"{Escape(input.Metadata.ContentSha256)}\" ")
-            .Append($"energy-axis=\"{Escape(input.Axis.Name)}\" energy-unit=\"{Escape(input.Axis.Unit)}\"/>\n");
+        b.Append($"<hull:figure xmlns:hull=\"{FigureMetadataNames.Namespace}\" {metadataAttributes}/>\n");
         b.Append("</metadata>\n");
         b.Append($"<rect x=\"0\" y=\"0\" width=\"{Px(Width)}\" height=\"{Px(Height)}\" fill=\"{FigurePalette.Background}\"/>\n");
         b.Append(_body);
