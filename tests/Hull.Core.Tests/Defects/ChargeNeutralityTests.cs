@@ -9,8 +9,7 @@ public sealed class ChargeNeutralityTests
     // k_B, CODATA 2018 (exact since the 2019 SI).
     private const double KbEvPerK = 1.380649e-23 / 1.602176634e-19;
 
-    // 1 site per formula unit, 32 formula units in 1000 Å³: 3.2e22 cm^-3.
-    private const double Sites = 32 / 1000e-24;
+    private const double Sites = WorkedDefectStudy.SitesPerCubicCentimetre;
 
     /// <summary>
     /// One donor D⁺ (V_O, degeneracy 2) and one acceptor A⁻ (Li_Mg, degeneracy 3) in the worked MgO study, Boltzmann

@@ -31,11 +31,6 @@ public sealed class DopantSolubilityTests
         return DopantLimits.Of(host, SystemHull.OverElements(entries), "periclase", "Li");
     }
 
-    /// <summary>a_q at a point = a_q at the study's hand point − Σ n_i (Δμ_i − Δμ_i^hand) (the study's intercepts).</summary>
-    private static SpeciesChargeState[] Shifted(Dictionary<int, double> intercepts, Dictionary<string, int> atoms, IReadOnlyDictionary<string, double> deltaMu) =>
-        [.. intercepts.OrderByDescending(p => p.Key).Select(p => new SpeciesChargeState(p.Key,
-            p.Value - atoms.Sum(a => a.Value * (deltaMu[a.Key] - WorkedDefectStudy.Point.DeltaMuEv[a.Key])), 1))];
-
     [Theory]
     [InlineData(CarrierStatistics.FermiDirac, ConcentrationForm.Dilute)]
     [InlineData(CarrierStatistics.Boltzmann, ConcentrationForm.SiteBlocking)]
@@ -63,12 +58,7 @@ public sealed class DopantSolubilityTests
         {
             var deltaMu = result.Vertices[v].Point.DeltaMuEv;
             for (int i = 0; i < limit.ExtendedElements.Count; i++) Assert.Equal(limit.ExtendedVertices[v].ChemicalPotentialsEv[i], deltaMu[limit.ExtendedElements[i]]);
-            var ensemble = DefectEnsemble.Create(WorkedDefectStudy.Gap,
-            [
-                new("V_O", "O", 32 / 1000e-24, Shifted(WorkedDefectStudy.VacancyIntercepts, WorkedDefectStudy.VacancyAtoms, deltaMu), WorkedDefectStudy.VacancyAtoms),
-                new("Li_Mg", "Mg", 32 / 1000e-24, Shifted(WorkedDefectStudy.DopantIntercepts, WorkedDefectStudy.DopantAtoms, deltaMu), WorkedDefectStudy.DopantAtoms),
-                new("V_O+Li_Mg", "Mg", 32 / 1000e-24, Shifted(WorkedDefectStudy.ComplexIntercepts, WorkedDefectStudy.ComplexAtoms, deltaMu), WorkedDefectStudy.ComplexAtoms),
-            ]);
+            var ensemble = WorkedDefectStudy.HandEnsemble(deltaMu);
             for (int t = 0; t < temperatures.Length; t++) tasks[t, v] = reference.Neutrality(ensemble, Nc300, Nv300, temperatures[t], statistics, form);
         }
 

@@ -41,6 +41,16 @@ public sealed class CarrierFigureTests
     }
 
     [Fact]
+    public void Along_a_path_the_x_axis_says_so()
+    {
+        var (x, solutions) = Sweep();
+        double[] fractions = [.. x.Select((_, i) => (double)i / (x.Length - 1))];
+        var svg = new SvgFigure(CarrierFigure.Render("path", CarrierFigureAxis.Path("O-rich", "O-lean"), fractions, solutions));
+        Assert.Contains("Position from O-rich to O-lean (fraction of the way)", svg.Text);
+        Assert.Contains("x-axis=\"Position from O-rich to O-lean\"", svg.Text);
+    }
+
+    [Fact]
     public void Bad_sweeps_are_refused()
     {
         var (x, solutions) = Sweep();
