@@ -14,8 +14,8 @@ public static class ChargeNeutrality
     public const double BracketReachEv = 64.0;
 
     /// <summary>
-    /// The Fermi level is bracketed to this width (eV): concentrations then agree to ~q·1e-12/k_BT, below 1e-9
-    /// relative at 1 K and above, and the width stays far above the rounding of E_F (~1e-15 eV).
+    /// The Fermi level is bracketed to this width (eV): concentrations then agree to ~q·1e-12 eV/k_BT relative
+    /// (4e-11 at 300 K, 1.2e-8 at 1 K), and the width stays far above the rounding of E_F (~1e-15 eV).
     /// </summary>
     public const double FermiLevelToleranceEv = 1e-12;
 
