@@ -28,7 +28,7 @@ public sealed record CarrierModel(
     }
 
     /// <summary>Refuses a model that cannot be used with a gap, naming the field.</summary>
-    internal void Check(double bandGapEv)
+    public void Check(double bandGapEv)
     {
         ArgumentNullException.ThrowIfNull(Bands);
         Bands.Check(bandGapEv, "carriers");
