@@ -366,9 +366,10 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
             solutions.Add(s);
         }
 
+        string where = point.VertexNumber > 0 ? $"window vertex {point.VertexNumber} ({point.Label})" : point.Label;
         string title = operating is { } q
-            ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {point.Label}, grown at each temperature and quenched to {q:0.##} K")
-            : $"{ev.Study.Host.Formula} at {point.Label}, in equilibrium";
+            ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {where}, grown at each temperature and quenched to {q:0.##} K")
+            : $"{ev.Study.Host.Formula} at {where}, in equilibrium";
         CarrierFigureAxis axis = operating is null ? CarrierFigureAxis.Temperature : new CarrierFigureAxis("Growth temperature", "K");
         string svg;
         try
