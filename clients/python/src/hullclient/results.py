@@ -126,8 +126,23 @@ class CacheStatistics:
     cached_hulls: int
 
 
+class SvgDocument:
+    """A figure the server drew: `svg` text, saved as UTF-8 and drawn inline by notebooks."""
+
+    svg: str
+
+    def save(self, path) -> Path:
+        """Writes the SVG (UTF-8) and returns the path."""
+        target = Path(path)
+        target.write_text(self.svg, encoding="utf-8")
+        return target
+
+    def _repr_svg_(self):
+        return self.svg
+
+
 @dataclass(frozen=True)
-class Figure:
+class Figure(SvgDocument):
     """A phase diagram drawn by the server: SVG text and what it shows."""
 
     used: VersionUsed
@@ -140,16 +155,6 @@ class Figure:
     unstable_shown_count: int
     hidden_above_cutoff_count: int
     max_above_hull_ev_per_atom: float
-
-    def save(self, path) -> Path:
-        """Writes the SVG (UTF-8) and returns the path."""
-        target = Path(path)
-        target.write_text(self.svg, encoding="utf-8")
-        return target
-
-    def _repr_svg_(self):
-        # Notebooks draw the figure inline.
-        return self.svg
 
 
 @dataclass(frozen=True)
