@@ -26,7 +26,8 @@ public static class CarrierFigure
     /// <param name="axis">What the x values are.</param>
     /// <param name="x">One x value per solution, rising.</param>
     /// <param name="solutions">The solutions along the sweep; every one lists the same defects.</param>
-    public static string Render(string title, CarrierFigureAxis axis, IReadOnlyList<double> x, IReadOnlyList<FermiLevelSolution> solutions)
+    /// <param name="source">The dataset version the solutions came from, recorded in the metadata; null for none.</param>
+    public static string Render(string title, CarrierFigureAxis axis, IReadOnlyList<double> x, IReadOnlyList<FermiLevelSolution> solutions, FigureMetadata? source = null)
     {
         if (solutions.Count < 2 || x.Count != solutions.Count) throw new FigureInputException($"a carrier figure needs two or more solutions and one x value each (got {solutions.Count} and {x.Count})", nameof(solutions));
         for (int i = 0; i < x.Count; i++)
@@ -142,7 +143,8 @@ public static class CarrierFigure
         b.Append($"<text x=\"{Px(Left + plotWidth / 2)}\" y=\"{Px(lowerTop + LowerHeight + 42)}\" font-size=\"{Num(FigurePalette.LabelFontSize, "0.#")}\" text-anchor=\"middle\" fill=\"{FigurePalette.Text}\">{Escape(axis.Title)}</text>\n");
 
         string metadata = $"kind=\"carriers\" x-axis=\"{Escape(axis.Name)}\" x-unit=\"{Escape(axis.Unit)}\" defects=\"{Escape(string.Join(' ', names))}\" "
-            + $"statistics=\"{solutions[0].Statistics.ToString().ToLowerInvariant()}\" form=\"{(solutions[0].Form is { } f ? f.ToString().ToLowerInvariant() : "frozen")}\"";
+            + $"statistics=\"{solutions[0].Statistics.ToString().ToLowerInvariant()}\" form=\"{(solutions[0].Form is { } f ? f.ToString().ToLowerInvariant() : "frozen")}\""
+            + (source is null ? string.Empty : $" dataset=\"{Escape(source.Dataset)}\" version=\"{source.Version}\" content-sha256=\"{Escape(source.ContentSha256)}\"");
         return canvas.Finish(title, metadata);
     }
 

@@ -374,7 +374,7 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
         string svg;
         try
         {
-            svg = CarrierFigure.Render(title, axis, temperatures, solutions);
+            svg = CarrierFigure.Render(title, axis, temperatures, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
         }
         catch (FigureInputException e)
         {

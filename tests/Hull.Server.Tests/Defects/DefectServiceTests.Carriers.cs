@@ -171,6 +171,13 @@ public sealed partial class DefectServiceTests
         Assert.Contains(paths, p => (string?)p.Attribute("data-kind") == "fermi-level");
         Assert.Equal(["V_O", "Mg_Al", "n", "p"], paths.Where(p => (string?)p.Attribute("data-kind") is "defect" or "carrier").Select(p => (string)p.Attribute("data-id")!));
         Assert.Equal("O", response.Point.Label);
+        XElement meta = svg.Descendants().Single(e => e.Name.LocalName == "figure");
+        Assert.Equal(("dilute", "d", "temperature"), ((string)meta.Attribute("form")!, (string)meta.Attribute("dataset")!, ((string)meta.Attribute("x-axis")!).ToLowerInvariant()));
+
+        request.OperatingTemperatureK = 300;
+        var quenched = XElement.Parse((await C.Defects.DrawCarrierFigureAsync(request, C.Call())).Svg);
+        Assert.Equal("frozen", (string)quenched.Descendants().Single(e => e.Name.LocalName == "figure").Attribute("form")!);
+        Assert.Contains("quenched to 300 K", quenched.Descendants().First(e => e.Name.LocalName == "title").Value, StringComparison.Ordinal);
     }
 
     public static TheoryData<string, StatusCode, string> BadCarrierRequests() => new()
