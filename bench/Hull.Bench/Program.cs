@@ -8,7 +8,7 @@ using Hull.Bench.Suites;
 //                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
-    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     return 2;
 }
@@ -71,7 +71,8 @@ try
         ElectrochemistrySuite.Name => ElectrochemistrySuite.Run(options, work),
         EngineChoiceSuite.Name => EngineChoiceSuite.Run(options),
         FamiliesSuite.Name => FamiliesSuite.Run(options, work, repoRoot),
-        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, families, engine-choice, dataset60, figures, windows, defect-ewald, electrochemistry)"),
+        FermiSweepSuite.Name => FermiSweepSuite.Run(options, repoRoot),
+        _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, families, engine-choice, dataset60, figures, windows, defect-ewald, electrochemistry, fermi-sweep)"),
     };
     report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";
     MarkdownReport.Write(repoRoot, options.Quick ? suite + "-quick" : suite, report);

@@ -106,4 +106,71 @@ public sealed class DefectCommandTests : IAsyncLifetime
         Assert.NotEqual(0, badVertex.ExitCode);
         Assert.Contains("conditions.vertex", badVertex.Err);
     }
+
+    private async Task ImportWithCarriers()
+    {
+        // Invented band inputs of the test: N_c, N_v at 300 K and a background donor.
+        string json = File.ReadAllText(StudyJson).Replace("\"defects\":", "\"carriers\": {\"conduction_states_300k_per_cm3\": 5e18, \"valence_states_300k_per_cm3\": 2e19, \"extra_donors_per_cm3\": 1e12},\n \"defects\":", StringComparison.Ordinal);
+        string path = Path.Combine(_folder, "study-carriers.json");
+        File.WriteAllText(path, json);
+        var imported = await CliRun.RunAsync("defects", "import", "m", "mgo-vo-c", path, StudyCsv, "--server", Server);
+        Assert.True(imported.ExitCode == 0, imported.Err);
+    }
+
+    [Fact]
+    public async Task Fermi_levels_come_as_csv_equal_to_the_json_and_their_concentrations_balance()
+    {
+        await ImportWithCarriers();
+        var csv = await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo-c", "--solve-at", "1800", "--quench-to", "300", "--csv", "--server", Server);
+        Assert.True(csv.ExitCode == 0, csv.Err);
+        string[] rows = csv.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("point,state,temperature_k,fermi_level_ev,electrons_per_cm3,holes_per_cm3,status,form,statistics", rows[0]);
+        // MgO has two vertices (O-rich, Mg-rich), each grown and quenched.
+        Assert.Equal(5, rows.Length);
+        var json = await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo-c", "--solve-at", "1800", "--quench-to", "300", "--json", "--server", Server);
+        using var doc = JsonDocument.Parse(json.Out);
+        var first = doc.RootElement.GetProperty("points")[0];
+        double fermi = double.Parse(rows[1].Split(',')[3], CultureInfo.InvariantCulture);
+        Assert.Equal(first.GetProperty("equilibrium").GetProperty("fermi_level_ev").GetDouble(), fermi);
+        Assert.Equal("frozen", first.GetProperty("quenched").GetProperty("form").GetString());
+
+        // Charge neutrality from the printed numbers: p − n + N_D + Σ q c_q = 0 (the solve's condition, re-summed here).
+        var states = await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo-c", "--solve-at", "1800", "--vertex", "O", "--charge-states", "--csv", "--server", Server);
+        Assert.True(states.ExitCode == 0, states.Err);
+        string[] stateRows = states.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("point,state,temperature_k,defect,charge,formation_energy_ev,per_cm3", stateRows[0]);
+        var solution = JsonDocument.Parse((await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo-c", "--solve-at", "1800", "--vertex", "O", "--json", "--server", Server)).Out)
+            .RootElement.GetProperty("points")[0].GetProperty("equilibrium");
+        double charge = solution.GetProperty("holes_per_cm3").GetDouble() - solution.GetProperty("electrons_per_cm3").GetDouble() + 1e12;
+        double scale = solution.GetProperty("holes_per_cm3").GetDouble() + solution.GetProperty("electrons_per_cm3").GetDouble() + 1e12;
+        foreach (string row in stateRows.Skip(1))
+        {
+            string[] cells = row.Split(',');
+            double q = double.Parse(cells[4], CultureInfo.InvariantCulture), c = double.Parse(cells[6], CultureInfo.InvariantCulture);
+            charge += q * c;
+            scale += Math.Abs(q) * c;
+        }
+
+        Assert.True(Math.Abs(charge) < 1e-8 * scale, $"net charge {charge} of {scale}");
+    }
+
+    [Fact]
+    public async Task Carrier_figure_is_written_and_carrier_questions_say_what_is_missing()
+    {
+        await ImportWithCarriers();
+        string svg = Path.Combine(_folder, "carriers.svg");
+        var figure = await CliRun.RunAsync("defects", "carrier-figure", "m", "mgo-vo-c", "--vertex", "O", "--sweep", "1000", "--sweep", "1500", "--sweep", "2000", "-o", svg, "--server", Server);
+        Assert.True(figure.ExitCode == 0, figure.Err);
+        Assert.Contains("kind=\"carriers\"", File.ReadAllText(svg));
+
+        var noTemperature = await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo-c", "--server", Server);
+        Assert.Equal(2, noTemperature.ExitCode);
+        Assert.Contains("--solve-at", noTemperature.Err);
+        var noCarriers = await CliRun.RunAsync("defects", "fermi", "m", "mgo-vo", "--solve-at", "1000", "--server", Server);
+        Assert.NotEqual(0, noCarriers.ExitCode);
+        Assert.Contains("no \"carriers\" block", noCarriers.Err);
+        var noDopant = await CliRun.RunAsync("defects", "solubility", "m", "mgo-vo-c", "--growth", "1500", "--server", Server);
+        Assert.NotEqual(0, noDopant.ExitCode);
+        Assert.Contains("dopant", noDopant.Err);
+    }
 }

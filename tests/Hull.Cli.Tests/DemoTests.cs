@@ -41,6 +41,9 @@ public sealed class DemoTests
         Assert.Contains("The study exports byte for byte as imported: yes", run.Out);
         Assert.DoesNotContain("warning: the study's bulk", run.Out);
         Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-formation-energies-O-rich.svg")));
+        Assert.Contains("grown at 1600 K and quenched to 300 K", run.Out);
+        Assert.Contains("Mg solubility (site blocking)", run.Out);
+        Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-carriers-O-rich.svg")));
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();

@@ -43,7 +43,7 @@ public static class DefectEwaldSuite
 
         reference.Add(Sites(cell, eps, ModelCharge.Default, 2, defect, sites, reps));
         reference.Add(Sites(cell, eps, ModelCharge.Point, 2, defect, sites, reps));
-        var answers = RunReference(repoRoot, reference);
+        var answers = PythonReference.Run(repoRoot, "defect_electrostatics.py", reference, TimeSpan.FromMinutes(10));
 
         int k = 0;
         foreach (var (model, label) in new[] { (ModelCharge.Default, "E_lat, Gaussian σ = 1 Å, q = 2"), (ModelCharge.Point, "E_lat, point charge, q = 2") })
@@ -101,21 +101,4 @@ public static class DefectEwaldSuite
     }
 
     private static JsonArray Rows(Matrix3 m) => new([.. m.ToRows().Select(r => (JsonNode)new JsonArray([.. r.Select(v => (JsonNode)v)]))]);
-
-    private static JsonArray RunReference(string repoRoot, JsonArray tasks)
-    {
-        string script = Path.Combine(repoRoot, "tests", "Hull.Core.Tests", "References", "defect_electrostatics.py");
-        string input = Path.Combine(Path.GetTempPath(), $"hull-bench-defects-{Environment.ProcessId}.json");
-        File.WriteAllText(input, new JsonObject { ["tasks"] = tasks }.ToJsonString());
-        try
-        {
-            var run = ExternalRun.Run("/usr/bin/python3", [script, input], TimeSpan.FromMinutes(10));
-            if (!run.Succeeded) throw new InvalidOperationException($"the NumPy reference failed: {run.StandardError}");
-            return JsonNode.Parse(run.StandardOutput)!["results"]!.AsArray();
-        }
-        finally
-        {
-            File.Delete(input);
-        }
-    }
 }

@@ -98,3 +98,93 @@ def test_warnings_and_refusals(client, study):
         client.get_defect_formation_energies(DATASET, STUDY, gas={"gas": "O2", "temperature_k": 3000, "pressure_bar": 1e-20})
     with pytest.raises(ValueError):
         client.get_defect_formation_energies(DATASET, STUDY, vertex="O", gas={"gas": "O2"})
+
+
+# CODATA 2018 (exact SI values, and m_e): k_B in J/K and eV/K, h in J s, m_e in kg.
+K_B_J, K_B_EV, PLANCK, ELECTRON_MASS = 1.380649e-23, 1.380649e-23 / 1.602176634e-19, 6.62607015e-34, 9.1093837015e-31
+
+
+def _normalised_fermi_half(eta):
+    """F_{1/2}(η) = (2/√π) ∫_0^∞ √x / (1 + e^{x−η}) dx (the normalised Fermi–Dirac integral), by SciPy quad."""
+    import math
+    from scipy.integrate import quad
+    value, _ = quad(lambda x: math.sqrt(x) / (1.0 + math.exp(min(x - eta, 700.0))), 0, max(eta, 0) + 60, limit=200)
+    return 2 / math.sqrt(math.pi) * value
+
+
+def test_fermi_level_equals_the_cli_and_scipy_brentq_on_the_neutrality_written_here(client, server, study):
+    import math
+    import numpy as np
+    from scipy.optimize import brentq
+
+    table = client.solve_fermi_level(DATASET, STUDY, temperature_k=1600, operating_temperature_k=300)
+    expected = cli_json(server.url, "defects", "fermi", DATASET, STUDY, "--solve-at", "1600", "--quench-to", "300")
+    assert list(table.state) == ["growth", "quenched"] * len(expected["points"])
+    for (_, row), want in zip(table.iterrows(), [s for p in expected["points"] for s in (p["equilibrium"], p["quenched"])]):
+        assert row.fermi_level_ev == want["fermi_level_ev"] and row.electrons_per_cm3 == want["electrons_per_cm3"]
+        assert row.status == "converged"
+    totals = table.attrs["defects"]
+    grown, quenched = totals[totals.state == "growth"], totals[totals.state == "quenched"]
+    assert list(grown.per_cm3) == pytest.approx(list(quenched.per_cm3), rel=1e-12)  # a quench keeps the totals
+
+    # The outside check: neutrality at the O-rich vertex, 1600 K, written from the formulas (issue 17) with the study
+    # file's inputs and the formation energies at E_F = 0 from get_defect_formation_energies, solved by SciPy brentq.
+    t = 1600.0
+    solved = client.solve_fermi_level(DATASET, STUDY, temperature_k=t, vertex="O").iloc[0]
+    doc = json.loads((FILES / "al2o3-study.json").read_text())
+    host, carriers = doc["host"], doc["carriers"]
+    volume_cm3 = abs(np.linalg.det(np.array(host["lattice_vectors_angstrom"]))) * 1e-24
+    kt = K_B_EV * t
+
+    def effective_states(mass_ratio):  # N = 2 (2π m* k_B T / h²)^{3/2}, m^-3 → cm^-3
+        return 2 * (2 * math.pi * mass_ratio * ELECTRON_MASS * K_B_J * t / PLANCK ** 2) ** 1.5 * 1e-6
+
+    nc, nv = effective_states(carriers["electron_mass_ratio"]), effective_states(carriers["hole_mass_ratio"])
+    g = carriers["gap_temperature"]  # Varshni: ΔE_g = −α [T²/(T+β) − T_ref²/(T_ref+β)], a share at the VBM
+    varshni = lambda x: x * x / (x + g["beta_k"]) if x > 0 else 0.0  # noqa: E731
+    change = -g["alpha_ev_per_k"] * (varshni(t) - varshni(g["reference_temperature_k"]))
+    valence, conduction = -g["valence_band_share"] * change, host["band_gap_ev"] + (1 - g["valence_band_share"]) * change
+    at_vbm = client.get_defect_formation_energies(DATASET, STUDY, vertex="O", fermi_levels_ev=[0.0])
+    sites = {x["name"]: x["sites_per_formula_unit"] * host["formula_units"] / volume_cm3 for x in doc["defects"]}
+    degeneracy = {x["name"]: x.get("degeneracy", 1) for x in doc["defects"]}
+    states = [(row.defect, row.charge, row.formation_energy_ev) for _, row in at_vbm.iterrows()]
+
+    def net_charge(fermi):
+        p = nv * _normalised_fermi_half((valence - fermi) / kt)
+        n = nc * _normalised_fermi_half((fermi - conduction) / kt)
+        defects = sum(q * sites[name] * degeneracy[name] * math.exp(-(a + q * fermi) / kt) for name, q, a in states)
+        return p - n + carriers.get("extra_donors_per_cm3", 0) - carriers.get("extra_acceptors_per_cm3", 0) + defects
+
+    reference = brentq(net_charge, valence - 1, conduction + 1, xtol=1e-13, rtol=1e-15, maxiter=500)
+    assert solved.fermi_level_ev == pytest.approx(reference, abs=1e-7)
+    assert solved.valence_edge_ev == pytest.approx(valence, abs=1e-12)
+    assert solved.holes_per_cm3 == pytest.approx(nv * _normalised_fermi_half((valence - reference) / kt), rel=1e-5)
+
+
+def test_solubility_and_carrier_figure_equal_the_cli(client, server, study):
+    result = client.get_dopant_solubility(DATASET, STUDY, [1400, 1800], form="site_blocking")
+    expected = cli_json(server.url, "defects", "solubility", DATASET, STUDY, "--growth", "1400", "--growth", "1800", "--form", "site-blocking")
+    assert result.dopant == expected["dopant"] == "Mg"
+    assert result.max_delta_mu_ev == expected["max_delta_mu_ev"]
+    assert result.limiting_phase_ids == tuple(expected["limiting_phase_ids"])
+    assert result.cautions == ()  # Mg is no listed hazard; the demo says its own caution
+    rows = [v for t in expected["temperatures"] for v in t["vertices"]]
+    assert list(result.table.dopant_per_cm3) == [v["dopant_per_cm3"] for v in rows]
+    assert list(result.most_soluble.vertex_number) == [t["most_soluble_vertex"] for t in expected["temperatures"]]
+    assert (result.table.form == "site_blocking").all()
+    assert result.most_soluble.dopant_per_cm3.is_monotonic_increasing  # more dissolves hotter
+
+    figure = client.draw_carrier_figure(DATASET, STUDY, [900, 1300, 1700], vertex="O")
+    root = ET.fromstring(figure.svg)
+    assert root.tag.endswith("svg") and figure.point.label == "O"
+
+
+def test_carrier_calls_refuse_a_study_without_carriers(client, study):
+    doc = json.loads((FILES / "al2o3-study.json").read_text())
+    del doc["carriers"]
+    client.import_defect_study(DATASET, "no-carriers", json.dumps(doc), (FILES / "al2o3-charge-states.csv").read_text())
+    with pytest.raises(FailedPreconditionError) as missing:
+        client.solve_fermi_level(DATASET, "no-carriers", temperature_k=1000)
+    assert "carriers" in str(missing.value)
+    with pytest.raises(ValueError):
+        client.solve_fermi_level(DATASET, STUDY, temperature_k=1000, statistics="classical")

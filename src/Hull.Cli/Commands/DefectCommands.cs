@@ -9,15 +9,31 @@ namespace Hull.Cli.Commands;
 
 /// <summary>
 /// `hull defects ...`: defect studies stored beside a dataset (import, list, export) and their formation energies,
-/// transition levels and figure at chemical-potential points. Every number comes from the server.
+/// transition levels and figure at chemical-potential points, the self-consistent Fermi level (with quenching),
+/// dopant solubility and the carrier figure. Every number comes from the server.
 /// </summary>
 public static class DefectCommands
 {
     public static Command Build(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap) =>
-        new("defects", "defect studies of a host compound: import, list, export, formation energies, transition levels, figure")
+        new("defects", "defect studies of a host compound: import, list, export, formation energies, transition levels, figures, Fermi level, solubility")
         {
             ImportCommand(wrap), ListCommand(wrap), ExportCommand(wrap), EnergiesCommand(wrap), LevelsCommand(wrap), FigureCommand(wrap),
+            FermiCommand(wrap), SolubilityCommand(wrap), CarrierFigureCommand(wrap),
         };
+
+    /// <summary>How carriers are counted: the request's statistics and concentration form.</summary>
+    private sealed record Counting(Option<string> Statistics, Option<string> Form)
+    {
+        public IEnumerable<Symbol> All => [Statistics, Form];
+
+        public static Counting Options() => new(
+            ValueOptions.Choice("--statistics", "carrier statistics: fermi-dirac, or the boltzmann limit (wrong within a few k_BT of a band edge)", "fermi-dirac", "fermi-dirac", "boltzmann"),
+            ValueOptions.Choice("--form", "defect concentrations: dilute, or site-blocking (one defect per site; for concentrations near the site density)", "dilute", "dilute", "site-blocking"));
+
+        public FermiStatistics StatisticsOf(CliContext c) => c.Get(Statistics) == "boltzmann" ? FermiStatistics.Boltzmann : FermiStatistics.FermiDirac;
+
+        public DefectConcentrationForm FormOf(CliContext c) => c.Get(Form) == "site-blocking" ? DefectConcentrationForm.SiteBlocking : DefectConcentrationForm.Dilute;
+    }
 
     /// <summary>The options every evaluation shares: which study, which dataset version, which point.</summary>
     private sealed record Common(
@@ -243,6 +259,157 @@ public static class DefectCommands
             return ExitCodes.Ok;
         }));
         return command;
+    }
+
+    private static Command FermiCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        Counting k = Counting.Options();
+        var at = ValueOptions.OptionalNumber("--solve-at", "temperature of the equilibrium (of growth with --quench-to), K; default with --gas: the gas's temperature", "a temperature in K");
+        var quench = ValueOptions.OptionalNumber("--quench-to", "quench: totals frozen at --solve-at, charge states and carriers re-solved at this operating temperature, K", "a temperature in K");
+        var states = new Option<bool>("--charge-states") { Description = "print every charge state's concentration instead of the Fermi levels and carriers" };
+        var command = With(new Command("fermi", "the self-consistent Fermi level from charge neutrality at window vertices, a point or a gas condition, with every concentration (cm^-3)"),
+            [.. o.All.Where(s => s != o.Defects), .. k.All, at, quench, states]);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new FermiLevelRequest
+            {
+                Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), StudyName = c.Get(o.Study)!, StudyVersion = c.Get(o.StudyVersion),
+                Conditions = o.ConditionsOf(c), HostEntryId = c.Get(o.Host) ?? string.Empty, TemperatureK = c.Get(at) ?? 0,
+                Statistics = k.StatisticsOf(c), Form = k.FormOf(c),
+            };
+            if (c.Get(quench) is double op) request.OperatingTemperatureK = op;
+            if (request.TemperatureK == 0 && request.Conditions?.WhichCase != DefectConditions.WhichOneofCase.Gas) throw new UsageException("give --solve-at K (the temperature of the equilibrium)");
+            FermiLevelResponse response = await c.Server.Defects.SolveFermiLevelAsync(request, c.Server.Call(t));
+            c.Emit(response, () => c.Get(states) ? ChargeStatesTable(response.Points) : FermiTable(response.Points), Caption(response.Used, response.Study, response.HostEntryId, response.Gas));
+            WriteWarnings(c, response.Warnings);
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static Command SolubilityCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        var dataset = CommandTree.DatasetArgument();
+        var study = new Argument<string>("study") { Description = "the defect study's name" };
+        var version = CommandTree.VersionOption();
+        var studyVersion = ValueOptions.WholeNumber("--study-version", "study version to read (default: the latest)", min: 0, max: long.MaxValue, fallback: 0, meaning: "a study version");
+        var host = new Option<string>("--host-entry") { Description = "the host's entry id (default: the lowest-energy entry of the host's formula)" };
+        var dopant = new Option<string>("--dopant") { Description = "the dopant element (default: the study's only dopant)" };
+        var temperatures = new Option<string[]>("--growth") { Description = "growth temperatures, K (repeatable), e.g. --growth 1400 --growth 1700", Arity = ArgumentArity.OneOrMore, Required = true };
+        var others = new Option<string[]>("--other") { Description = "Δμ of the study's other dopants, ELEMENT=EV (repeatable)", Arity = ArgumentArity.OneOrMore };
+        var all = new Option<bool>("--every-vertex") { Description = "a row per vertex and temperature (default: the most soluble vertex per temperature)" };
+        Counting k = Counting.Options();
+        var command = With(new Command("solubility", "how much dopant dissolves at each vertex of the host + dopant window over growth temperatures, Fermi level solved at each"),
+            [dataset, study, version, studyVersion, host, dopant, temperatures, others, all, .. k.All]);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new DefectSolubilityRequest
+            {
+                Dataset = c.Get(dataset)!, Version = c.Get(version), StudyName = c.Get(study)!, StudyVersion = c.Get(studyVersion), HostEntryId = c.Get(host) ?? string.Empty,
+                Dopant = c.Get(dopant) ?? string.Empty, Statistics = k.StatisticsOf(c), Form = k.FormOf(c),
+            };
+            request.TemperaturesK.AddRange((c.Get(temperatures) ?? []).Select(x => Number(x, "--growth", "a temperature in K")));
+            foreach (string text in c.Get(others) ?? [])
+            {
+                FixedPotential p = WindowCommands.ParseFixed(text);
+                request.OtherPotentials.Add(new DefectElementPotential { Element = p.Element, DeltaMuEv = p.ChemicalPotentialEv });
+            }
+
+            DefectSolubilityResponse response = await c.Server.Defects.GetDopantSolubilityAsync(request, c.Server.Call(t));
+            string caption = Caption(response.Used, response.Study, response.HostEntryId, null) +
+                $"\n{response.Dopant}: highest dmu_{response.Dopant} = {Invariant(response.MaxDeltaMuEv)} eV, limited by {string.Join(" ", response.LimitingPhaseIds.DefaultIfEmpty("its reference"))}";
+            c.Emit(response, () => SolubilityTable(response, c.Get(all)), caption);
+            WriteWarnings(c, response.Warnings);
+            WriteCautions(c, response.Cautions);
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static Command CarrierFigureCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        Counting k = Counting.Options();
+        var temperatures = new Option<string[]>("--sweep") { Description = "two or more rising temperatures, K (repeatable), e.g. --sweep 800 --sweep 1200 --sweep 1600", Arity = ArgumentArity.OneOrMore, Required = true };
+        var quench = ValueOptions.OptionalNumber("--quench-to", "draw each temperature quenched to this operating temperature, K", "a temperature in K");
+        var output = new Option<string?>("--output", "-o") { Description = "SVG file to write (default: DATASET-STUDY-vVERSION-carriers.svg)" };
+        var command = With(new Command("carrier-figure", "draw defect and carrier concentrations and the Fermi level against temperature at one point as SVG"),
+            [.. o.All.Where(s => s != o.Defects), .. k.All, temperatures, quench, output]);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new DefectCarrierFigureRequest
+            {
+                Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), StudyName = c.Get(o.Study)!, StudyVersion = c.Get(o.StudyVersion),
+                Conditions = o.ConditionsOf(c), HostEntryId = c.Get(o.Host) ?? string.Empty, Statistics = k.StatisticsOf(c), Form = k.FormOf(c),
+            };
+            request.TemperaturesK.AddRange((c.Get(temperatures) ?? []).Select(x => Number(x, "--sweep", "a temperature in K")));
+            if (c.Get(quench) is double op) request.OperatingTemperatureK = op;
+            DefectCarrierFigureResponse response = await c.Server.Defects.DrawCarrierFigureAsync(request, c.Server.Call(t));
+            string path = c.Get(output) ?? SafeFileName($"{response.Used.Dataset}-{response.Study.StudyName}-v{response.Study.StudyVersion}-carriers.svg");
+            await File.WriteAllTextAsync(path, response.Svg, new UTF8Encoding(false), t);
+            var summary = response.Clone();
+            summary.Svg = string.Empty;
+            c.Emit(summary, () => new Table("file", "point", "temperatures").Add(path, response.Point.Label, request.TemperaturesK.Count),
+                $"dataset {response.Used.Dataset}, version {response.Used.Version}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
+            WriteWarnings(c, response.Warnings);
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    private static string PointLabel(DefectConditionPoint p) => p.VertexNumber > 0 ? $"{p.VertexNumber} ({p.Label})" : p.Label;
+
+    private static IEnumerable<(string State, FermiSolution Solution)> States(FermiPointSolution p) =>
+        p.Quenched is null ? [("equilibrium", p.Equilibrium)] : [("growth", p.Equilibrium), ("quenched", p.Quenched)];
+
+    internal static Table FermiTable(IEnumerable<FermiPointSolution> points)
+    {
+        var table = new Table("point", "state", "temperature_k", "fermi_level_ev", "electrons_per_cm3", "holes_per_cm3", "status", "form", "statistics");
+        foreach (FermiPointSolution p in points)
+        {
+            foreach (var (state, s) in States(p))
+            {
+                table.Add(PointLabel(p.Point), state, s.TemperatureK, s.FermiLevelEv, new Scientific(s.ElectronsPerCm3), new Scientific(s.HolesPerCm3), s.Status, s.Form, s.Statistics);
+            }
+        }
+
+        return table;
+    }
+
+    internal static Table ChargeStatesTable(IEnumerable<FermiPointSolution> points)
+    {
+        var table = new Table("point", "state", "temperature_k", "defect", "charge", "formation_energy_ev", "per_cm3");
+        foreach (FermiPointSolution p in points)
+        {
+            foreach (var (state, s) in States(p))
+            {
+                foreach (FermiChargeState x in s.ChargeStates) table.Add(PointLabel(p.Point), state, s.TemperatureK, x.Defect, Charge(x.Charge), x.FormationEnergyEv, new Scientific(x.PerCm3));
+            }
+        }
+
+        return table;
+    }
+
+    internal static Table SolubilityTable(DefectSolubilityResponse r, bool everyVertex)
+    {
+        var table = new Table("temperature_k", "vertex", "limiting_phases", "dopant_per_cm3", "fermi_level_ev", "most_soluble");
+        foreach (DefectSolubilityAtTemperature atT in r.Temperatures)
+        {
+            foreach (DefectSolubilityAtVertex v in atT.Vertices.Where(v => everyVertex || v.VertexNumber == atT.MostSolubleVertex))
+            {
+                table.Add(atT.TemperatureK, v.VertexNumber, string.Join(" ", r.Vertices[v.VertexNumber - 1].LimitingPhaseIds), new Scientific(v.DopantPerCm3), v.Solution.FermiLevelEv,
+                    v.VertexNumber == atT.MostSolubleVertex);
+            }
+        }
+
+        return table;
+    }
+
+    /// <summary>Safety cautions go to stderr beside warnings (the table on stdout stays machine-readable); --quiet does not hide them.</summary>
+    internal static void WriteCautions(CliContext c, IEnumerable<string> cautions)
+    {
+        foreach (string w in cautions) c.Err.WriteLine($"hull: {w}");
     }
 
     internal static string Caption(VersionUsed used, DefectStudyInfo study, string hostEntryId, DefectGasPoint? gas)

@@ -9,7 +9,8 @@ namespace Hull.Cli.Demo;
 /// <summary>
 /// The demo's defect step: the alumina coating's native vacancies and a Mg dopant (data-demo/defects), their
 /// formation energies at the vertices of the Al2O3 window and in air at a furnace temperature, transition levels,
-/// the formation-energy figure, and the study exported byte for byte.
+/// the formation-energy figure, the self-consistent Fermi level grown at 1600 K and quenched to room temperature, the
+/// Mg solubility over growth temperatures, the carrier figure, and the study exported byte for byte.
 /// </summary>
 internal static class DefectDemoStep
 {
@@ -17,6 +18,9 @@ internal static class DefectDemoStep
 
     /// <summary>The figure's file inside the figures folder (a subfolder of its own).</summary>
     public static string FigurePath(string figuresFolder) => Path.Combine(figuresFolder, "defects", "Al2O3-formation-energies-O-rich.svg");
+
+    /// <summary>The carrier figure's file inside the figures folder.</summary>
+    public static string CarrierFigurePath(string figuresFolder) => Path.Combine(figuresFolder, "defects", "Al2O3-carriers-O-rich.svg");
 
     public static async Task RunAsync(HullConnection hull, TextWriter output, TextWriter error, string dataset, string data, string figuresFolder, CancellationToken t)
     {
@@ -76,6 +80,30 @@ internal static class DefectDemoStep
             new DrawDefectFormationFigureRequest { Dataset = dataset, StudyName = StudyName, Conditions = new DefectConditions { Vertex = "O" } }, hull.Call(t));
         await File.WriteAllTextAsync(path, figure.Svg, t);
         output.WriteLine($"  Formation energy against Fermi level at the O-rich vertex: {path} ({figure.DefectCount} defects, {figure.MarkedLevelCount} transition levels marked)");
+
+        // The study file's carriers block (invented masses, Varshni gap, a background donor): the Fermi level where
+        // the coating grows at 1600 K, and what is left after it cools to room temperature with its defects frozen in.
+        FermiLevelResponse fermi = await hull.Defects.SolveFermiLevelAsync(new FermiLevelRequest
+        {
+            Dataset = dataset, StudyName = StudyName, TemperatureK = 1600, OperatingTemperatureK = 300,
+        }, hull.Call(t));
+        output.WriteLine("  Self-consistent Fermi level at every vertex, grown at 1600 K and quenched to 300 K (Fermi-Dirac carriers, dilute defects):");
+        TableRenderer.WriteAligned(output, DefectCommands.FermiTable(fermi.Points), "  ");
+        foreach (string w in fermi.Warnings) output.WriteLine($"  warning: {w}");
+
+        var solubilityRequest = new DefectSolubilityRequest { Dataset = dataset, StudyName = StudyName, Form = DefectConcentrationForm.SiteBlocking };
+        solubilityRequest.TemperaturesK.AddRange([1400, 1600, 1800]);
+        DefectSolubilityResponse solubility = await hull.Defects.GetDopantSolubilityAsync(solubilityRequest, hull.Call(t));
+        output.WriteLine($"  Mg solubility (site blocking): highest dmu_Mg {solubility.MaxDeltaMuEv:0.###} eV against {string.Join(" ", solubility.LimitingPhaseIds)}; the most soluble vertex per growth temperature:");
+        TableRenderer.WriteAligned(output, DefectCommands.SolubilityTable(solubility, everyVertex: false), "  ");
+        foreach (string caution in solubility.Cautions) output.WriteLine($"  {caution}");
+
+        var carrierRequest = new DefectCarrierFigureRequest { Dataset = dataset, StudyName = StudyName, Conditions = new DefectConditions { Vertex = "O" } };
+        carrierRequest.TemperaturesK.AddRange(Enumerable.Range(0, 21).Select(i => 900.0 + 50 * i));
+        DefectCarrierFigureResponse carriers = await hull.Defects.DrawCarrierFigureAsync(carrierRequest, hull.Call(t));
+        string carrierPath = CarrierFigurePath(figuresFolder);
+        await File.WriteAllTextAsync(carrierPath, carriers.Svg, t);
+        output.WriteLine($"  Concentrations and Fermi level against temperature at the O-rich vertex: {carrierPath}");
 
         ExportDefectStudyResponse exported = await hull.Defects.ExportDefectStudyAsync(new ExportDefectStudyRequest { Dataset = dataset, StudyName = StudyName }, hull.Call(t));
         bool same = exported.StudyJson == json && exported.ChargeStatesCsv == csv;

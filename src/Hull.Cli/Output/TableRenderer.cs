@@ -25,7 +25,7 @@ public static class TableRenderer
     {
         string[][] cells = table.Rows.Select(row => row.Select(c => FormatForTable(c)).ToArray()).ToArray();
         int[] widths = table.Columns.Select((c, k) => Math.Max(c.Length, cells.Length == 0 ? 0 : cells.Max(r => r[k].Length))).ToArray();
-        bool[] numeric = table.Columns.Select((_, k) => table.Rows.Count > 0 && table.Rows.All(r => r[k] is null or double or float or int or long)).ToArray();
+        bool[] numeric = table.Columns.Select((_, k) => table.Rows.Count > 0 && table.Rows.All(r => r[k] is null or double or float or int or long or Scientific)).ToArray();
 
         string Line(IReadOnlyList<string> values)
         {
@@ -57,6 +57,7 @@ public static class TableRenderer
     {
         null => string.Empty,
         double d => d.ToString("F" + TableDecimals, CultureInfo.InvariantCulture),
+        Scientific s => s.Value.ToString("0.000e+00", CultureInfo.InvariantCulture),
         bool b => b ? "yes" : "no",
         IFormattable f => f.ToString(null, CultureInfo.InvariantCulture),
         _ => cell.ToString() ?? string.Empty,
@@ -66,6 +67,7 @@ public static class TableRenderer
     {
         null => string.Empty,
         double d => d.ToString("R", CultureInfo.InvariantCulture),
+        Scientific s => s.Value.ToString("R", CultureInfo.InvariantCulture),
         bool b => b ? "true" : "false",
         IFormattable f => f.ToString(null, CultureInfo.InvariantCulture),
         _ => cell.ToString() ?? string.Empty,

@@ -137,6 +137,26 @@ public sealed class DefectEvaluation
         return new DefectEvaluation(resolved, record, study, hostHull, host, window, references, dopantHulls, warnings);
     }
 
+    /// <summary>The study file's carrier block; FAILED_PRECONDITION naming what is missing when the file has none.</summary>
+    public StudyCarriers Carriers()
+    {
+        StudyCarriers? carriers;
+        try
+        {
+            carriers = DefectStudyFile.ReadCarriers(Record.StudyJson);
+        }
+        catch (DefectInputException e)
+        {
+            throw RpcErrors.FailedPrecondition($"the carriers block of defect study '{Record.StudyName}' version {Record.Version} can no longer be read: {e.Field}: {e.Reason}",
+                ErrorReasons.DatasetNotAnalysable, $"study:{Record.StudyName}");
+        }
+
+        return carriers ?? throw RpcErrors.FailedPrecondition(
+            $"defect study '{Record.StudyName}' version {Record.Version} has no \"carriers\" block, which carrier statistics need: import a new version whose study_json adds "
+            + "\"carriers\" with the bands (conduction_states_300k_per_cm3 and valence_states_300k_per_cm3, electron_mass_ratio and hole_mass_ratio, or density_of_states)",
+            ErrorReasons.PreconditionFailed, $"study:{Record.StudyName}");
+    }
+
     /// <summary>The points of <paramref name="conditions"/> (every window vertex when null or empty), and the gas answer for gas conditions.</summary>
     public (IReadOnlyList<DefectConditionPoint> Points, DefectGasPoint? Gas) Points(DefectConditions? conditions)
     {

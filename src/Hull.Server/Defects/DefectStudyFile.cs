@@ -16,6 +16,12 @@ namespace Hull.Server.Defects;
 /// sites_per_formula_unit or sites_per_cm3, degeneracy (default 1), position_fractional, constituents (complexes),
 /// alignment [{charge, planar: {sign?, plateau_width_fraction?, profiles: [{axis, defect_cell, bulk_cell}]}
 /// | sites: {sign?, sites: [{fractional, defect_cell, bulk_cell}]} | shift_volts}].
+/// Optional "carriers" block (needed by the Fermi-level and solubility calls): the bands one way,
+/// conduction_states_300k_per_cm3 and valence_states_300k_per_cm3 (N_c, N_v at 300 K), or electron_mass_ratio and
+/// hole_mass_ratio (density-of-states masses, valley degeneracy included), or density_of_states
+/// [{energy_ev, states_per_ev_cm3}] (eV above the VBM, empty inside the gap); gap_temperature {alpha_ev_per_k,
+/// beta_k, reference_temperature_k, valence_band_share} (optional); extra_donors_per_cm3, extra_acceptors_per_cm3
+/// (optional, fully ionised, default 0).
 /// CSV header: <c>defect,charge,total_energy_ev</c>, optionally <c>shift_volts</c> (a given ΔV); every defect needs
 /// at least one row, every row a known defect.
 /// </remarks>
@@ -47,6 +53,7 @@ public static class DefectStudyFile
             if (layout != Layout) throw new DefectInputException("layout", $"unknown layout '{layout}'; this server reads '{Layout}'");
             var bulk = ReadHost(Property(root, "host", "host"));
             var model = root.TryGetProperty("model_charge", out var m) ? ReadModel(m) : ModelCharge.Default;
+            if (root.TryGetProperty("carriers", out var carriers)) ReadCarrierBlock(carriers, bulk.BandGapEv);
             var rows = ReadTable(chargeStatesCsv);
             var defectsJson = Property(root, "defects", "defects");
             if (defectsJson.ValueKind != JsonValueKind.Array) throw new DefectInputException("defects", "must be an array");
@@ -65,6 +72,80 @@ public static class DefectStudyFile
 
             return DefectStudy.Create(bulk, defects, model);
         }
+    }
+
+    /// <summary>
+    /// The document's "carriers" block checked against the host's gap, or null when it has none (a study of
+    /// formation energies alone). Call on a document <see cref="Read"/> accepted.
+    /// </summary>
+    public static StudyCarriers? ReadCarriers(string studyJson)
+    {
+        using var document = JsonDocument.Parse(studyJson);
+        var root = document.RootElement;
+        if (!root.TryGetProperty("carriers", out var carriers)) return null;
+        return ReadCarrierBlock(carriers, Double(Property(root, "host", "host"), "band_gap_ev", "host.band_gap_ev"));
+    }
+
+    private static readonly string[] CarrierKeys =
+    [
+        "conduction_states_300k_per_cm3", "valence_states_300k_per_cm3", "electron_mass_ratio", "hole_mass_ratio", "density_of_states",
+        "gap_temperature", "extra_donors_per_cm3", "extra_acceptors_per_cm3",
+    ];
+
+    private static StudyCarriers ReadCarrierBlock(JsonElement c, double bandGapEv)
+    {
+        if (c.ValueKind != JsonValueKind.Object) throw new DefectInputException("carriers", "must be a JSON object");
+        foreach (var p in c.EnumerateObject().Where(p => !CarrierKeys.Contains(p.Name)))
+        {
+            throw new DefectInputException($"carriers.{p.Name}", $"not a field of the carriers block (its fields: {string.Join(", ", CarrierKeys)})");
+        }
+
+        bool Has(string name) => c.TryGetProperty(name, out _);
+        bool states = Has("conduction_states_300k_per_cm3") || Has("valence_states_300k_per_cm3");
+        bool masses = Has("electron_mass_ratio") || Has("hole_mass_ratio");
+        bool table = Has("density_of_states");
+        if ((states ? 1 : 0) + (masses ? 1 : 0) + (table ? 1 : 0) != 1)
+        {
+            throw new DefectInputException("carriers", "give the bands one way: conduction_states_300k_per_cm3 with valence_states_300k_per_cm3, electron_mass_ratio with hole_mass_ratio, or density_of_states");
+        }
+
+        BandStates bands = states
+            ? ParabolicBands.FromEffectiveStates(
+                Double(c, "conduction_states_300k_per_cm3", "carriers.conduction_states_300k_per_cm3"),
+                Double(c, "valence_states_300k_per_cm3", "carriers.valence_states_300k_per_cm3"))
+            : masses
+                ? ParabolicBands.FromEffectiveMasses(Double(c, "electron_mass_ratio", "carriers.electron_mass_ratio"), Double(c, "hole_mass_ratio", "carriers.hole_mass_ratio"))
+                : ReadDensityOfStates(c.GetProperty("density_of_states"));
+        GapTemperatureDependence? gap = null;
+        if (c.TryGetProperty("gap_temperature", out var g))
+        {
+            const string f = "carriers.gap_temperature";
+            gap = new GapTemperatureDependence(Double(g, "alpha_ev_per_k", $"{f}.alpha_ev_per_k"), Double(g, "beta_k", $"{f}.beta_k"),
+                Double(g, "reference_temperature_k", $"{f}.reference_temperature_k"), Double(g, "valence_band_share", $"{f}.valence_band_share"));
+        }
+
+        double donors = Has("extra_donors_per_cm3") ? Double(c, "extra_donors_per_cm3", "carriers.extra_donors_per_cm3") : 0;
+        double acceptors = Has("extra_acceptors_per_cm3") ? Double(c, "extra_acceptors_per_cm3", "carriers.extra_acceptors_per_cm3") : 0;
+        var carriers = new StudyCarriers(bands, gap, donors, acceptors);
+        carriers.Model(CarrierStatistics.FermiDirac, ConcentrationForm.Dilute).Check(bandGapEv);
+        return carriers;
+    }
+
+    private static TabulatedBands ReadDensityOfStates(JsonElement table)
+    {
+        const string f = "carriers.density_of_states";
+        if (table.ValueKind != JsonValueKind.Array) throw new DefectInputException(f, "must be an array of {energy_ev, states_per_ev_cm3}");
+        var energies = new List<double>();
+        var densities = new List<double>();
+        int i = 0;
+        foreach (var point in table.EnumerateArray())
+        {
+            energies.Add(Double(point, "energy_ev", $"{f}[{i}].energy_ev"));
+            densities.Add(Double(point, "states_per_ev_cm3", $"{f}[{i}].states_per_ev_cm3"));
+            i++;
+        }
+
+        return TabulatedBands.Create(energies, densities, f);
     }
 
     private sealed record Row(int Line, string Defect, int Charge, double EnergyEv, double? ShiftVolts);

@@ -115,4 +115,42 @@ public static class DefectWireMapping
         wire.Parts.AddRange(b.Parts.Select(p => new DefectPartCharge { Defect = p.Defect, Charge = p.Charge }));
         return wire;
     }
+
+    /// <summary>A charge-neutrality solution: E_F, carriers, every charge state and total, the form and why it stopped.</summary>
+    public static FermiSolution Solution(FermiLevelSolution solution)
+    {
+        var wire = new FermiSolution
+        {
+            Status = solution.Status switch
+            {
+                FermiSolveStatus.Converged => "converged",
+                FermiSolveStatus.NoNeutralLevel => "no_neutral_level",
+                _ => "iteration_limit",
+            },
+            TemperatureK = solution.TemperatureK,
+            FermiLevelEv = solution.FermiLevelEv,
+            ValenceEdgeEv = solution.Edges.ValenceEv,
+            ConductionEdgeEv = solution.Edges.ConductionEv,
+            ElectronsPerCm3 = solution.ElectronsPerCubicCentimetre,
+            HolesPerCm3 = solution.HolesPerCubicCentimetre,
+            ExtraDonorsPerCm3 = solution.ExtraDonorsPerCubicCentimetre,
+            ExtraAcceptorsPerCm3 = solution.ExtraAcceptorsPerCubicCentimetre,
+            Statistics = solution.Statistics == CarrierStatistics.Boltzmann ? "boltzmann" : "fermi_dirac",
+            Form = solution.Form switch
+            {
+                null => "frozen",
+                ConcentrationForm.SiteBlocking => "site_blocking",
+                _ => "dilute",
+            },
+            NetChargePerCm3 = solution.NetChargePerCubicCentimetre,
+            RelativeChargeImbalance = solution.RelativeChargeImbalance,
+            Iterations = solution.Iterations,
+        };
+        wire.ChargeStates.AddRange(solution.ChargeStates.Select(c => new FermiChargeState
+        {
+            Defect = c.Defect, Charge = c.Charge, FormationEnergyEv = c.FormationEnergyEv, PerCm3 = c.PerCubicCentimetre,
+        }));
+        wire.Defects.AddRange(solution.Defects.Select(d => new FermiDefectTotal { Defect = d.Defect, SiteSet = d.SiteSet, PerCm3 = d.PerCubicCentimetre, SiteFraction = d.SiteFraction }));
+        return wire;
+    }
 }

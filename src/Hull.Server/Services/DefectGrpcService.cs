@@ -2,6 +2,8 @@ using System.Globalization;
 using Grpc.Core;
 using Hull.Core.Defects;
 using Hull.Core.Figures;
+using Hull.Core.Thermo;
+using Hull.Core.Windows;
 using Hull.Protos.V1;
 using Hull.Server.Caching;
 using Hull.Server.Defects;
@@ -205,6 +207,186 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
             Svg = figure.Svg,
             DefectCount = figure.DefectCount,
             MarkedLevelCount = figure.MarkedLevelCount,
+        };
+        response.Warnings.AddRange(ev.Warnings);
+        return response;
+    }
+
+    public override async Task<FermiLevelResponse> SolveFermiLevel(FermiLevelRequest request, ServerCallContext context)
+    {
+        CarrierStatistics statistics = CarrierOptions.Statistics(request.Statistics);
+        ConcentrationForm form = CarrierOptions.Form(request.Form);
+        DefectEvaluation ev = await LoadAsync(request.Dataset, request.Version, request.StudyName, request.StudyVersion, request.HostEntryId, context);
+        CarrierModel model = ev.Carriers().Model(statistics, form);
+        (IReadOnlyList<CorePoint> points, DefectGasPoint? gas) = ev.Points(request.Conditions);
+        double gap = ev.Study.Bulk.BandGapEv;
+        // At a gas condition the gas's temperature is the natural default: the defects form where the gas is.
+        double temperature = CarrierOptions.Temperature(model, gap, request.TemperatureK == 0 && gas is not null ? gas.TemperatureK : request.TemperatureK, "temperature_k");
+        double? operating = request.HasOperatingTemperatureK ? CarrierOptions.Temperature(model, gap, request.OperatingTemperatureK, "operating_temperature_k") : null;
+        var response = new FermiLevelResponse
+        {
+            Used = WireMapping.ToWire(ev.Version),
+            Study = DefectWireMapping.Info(ev.Record, ev.Study),
+            HostEntryId = ev.Host.Id,
+            Gas = gas,
+        };
+        foreach (CorePoint point in points)
+        {
+            DefectEnsemble ensemble = DefectEvaluation.Core(() => DefectEnsemble.FromCalculator(ev.Calculator(point)));
+            var atPoint = new FermiPointSolution { Point = DefectWireMapping.Point(point, ev.Window.Elements) };
+            if (operating is { } operatingK)
+            {
+                QuenchSolution quench = DefectEvaluation.Core(() => Quenching.Solve(ensemble, model, temperature, operatingK));
+                atPoint.Equilibrium = DefectWireMapping.Solution(quench.Growth);
+                atPoint.Quenched = DefectWireMapping.Solution(quench.Operating);
+                ev.Warnings.AddRange(CarrierOptions.Doubts(quench.Growth, point.Label).Concat(CarrierOptions.Doubts(quench.Operating, $"{point.Label} quenched")));
+            }
+            else
+            {
+                FermiLevelSolution solution = DefectEvaluation.Core(() => ChargeNeutrality.Solve(ensemble, model, temperature));
+                atPoint.Equilibrium = DefectWireMapping.Solution(solution);
+                ev.Warnings.AddRange(CarrierOptions.Doubts(solution, point.Label));
+            }
+
+            response.Points.Add(atPoint);
+        }
+
+        response.Warnings.AddRange(ev.Warnings);
+        return response;
+    }
+
+    public override async Task<DefectSolubilityResponse> GetDopantSolubility(DefectSolubilityRequest request, ServerCallContext context)
+    {
+        CarrierStatistics statistics = CarrierOptions.Statistics(request.Statistics);
+        ConcentrationForm form = CarrierOptions.Form(request.Form);
+        if (request.TemperaturesK.Count == 0) throw RpcErrors.InvalidArgument("temperatures_k", "give at least one growth temperature (K)");
+        DefectEvaluation ev = await LoadAsync(request.Dataset, request.Version, request.StudyName, request.StudyVersion, request.HostEntryId, context);
+        CarrierModel model = ev.Carriers().Model(statistics, form);
+        double gap = ev.Study.Bulk.BandGapEv;
+        double[] temperatures = [.. request.TemperaturesK.Select((t, i) => CarrierOptions.Temperature(model, gap, t, $"temperatures_k[{i}]"))];
+        string dopants = ev.DopantHulls.Count == 0 ? "none" : string.Join(", ", ev.DopantHulls.Keys);
+        string dopant = request.Dopant.Length > 0 ? request.Dopant
+            : ev.DopantHulls.Count == 1 ? ev.DopantHulls.Keys.Single()
+            : throw RpcErrors.InvalidArgument("dopant", $"name the dopant: the study's dopants are {dopants}");
+        if (!ev.DopantHulls.TryGetValue(dopant, out SystemHull? extended))
+        {
+            throw RpcErrors.InvalidArgument("dopant", $"'{dopant}' is not a dopant of the study (an element a defect adds that the host {ev.Study.Host.Formula} lacks); its dopants: {dopants}");
+        }
+
+        var others = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < request.OtherPotentials.Count; i++)
+        {
+            DefectElementPotential p = request.OtherPotentials[i];
+            if (!ev.DopantHulls.ContainsKey(p.Element) || p.Element == dopant)
+            {
+                throw RpcErrors.InvalidArgument($"other_potentials[{i}].element", $"'{p.Element}' is not one of the study's other dopants ({string.Join(", ", ev.DopantHulls.Keys.Where(k => k != dopant).DefaultIfEmpty("none"))})");
+            }
+
+            if (!double.IsFinite(p.DeltaMuEv) || !others.TryAdd(p.Element, p.DeltaMuEv))
+            {
+                throw RpcErrors.InvalidArgument($"other_potentials[{i}]", $"{p.Element}: given twice or not a finite Δμ");
+            }
+        }
+
+        foreach (string missing in ev.DopantHulls.Keys.Where(k => k != dopant && !others.ContainsKey(k)))
+        {
+            throw RpcErrors.InvalidArgument("other_potentials", $"the study's defects also add {missing}, outside the host + {dopant} window: give its Δμ in other_potentials");
+        }
+
+        Core.Windows.DopantLimit limit;
+        try
+        {
+            limit = DopantLimits.Of(ev.HostHull, extended, ev.Host.Id, dopant);
+        }
+        catch (WindowInputException e)
+        {
+            throw RpcErrors.FailedPrecondition(e.Message, ErrorReasons.PreconditionFailed, $"entry:{ev.Host.Id}");
+        }
+
+        DopantSolubilityResult result = DefectEvaluation.Core(() => DopantSolubility.Evaluate(ev.Study, ev.References, limit, model, temperatures, others));
+        var response = new DefectSolubilityResponse
+        {
+            Used = WireMapping.ToWire(ev.Version),
+            Study = DefectWireMapping.Info(ev.Record, ev.Study),
+            HostEntryId = ev.Host.Id,
+            Dopant = dopant,
+            MaxDeltaMuEv = result.MaxDeltaMuEv,
+        };
+        response.LimitingPhaseIds.AddRange(result.LimitingPhaseIds);
+        foreach (SolubilityVertex v in result.Vertices)
+        {
+            var vertex = new DefectSolubilityVertex { VertexNumber = v.Index + 1 };
+            vertex.Potentials.AddRange(limit.ExtendedElements.Concat(others.Keys.Order(StringComparer.Ordinal))
+                .Select(e => new DefectElementPotential { Element = e, DeltaMuEv = v.Point.DeltaMuEv[e] }));
+            vertex.LimitingPhaseIds.AddRange(v.LimitingPhaseIds);
+            response.Vertices.Add(vertex);
+        }
+
+        foreach (SolubilityAtTemperature t in result.Temperatures)
+        {
+            var atT = new DefectSolubilityAtTemperature { TemperatureK = t.TemperatureK, MostSolubleVertex = t.MostSolubleVertex + 1, MaxDopantPerCm3 = t.MostSolubleVertex < 0 ? 0 : t.MaxDopantPerCubicCentimetre };
+            foreach (VertexSolubility v in t.PerVertex)
+            {
+                atT.Vertices.Add(new DefectSolubilityAtVertex { VertexNumber = v.VertexIndex + 1, DopantPerCm3 = v.DopantPerCubicCentimetre, Solution = DefectWireMapping.Solution(v.Solution) });
+                ev.Warnings.AddRange(CarrierOptions.Doubts(v.Solution, $"extended vertex {v.VertexIndex + 1}"));
+            }
+
+            response.Temperatures.Add(atT);
+        }
+
+        response.Cautions.AddRange(result.Cautions);
+        response.Warnings.AddRange(ev.Warnings);
+        return response;
+    }
+
+    public override async Task<DefectCarrierFigureResponse> DrawCarrierFigure(DefectCarrierFigureRequest request, ServerCallContext context)
+    {
+        CarrierStatistics statistics = CarrierOptions.Statistics(request.Statistics);
+        ConcentrationForm form = CarrierOptions.Form(request.Form);
+        if (request.TemperaturesK.Count < 2) throw RpcErrors.InvalidArgument("temperatures_k", "a carrier figure needs two or more rising temperatures (K)");
+        DefectEvaluation ev = await LoadAsync(request.Dataset, request.Version, request.StudyName, request.StudyVersion, request.HostEntryId, context);
+        CarrierModel model = ev.Carriers().Model(statistics, form);
+        double gap = ev.Study.Bulk.BandGapEv;
+        double[] temperatures = [.. request.TemperaturesK.Select((t, i) => CarrierOptions.Temperature(model, gap, t, $"temperatures_k[{i}]"))];
+        for (int i = 1; i < temperatures.Length; i++)
+        {
+            if (!(temperatures[i] > temperatures[i - 1])) throw RpcErrors.InvalidArgument($"temperatures_k[{i}]", "the temperatures of a figure must rise");
+        }
+
+        double? operating = request.HasOperatingTemperatureK ? CarrierOptions.Temperature(model, gap, request.OperatingTemperatureK, "operating_temperature_k") : null;
+        (CorePoint point, DefectGasPoint? _) = ev.SinglePoint(request.Conditions);
+        DefectEnsemble ensemble = DefectEvaluation.Core(() => DefectEnsemble.FromCalculator(ev.Calculator(point)));
+        var solutions = new List<FermiLevelSolution>(temperatures.Length);
+        foreach (double t in temperatures)
+        {
+            FermiLevelSolution s = operating is { } op
+                ? DefectEvaluation.Core(() => Quenching.Solve(ensemble, model, t, op)).Operating
+                : DefectEvaluation.Core(() => ChargeNeutrality.Solve(ensemble, model, t));
+            ev.Warnings.AddRange(CarrierOptions.Doubts(s, point.Label));
+            solutions.Add(s);
+        }
+
+        string where = point.VertexNumber > 0 ? $"window vertex {point.VertexNumber} ({point.Label})" : point.Label;
+        string title = operating is { } q
+            ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {where}, grown at each temperature and quenched to {q:0.##} K")
+            : $"{ev.Study.Host.Formula} at {where}, in equilibrium";
+        CarrierFigureAxis axis = operating is null ? CarrierFigureAxis.Temperature : new CarrierFigureAxis("Growth temperature", "K");
+        string svg;
+        try
+        {
+            svg = CarrierFigure.Render(title, axis, temperatures, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
+        }
+        catch (FigureInputException e)
+        {
+            throw RpcErrors.InvalidArgument("temperatures_k", e.Message);
+        }
+
+        var response = new DefectCarrierFigureResponse
+        {
+            Used = WireMapping.ToWire(ev.Version),
+            Study = DefectWireMapping.Info(ev.Record, ev.Study),
+            Point = DefectWireMapping.Point(point, ev.Window.Elements),
+            Svg = svg,
         };
         response.Warnings.AddRange(ev.Warnings);
         return response;

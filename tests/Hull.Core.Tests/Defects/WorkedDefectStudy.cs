@@ -51,4 +51,23 @@ internal static class WorkedDefectStudy
     ];
 
     public static DefectStudy Study() => DefectStudy.Create(Bulk(), Defects(), ModelCharge.Point);
+
+    /// <summary>1 site per formula unit, 32 formula units in (10 Å)³: 3.2e22 cm^-3.</summary>
+    public const double SitesPerCubicCentimetre = 32 / (L * L * L * 1e-24);
+
+    /// <summary>
+    /// The study's defects at another point, by hand from the target intercepts: a_q − Σ n_i (Δμ_i − Δμ_i^hand),
+    /// degeneracy 1, for references that must not go through the formation-energy code.
+    /// </summary>
+    public static DefectEnsemble HandEnsemble(IReadOnlyDictionary<string, double> deltaMu)
+    {
+        SpeciesChargeState[] Shift(Dictionary<int, double> a, Dictionary<string, int> atoms) =>
+            [.. a.OrderByDescending(p => p.Key).Select(p => new SpeciesChargeState(p.Key, p.Value - atoms.Sum(n => n.Value * (deltaMu[n.Key] - Point.DeltaMuEv[n.Key])), 1))];
+        return DefectEnsemble.Create(Gap,
+        [
+            new("V_O", "O", SitesPerCubicCentimetre, Shift(VacancyIntercepts, VacancyAtoms), VacancyAtoms),
+            new("Li_Mg", "Mg", SitesPerCubicCentimetre, Shift(DopantIntercepts, DopantAtoms), DopantAtoms),
+            new("V_O+Li_Mg", "Mg", SitesPerCubicCentimetre, Shift(ComplexIntercepts, ComplexAtoms), ComplexAtoms),
+        ]);
+    }
 }

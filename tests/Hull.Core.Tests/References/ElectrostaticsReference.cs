@@ -11,8 +11,7 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public sealed class ElectrostaticsReference
 {
-    private const string Python = "/usr/bin/python3";
-    private readonly JsonArray _tasks = [];
+    private readonly PythonTaskBatch _batch = new("defect_electrostatics.py", TimeSpan.FromSeconds(120));
 
     public int Lattice(LatticeCell cell, DielectricTensor eps, ModelCharge model, int q) =>
         Add(new JsonObject { ["kind"] = "lattice", ["cell"] = Rows(cell.Rows), ["eps"] = Rows(eps.Tensor), ["cov"] = Rows(model.Covariance), ["q"] = q });
@@ -34,26 +33,11 @@ public sealed class ElectrostaticsReference
     public int Erfc(IReadOnlyList<double> x) => Add(new JsonObject { ["kind"] = "erfc", ["x"] = new JsonArray([.. x.Select(v => (JsonNode)v)]) });
 
     /// <summary>Runs every task added so far; result i is a number or an array of numbers.</summary>
-    public JsonArray Run()
-    {
-        using var scratch = new ScratchFolder("defect-electrostatics");
-        string input = scratch.File("tasks.json");
-        File.WriteAllText(input, new JsonObject { ["tasks"] = _tasks.DeepClone() }.ToJsonString());
-        string script = Path.Combine(AppContext.BaseDirectory, "References", "defect_electrostatics.py");
-        var run = ToolProcess.Run(Python, [script, input], scratch.Path, TimeSpan.FromSeconds(120), "python3-scipy");
-        var results = JsonNode.Parse(run.StandardOutput)?["results"]?.AsArray()
-            ?? throw new ReferenceToolException("defect_electrostatics.py wrote no results");
-        if (results.Count != _tasks.Count) throw new ReferenceToolException($"defect_electrostatics.py answered {results.Count} of {_tasks.Count} tasks");
-        return results;
-    }
+    public JsonArray Run() => _batch.Run();
 
-    public static double[] Numbers(JsonNode? node) => [.. node!.AsArray().Select(v => v!.GetValue<double>())];
+    public static double[] Numbers(JsonNode? node) => PythonTaskBatch.Numbers(node);
 
-    private int Add(JsonObject task)
-    {
-        _tasks.Add(task);
-        return _tasks.Count - 1;
-    }
+    private int Add(JsonObject task) => _batch.Add(task);
 
     private static JsonArray Rows(Matrix3 m) => new([.. m.ToRows().Select(r => (JsonNode)new JsonArray([.. r.Select(v => (JsonNode)v)]))]);
 

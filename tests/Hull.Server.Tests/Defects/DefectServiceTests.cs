@@ -10,7 +10,7 @@ namespace Hull.Server.Tests.Defects;
 /// window's vertices and at (T, p) worked by hand, transition levels and negative-U of a constructed vacancy, the
 /// image-charge term against the published Madelung constant, byte-for-byte export, and every listed bad input.
 /// </summary>
-public sealed class DefectServiceTests : IAsyncLifetime
+public sealed partial class DefectServiceTests : IAsyncLifetime
 {
     // 1 eV per particle = 96.485 kJ/mol (CODATA: e * N_A = 96 485.33 C/mol).
     private const double KilojoulesPerMolePerEv = 96.485;

@@ -51,6 +51,52 @@ public sealed class DefectStudyFileTests
         Assert.Equal("study_json", Assert.Throws<DefectInputException>(() => DefectStudyFile.Read("{", Csv)).Field);
     }
 
+    private static string WithCarriers(string block) => Json.Replace("\"model_charge\": {\"point\": true},", "\"model_charge\": {\"point\": true}, \"carriers\": " + block + ",", StringComparison.Ordinal);
+
+    [Fact]
+    public void Reads_the_carriers_block_and_leaves_older_files_without_one()
+    {
+        Assert.Null(DefectStudyFile.ReadCarriers(Json));
+        var states = DefectStudyFile.ReadCarriers(WithCarriers("""
+            {"conduction_states_300k_per_cm3": 2.8e19, "valence_states_300k_per_cm3": 1.04e19, "extra_donors_per_cm3": 1e16,
+             "gap_temperature": {"alpha_ev_per_k": 4.73e-4, "beta_k": 636, "reference_temperature_k": 0, "valence_band_share": 0.25}}
+            """))!;
+        var bands = Assert.IsType<ParabolicBands>(states.Bands);
+        Assert.Equal(2.8e19, bands.ConductionStates300KPerCubicCentimetre);
+        Assert.Equal(1.04e19, bands.ValenceStates300KPerCubicCentimetre);
+        Assert.Equal(1e16, states.ExtraDonorsPerCubicCentimetre);
+        Assert.Equal(0, states.ExtraAcceptorsPerCubicCentimetre);
+        Assert.Equal(new GapTemperatureDependence(4.73e-4, 636, 0, 0.25), states.GapTemperature);
+
+        // N_c = 2 (2π m* k_B T / h²)^{3/2}: with m* = 1 at 300 K, 2.5094e19 cm^-3 (CODATA 2018 m_e, k_B, h; worked by hand).
+        var masses = Assert.IsType<ParabolicBands>(DefectStudyFile.ReadCarriers(WithCarriers("""{"electron_mass_ratio": 1.0, "hole_mass_ratio": 4.0}"""))!.Bands);
+        Assert.Equal(2.5094e19, masses.ConductionStates300KPerCubicCentimetre, 0.0001e19);
+        Assert.Equal(8 * masses.ConductionStates300KPerCubicCentimetre, masses.ValenceStates300KPerCubicCentimetre, 1e6);
+
+        var table = Assert.IsType<TabulatedBands>(DefectStudyFile.ReadCarriers(WithCarriers("""
+            {"density_of_states": [{"energy_ev": -2, "states_per_ev_cm3": 1e22}, {"energy_ev": 0, "states_per_ev_cm3": 0},
+                                   {"energy_ev": 6, "states_per_ev_cm3": 0}, {"energy_ev": 8, "states_per_ev_cm3": 1e22}]}
+            """))!.Bands);
+        Assert.Equal([-2.0, 0, 6, 8], table.EnergiesEv);
+    }
+
+    [Theory]
+    [InlineData("""{"conduction_states_300k_per_cm3": 1e19, "valence_states_300k_per_cm3": 1e19, "electron_mass_ratio": 1}""", "carriers")]
+    [InlineData("""{"extra_donors_per_cm3": 1e16}""", "carriers")]
+    [InlineData("""{"electron_mass_ratio": 1, "hole_mass_ratio": -2}""", "carriers.hole_mass_ratio")]
+    [InlineData("""{"electron_mass_ratio": 1}""", "carriers.hole_mass_ratio")]
+    [InlineData("""{"electron_mass_ratio": 1, "hole_mass_ratio": 1, "extra_acceptors_per_cm3": -1}""", "carriers.extra_acceptors_per_cm3")]
+    [InlineData("""{"electron_mass_ratio": 1, "hole_mass_ratio": 1, "holes": 1}""", "carriers.holes")]
+    [InlineData("""{"electron_mass_ratio": 1, "hole_mass_ratio": 1, "gap_temperature": {"alpha_ev_per_k": 4e-4, "beta_k": 600, "reference_temperature_k": 0, "valence_band_share": 1.5}}""", "carriers.gap_temperature.valence_band_share")]
+    [InlineData("""{"electron_mass_ratio": 1, "hole_mass_ratio": 1, "gap_temperature": {"alpha_ev_per_k": 4e-4, "beta_k": 600}}""", "carriers.gap_temperature.reference_temperature_k")]
+    [InlineData("""{"density_of_states": [{"energy_ev": -2, "states_per_ev_cm3": 1e22}, {"energy_ev": 0, "states_per_ev_cm3": 0}, {"energy_ev": 3, "states_per_ev_cm3": 5}, {"energy_ev": 8, "states_per_ev_cm3": 1e22}]}""", "carriers.density_of_states[2]")]
+    [InlineData("""{"density_of_states": [{"energy_ev": -2, "states_per_ev_cm3": 1e22}, {"energy_ev": -3, "states_per_ev_cm3": 0}, {"energy_ev": 6, "states_per_ev_cm3": 0}, {"energy_ev": 8, "states_per_ev_cm3": 1e22}]}""", "carriers.density_of_states[1].energy_ev")]
+    [InlineData("""{"density_of_states": [{"energy_ev": -2}]}""", "carriers.density_of_states[0].states_per_ev_cm3")]
+    public void Says_where_the_carriers_block_is_bad(string block, string field)
+    {
+        Assert.Equal(field, Assert.Throws<DefectInputException>(() => DefectStudyFile.Read(WithCarriers(block), Csv)).Field);
+    }
+
     [Fact]
     public void Reads_the_demo_study()
     {

@@ -122,6 +122,14 @@ def _read_ca_file(ca_file) -> bytes:
     return data
 
 
+def _is_file(text: str) -> bool:
+    """Whether a one-line text names an existing file (a text too long for a path name is not one)."""
+    try:
+        return Path(text).is_file()
+    except OSError:
+        return False
+
+
 class HullClient:
     """A connection to one hull server.
 
@@ -628,7 +636,7 @@ class HullClient:
         of `study_name`, checked first against the dataset's latest version."""
         texts = []
         for given in (study_json, charge_states_csv):
-            if isinstance(given, Path) or (isinstance(given, str) and "\n" not in given and Path(given).is_file()):
+            if isinstance(given, Path) or (isinstance(given, str) and "\n" not in given and _is_file(given)):
                 with open(given, encoding="utf-8", newline="") as f:
                     texts.append(f.read())
             else:
@@ -709,6 +717,71 @@ class HullClient:
         self._defect_warnings(reply.warnings)
         return d.DefectFigure(r.version_used(reply.used), d.study_info(reply.study), d.point(reply.point), reply.svg,
                               reply.defect_count, reply.marked_level_count, tuple(reply.warnings))
+
+    @_calls("DefectService", "SolveFermiLevel")
+    def solve_fermi_level(self, dataset: str, study_name: str, *, temperature_k: float = 0.0,
+                          operating_temperature_k: Optional[float] = None, statistics: str = "fermi_dirac",
+                          form: str = "dilute", version: int = 0, study_version: int = 0, vertex=None,
+                          point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
+                          host_entry_id: str = "") -> pd.DataFrame:
+        """The self-consistent Fermi level (eV above the VBM) and carriers (cm^-3) at the same points as
+        get_defect_formation_energies, at `temperature_k` (0 with a gas: the gas's temperature). With
+        `operating_temperature_k` the totals freeze at temperature_k (rows 'growth') and charge states and carriers
+        re-solve there (rows 'quenched'). Needs the study file's carriers block. attrs['charge_states'] and
+        attrs['defects'] hold every concentration; see defects.fermi_frame."""
+        statistics_code, form_code = d.counting(statistics, form)
+        request = wire.defects_pb2.FermiLevelRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version,
+            temperature_k=float(temperature_k), statistics=statistics_code, form=form_code, host_entry_id=host_entry_id)
+        if operating_temperature_k is not None:
+            request.operating_temperature_k = float(operating_temperature_k)
+        chosen = d.conditions(vertex, point, gas)
+        if chosen is not None:
+            request.conditions.CopyFrom(chosen)
+        reply = self._call(self._defects.SolveFermiLevel, self.solve_fermi_level.hull_rpc, request)
+        self._defect_warnings(reply.warnings)
+        return d.fermi_frame(reply)
+
+    @_calls("DefectService", "GetDopantSolubility")
+    def get_dopant_solubility(self, dataset: str, study_name: str, temperatures_k: Iterable[float], *, dopant: str = "",
+                              statistics: str = "fermi_dirac", form: str = "dilute",
+                              other_potentials: Optional[Mapping[str, float]] = None, version: int = 0,
+                              study_version: int = 0, host_entry_id: str = "") -> d.DopantSolubility:
+        """How much dopant dissolves at each vertex of the host + dopant window per growth temperature (K), the Fermi
+        level solved at each. The hazard cautions come as DefectWarning too (follow local safety rules)."""
+        statistics_code, form_code = d.counting(statistics, form)
+        request = wire.defects_pb2.DefectSolubilityRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version, dopant=dopant,
+            temperatures_k=[float(t) for t in temperatures_k], statistics=statistics_code, form=form_code,
+            host_entry_id=host_entry_id,
+            other_potentials=[wire.defects_pb2.DefectElementPotential(element=e, delta_mu_ev=float(v))
+                              for e, v in dict(other_potentials or {}).items()])
+        reply = self._call(self._defects.GetDopantSolubility, self.get_dopant_solubility.hull_rpc, request)
+        self._defect_warnings(list(reply.warnings) + list(reply.cautions))
+        return d.solubility(reply)
+
+    @_calls("DefectService", "DrawCarrierFigure")
+    def draw_carrier_figure(self, dataset: str, study_name: str, temperatures_k: Iterable[float], *,
+                            operating_temperature_k: Optional[float] = None, statistics: str = "fermi_dirac",
+                            form: str = "dilute", version: int = 0, study_version: int = 0, vertex=None,
+                            point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
+                            host_entry_id: str = "") -> d.CarrierFigure:
+        """Defect and carrier concentrations and the Fermi level against two or more rising temperatures (K) at one
+        point (default: the window's first vertex), as SVG; quenched to operating_temperature_k when given."""
+        statistics_code, form_code = d.counting(statistics, form)
+        request = wire.defects_pb2.DefectCarrierFigureRequest(
+            dataset=dataset, version=version, study_name=study_name, study_version=study_version,
+            temperatures_k=[float(t) for t in temperatures_k], statistics=statistics_code, form=form_code,
+            host_entry_id=host_entry_id)
+        if operating_temperature_k is not None:
+            request.operating_temperature_k = float(operating_temperature_k)
+        chosen = d.conditions(vertex, point, gas)
+        if chosen is not None:
+            request.conditions.CopyFrom(chosen)
+        reply = self._call(self._defects.DrawCarrierFigure, self.draw_carrier_figure.hull_rpc, request)
+        self._defect_warnings(reply.warnings)
+        return d.CarrierFigure(r.version_used(reply.used), d.study_info(reply.study), d.point(reply.point), reply.svg,
+                               tuple(reply.warnings))
 
     # --- ElectrochemistryService --------------------------------------------------------------------------------
 

@@ -119,7 +119,110 @@ class DefectFigure(SvgText):
     warnings: Tuple[str, ...]
 
 
+@dataclass(frozen=True)
+class DopantSolubility:
+    """A dopant's solubility: its highest Δμ and the phases that limit it, the host + dopant window's vertices (one
+    row each, Δμ columns `delta_mu_<El>_ev`), and one row per growth temperature and vertex with the dopant total
+    (cm^-3) and the self-consistent Fermi level there; `cautions` are the hazard reminders for dopant and phases."""
+
+    used: VersionUsed
+    study: DefectStudyInfo
+    host_entry_id: str
+    dopant: str
+    max_delta_mu_ev: float
+    limiting_phase_ids: Tuple[str, ...]
+    vertices: pd.DataFrame = field(repr=False)
+    table: pd.DataFrame = field(repr=False)
+    cautions: Tuple[str, ...]
+    warnings: Tuple[str, ...]
+
+    @property
+    def most_soluble(self) -> pd.DataFrame:
+        """The most soluble vertex's row per temperature."""
+        return self.table[self.table.most_soluble].reset_index(drop=True)
+
+
+@dataclass(frozen=True)
+class CarrierFigure(SvgText):
+    """Concentrations and the Fermi level against temperature at one point, drawn by the server."""
+
+    used: VersionUsed
+    study: DefectStudyInfo
+    point: DefectPoint
+    svg: str = field(repr=False)
+    warnings: Tuple[str, ...]
+
+
 _GAS_REFERENCES = {"fitted": 1, "computed": 2}
+_STATISTICS = {"fermi_dirac": 1, "boltzmann": 2}
+_FORMS = {"dilute": 1, "site_blocking": 2}
+
+FERMI_COLUMNS = ("point", "vertex_number", "state", "temperature_k", "fermi_level_ev", "valence_edge_ev",
+                 "conduction_edge_ev", "electrons_per_cm3", "holes_per_cm3", "extra_donors_per_cm3",
+                 "extra_acceptors_per_cm3", "status", "form", "statistics", "net_charge_per_cm3",
+                 "relative_charge_imbalance", "iterations")
+CHARGE_STATE_COLUMNS = ("point", "state", "temperature_k", "defect", "charge", "formation_energy_ev", "per_cm3")
+TOTAL_COLUMNS = ("point", "state", "temperature_k", "defect", "site_set", "per_cm3", "site_fraction")
+
+
+def counting(statistics: str, form: str):
+    """The wire enums of carrier statistics ('fermi_dirac' | 'boltzmann') and form ('dilute' | 'site_blocking')."""
+    if statistics not in _STATISTICS:
+        raise ValueError(f"statistics '{statistics}' is not one of: {', '.join(_STATISTICS)}")
+    if form not in _FORMS:
+        raise ValueError(f"form '{form}' is not one of: {', '.join(_FORMS)}")
+    return _STATISTICS[statistics], _FORMS[form]
+
+
+def _solution_row(s) -> dict:
+    return {"temperature_k": s.temperature_k, "fermi_level_ev": s.fermi_level_ev, "valence_edge_ev": s.valence_edge_ev,
+            "conduction_edge_ev": s.conduction_edge_ev, "electrons_per_cm3": s.electrons_per_cm3,
+            "holes_per_cm3": s.holes_per_cm3, "extra_donors_per_cm3": s.extra_donors_per_cm3,
+            "extra_acceptors_per_cm3": s.extra_acceptors_per_cm3, "status": s.status, "form": s.form,
+            "statistics": s.statistics, "net_charge_per_cm3": s.net_charge_per_cm3,
+            "relative_charge_imbalance": s.relative_charge_imbalance, "iterations": s.iterations}
+
+
+def fermi_frame(reply) -> pd.DataFrame:
+    """One row per point and state ('equilibrium', or 'growth' and 'quenched'); attrs: charge_states and defects
+    (DataFrames of every charge state and every total, cm^-3), used, study, host_entry_id, points, gas, warnings."""
+    points = [point(p.point) for p in reply.points]
+    rows, states, totals = [], [], []
+    for p, message in zip(points, reply.points):
+        solved = ([("growth", message.equilibrium), ("quenched", message.quenched)] if message.HasField("quenched")
+                  else [("equilibrium", message.equilibrium)])
+        for state, s in solved:
+            rows.append({"point": p.label, "vertex_number": p.vertex_number, "state": state, **_solution_row(s)})
+            states += [{"point": p.label, "state": state, "temperature_k": s.temperature_k, "defect": c.defect,
+                        "charge": c.charge, "formation_energy_ev": c.formation_energy_ev, "per_cm3": c.per_cm3}
+                       for c in s.charge_states]
+            totals += [{"point": p.label, "state": state, "temperature_k": s.temperature_k, "defect": t.defect,
+                        "site_set": t.site_set, "per_cm3": t.per_cm3, "site_fraction": t.site_fraction} for t in s.defects]
+    table = pd.DataFrame(rows, columns=list(FERMI_COLUMNS))
+    table.attrs.update({"charge_states": pd.DataFrame(states, columns=list(CHARGE_STATE_COLUMNS)),
+                        "defects": pd.DataFrame(totals, columns=list(TOTAL_COLUMNS)),
+                        "used": VersionUsed(reply.used.dataset, reply.used.version, reply.used.content_sha256),
+                        "study": study_info(reply.study), "host_entry_id": reply.host_entry_id, "points": tuple(points),
+                        "gas": gas(reply.gas, reply.HasField("gas")), "warnings": tuple(reply.warnings)})
+    return table
+
+
+def solubility(reply) -> DopantSolubility:
+    elements = list(dict.fromkeys(p.element for v in reply.vertices for p in v.potentials))
+    vertices = pd.DataFrame(
+        [{"vertex_number": v.vertex_number, "limiting_phase_ids": tuple(v.limiting_phase_ids),
+          **{f"delta_mu_{p.element}_ev": p.delta_mu_ev for p in v.potentials}} for v in reply.vertices],
+        columns=["vertex_number", "limiting_phase_ids"] + [f"delta_mu_{e}_ev" for e in elements])
+    rows = [{"temperature_k": t.temperature_k, "vertex_number": v.vertex_number, "dopant_per_cm3": v.dopant_per_cm3,
+             "most_soluble": v.vertex_number == t.most_soluble_vertex, "fermi_level_ev": v.solution.fermi_level_ev,
+             "electrons_per_cm3": v.solution.electrons_per_cm3, "holes_per_cm3": v.solution.holes_per_cm3,
+             "status": v.solution.status, "form": v.solution.form}
+            for t in reply.temperatures for v in t.vertices]
+    table = pd.DataFrame(rows, columns=["temperature_k", "vertex_number", "dopant_per_cm3", "most_soluble", "fermi_level_ev",
+                                        "electrons_per_cm3", "holes_per_cm3", "status", "form"])
+    return DopantSolubility(VersionUsed(reply.used.dataset, reply.used.version, reply.used.content_sha256),
+                            study_info(reply.study), reply.host_entry_id, reply.dopant, reply.max_delta_mu_ev,
+                            tuple(reply.limiting_phase_ids), vertices, table, tuple(reply.cautions), tuple(reply.warnings))
 
 
 def conditions(vertex=None, point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None):
