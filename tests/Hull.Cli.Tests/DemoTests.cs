@@ -44,6 +44,8 @@ public sealed class DemoTests
         Assert.Contains("grown at 1600 K and quenched to 300 K", run.Out);
         Assert.Contains("Mg solubility (site blocking)", run.Out);
         Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-carriers-O-rich.svg")));
+        Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-carriers-O-rich-to-Al-rich.svg")));
+        Assert.Contains("along the window from the O-rich to the Al-rich vertex", run.Out);
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();

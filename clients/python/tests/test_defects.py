@@ -10,7 +10,7 @@ import xml.etree.ElementTree as ET
 
 import pytest
 
-from conftest import DEMO, cli_json
+from conftest import DEMO, cli_json, run_cli
 from hullclient import DefectWarning, FailedPreconditionError, InvalidArgumentError, NotFoundError
 
 DATASET = "coating-defects"
@@ -177,6 +177,20 @@ def test_solubility_and_carrier_figure_equal_the_cli(client, server, study):
     figure = client.draw_carrier_figure(DATASET, STUDY, [900, 1300, 1700], vertex="O")
     root = ET.fromstring(figure.svg)
     assert root.tag.endswith("svg") and figure.point.label == "O"
+
+
+def test_carrier_figure_along_a_path_equals_the_cli_file(client, server, study, tmp_path):
+    # The sweep along the window from the O-rich to the Al-rich vertex at one temperature: the client's SVG equals
+    # the file the C# CLI writes for the same request (a consistency check; the server's own test checks the levels).
+    figure = client.draw_carrier_figure(DATASET, STUDY, [1600], vertex="O", path_to="Al", path_points=11)
+    target = tmp_path / "path.svg"
+    run_cli(server.url, "defects", "carrier-figure", DATASET, STUDY, "--vertex", "O", "--path-to", "Al",
+            "--path-points", "11", "--sweep", "1600", "--output", str(target))
+    assert target.read_text(encoding="utf-8") == figure.svg
+    assert "from window vertex" in figure.svg
+    with pytest.raises(InvalidArgumentError) as two:
+        client.draw_carrier_figure(DATASET, STUDY, [1400, 1600], vertex="O", path_to="Al")
+    assert "temperatures_k" in str(two.value)
 
 
 def test_carrier_calls_refuse_a_study_without_carriers(client, study):

@@ -333,9 +333,11 @@ public static class DefectCommands
         Counting k = Counting.Options();
         var temperatures = new Option<string[]>("--sweep") { Description = "two or more rising temperatures, K (repeatable), e.g. --sweep 800 --sweep 1200 --sweep 1600", Arity = ArgumentArity.OneOrMore, Required = true };
         var quench = ValueOptions.OptionalNumber("--quench-to", "draw each temperature quenched to this operating temperature, K", "a temperature in K");
+        var pathTo = new Option<string?>("--path-to") { Description = "sweep along the straight Δμ path from the point (--vertex, --point or --gas) to this window vertex (number or name) at the one --sweep temperature, instead of sweeping temperature" };
+        var pathPoints = ValueOptions.WholeNumber("--path-points", "points along the --path-to path, both ends included (default 41)", 2, 1001, 0, "a number of points");
         var output = new Option<string?>("--output", "-o") { Description = "SVG file to write (default: DATASET-STUDY-vVERSION-carriers.svg)" };
-        var command = With(new Command("carrier-figure", "draw defect and carrier concentrations and the Fermi level against temperature at one point as SVG"),
-            [.. o.All.Where(s => s != o.Defects), .. k.All, temperatures, quench, output]);
+        var command = With(new Command("carrier-figure", "draw defect and carrier concentrations and the Fermi level against temperature, or along a Δμ path between two points, as SVG"),
+            [.. o.All.Where(s => s != o.Defects), .. k.All, temperatures, quench, pathTo, pathPoints, output]);
         command.SetAction(wrap(async (c, t) =>
         {
             var request = new DefectCarrierFigureRequest
@@ -345,12 +347,22 @@ public static class DefectCommands
             };
             request.TemperaturesK.AddRange((c.Get(temperatures) ?? []).Select(x => Number(x, "--sweep", "a temperature in K")));
             if (c.Get(quench) is double op) request.OperatingTemperatureK = op;
+            if (c.Get(pathTo) is string end)
+            {
+                request.PathTo = new DefectConditions { Vertex = end };
+                request.PathPoints = (int)c.Get(pathPoints);
+            }
+            else if (c.Get(pathPoints) != 0)
+            {
+                throw new UsageException("--path-points needs --path-to VERTEX");
+            }
+
             DefectCarrierFigureResponse response = await c.Server.Defects.DrawCarrierFigureAsync(request, c.Server.Call(t));
             string path = c.Get(output) ?? SafeFileName($"{response.Used.Dataset}-{response.Study.StudyName}-v{response.Study.StudyVersion}-carriers.svg");
             await File.WriteAllTextAsync(path, response.Svg, new UTF8Encoding(false), t);
             var summary = response.Clone();
             summary.Svg = string.Empty;
-            c.Emit(summary, () => new Table("file", "point", "temperatures").Add(path, response.Point.Label, request.TemperaturesK.Count),
+            c.Emit(summary, () => new Table("file", "point", "temperatures", "path_to").Add(path, response.Point.Label, request.TemperaturesK.Count, c.Get(pathTo) ?? ""),
                 $"dataset {response.Used.Dataset}, version {response.Used.Version}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
             WriteWarnings(c, response.Warnings);
             return ExitCodes.Ok;

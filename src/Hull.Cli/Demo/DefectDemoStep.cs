@@ -22,6 +22,8 @@ internal static class DefectDemoStep
     /// <summary>The carrier figure's file inside the figures folder.</summary>
     public static string CarrierFigurePath(string figuresFolder) => Path.Combine(figuresFolder, "defects", "Al2O3-carriers-O-rich.svg");
 
+    public static string CarrierPathFigurePath(string figuresFolder) => Path.Combine(figuresFolder, "defects", "Al2O3-carriers-O-rich-to-Al-rich.svg");
+
     public static async Task RunAsync(HullConnection hull, TextWriter output, TextWriter error, string dataset, string data, string figuresFolder, CancellationToken t)
     {
         const string title = "11. Defects in the Al2O3 coating: vacancies and a Mg dopant at the window's vertices and in air";
@@ -104,6 +106,17 @@ internal static class DefectDemoStep
         string carrierPath = CarrierFigurePath(figuresFolder);
         await File.WriteAllTextAsync(carrierPath, carriers.Svg, t);
         output.WriteLine($"  Concentrations and Fermi level against temperature at the O-rich vertex: {carrierPath}");
+
+        // The same at one growth temperature, along the window from its O-rich to its Al-rich vertex.
+        var pathRequest = new DefectCarrierFigureRequest
+        {
+            Dataset = dataset, StudyName = StudyName, Conditions = new DefectConditions { Vertex = "O" }, PathTo = new DefectConditions { Vertex = "Al" },
+        };
+        pathRequest.TemperaturesK.Add(1600);
+        DefectCarrierFigureResponse alongPath = await hull.Defects.DrawCarrierFigureAsync(pathRequest, hull.Call(t));
+        string pathFigure = CarrierPathFigurePath(figuresFolder);
+        await File.WriteAllTextAsync(pathFigure, alongPath.Svg, t);
+        output.WriteLine($"  The same at 1600 K along the window from the O-rich to the Al-rich vertex: {pathFigure}");
 
         ExportDefectStudyResponse exported = await hull.Defects.ExportDefectStudyAsync(new ExportDefectStudyRequest { Dataset = dataset, StudyName = StudyName }, hull.Call(t));
         bool same = exported.StudyJson == json && exported.ChargeStatesCsv == csv;

@@ -20,6 +20,9 @@ namespace Hull.Server.Services;
 /// </summary>
 public sealed class DefectGrpcService(DatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
 {
+    /// <summary>Points along a Δμ path of the carrier figure when the caller gives none, and the most it draws.</summary>
+    private const int DefaultPathPoints = 41, MaxPathPoints = 1001;
+
     public override async Task<ImportDefectStudyResponse> ImportDefectStudy(ImportDefectStudyRequest request, ServerCallContext context)
     {
         DefectStudy study;
@@ -343,7 +346,19 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
     {
         CarrierStatistics statistics = CarrierOptions.Statistics(request.Statistics);
         ConcentrationForm form = CarrierOptions.Form(request.Form);
-        if (request.TemperaturesK.Count < 2) throw RpcErrors.InvalidArgument("temperatures_k", "a carrier figure needs two or more rising temperatures (K)");
+        bool alongPath = request.PathTo is not null;
+        if (alongPath && request.TemperaturesK.Count != 1)
+        {
+            throw RpcErrors.InvalidArgument("temperatures_k", $"a carrier figure along a path takes one temperature (K), not {request.TemperaturesK.Count}");
+        }
+
+        if (!alongPath && request.TemperaturesK.Count < 2) throw RpcErrors.InvalidArgument("temperatures_k", "a carrier figure needs two or more rising temperatures (K)");
+        int pathPoints = request.PathPoints == 0 ? DefaultPathPoints : request.PathPoints;
+        if (alongPath && pathPoints is < 2 or > MaxPathPoints)
+        {
+            throw RpcErrors.InvalidArgument("path_points", $"a path takes 2 to {MaxPathPoints} points (0 = {DefaultPathPoints}), not {request.PathPoints}");
+        }
+
         DefectEvaluation ev = await LoadAsync(request.Dataset, request.Version, request.StudyName, request.StudyVersion, request.HostEntryId, context);
         CarrierModel model = ev.Carriers().Model(statistics, form);
         double gap = ev.Study.Bulk.BandGapEv;
@@ -355,26 +370,55 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
 
         double? operating = request.HasOperatingTemperatureK ? CarrierOptions.Temperature(model, gap, request.OperatingTemperatureK, "operating_temperature_k") : null;
         (CorePoint point, DefectGasPoint? _) = ev.SinglePoint(request.Conditions);
-        DefectEnsemble ensemble = DefectEvaluation.Core(() => DefectEnsemble.FromCalculator(ev.Calculator(point)));
-        var solutions = new List<FermiLevelSolution>(temperatures.Length);
-        foreach (double t in temperatures)
+        FermiLevelSolution SolveAt(CorePoint at, double t)
         {
+            DefectEnsemble ensemble = DefectEvaluation.Core(() => DefectEnsemble.FromCalculator(ev.Calculator(at)));
             FermiLevelSolution s = operating is { } op
                 ? DefectEvaluation.Core(() => Quenching.Solve(ensemble, model, t, op)).Operating
                 : DefectEvaluation.Core(() => ChargeNeutrality.Solve(ensemble, model, t));
-            ev.Warnings.AddRange(CarrierOptions.Doubts(s, point.Label));
-            solutions.Add(s);
+            ev.Warnings.AddRange(CarrierOptions.Doubts(s, at.Label));
+            return s;
         }
 
         string where = point.VertexNumber > 0 ? $"window vertex {point.VertexNumber} ({point.Label})" : point.Label;
-        string title = operating is { } q
-            ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {where}, grown at each temperature and quenched to {q:0.##} K")
-            : $"{ev.Study.Host.Formula} at {where}, in equilibrium";
-        CarrierFigureAxis axis = operating is null ? CarrierFigureAxis.Temperature : new CarrierFigureAxis("Growth temperature", "K");
+        string how = operating is { } q ? string.Create(CultureInfo.InvariantCulture, $"grown and quenched to {q:0.##} K") : "in equilibrium";
+        var x = new List<double>();
+        var solutions = new List<FermiLevelSolution>();
+        string title;
+        CarrierFigureAxis axis;
+        if (alongPath)
+        {
+            (CorePoint end, DefectGasPoint? _) = ev.SinglePoint(request.PathTo);
+            string endName = end.VertexNumber > 0 ? $"window vertex {end.VertexNumber} ({end.Label})" : end.Label;
+            // Both ends lie in the host's window and each dopant's ceiling is concave in the host's Δμ, so every point
+            // between them (dopants' Δμ interpolated too) stays inside what the window and the ceilings allow.
+            foreach ((double fraction, ChemicalPotentialPoint at) in DefectEvaluation.Core(() => ChemicalPotentialPath.Between(point.Point, end.Point, pathPoints)))
+            {
+                x.Add(fraction);
+                solutions.Add(SolveAt(point with { Point = at, VertexNumber = 0 }, temperatures[0]));
+            }
+
+            title = string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} from {where} to {endName} at {temperatures[0]:0.##} K, {how}");
+            axis = CarrierFigureAxis.Path(point.VertexNumber > 0 ? $"vertex {point.VertexNumber}" : point.Label, end.VertexNumber > 0 ? $"vertex {end.VertexNumber}" : end.Label);
+        }
+        else
+        {
+            foreach (double t in temperatures)
+            {
+                x.Add(t);
+                solutions.Add(SolveAt(point, t));
+            }
+
+            title = operating is { } op2
+                ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {where}, grown at each temperature and quenched to {op2:0.##} K")
+                : $"{ev.Study.Host.Formula} at {where}, in equilibrium";
+            axis = operating is null ? CarrierFigureAxis.Temperature : new CarrierFigureAxis("Growth temperature", "K");
+        }
+
         string svg;
         try
         {
-            svg = CarrierFigure.Render(title, axis, temperatures, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
+            svg = CarrierFigure.Render(title, axis, x, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
         }
         catch (FigureInputException e)
         {

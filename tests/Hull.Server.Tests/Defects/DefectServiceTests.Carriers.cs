@@ -180,6 +180,47 @@ public sealed partial class DefectServiceTests
         Assert.Contains("quenched to 300 K", quenched.Descendants().First(e => e.Name.LocalName == "title").Value, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task A_figure_along_the_path_between_two_vertices_draws_the_Fermi_level_solved_at_each_point_of_the_path()
+    {
+        await Import("d", "c", CarrierJson(), Csv);
+        // The Fermi level at both vertices and at the given point halfway between them (Δμ of every element averaged,
+        // dopants included), each from SolveFermiLevel; the figure's path of 3 points must pass through the same three
+        // levels. Its page y is affine in E_F, so the check compares the middle's share of the rise between the ends.
+        async Task<FermiPointSolution> Solve(DefectConditions at) => Assert.Single((await C.Defects.SolveFermiLevelAsync(
+            new FermiLevelRequest { Dataset = "d", StudyName = "c", Conditions = at, TemperatureK = 1400 }, C.Call())).Points);
+        FermiPointSolution o = await Solve(new DefectConditions { Vertex = "O" }), al = await Solve(new DefectConditions { Vertex = "Al" });
+        var middle = new DefectGivenPoint();
+        foreach (DefectElementPotential p in o.Point.Potentials)
+        {
+            double other = al.Point.Potentials.Single(q => q.Element == p.Element).DeltaMuEv;
+            middle.Potentials.Add(new DefectElementPotential { Element = p.Element, DeltaMuEv = (p.DeltaMuEv + other) / 2 });
+        }
+
+        FermiPointSolution mid = await Solve(new DefectConditions { Point = middle });
+        double share = (mid.Equilibrium.FermiLevelEv - o.Equilibrium.FermiLevelEv) / (al.Equilibrium.FermiLevelEv - o.Equilibrium.FermiLevelEv);
+        Assert.True(Math.Abs(al.Equilibrium.FermiLevelEv - o.Equilibrium.FermiLevelEv) > 0.05, "the two vertices must give different Fermi levels for this check to mean anything");
+
+        var request = new DefectCarrierFigureRequest
+        {
+            Dataset = "d", StudyName = "c", Conditions = new DefectConditions { Vertex = "O" }, PathTo = new DefectConditions { Vertex = "Al" }, PathPoints = 3,
+        };
+        request.TemperaturesK.Add(1400);
+        XElement svg = XElement.Parse((await C.Defects.DrawCarrierFigureAsync(request, C.Call())).Svg);
+        string d = (string)svg.Descendants().Single(e => e.Name.LocalName == "path" && (string?)e.Attribute("data-kind") == "fermi-level").Attribute("d")!;
+        double[] ys = [.. d.Split(['M', 'L'], StringSplitOptions.RemoveEmptyEntries).Select(pair => double.Parse(pair.Split(',')[1], System.Globalization.CultureInfo.InvariantCulture))];
+        Assert.Equal(3, ys.Length);
+        Assert.Equal(share, (ys[1] - ys[0]) / (ys[2] - ys[0]), 2);
+        Assert.Contains("from window vertex", svg.Descendants().First(e => e.Name.LocalName == "title").Value, StringComparison.Ordinal);
+
+        // A path takes one temperature and 2 to 1001 points.
+        request.TemperaturesK.Add(1500);
+        Assert.Contains("temperatures_k", Data.Violations(await Assert.ThrowsAsync<RpcException>(() => C.Defects.DrawCarrierFigureAsync(request, C.Call()).ResponseAsync)).Select(v => v.Field));
+        request.TemperaturesK.RemoveAt(1);
+        request.PathPoints = 1;
+        Assert.Contains("path_points", Data.Violations(await Assert.ThrowsAsync<RpcException>(() => C.Defects.DrawCarrierFigureAsync(request, C.Call()).ResponseAsync)).Select(v => v.Field));
+    }
+
     public static TheoryData<string, StatusCode, string> BadCarrierRequests() => new()
     {
         { "no-carriers", StatusCode.FailedPrecondition, "" },

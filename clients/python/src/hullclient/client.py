@@ -765,19 +765,23 @@ class HullClient:
                             operating_temperature_k: Optional[float] = None, statistics: str = "fermi_dirac",
                             form: str = "dilute", version: int = 0, study_version: int = 0, vertex=None,
                             point: Optional[Mapping[str, float]] = None, gas: Optional[Mapping] = None,
-                            host_entry_id: str = "") -> d.CarrierFigure:
+                            host_entry_id: str = "", path_to=None, path_points: int = 0) -> d.CarrierFigure:
         """Defect and carrier concentrations and the Fermi level against two or more rising temperatures (K) at one
-        point (default: the window's first vertex), as SVG; quenched to operating_temperature_k when given."""
+        point (default: the window's first vertex), as SVG; quenched to operating_temperature_k when given. With
+        `path_to` (a window vertex, number or name) the figure sweeps instead along the straight Δμ path from the
+        point to that vertex at the one temperature in `temperatures_k` (`path_points` points, 0 = 41)."""
         statistics_code, form_code = d.counting(statistics, form)
         request = wire.defects_pb2.DefectCarrierFigureRequest(
             dataset=dataset, version=version, study_name=study_name, study_version=study_version,
             temperatures_k=[float(t) for t in temperatures_k], statistics=statistics_code, form=form_code,
-            host_entry_id=host_entry_id)
+            host_entry_id=host_entry_id, path_points=int(path_points))
         if operating_temperature_k is not None:
             request.operating_temperature_k = float(operating_temperature_k)
         chosen = d.conditions(vertex, point, gas)
         if chosen is not None:
             request.conditions.CopyFrom(chosen)
+        if path_to is not None:
+            request.path_to.CopyFrom(d.conditions(path_to, None, None))
         reply = self._call(self._defects.DrawCarrierFigure, self.draw_carrier_figure.hull_rpc, request)
         self._defect_warnings(reply.warnings)
         return d.CarrierFigure(r.version_used(reply.used), d.study_info(reply.study), d.point(reply.point), reply.svg,
