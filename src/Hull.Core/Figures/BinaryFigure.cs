@@ -5,6 +5,23 @@ namespace Hull.Core.Figures;
 /// <summary>A binary: the hull-axis energy against the atom fraction of the second component, the hull as a line.</summary>
 internal static class BinaryFigure
 {
+    /// <summary>
+    /// The rotated energy-axis title as one line when it fits the plot's height, else the name and the unit on two
+    /// lines (a grand-potential name lists every open element), the font shrunk further only if a line still does
+    /// not fit; each line with its x (the baseline of a line rotated by -90°) and font size.
+    /// </summary>
+    internal static IReadOnlyList<(double X, string Line, double Size)> EnergyAxisTitleLines(EnergyAxis axis)
+    {
+        const double room = PlotBottom - PlotTop;
+        double size = FigurePalette.LabelFontSize;
+        static double Width(string text, double fontSize) => text.Length * FormulaText.CharacterWidth * fontSize;
+        if (Width(axis.Title, size) <= room) return [(32, axis.Title, size)];
+        string[] lines = [axis.Name, $"({axis.Unit})"];
+        double longest = lines.Max(l => Width(l, size));
+        if (longest > room) size = Math.Floor(size * room / longest * 10) / 10; // floored to the 0.1 px the SVG writes
+        return [(30 - (size * 0.65), lines[0], size), (30 + (size * 0.65), lines[1], size)];
+    }
+
     // Layout, px: the plot area, then the legend to its right.
     public const double Width = 780, Height = 540;
     public const double PlotLeft = 90, PlotRight = 560, PlotTop = 70, PlotBottom = 430;
@@ -44,7 +61,10 @@ internal static class BinaryFigure
 
         canvas.Text((PlotLeft + PlotRight) / 2, PlotBottom + 56, $"Atom fraction of {input.Components[1]}", FigurePalette.LabelFontSize, "middle");
         double yMid = (PlotTop + PlotBottom) / 2;
-        canvas.Text(32, yMid, input.Axis.Title, FigurePalette.LabelFontSize, "middle", $"transform=\"rotate(-90 32 {SvgText.Px(yMid)})\"");
+        foreach ((double x, string line, double size) in EnergyAxisTitleLines(input.Axis))
+        {
+            canvas.Text(x, yMid, line, size, "middle", $"transform=\"rotate(-90 {SvgText.Px(x)} {SvgText.Px(yMid)})\"");
+        }
 
         var placer = new LabelPlacer(new LabelBox(PlotLeft + 2, PlotTop + 2, PlotRight - PlotLeft - 4, PlotBottom - PlotTop - 4));
         canvas.BeginEdges();

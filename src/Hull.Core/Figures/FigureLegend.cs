@@ -16,8 +16,9 @@ internal static class FigureLegend
     {
         const double barWidth = 16, barHeight = 200;
         canvas.Text(x, y + 12, "Above hull", FigurePalette.SmallFontSize);
-        canvas.Text(x, y + 26, $"({axis.Unit})", FigurePalette.SmallFontSize);
-        double top = y + 36;
+        IReadOnlyList<string> unitLines = UnitLines(axis.Unit);
+        for (int i = 0; i < unitLines.Count; i++) canvas.Text(x, y + 26 + (14 * i), unitLines[i], FigurePalette.SmallFontSize);
+        double top = y + 36 + (14 * (unitLines.Count - 1));
         var gradient = new System.Text.StringBuilder();
         gradient.Append("<defs><linearGradient id=\"above-hull-scale\" x1=\"0\" y1=\"1\" x2=\"0\" y2=\"0\">");
         for (int k = 0; k < GradientStops; k++)
@@ -49,11 +50,21 @@ internal static class FigureLegend
         ky += 20;
         if (hidden > 0)
         {
-            canvas.Text(x, ky + 4, $"{hidden} more above", FigurePalette.SmallFontSize);
-            canvas.Text(x, ky + 18, $"{cutoff.ToString("0.###", CultureInfo.InvariantCulture)} {axis.Unit} not shown", FigurePalette.SmallFontSize);
+            // The unit is the scale's, written above it: a long one (per closed-element atom) would leave the page here.
+            canvas.Text(x, ky + 4, $"{hidden} more above {cutoff.ToString("0.###", CultureInfo.InvariantCulture)}", FigurePalette.SmallFontSize);
+            canvas.Text(x, ky + 18, "not shown", FigurePalette.SmallFontSize);
             ky += 28;
         }
 
         return new LabelBox(x - 4, y, Width, ky - y + 4);
+    }
+
+    /// <summary>"(unit)" on one line when it fits the legend's width, else broken after its "per".</summary>
+    internal static IReadOnlyList<string> UnitLines(string unit)
+    {
+        string whole = $"({unit})";
+        int per = unit.IndexOf(" per ", StringComparison.Ordinal);
+        if (whole.Length * FormulaText.CharacterWidth * FigurePalette.SmallFontSize <= Width - 4 || per < 0) return [whole];
+        return [$"({unit[..(per + 4)]}", $"{unit[(per + 5)..]})"];
     }
 }
