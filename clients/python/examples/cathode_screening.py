@@ -100,6 +100,20 @@ al = limits.limits[0]
 print(f"highest Δμ_Al in the window: {al.overall_max_ev:.4f} eV, limited by {', '.join(al.overall_limiting_phase_ids)}")
 
 # %% [markdown]
+# ## Lithium into CoO2: the voltage profile, and whether an alumina coating reacts with the spinel
+# 0 K energies stand in for Gibbs energies: these are estimates, and no guide to handling lithium metal or charged
+# cells (follow your site's safety rules and licensed practice).
+
+# %%
+profile = hull.get_voltage_profile(dataset, "CoO2", "Li", inserted_end_formula="LiCoO2", include_figure=True)
+display(profile.plateaus)
+print(f"mean {profile.average_volts_against_metal:.3f} V, {profile.capacity_per_host_mass_mah_per_g:.1f} mAh/g of CoO2")
+
+# %%
+reaction = hull.get_reaction_profile(dataset, "entry:coat-Al2O3-corundum", "entry:ter-LiMn2O4-spinel")
+display(reaction.most_negative)
+
+# %% [markdown]
 # ## Phase diagrams drawn by the server, saved as SVG
 
 # %%
@@ -110,6 +124,7 @@ saved = [
     ternary.save(figures / "ternary-Li-Co-O.svg"),
     hull.draw_phase_diagram(dataset, end_members=["LiCoO2", "LiNiO2", "LiMnO2"]).save(figures / "pseudo-ternary-layered.svg"),
     hull.draw_phase_diagram(dataset, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15).save(figures / "quaternary-Co-Li-Ni-O.svg"),
+    profile.figure.save(figures / "voltage-Li-into-CoO2.svg"),
 ]
 for path in saved:
     print(path, path.stat().st_size, "bytes")
