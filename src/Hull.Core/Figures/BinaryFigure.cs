@@ -14,10 +14,9 @@ internal static class BinaryFigure
     {
         const double room = PlotBottom - PlotTop;
         double size = FigurePalette.LabelFontSize;
-        static double Width(string text, double fontSize) => text.Length * FormulaText.CharacterWidth * fontSize;
-        if (Width(axis.Title, size) <= room) return [(32, axis.Title, size)];
+        if (FormulaText.PlainWidth(axis.Title, size) <= room) return [(32, axis.Title, size)];
         string[] lines = [axis.Name, $"({axis.Unit})"];
-        double longest = lines.Max(l => Width(l, size));
+        double longest = lines.Max(l => FormulaText.PlainWidth(l, size));
         if (longest > room) size = Math.Floor(size * room / longest * 10) / 10; // floored to the 0.1 px the SVG writes
         return [(30 - (size * 0.65), lines[0], size), (30 + (size * 0.65), lines[1], size)];
     }

@@ -125,7 +125,7 @@ public static class DefectFormationFigure
             {
                 double x = X(level.LevelEv), y = Y(Lowest(line.InterceptsEv, level.LevelEv));
                 string text = $"{Charge(level.Charge)}/{Charge(level.OtherCharge)}";
-                double w = text.Length * FormulaText.CharacterWidth * LevelFontSize + 2, h = 1.25 * LevelFontSize;
+                double w = FormulaText.PlainWidth(text, LevelFontSize) + 2, h = LabelMetrics.Height * LevelFontSize;
                 (LabelBox box, bool leader) = placer.Place(x, y, LevelMarkerRadius, w, h);
                 if (leader) canvas.Line(x, y, box.X + box.Width / 2, box.Y + box.Height / 2, FigurePalette.Frame, 0.6);
                 canvas.Text(box.X + 1, box.Y + LabelMetrics.Ascent * LevelFontSize, text, LevelFontSize, extra: $"data-kind=\"level-label\" data-defect=\"{Escape(line.Defect)}\"");

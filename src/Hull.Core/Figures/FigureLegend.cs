@@ -64,7 +64,7 @@ internal static class FigureLegend
     {
         string whole = $"({unit})";
         int per = unit.IndexOf(" per ", StringComparison.Ordinal);
-        if (whole.Length * FormulaText.CharacterWidth * FigurePalette.SmallFontSize <= Width - 4 || per < 0) return [whole];
+        if (FormulaText.PlainWidth(whole, FigurePalette.SmallFontSize) <= Width - 4 || per < 0) return [whole];
         return [$"({unit[..(per + 4)]}", $"{unit[(per + 5)..]})"];
     }
 }

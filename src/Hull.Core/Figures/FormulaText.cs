@@ -45,6 +45,9 @@ internal static class FormulaText
         return parts;
     }
 
+    /// <summary>Estimated drawn width of plain text (no subscripts) at <paramref name="fontSize"/> px.</summary>
+    public static double PlainWidth(string text, double fontSize) => text.Length * CharacterWidth * fontSize;
+
     /// <summary>Estimated drawn width at <paramref name="fontSize"/> px.</summary>
     public static double Width(string formula, double fontSize) =>
         Split(formula).Sum(p => p.Text.Length * CharacterWidth * fontSize * (p.Subscript ? SubscriptScale : 1.0));
