@@ -18,7 +18,7 @@ namespace Hull.Server.Services;
 /// The defect service: stores study files beside a dataset, and evaluates a study version against a dataset
 /// version (references, the host's window, the dopants' limits) through Core's defect module.
 /// </summary>
-public sealed class DefectGrpcService(DatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
+public sealed class DefectGrpcService(IDatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
 {
     /// <summary>Points along a Δμ path of the carrier figure when the caller gives none, and the most it draws.</summary>
     private const int DefaultPathPoints = 41, MaxPathPoints = 1001;
