@@ -74,7 +74,7 @@ internal static class BatchValidator
         var points = model.FreeEnergyPoints;
         if (points.Length < 2)
         {
-            throw new InvalidBatchException($"row {i} (id '{id}'): the G(T) table has {points.Length} points; it needs at least 2", i, id, field);
+            throw new InvalidBatchException($"row {i} (id '{id}'): the G(T) table has {points.Length} point{(points.Length == 1 ? "" : "s")}; it needs at least 2", i, id, field);
         }
         for (int k = 0; k < points.Length; k++)
         {

@@ -85,6 +85,9 @@ public sealed class TemperatureModelServiceTests : IAsyncLifetime
         Assert.Equal(new StandardEntropyModel(SilverEntropy), v1.TemperatureModels[0]);
         Assert.Equal(new StandardEntropyModel(SilverOxideEntropy, "Ag2O"), v1.TemperatureModels[1]);
         Assert.Null(v1.TemperatureModels[2]);
+        Assert.Equal(v1.TemperatureModels[1], v1.TemperatureModelOf("ag2o"));
+        Assert.Null(v1.TemperatureModelOf("o2"));
+        Assert.Null(v1.TemperatureModelOf("no-such-entry"));
         VersionSnapshot v2 = VersionSnapshot.Load(store, new VersionRef("silver", 2, store.GetFingerprint("silver", 2)));
         var table = Assert.IsType<FreeEnergyTableModel>(v2.TemperatureModels[1]);
         Assert.Equal(Core.Thermo.Solids.FreeEnergyAnchor.Fitted298K, table.Anchor);

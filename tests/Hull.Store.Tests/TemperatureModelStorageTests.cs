@@ -112,7 +112,7 @@ public sealed class TemperatureModelStorageTests : IDisposable
         [
             (StoredTemperatureModel.StandardEntropy(-1.0), "the standard entropy is -1 J/(mol K); it must be finite and not negative"),
             (StoredTemperatureModel.StandardEntropy(double.NaN), "the standard entropy is NaN J/(mol K)"),
-            (StoredTemperatureModel.FreeEnergyTable("fitted_298k", [new(300, -0.38)]), "the G(T) table has 1 points; it needs at least 2"),
+            (StoredTemperatureModel.FreeEnergyTable("fitted_298k", [new(300, -0.38)]), "the G(T) table has 1 point; it needs at least 2"),
             (StoredTemperatureModel.FreeEnergyTable("fitted_298k", [new(500, -0.63), new(300, -0.38)]), "G(T) point 2 (300 K, -0.38 eV)"),
             (StoredTemperatureModel.FreeEnergyTable("fitted_298k", [new(300, -0.38), new(300, -0.38)]), "G(T) point 2 (300 K"),
             (StoredTemperatureModel.FreeEnergyTable("fitted_298k", [new(0, 0), new(300, -0.38)]), "G(T) point 1 (0 K"),

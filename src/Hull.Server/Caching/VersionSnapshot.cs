@@ -89,6 +89,9 @@ public sealed class VersionSnapshot
         return new VersionSnapshot(version, entries, formulas, models);
     }
 
+    /// <summary>The temperature model of the entry with <paramref name="id"/>; null when it has none or the version has no such entry.</summary>
+    public SolidTemperatureModel? TemperatureModelOf(string id) => _indexById.TryGetValue(id, out int row) ? TemperatureModels[row] : null;
+
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>
     public bool TryFind(string id, out int row) => _indexById.TryGetValue(id, out row);
 
