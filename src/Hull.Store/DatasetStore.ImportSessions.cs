@@ -205,12 +205,14 @@ public sealed partial class DatasetStore
             }
 
             // The models go to the rows just moved: ids are unique in the session, so (id, new version) finds each.
+            // CROSS JOIN keeps the staging table outside: each of its rows finds its entry by index, where the
+            // planner's own order scanned the unindexed staging table once per entry row (quadratic in the import).
             if (TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging))
             {
                 using SqliteCommand models = connection.Command(transaction, $"""
                     INSERT INTO entry_temperature_models (row_id, formula, standard_entropy_j_per_mol_k, free_energy_anchor, free_energy_points)
                     SELECT e.row_id, s.model_formula, s.standard_entropy_j_per_mol_k, s.free_energy_anchor, s.free_energy_points
-                    FROM {staging} AS s JOIN entries AS e ON e.dataset_id = $d AND e.entry_id = s.entry_id AND e.first_version = $v
+                    FROM {staging} AS s CROSS JOIN entries AS e ON e.dataset_id = $d AND e.entry_id = s.entry_id AND e.first_version = $v
                     WHERE s.model_formula IS NOT NULL
                     """);
                 models.With("$d", session.DatasetId).With("$v", newVersion).ExecuteNonQuery();
