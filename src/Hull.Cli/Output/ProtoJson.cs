@@ -34,7 +34,7 @@ public static class ProtoJson
     /// <summary>The package of protobuf's well-known types.</summary>
     private const string WellKnownPackage = "google.protobuf";
 
-    private static readonly ConcurrentDictionary<FieldDescriptor, JsonEncodedText> FieldNames = new();
+    private static readonly ConcurrentDictionary<MessageDescriptor, FieldPlan[]> Plans = new();
 
     /// <summary>The message as indented JSON.</summary>
     public static string Format(IMessage message)
@@ -119,30 +119,47 @@ public static class ProtoJson
         }
 
         writer.WriteStartObject();
-        foreach (FieldDescriptor field in descriptor.Fields.InFieldNumberOrder())
+        foreach (FieldPlan field in Plans.GetOrAdd(descriptor, PlanOf))
         {
-            IFieldAccessor accessor = field.Accessor;
-            if (field.HasPresence && !accessor.HasValue(message)) continue;
-            writer.WritePropertyName(FieldNames.GetOrAdd(field, static f => JsonEncodedText.Encode(f.Name, PlainWriting.Encoder)));
-            object value = accessor.GetValue(message);
-            if (field.IsMap)
+            if (field.HasPresence && !field.Accessor.HasValue(message)) continue;
+            writer.WritePropertyName(field.Name);
+            object value = field.Accessor.GetValue(message);
+            switch (field.Shape)
             {
-                WriteMap(writer, (IDictionary)value);
-            }
-            else if (field.IsRepeated)
-            {
-                writer.WriteStartArray();
-                foreach (object? item in (IList)value) WriteValue(writer, field, item);
-                writer.WriteEndArray();
-            }
-            else
-            {
-                WriteValue(writer, field, value);
+                case FieldShape.Map:
+                    WriteMap(writer, (IDictionary)value);
+                    break;
+                case FieldShape.Repeated:
+                    writer.WriteStartArray();
+                    foreach (object? item in (IList)value) WriteValue(writer, field.Descriptor, item);
+                    writer.WriteEndArray();
+                    break;
+                default:
+                    WriteValue(writer, field.Descriptor, value);
+                    break;
             }
         }
 
         writer.WriteEndObject();
     }
+
+    /// <summary>What writing a message type's fields needs, worked out once per type: the descriptor's properties
+    /// (presence, map, repeated) are computed on every read, and a 10,000-entry answer reads them 400,000 times.</summary>
+    private static FieldPlan[] PlanOf(MessageDescriptor descriptor) =>
+        descriptor.Fields.InFieldNumberOrder()
+            .Select(f => new FieldPlan(
+                f, f.Accessor, JsonEncodedText.Encode(f.Name, PlainWriting.Encoder), f.HasPresence,
+                f.IsMap ? FieldShape.Map : f.IsRepeated ? FieldShape.Repeated : FieldShape.Single))
+            .ToArray();
+
+    private enum FieldShape
+    {
+        Single,
+        Repeated,
+        Map,
+    }
+
+    private sealed record FieldPlan(FieldDescriptor Descriptor, IFieldAccessor Accessor, JsonEncodedText Name, bool HasPresence, FieldShape Shape);
 
     private static void WriteMap(Utf8JsonWriter writer, IDictionary map)
     {
