@@ -8,7 +8,7 @@ namespace Hull.ServiceBench;
 /// <summary>
 /// Two server builds side by side under the same load generator: each repetition starts a fresh server of each build
 /// (the order alternating), imports and warms the same dataset, lets the JIT settle, then runs every query kind at
-/// every client count ("latest") and at the largest count pinned. Medians per build and the ratio this / other.
+/// every client count, asking for the latest version and with the version pinned. Medians per build and the ratio this / other.
 /// </summary>
 public static class ServerComparison
 {
@@ -31,7 +31,7 @@ public static class ServerComparison
                     foreach (QueryKind kind in Enum.GetValues<QueryKind>()) await load.RunAsync(kind, 8, 0, TimeSpan.Zero, options.JitWarmUp, seed: 0, server);
                     foreach (QueryKind kind in Enum.GetValues<QueryKind>())
                     {
-                        foreach ((int clients, long version) in options.ClientCounts.Select(c => (c, 0L)).Append((options.ClientCounts.Max(), warm.Version)))
+                        foreach ((int clients, long version) in options.ClientCounts.SelectMany(c => new[] { (c, 0L), (c, warm.Version) }))
                         {
                             LoadSample s = await load.RunAsync(kind, clients, version, options.WarmUp, options.Window, seed: r + 1, server);
                             samples[name].Add(s);
