@@ -20,12 +20,14 @@ public sealed partial class DatasetStore
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
-        return _latest.Get(datasetName, () => Read((connection, transaction) =>
-        {
-            DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-            return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
-        }));
+        return _latest.Get(datasetName, _readLatest);
     }
+
+    private long ReadLatest(string datasetName) => Read((connection, transaction) =>
+    {
+        DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
+        return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
+    });
 
     /// <summary>Every live version with its provenance, oldest first.</summary>
     public IReadOnlyList<DatasetVersionInfo> ListVersions(string datasetName)
@@ -244,6 +246,7 @@ public sealed partial class DatasetStore
                 WHERE dataset_id = $d AND version = $v AND content_sha256 IS NULL
                 """, ("$f", fingerprint), ("$d", datasetId), ("$v", version));
             transaction.Commit();
+            _latest.CommittedHere();
         }
         catch (SqliteException)
         {

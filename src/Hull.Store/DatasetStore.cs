@@ -27,16 +27,18 @@ public sealed partial class DatasetStore : IDatasetStore
 
     private readonly ConnectionFactory _connections;
     private readonly LatestVersionMemory _latest;
+    private readonly Func<string, long> _readLatest;
     private readonly TimeProvider _clock;
 
     // One writer at a time inside this process; other processes are kept out by SQLite's own write lock.
     private readonly SemaphoreSlim _writeGate = new(1, 1);
     private int _disposed;
 
-    private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock)
+    private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock, TimeSpan crossProcessWindow)
     {
         _connections = connections;
-        _latest = new LatestVersionMemory(connections);
+        _latest = new LatestVersionMemory(connections, crossProcessWindow);
+        _readLatest = ReadLatest;
         _clock = clock;
         DataDirectory = dataDirectory;
     }
@@ -57,7 +59,12 @@ public sealed partial class DatasetStore : IDatasetStore
     /// </summary>
     /// <param name="dataDirectory">Directory holding the database file.</param>
     /// <param name="clock">Source of commit times; the system clock when null.</param>
-    public static DatasetStore Open(string dataDirectory, TimeProvider? clock = null)
+    public static DatasetStore Open(string dataDirectory, TimeProvider? clock = null) =>
+        Open(dataDirectory, clock, LatestVersionMemory.DefaultCrossProcessWindow);
+
+    /// <summary>As <see cref="Open(string, TimeProvider?)"/>, with the time another process's commit may go unseen
+    /// by "latest version" questions (see <see cref="LatestVersionMemory"/>); for tests.</summary>
+    internal static DatasetStore Open(string dataDirectory, TimeProvider? clock, TimeSpan crossProcessWindow)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(dataDirectory);
         clock ??= TimeProvider.System;
@@ -83,7 +90,7 @@ public sealed partial class DatasetStore : IDatasetStore
         {
             throw new StoreCorruptException(path, "the file is not an SQLite database", e);
         }
-        return new DatasetStore(new ConnectionFactory(path), directory, clock);
+        return new DatasetStore(new ConnectionFactory(path), directory, clock, crossProcessWindow);
     }
 
     /// <summary>True only when the database file is there and its schema table can be read and written.</summary>
@@ -126,6 +133,7 @@ public sealed partial class DatasetStore : IDatasetStore
                 return false;
             }
             transaction.Commit();
+            _latest.CommittedHere();
             problem = null;
             return true;
         }
@@ -171,6 +179,7 @@ public sealed partial class DatasetStore : IDatasetStore
             using SqliteTransaction transaction = connection.BeginTransaction(deferred: false);
             T result = body(connection, transaction);
             transaction.Commit();
+            _latest.CommittedHere();
             return result;
         }
         finally

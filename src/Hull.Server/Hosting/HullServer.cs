@@ -143,6 +143,9 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton<Defects.DefectStudyCache>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
         builder.Services.AddHostedService<ImportSessionSweeper>();
+        // Never more than half the cache, so that warming cannot evict what queries need.
+        builder.Services.AddSingleton(new StartupWarmingSettings(Math.Min(options.WarmHullsOnStart, options.MaxCachedHulls / 2)));
+        builder.Services.AddHostedService<StartupHullWarming>();
         builder.Services.AddGrpc(grpc =>
         {
             grpc.MaxReceiveMessageSize = limits.MaxReceiveMessageBytes;

@@ -32,6 +32,14 @@ public sealed record HullServerOptions
     /// <summary>Hulls kept in the cache before the least recently used are dropped.</summary>
     public int MaxCachedHulls { get; init; } = 512;
 
+    /// <summary>Hulls of the latest versions built in the background once the server listens (see
+    /// <see cref="StartupHullWarming"/>); 0, the default for servers started in-process, builds none. The server's
+    /// command line defaults to <see cref="DefaultWarmHulls"/>.</summary>
+    public int WarmHullsOnStart { get; init; }
+
+    /// <summary>The command line's default for <see cref="WarmHullsOnStart"/>: half the default cache.</summary>
+    public const int DefaultWarmHulls = 256;
+
     /// <summary>How long an import session waits for its next call before it lapses (see <see cref="ImportSessionSettings"/>).</summary>
     public TimeSpan ImportIdleExpiry { get; init; } = ImportSessionSettings.DefaultIdleExpiry;
 

@@ -27,6 +27,7 @@ public static class ServerCommandLine
         new("--max-compositions-per-request", "N", "default 1000"),
         new("--max-message-bytes", "N", "largest request message (default 16777216)"),
         new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
+        new("--warm-hulls", "N", $"once listening, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
         new("--log-level", "LEVEL", "Trace, Debug, Information, Warning, Error (default Information)"),
     ];
 
@@ -118,6 +119,8 @@ public static class ServerCommandLine
 
             string? token = values.GetValueOrDefault("--write-token") ?? Environment.GetEnvironmentVariable(WriteTokenVariable);
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
+            int warmHulls = values.TryGetValue("--warm-hulls", out string? warmText) ? ParseInt(warmText, "--warm-hulls") : HullServerOptions.DefaultWarmHulls;
+            if (warmHulls < 0) throw new FormatException($"--warm-hulls must be 0 or more, not {warmHulls}");
             int expirySeconds = PositiveInt(values, "--import-expiry-seconds", (int)ImportSessionSettings.DefaultIdleExpiry.TotalSeconds);
             return new HullServerOptions
             {
@@ -130,6 +133,7 @@ public static class ServerCommandLine
                 WriteToken = token?.Trim(),
                 Limits = limits,
                 MinimumLogLevel = level,
+                WarmHullsOnStart = warmHulls,
             };
         }
         catch (FormatException e)
