@@ -21,8 +21,8 @@ public sealed partial class DatasetStore
     public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance)
     {
         DatasetName.Validate(datasetName);
-        ArgumentNullException.ThrowIfNull(provenance);
-        CheckPolicy(policy);
+        StoreArguments.CheckProvenance(provenance);
+        StoreArguments.CheckPolicy(policy);
         ArgumentNullException.ThrowIfNull(rows);
         // A private copy: what was validated is exactly what gets written, whatever the caller does with its list.
         EntryRow[] batch = [.. rows];
@@ -83,9 +83,7 @@ public sealed partial class DatasetStore
                 catch (SqliteException e) when (e.SqliteExtendedErrorCode == SqliteConstraintUnique && policy == DuplicatePolicy.Reject)
                 {
                     // Only an open row of the same id can collide: repeats inside the batch were refused before.
-                    throw new DuplicateEntryException(
-                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}",
-                        i, row.Id, firstRowIndex: null, existingVersion: previous?.Version);
+                    throw StoreArguments.AlreadyStored(i, row.Id, datasetName, previous?.Version, rowPrefix: true);
                 }
             }
 

@@ -36,7 +36,7 @@ public sealed partial class DatasetStore : IDatasetStore
     private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock)
     {
         _connections = connections;
-        _latest = new LatestVersionMemory(connections);
+        _latest = new LatestVersionMemory(new DataVersionSignal(connections));
         _clock = clock;
         DataDirectory = dataDirectory;
     }

@@ -1,21 +1,23 @@
+using Hull.Store.Tests.Backends;
 using System.Diagnostics;
 using Hull.Store.CrashHost;
 
 namespace Hull.Store.Tests;
 
 /// <summary>
-/// The latest version is kept in memory between commits (SQLite's PRAGMA data_version says when anyone committed):
+/// The latest version is kept in memory between commits (the backend's commit signal says when anyone committed):
 /// every way a commit can happen must be seen at once, from this store, another store on the same file, and
 /// another process.
 /// </summary>
-public sealed class LatestVersionMemoryTests : IDisposable
+public abstract class LatestVersionMemoryTests : IDisposable
 {
-    private readonly TempDirectory _directory = new();
-    private readonly DatasetStore _store;
+    private readonly StoreLocation _directory;
+    private readonly IDatasetStore _store;
 
-    public LatestVersionMemoryTests()
+    protected LatestVersionMemoryTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path);
+        _directory = backend.NewLocation();
+        _store = _directory.Open();
     }
 
     public void Dispose()
@@ -42,11 +44,11 @@ public sealed class LatestVersionMemoryTests : IDisposable
     public void Imports_deletions_and_sessions_through_this_or_another_store_are_seen()
     {
         _store.CreateDataset("d");
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("d"));
         _store.ImportBatch("d", Rows.Many("a", 2), DuplicatePolicy.Reject, BatchProvenance.None);
         Assert.Equal(1, _store.GetLatestVersion("d"));
 
-        using (var other = DatasetStore.Open(_directory.Path))
+        using (var other = _directory.Open())
         {
             Assert.Equal(1, other.GetLatestVersion("d"));
             other.ImportBatch("d", Rows.Many("b", 2), DuplicatePolicy.Reject, BatchProvenance.None);
@@ -71,11 +73,19 @@ public sealed class LatestVersionMemoryTests : IDisposable
     private void RunWriter(string host, int batches)
     {
         var start = new ProcessStartInfo("dotnet") { RedirectStandardOutput = true, RedirectStandardError = true, UseShellExecute = false };
-        foreach (string argument in new[] { host, _directory.Path, $"{batches}", "4" }) start.ArgumentList.Add(argument);
+        foreach (string argument in new[] { host, _directory.HostArgument, $"{batches}", "4" }) start.ArgumentList.Add(argument);
         using var process = Process.Start(start)!;
         string output = process.StandardOutput.ReadToEnd();
         string errors = process.StandardError.ReadToEnd();
         process.WaitForExit();
         Assert.True(process.ExitCode == 0, $"writer process failed ({process.ExitCode}): {errors}\n{output}");
     }
+}
+
+public sealed class LatestVersionMemoryTestsOnSqlite() : LatestVersionMemoryTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class LatestVersionMemoryTestsOnPostgres() : LatestVersionMemoryTests(StoreBackend.Postgres)
+{
 }
