@@ -152,7 +152,8 @@ public sealed partial class DatasetStore
     /// <param name="sessionId">The session to commit.</param>
     /// <param name="checkedStagedCount">How many rows the caller checked (from <see cref="ReadStagedImport"/>); a batch
     /// staged since then would be written unchecked, so the commit is refused. Null commits whatever is staged.</param>
-    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
+    /// <param name="basedOn">The latest version the caller checked the rows against; null commits on whatever is latest.</param>
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null, long? basedOn = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -165,6 +166,7 @@ public sealed partial class DatasetStore
                 throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
             }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
+            StoreArguments.CheckBase(session.DatasetName, basedOn, previous?.Version);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
 

@@ -18,7 +18,7 @@ public sealed partial class DatasetStore
     /// <exception cref="InvalidBatchException">Empty batch or a faulty row (index, id and field named); nothing written.</exception>
     /// <exception cref="DuplicateEntryException">A repeated id, as above; nothing written.</exception>
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
-    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance)
+    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance, long? basedOn = null)
     {
         DatasetName.Validate(datasetName);
         StoreArguments.CheckProvenance(provenance);
@@ -33,6 +33,7 @@ public sealed partial class DatasetStore
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion? previous = FindLatestLive(connection, transaction, dataset.DatasetId);
+            StoreArguments.CheckBase(datasetName, basedOn, previous?.Version);
             long newVersion = dataset.LastVersionIssued + 1;
 
             using SqliteCommand close = connection.Command(transaction, """

@@ -14,14 +14,17 @@ public sealed partial class DatasetStore
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
     /// commit to the database by any connection or process (see <see cref="LatestVersionMemory"/>).
     /// </summary>
-    public long GetLatestVersion(string datasetName)
+    public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
+
+    /// <inheritdoc />
+    public DatasetLatest GetLatest(string datasetName)
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
         return _latest.Get(datasetName, () => Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-            return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
+            return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion);
         }));
     }
 

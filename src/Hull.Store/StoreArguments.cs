@@ -78,6 +78,13 @@ internal static class StoreArguments
     public static VersionNotFoundException DeletedVersion(string dataset, long version, string deletedAtUtc) =>
         new(dataset, version, $"version {version} of dataset '{dataset}' was deleted at {deletedAtUtc}");
 
+    /// <summary>Refuses a write whose caller checked it against another latest version than the one it would build on.</summary>
+    public static void CheckBase(string dataset, long? basedOn, long? latest)
+    {
+        long actual = latest ?? IDatasetStore.NoVersion;
+        if (basedOn is long expected && expected != actual) throw new BaseVersionChangedException(dataset, expected, actual);
+    }
+
     /// <summary>An id of a batch (or session) that the latest version already holds, under Reject.</summary>
     public static DuplicateEntryException AlreadyStored(int rowIndex, string id, string dataset, long? latestVersion, bool rowPrefix) =>
         new((rowPrefix ? $"row {rowIndex}: " : string.Empty) + $"id '{id}' is already in dataset '{dataset}' version {latestVersion}",

@@ -110,7 +110,7 @@ public sealed partial class PostgresDatasetStore
     }
 
     /// <inheritdoc />
-    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null, long? basedOn = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -123,6 +123,7 @@ public sealed partial class PostgresDatasetStore
                 throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
             }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
+            StoreArguments.CheckBase(session.DatasetName, basedOn, previous?.Version);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
 

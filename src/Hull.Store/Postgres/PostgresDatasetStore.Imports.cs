@@ -8,7 +8,7 @@ namespace Hull.Store.Postgres;
 public sealed partial class PostgresDatasetStore
 {
     /// <inheritdoc />
-    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance)
+    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance, long? basedOn = null)
     {
         DatasetName.Validate(datasetName);
         StoreArguments.CheckProvenance(provenance);
@@ -23,6 +23,7 @@ public sealed partial class PostgresDatasetStore
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion? previous = FindLatestLive(connection, transaction, dataset.DatasetId);
+            StoreArguments.CheckBase(datasetName, basedOn, previous?.Version);
             long newVersion = dataset.LastVersionIssued + 1;
             string[] ids = [.. batch.Select(r => r.Id)];
 

@@ -11,14 +11,17 @@ public sealed partial class PostgresDatasetStore
     private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata";
 
     /// <inheritdoc />
-    public long GetLatestVersion(string datasetName)
+    public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
+
+    /// <inheritdoc />
+    public DatasetLatest GetLatest(string datasetName)
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
         return _latest.Get(datasetName, () => Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-            return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? IDatasetStore.NoVersion;
+            return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? IDatasetStore.NoVersion);
         }));
     }
 
