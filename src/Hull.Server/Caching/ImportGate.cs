@@ -6,8 +6,8 @@ namespace Hull.Server.Caching;
 
 /// <summary>
 /// One import at a time per dataset (within this server), so that imports through one server rarely meet a moved
-/// base version (the store refuses those, see <see cref="BaseVersionChangedException"/>), and the reference ledger of each dataset's latest version, so that a batch is checked without
-/// reading the whole version.
+/// base version (the store refuses those, see <see cref="BaseVersionChangedException"/>), and the reference ledger
+/// of each dataset's latest version, so that a batch is checked without reading the whole version.
 /// </summary>
 public sealed class ImportGate
 {

@@ -125,7 +125,12 @@ public static class ServerCommandLine
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
             string? postgres = values.GetValueOrDefault("--postgres");
             if (postgres is not null && values.ContainsKey("--data-dir")) throw new FormatException("give --data-dir or --postgres, not both");
-            postgres ??= values.ContainsKey("--data-dir") ? null : Environment.GetEnvironmentVariable(PostgresVariable);
+            if (postgres is null && !values.ContainsKey("--data-dir"))
+            {
+                // An empty variable counts as unset.
+                string? fromVariable = Environment.GetEnvironmentVariable(PostgresVariable);
+                if (!string.IsNullOrWhiteSpace(fromVariable)) postgres = fromVariable;
+            }
             if (postgres is not null && Hull.Store.Postgres.PostgresDatasetStore.CheckConnectionString(postgres) is { } badConnection)
             {
                 throw new FormatException($"--postgres: {badConnection}");
