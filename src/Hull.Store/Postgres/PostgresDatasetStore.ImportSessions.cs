@@ -39,7 +39,8 @@ public sealed partial class PostgresDatasetStore
                     formula      text NOT NULL,
                     energy_ev    double precision NOT NULL,
                     energy_basis text NOT NULL,
-                    metadata     text NOT NULL
+                    metadata     text NOT NULL,
+                    {StagingModelDefinitions}
                 )
                 """);
             return new ImportSessionInfo(sessionId, datasetName, policy, 0, expires);
@@ -59,8 +60,13 @@ public sealed partial class PostgresDatasetStore
         return Write((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            // A session begun before schema step 5 staged into a table without the model columns.
+            foreach (string definition in StagingModelDefinitions.Split(',', StringSplitOptions.TrimEntries))
+            {
+                connection.Execute(transaction, $"ALTER TABLE {StagingTable(session.Key)} ADD COLUMN IF NOT EXISTS {definition}");
+            }
             using (NpgsqlBinaryImporter copy = connection.BeginBinaryImport(
-                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata) FROM STDIN (FORMAT BINARY)"))
+                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}) FROM STDIN (FORMAT BINARY)"))
             {
                 long seq = session.StagedCount;
                 foreach (EntryRow row in batch)
@@ -73,6 +79,7 @@ public sealed partial class PostgresDatasetStore
                     copy.Write(row.EnergyEv + 0.0, NpgsqlDbType.Double);
                     copy.Write(row.Basis, NpgsqlDbType.Text);
                     copy.Write(row.Metadata ?? string.Empty, NpgsqlDbType.Text);
+                    WriteModel(copy, row.TemperatureModel);
                 }
                 copy.Complete();
             }
@@ -94,14 +101,17 @@ public sealed partial class PostgresDatasetStore
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             string filter = tokens is null ? string.Empty : "WHERE energy_basis = ANY(@bases)";
+            string staging = StagingTable(session.Key);
+            string models = StagingHasModelColumns(connection, transaction, staging) ? TemperatureModelColumns.StagingNames : "NULL, NULL, NULL, NULL";
             using NpgsqlCommand select = connection.Command(transaction,
-                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} {filter} ORDER BY seq");
+                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata, {models} FROM {staging} {filter} ORDER BY seq");
             if (tokens is not null) select.With("@bases", tokens);
             using NpgsqlDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
-                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5));
+                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
+                    TemperatureModelColumns.Read(reader, 6));
                 rows.Add(new StagedRow(checked((int)reader.GetInt64(0)), row));
             }
             return new StagedImport(
@@ -152,6 +162,17 @@ public sealed partial class PostgresDatasetStore
                 throw DescribeCommitDuplicate(connection, transaction, session, staging, previous);
             }
             transaction.Release("move");
+
+            // The models go to the rows just moved: ids are unique in the session, so (id, new version) finds each.
+            if (StagingHasModelColumns(connection, transaction, staging))
+            {
+                connection.Execute(transaction, $"""
+                    INSERT INTO entry_temperature_models (row_id, formula, standard_entropy_j_per_mol_k, free_energy_anchor, free_energy_points)
+                    SELECT e.row_id, s.model_formula, s.standard_entropy_j_per_mol_k, s.free_energy_anchor, s.free_energy_points
+                    FROM {staging} AS s JOIN entries AS e ON e.dataset_id = @d AND e.entry_id = s.entry_id AND e.first_version = @v
+                    WHERE s.model_formula IS NOT NULL
+                    """, ("@d", session.DatasetId), ("@v", newVersion));
+            }
 
             int count = checked((int)session.StagedCount);
             int inserted = count - replaced;
@@ -232,6 +253,35 @@ public sealed partial class PostgresDatasetStore
         DateTimeOffset ExpiresAtUtc);
 
     private const string StagingPrefix = "staged_";
+
+    // The model columns of a staging table, as TemperatureModelColumns.StagingNames names them (all NULL for none).
+    private const string StagingModelDefinitions =
+        "model_formula text NULL, standard_entropy_j_per_mol_k double precision NULL, free_energy_anchor text NULL, free_energy_points bytea NULL";
+
+    private static bool StagingHasModelColumns(NpgsqlConnection connection, NpgsqlTransaction transaction, string staging)
+    {
+        using NpgsqlCommand command = connection.Command(transaction, """
+            SELECT count(*) FROM information_schema.columns
+            WHERE table_schema = current_schema() AND table_name = @t AND column_name = 'free_energy_points'
+            """).With("@t", staging);
+        return (long)command.ExecuteScalar()! == 1;
+    }
+
+    private static void WriteModel(NpgsqlBinaryImporter copy, StoredTemperatureModel? model)
+    {
+        if (model is null)
+        {
+            for (int i = 0; i < 4; i++) copy.WriteNull();
+            return;
+        }
+        copy.Write(model.Formula, NpgsqlDbType.Text);
+        if (model.StandardEntropyJPerMolK is double entropy) copy.Write(entropy + 0.0, NpgsqlDbType.Double);
+        else copy.WriteNull();
+        if (model.FreeEnergyAnchor is string anchor) copy.Write(anchor, NpgsqlDbType.Text);
+        else copy.WriteNull();
+        if (model.IsFreeEnergyTable) copy.Write(TemperatureModelColumns.Encode(model.FreeEnergyPoints), NpgsqlDbType.Bytea);
+        else copy.WriteNull();
+    }
 
     /// <summary>The staging table of a session; the name is built from an integer key only, never from caller text.</summary>
     private static string StagingTable(long key) => StagingPrefix + key.ToString(CultureInfo.InvariantCulture);

@@ -53,6 +53,7 @@ public sealed partial class PostgresDatasetStore
             }
 
             CopyEntries(connection, dataset.DatasetId, newVersion, batch);
+            InsertModels(connection, transaction, dataset.DatasetId, newVersion, batch);
             int inserted = batch.Length - replaced;
             IssueVersion(connection, transaction, dataset.DatasetId, newVersion, now, provenance, batch.Length, inserted, replaced,
                 (previous?.EntryCount ?? 0) + inserted);
@@ -78,6 +79,35 @@ public sealed partial class PostgresDatasetStore
             copy.Write(version, NpgsqlDbType.Bigint);
         }
         copy.Complete();
+    }
+
+    /// <summary>The temperature models of rows just written at <paramref name="version"/> (ids are unique in a batch, so (id, version) finds each row).</summary>
+    private static void InsertModels(NpgsqlConnection connection, NpgsqlTransaction transaction, long datasetId, long version, EntryRow[] batch)
+    {
+        EntryRow[] modelled = [.. batch.Where(r => r.TemperatureModel is not null)];
+        if (modelled.Length == 0) return;
+        using NpgsqlCommand insert = connection.Command(transaction, """
+            INSERT INTO entry_temperature_models (row_id, formula, standard_entropy_j_per_mol_k, free_energy_anchor, free_energy_points)
+            SELECT e.row_id, m.formula, m.entropy, m.anchor, m.points
+            FROM unnest(@ids, @formulas, @entropies, @anchors, @points) AS m (entry_id, formula, entropy, anchor, points)
+            JOIN entries AS e ON e.dataset_id = @d AND e.entry_id = m.entry_id AND e.first_version = @v
+            """).With("@d", datasetId).With("@v", version)
+            .With("@ids", modelled.Select(r => r.Id).ToArray())
+            .With("@formulas", modelled.Select(r => r.TemperatureModel!.Formula).ToArray());
+        // SQLite reads -0.0 back as 0.0; both stores keep the +0.
+        insert.Parameters.Add(new NpgsqlParameter("@entropies", NpgsqlDbType.Array | NpgsqlDbType.Double)
+        {
+            Value = modelled.Select(r => r.TemperatureModel!.StandardEntropyJPerMolK is double s ? (object)(s + 0.0) : DBNull.Value).ToArray(),
+        });
+        insert.Parameters.Add(new NpgsqlParameter("@anchors", NpgsqlDbType.Array | NpgsqlDbType.Text)
+        {
+            Value = modelled.Select(r => (object?)r.TemperatureModel!.FreeEnergyAnchor ?? DBNull.Value).ToArray(),
+        });
+        insert.Parameters.Add(new NpgsqlParameter("@points", NpgsqlDbType.Array | NpgsqlDbType.Bytea)
+        {
+            Value = modelled.Select(r => r.TemperatureModel!.IsFreeEnergyTable ? (object)TemperatureModelColumns.Encode(r.TemperatureModel.FreeEnergyPoints) : DBNull.Value).ToArray(),
+        });
+        insert.ExecuteNonQuery();
     }
 
     /// <summary>Records a new version with its provenance and counts, and marks its number as issued.</summary>

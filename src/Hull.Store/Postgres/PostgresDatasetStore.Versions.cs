@@ -8,7 +8,9 @@ public sealed partial class PostgresDatasetStore
 {
     // The rows visible at version @k (see PostgresSchema and Schema).
     private const string VisibleAtK = "first_version <= @k AND (last_version_exclusive IS NULL OR last_version_exclusive > @k)";
-    private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata";
+    // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join}.
+    private const string EntryColumns =
+        "entries.entry_id, entries.formula, entries.energy_ev, entries.energy_basis, entries.metadata, " + TemperatureModelColumns.Select;
 
     /// <inheritdoc />
     public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
@@ -79,7 +81,7 @@ public sealed partial class PostgresDatasetStore
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion live = ResolveVersion(connection, transaction, dataset, version);
             using NpgsqlCommand command = connection.Command(transaction,
-                    $"SELECT {EntryColumns} FROM entries WHERE dataset_id = @d AND entry_id = @id AND {VisibleAtK}")
+                    $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = @d AND entry_id = @id AND {VisibleAtK}")
                 .With("@d", dataset.DatasetId).With("@id", entryId).With("@k", live.Version);
             using NpgsqlDataReader reader = command.ExecuteReader();
             return reader.Read() ? ReadEntry(reader) : null;
@@ -182,8 +184,8 @@ public sealed partial class PostgresDatasetStore
     private static void ReadVisible(NpgsqlConnection connection, NpgsqlTransaction transaction, long datasetId, long k,
         string? afterId, int? limit, Action<EntryRow> sink)
     {
-        string sql = $"SELECT {EntryColumns} FROM entries WHERE dataset_id = @d AND {VisibleAtK}" +
-                     (afterId is not null ? " AND entry_id > @after" : string.Empty) + " ORDER BY entry_id" +
+        string sql = $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = @d AND {VisibleAtK}" +
+                     (afterId is not null ? " AND entries.entry_id > @after" : string.Empty) + " ORDER BY entries.entry_id" +
                      (limit is not null ? " LIMIT @limit" : string.Empty);
         using NpgsqlCommand command = connection.Command(transaction, sql).With("@d", datasetId).With("@k", k);
         if (afterId is not null) command.With("@after", afterId);
@@ -193,7 +195,8 @@ public sealed partial class PostgresDatasetStore
     }
 
     private static EntryRow ReadEntry(NpgsqlDataReader reader) =>
-        new(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4));
+        new(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
+            TemperatureModelColumns.Read(reader, 5));
 
     // Keeps a computed fingerprint with its version, outside the writers' queue: it changes no content, and a
     // version's rows never change. Failing to keep it is only slower (the next request computes it again).

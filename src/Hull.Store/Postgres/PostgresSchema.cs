@@ -103,6 +103,21 @@ internal static class PostgresSchema
                 PRIMARY KEY (dataset_id, study_name, study_version)
             );
             """),
+        new(5, "temperature models of entries: a standard entropy or a G(T) table, versioned with their entry row", """
+            -- As in SQLite's step 5: one model per entry row, sharing its visibility range; the points are 16 bytes
+            -- each (temperature K, free energy eV; binary64 little-endian).
+            CREATE TABLE entry_temperature_models (
+                row_id                       bigint PRIMARY KEY REFERENCES entries (row_id) ON DELETE CASCADE,
+                formula                      text NOT NULL,
+                standard_entropy_j_per_mol_k double precision NULL
+                    CHECK (standard_entropy_j_per_mol_k >= 0 AND standard_entropy_j_per_mol_k <= 1.7976931348623157e308),
+                free_energy_anchor           text NULL CHECK (free_energy_anchor IN ('computed_0k', 'fitted_298k')),
+                free_energy_points           bytea NULL
+                    CHECK (length(free_energy_points) >= 32 AND length(free_energy_points) % 16 = 0),
+                CHECK ((standard_entropy_j_per_mol_k IS NULL) = (free_energy_anchor IS NOT NULL)),
+                CHECK ((free_energy_anchor IS NULL) = (free_energy_points IS NULL))
+            );
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>
