@@ -29,7 +29,7 @@ catch (TlsFileException e)
 }
 catch (StoreException e)
 {
-    Console.Error.WriteLine($"hull-server: cannot open the store in '{options.DataDirectory}': {e.Message}");
+    Console.Error.WriteLine($"hull-server: cannot open the store {options.StoreDescription}: {e.Message}");
     return 3;
 }
 catch (Exception e) when (e is IOException or UnauthorizedAccessException)

@@ -90,11 +90,18 @@ internal static class BatchValidator
     }
 
     // A lone UTF-16 surrogate cannot be encoded as UTF-8: SQLite would store U+FFFD instead, silently changing the text.
+    // U+0000 cannot be held by PostgreSQL's text (see StoreArguments.CheckStoredText).
     private static void CheckText(int rowIndex, string id, string field, string text)
     {
         for (int k = 0; k < text.Length; k++)
         {
             char c = text[k];
+            if (c == '\0')
+            {
+                throw new InvalidBatchException(
+                    $"row {rowIndex} (id '{id}'): {field} holds the character U+0000 at character {k + 1}; it cannot be stored",
+                    rowIndex, id, field);
+            }
             if (char.IsHighSurrogate(c) && k + 1 < text.Length && char.IsLowSurrogate(text[k + 1]))
             {
                 k++;

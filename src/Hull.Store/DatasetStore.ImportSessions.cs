@@ -25,9 +25,9 @@ public sealed partial class DatasetStore
     public ImportSessionInfo BeginImport(string datasetName, DuplicatePolicy policy, BatchProvenance provenance, TimeSpan idleExpiry)
     {
         DatasetName.Validate(datasetName);
-        ArgumentNullException.ThrowIfNull(provenance);
-        CheckPolicy(policy);
-        CheckExpiry(idleExpiry);
+        StoreArguments.CheckProvenance(provenance);
+        StoreArguments.CheckPolicy(policy);
+        StoreArguments.CheckExpiry(idleExpiry);
         DateTimeOffset now = _clock.GetUtcNow();
         DateTimeOffset expires = now + idleExpiry;
         string sessionId = Convert.ToHexStringLower(RandomNumberGenerator.GetBytes(16));
@@ -39,7 +39,7 @@ public sealed partial class DatasetStore
                 VALUES ($s, $d, $p, $source, $note, $t, $e)
                 RETURNING session_key
                 """);
-            insert.With("$s", sessionId).With("$d", dataset.DatasetId).With("$p", PolicyToken(policy))
+            insert.With("$s", sessionId).With("$d", dataset.DatasetId).With("$p", StoreArguments.PolicyToken(policy))
                 .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
                 .With("$t", UtcText.Write(now)).With("$e", expires.ToUnixTimeMilliseconds());
             long key = (long)insert.ExecuteScalar()!;
@@ -67,7 +67,7 @@ public sealed partial class DatasetStore
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         ArgumentNullException.ThrowIfNull(rows);
-        CheckExpiry(idleExpiry);
+        StoreArguments.CheckExpiry(idleExpiry);
         EntryRow[] batch = [.. rows];
         BatchValidator.Validate(batch);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -162,7 +162,8 @@ public sealed partial class DatasetStore
     /// <param name="sessionId">The session to commit.</param>
     /// <param name="checkedStagedCount">How many rows the caller checked (from <see cref="ReadStagedImport"/>); a batch
     /// staged since then would be written unchecked, so the commit is refused. Null commits whatever is staged.</param>
-    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
+    /// <param name="basedOn">The latest version the caller checked the rows against; null commits on whatever is latest.</param>
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null, long? basedOn = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -175,6 +176,7 @@ public sealed partial class DatasetStore
                 throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
             }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
+            StoreArguments.CheckBase(session.DatasetName, basedOn, previous?.Version);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
 
@@ -256,7 +258,7 @@ public sealed partial class DatasetStore
             var sessions = new List<ImportSessionInfo>();
             while (reader.Read())
             {
-                sessions.Add(new ImportSessionInfo(reader.GetString(0), datasetName, ParsePolicy(reader.GetString(1)), reader.GetInt64(2),
+                sessions.Add(new ImportSessionInfo(reader.GetString(0), datasetName, StoreArguments.ParsePolicy(reader.GetString(1)), reader.GetInt64(2),
                     DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(3))));
             }
             return sessions;
@@ -316,7 +318,7 @@ public sealed partial class DatasetStore
         using SqliteDataReader reader = command.ExecuteReader();
         if (!reader.Read()) throw new ImportSessionNotFoundException(sessionId, expired: false);
         if (reader.GetInt64(8) <= now.ToUnixTimeMilliseconds()) throw new ImportSessionNotFoundException(sessionId, expired: true);
-        return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), ParsePolicy(reader.GetString(4)),
+        return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), StoreArguments.ParsePolicy(reader.GetString(4)),
             new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7), DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)));
     }
 
@@ -335,9 +337,7 @@ public sealed partial class DatasetStore
             {
                 int index = checked((int)(reader.GetInt64(0) - 1));
                 int first = checked((int)(reader.GetInt64(2) - 1));
-                return new DuplicateEntryException(
-                    $"id '{reader.GetString(1)}' repeats entry {first + 1} of this import; ids must be unique within an import",
-                    index, reader.GetString(1), first, existingVersion: null);
+                return StoreArguments.RepeatedInSession(index, reader.GetString(1), first);
             }
         }
 
@@ -350,9 +350,7 @@ public sealed partial class DatasetStore
         if (!found.Read()) throw new InvalidOperationException("a unique constraint failed at commit, but no staged id repeats or is stored");
         int row = checked((int)(found.GetInt64(0) - 1));
         string id = found.GetString(1);
-        return new DuplicateEntryException(
-            $"id '{id}' is already in dataset '{session.DatasetName}' version {previous?.Version}",
-            row, id, firstRowIndex: null, existingVersion: previous?.Version);
+        return StoreArguments.AlreadyStored(row, id, session.DatasetName, previous?.Version, rowPrefix: false);
     }
 
     private static void DropSession(SqliteConnection connection, SqliteTransaction transaction, long key)
@@ -392,21 +390,4 @@ public sealed partial class DatasetStore
         }
         return StagingKeys(connection, transaction).Where(k => !open.Contains(k)).ToList();
     }
-
-    private static void CheckPolicy(DuplicatePolicy policy)
-    {
-        if (policy is not (DuplicatePolicy.Reject or DuplicatePolicy.Replace))
-        {
-            throw new ArgumentOutOfRangeException(nameof(policy), policy, "not a defined duplicate policy");
-        }
-    }
-
-    private static void CheckExpiry(TimeSpan idleExpiry)
-    {
-        if (idleExpiry <= TimeSpan.Zero) throw new ArgumentOutOfRangeException(nameof(idleExpiry), idleExpiry, "must be positive");
-    }
-
-    private static string PolicyToken(DuplicatePolicy policy) => policy == DuplicatePolicy.Replace ? "replace" : "reject";
-
-    private static DuplicatePolicy ParsePolicy(string token) => token == "replace" ? DuplicatePolicy.Replace : DuplicatePolicy.Reject;
 }

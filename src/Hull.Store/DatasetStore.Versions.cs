@@ -16,18 +16,19 @@ public sealed partial class DatasetStore
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
     /// commit to the database by any connection or process (see <see cref="LatestVersionMemory"/>).
     /// </summary>
-    public long GetLatestVersion(string datasetName)
+    public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
+
+    /// <inheritdoc />
+    public DatasetLatest GetLatest(string datasetName)
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
-        return _latest.Get(datasetName, _readLatest);
+        return _latest.Get(datasetName, () => Read((connection, transaction) =>
+        {
+            DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
+            return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion);
+        }));
     }
-
-    private long ReadLatest(string datasetName) => Read((connection, transaction) =>
-    {
-        DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-        return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
-    });
 
     /// <summary>Every live version with its provenance, oldest first.</summary>
     public IReadOnlyList<DatasetVersionInfo> ListVersions(string datasetName)
@@ -60,10 +61,7 @@ public sealed partial class DatasetStore
     public EntryPage GetEntries(string datasetName, long? version, string? afterId, int limit)
     {
         DatasetName.Validate(datasetName);
-        if (limit < 1 || limit > MaxPageSize)
-        {
-            throw new ArgumentOutOfRangeException(nameof(limit), limit, $"a page holds 1 to {MaxPageSize} entries");
-        }
+        StoreArguments.CheckPageLimit(limit);
         return Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
@@ -186,9 +184,7 @@ public sealed partial class DatasetStore
         if (version is null)
         {
             return FindLatestLive(connection, transaction, dataset.DatasetId)
-                   ?? throw new VersionNotFoundException(dataset.Name, null, dataset.LastVersionIssued == 0
-                       ? $"dataset '{dataset.Name}' has no version yet; import a batch first"
-                       : $"dataset '{dataset.Name}' has no live version: all of its {dataset.LastVersionIssued} versions were deleted");
+                   ?? throw StoreArguments.NoLiveVersion(dataset.Name, dataset.LastVersionIssued);
         }
 
         long k = version.Value;
@@ -196,16 +192,8 @@ public sealed partial class DatasetStore
             "SELECT entry_count, deleted_at_utc FROM dataset_versions WHERE dataset_id = $d AND version = $v")
             .With("$d", dataset.DatasetId).With("$v", k);
         using SqliteDataReader reader = command.ExecuteReader();
-        if (!reader.Read())
-        {
-            string range = dataset.LastVersionIssued == 0 ? "it has no version yet" : $"its versions run from 1 to {dataset.LastVersionIssued}";
-            throw new VersionNotFoundException(dataset.Name, k, $"dataset '{dataset.Name}' has no version {k}; {range}");
-        }
-        if (!reader.IsDBNull(1))
-        {
-            throw new VersionNotFoundException(dataset.Name, k,
-                $"version {k} of dataset '{dataset.Name}' was deleted at {reader.GetString(1)}");
-        }
+        if (!reader.Read()) throw StoreArguments.NoSuchVersion(dataset.Name, k, dataset.LastVersionIssued);
+        if (!reader.IsDBNull(1)) throw StoreArguments.DeletedVersion(dataset.Name, k, reader.GetString(1));
         return new LiveVersion(k, reader.GetInt64(0));
     }
 
@@ -246,7 +234,7 @@ public sealed partial class DatasetStore
                 WHERE dataset_id = $d AND version = $v AND content_sha256 IS NULL
                 """, ("$f", fingerprint), ("$d", datasetId), ("$v", version));
             transaction.Commit();
-            _latest.CommittedHere();
+            _signal.CommittedHere();
         }
         catch (SqliteException)
         {

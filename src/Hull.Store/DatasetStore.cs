@@ -26,8 +26,8 @@ public sealed partial class DatasetStore : IDatasetStore
     private const int SqliteNotADatabase = 26;
 
     private readonly ConnectionFactory _connections;
+    private readonly DataVersionSignal _signal;
     private readonly LatestVersionMemory _latest;
-    private readonly Func<string, long> _readLatest;
     private readonly TimeProvider _clock;
 
     // One writer at a time inside this process; other processes are kept out by SQLite's own write lock.
@@ -37,8 +37,8 @@ public sealed partial class DatasetStore : IDatasetStore
     private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock, TimeSpan crossProcessWindow)
     {
         _connections = connections;
-        _latest = new LatestVersionMemory(connections, crossProcessWindow);
-        _readLatest = ReadLatest;
+        _signal = new DataVersionSignal(connections, crossProcessWindow);
+        _latest = new LatestVersionMemory(_signal);
         _clock = clock;
         DataDirectory = dataDirectory;
     }
@@ -60,10 +60,10 @@ public sealed partial class DatasetStore : IDatasetStore
     /// <param name="dataDirectory">Directory holding the database file.</param>
     /// <param name="clock">Source of commit times; the system clock when null.</param>
     public static DatasetStore Open(string dataDirectory, TimeProvider? clock = null) =>
-        Open(dataDirectory, clock, LatestVersionMemory.DefaultCrossProcessWindow);
+        Open(dataDirectory, clock, DataVersionSignal.DefaultCrossProcessWindow);
 
     /// <summary>As <see cref="Open(string, TimeProvider?)"/>, with the time another process's commit may go unseen
-    /// by "latest version" questions (see <see cref="LatestVersionMemory"/>); for tests.</summary>
+    /// by "latest version" questions (see <see cref="DataVersionSignal"/>); for tests.</summary>
     internal static DatasetStore Open(string dataDirectory, TimeProvider? clock, TimeSpan crossProcessWindow)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(dataDirectory);
@@ -133,7 +133,7 @@ public sealed partial class DatasetStore : IDatasetStore
                 return false;
             }
             transaction.Commit();
-            _latest.CommittedHere();
+            _signal.CommittedHere();
             problem = null;
             return true;
         }
@@ -179,7 +179,7 @@ public sealed partial class DatasetStore : IDatasetStore
             using SqliteTransaction transaction = connection.BeginTransaction(deferred: false);
             T result = body(connection, transaction);
             transaction.Commit();
-            _latest.CommittedHere();
+            _signal.CommittedHere();
             return result;
         }
         finally

@@ -35,7 +35,8 @@ public partial interface IDatasetStore
     /// <exception cref="DuplicateEntryException">An id staged twice, or under Reject one the latest version holds.</exception>
     /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>
     /// <exception cref="ImportSessionChangedException">The session no longer holds <paramref name="checkedStagedCount"/> rows.</exception>
-    ImportResult CommitImport(string sessionId, long? checkedStagedCount = null);
+    /// <exception cref="BaseVersionChangedException">The latest live version is not <paramref name="basedOn"/>; nothing written, the session stays open.</exception>
+    ImportResult CommitImport(string sessionId, long? checkedStagedCount = null, long? basedOn = null);
 
     /// <summary>Drops an open session with its staged rows; nothing of it was ever visible.</summary>
     /// <exception cref="ImportSessionNotFoundException">No such open session, or it lapsed.</exception>

@@ -12,5 +12,8 @@ public partial interface IDatasetStore
     /// <exception cref="InvalidBatchException">Empty batch or a faulty row (index, id and field named); nothing written.</exception>
     /// <exception cref="DuplicateEntryException">A repeated id, as above; nothing written.</exception>
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
-    ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance);
+    /// <exception cref="BaseVersionChangedException">The latest live version is not <paramref name="basedOn"/>; nothing written.</exception>
+    /// <remarks><c>basedOn</c>: the latest version the caller checked the batch against (<see cref="NoVersion"/> for
+    /// none); null writes on whatever is latest. With several servers on one store, this makes check and write one step.</remarks>
+    ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance, long? basedOn = null);
 }

@@ -10,6 +10,10 @@ public partial interface IDatasetStore
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
     long GetLatestVersion(string datasetName);
 
+    /// <summary>The latest live version with the dataset's key; remembered like <see cref="GetLatestVersion"/>.</summary>
+    /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
+    DatasetLatest GetLatest(string datasetName);
+
     /// <summary>Every live version with its provenance, oldest first.</summary>
     IReadOnlyList<DatasetVersionInfo> ListVersions(string datasetName);
 

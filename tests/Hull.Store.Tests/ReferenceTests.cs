@@ -1,13 +1,19 @@
+using Hull.Store.Tests.Backends;
 using System.Text;
 
 namespace Hull.Store.Tests;
 
 /// <summary>The fingerprint and the entry order, checked against general-purpose tools outside the project.</summary>
-public sealed class ReferenceTests : IDisposable
+public abstract class ReferenceTests(StoreBackend backend) : IDisposable
 {
     private readonly TempDirectory _directory = new();
+    private readonly StoreLocation _location = backend.NewLocation();
 
-    public void Dispose() => _directory.Dispose();
+    public void Dispose()
+    {
+        _location.Dispose();
+        _directory.Dispose();
+    }
 
     [Fact]
     public void TheFingerprintIsSha256OfTheDocumentedLayout()
@@ -32,7 +38,7 @@ public sealed class ReferenceTests : IDisposable
         EntryRow b = new("b\U0001D518", "O2", -0.0, "total_per_atom", "µ = −4.9 eV");
         Assert.Equal(expected, ContentFingerprint.Compute([b, a]));
 
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("fp");
         store.ImportBatch("fp", [b, a], DuplicatePolicy.Reject, BatchProvenance.None);
         Assert.Equal(expected, store.GetFingerprint("fp", 1));
@@ -43,7 +49,7 @@ public sealed class ReferenceTests : IDisposable
     [Fact]
     public void FingerprintsFollowContentNotHistory()
     {
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("one");
         store.CreateDataset("two");
         store.ImportBatch("one", [Rows.Make("x", -1), Rows.Make("y", -2)], DuplicatePolicy.Reject, BatchProvenance.None);
@@ -64,7 +70,7 @@ public sealed class ReferenceTests : IDisposable
             "mp-10", "mp-9", "mp-1", "Mp-1", "a", "a b", "ab", "a-b", "é", "e\u0301", "Z", "_x", "~",
             "e\uE000", "e\U0001D518", "e\uFFFD", "日本", "10", "9", "α", "ω",
         ];
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("order");
         store.ImportBatch("order", ids.Select(id => Rows.Make(id)).ToList(), DuplicatePolicy.Reject, BatchProvenance.None);
 
@@ -80,4 +86,12 @@ public sealed class ReferenceTests : IDisposable
         Assert.True(string.CompareOrdinal("e\uE000", "e\U0001D518") > 0);
         Assert.True(EntryIdOrder.Comparer.Compare("e\uE000", "e\U0001D518") < 0);
     }
+}
+
+public sealed class ReferenceTestsOnSqlite() : ReferenceTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class ReferenceTestsOnPostgres() : ReferenceTests(StoreBackend.Postgres)
+{
 }

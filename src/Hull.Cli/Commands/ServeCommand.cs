@@ -50,7 +50,7 @@ public static class ServeCommand
             }
             catch (Exception e) when (HullServer.IsStoreFailure(e))
             {
-                error.WriteLine($"hull serve: cannot open the store in '{serverOptions.DataDirectory}': {e.Message}");
+                error.WriteLine($"hull serve: cannot open the store {serverOptions.StoreDescription}: {e.Message}");
                 return ExitCodes.InputFile;
             }
             catch (IOException e)

@@ -5,6 +5,7 @@ using Hull.Server.Errors;
 using Hull.Server.Security;
 using Hull.Server.Services;
 using Hull.Store;
+using Hull.Store.Postgres;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
@@ -57,14 +58,16 @@ public sealed class HullServer : IAsyncDisposable
     public HullCache Cache => _app.Services.GetRequiredService<HullCache>();
 
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
-    /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema).</exception>
+    /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
     /// <exception cref="TlsFileException">A TLS file is missing or unusable.</exception>
     public static async Task<HullServer> StartAsync(HullServerOptions options, CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(options);
         X509Certificate2? certificate = LoadCertificate(options);
-        IDatasetStore store = DatasetStore.Open(options.DataDirectory);
+        IDatasetStore store = options.PostgresConnectionString is { } postgres
+            ? PostgresDatasetStore.Open(postgres)
+            : DatasetStore.Open(options.DataDirectory);
         try
         {
             WebApplication app = Build(options, store, certificate);

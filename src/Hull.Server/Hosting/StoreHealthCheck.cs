@@ -10,6 +10,6 @@ public sealed class StoreHealthCheck(IDatasetStore store) : IHealthCheck
     {
         // The store's check may wait for an import in progress; keep it off the request thread.
         (bool healthy, string? problem) = await Task.Run(() => (store.CheckHealth(out string? p), p), cancellationToken);
-        return healthy ? HealthCheckResult.Healthy("store usable") : HealthCheckResult.Unhealthy(problem ?? "store not usable");
+        return healthy ? HealthCheckResult.Healthy($"store usable: {store.Location}") : HealthCheckResult.Unhealthy(problem ?? "store not usable");
     }
 }

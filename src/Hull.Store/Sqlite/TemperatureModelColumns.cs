@@ -7,7 +7,8 @@ namespace Hull.Store.Sqlite;
 /// How an entry's temperature model sits in the file (migration 5): one row of entry_temperature_models per entry
 /// row that has a model, keyed by the entry's row_id, so the model shares the row's visibility range. A G(T) table
 /// is one BLOB of 16 bytes per point, the temperature's and then the free energy's IEEE 754 binary64 bits,
-/// little-endian, in the order given: exact, and one row per model however long the table.
+/// little-endian, in the order given: exact, and one row per model however long the table. The PostgreSQL store keeps
+/// the same columns (bytea for the points) and shares <see cref="Read"/>, <see cref="Encode"/> and <see cref="Decode"/>.
 /// </summary>
 internal static class TemperatureModelColumns
 {
@@ -30,7 +31,7 @@ internal static class TemperatureModelColumns
     private const int BytesPerPoint = 16;
 
     /// <summary>The model in the four columns from <paramref name="first"/> on, or null when they are all NULL.</summary>
-    public static StoredTemperatureModel? Read(SqliteDataReader reader, int first)
+    public static StoredTemperatureModel? Read(System.Data.Common.DbDataReader reader, int first)
     {
         if (reader.IsDBNull(first)) return null;
         string formula = reader.GetString(first);
