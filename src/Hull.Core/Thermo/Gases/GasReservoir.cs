@@ -33,17 +33,55 @@ public sealed class GasReservoir
             enthalpyKjPerMol += Species.EnthalpyStandardAboveZeroKjPerMol;
         }
 
-        double entropyKjPerMolK = Species.EntropyJPerMolK(temperatureK) / 1000.0;
-        return new GasChemicalPotential(
-            Species.Formula,
-            Reference.Mode,
-            temperatureK,
-            pressureBar,
-            Species.AtomsPerMolecule,
-            Reference.EnergyEvPerMolecule,
-            enthalpyKjPerMol / PhysicalConstants.KilojoulesPerMolPerEv,
-            temperatureK * entropyKjPerMolK / PhysicalConstants.KilojoulesPerMolPerEv,
-            PhysicalConstants.BoltzmannEvPerK * temperatureK * Math.Log(pressureBar / PhysicalConstants.StandardPressureBar));
+        return Potential(temperatureK, pressureBar, enthalpyKjPerMol, Species.EntropyJPerMolK(temperatureK));
+    }
+
+    /// <summary>
+    /// μ(T, p) in the Ellingham approximation: H and S held at their 298.15 K values, so
+    /// μ = E_ref + [H°(298.15 K) − H°(T_anchor)] − T S°(298.15 K) + k_B T ln(p/p°), a straight line in T at fixed p.
+    /// S°(298.15 K) is the table's unless <paramref name="standardEntropyJPerMolK"/> gives the value of the handbook
+    /// the solids' data come from (so that every species of a reaction comes from one table).
+    /// </summary>
+    /// <exception cref="ThermoInputException">A temperature that is not positive and finite; a bad pressure or entropy.</exception>
+    public GasChemicalPotential StandardStateChemicalPotential(double temperatureK, double pressureBar, double? standardEntropyJPerMolK = null)
+    {
+        RequirePressure(pressureBar);
+        if (!double.IsFinite(temperatureK) || temperatureK <= 0)
+        {
+            throw new ThermoInputException(string.Create(CultureInfo.InvariantCulture,
+                $"Temperature must be positive and finite; got {temperatureK} K."), element: Species.Element);
+        }
+
+        double entropyJPerMolK = standardEntropyJPerMolK ?? Species.EntropyJPerMolK(PhysicalConstants.StandardTemperatureK);
+        if (!double.IsFinite(entropyJPerMolK) || entropyJPerMolK <= 0)
+        {
+            throw new ThermoInputException(string.Create(CultureInfo.InvariantCulture,
+                $"The standard entropy of {Species.Formula} must be positive and finite; got {entropyJPerMolK} J/(mol K)."), element: Species.Element);
+        }
+
+        double enthalpyKjPerMol = Reference.Mode == GasReferenceMode.ComputedMoleculeEnergy ? Species.EnthalpyStandardAboveZeroKjPerMol : 0.0;
+        return Potential(temperatureK, pressureBar, enthalpyKjPerMol, entropyJPerMolK);
+    }
+
+    /// <summary>μ's parts from H(T) − H(T_anchor) (kJ/mol) and S (J/(mol K)), both per mol of molecules.</summary>
+    private GasChemicalPotential Potential(double temperatureK, double pressureBar, double enthalpyKjPerMol, double entropyJPerMolK) => new(
+        Species.Formula,
+        Reference.Mode,
+        temperatureK,
+        pressureBar,
+        Species.AtomsPerMolecule,
+        Reference.EnergyEvPerMolecule,
+        enthalpyKjPerMol / PhysicalConstants.KilojoulesPerMolPerEv,
+        temperatureK * entropyJPerMolK / 1000.0 / PhysicalConstants.KilojoulesPerMolPerEv,
+        PhysicalConstants.BoltzmannEvPerK * temperatureK * Math.Log(pressureBar / PhysicalConstants.StandardPressureBar));
+
+    /// <summary>Δμ in the Ellingham approximation (<see cref="StandardStateChemicalPotential"/>) against the dataset's reference, eV/atom.</summary>
+    /// <exception cref="ThermoInputException">Bad temperature, pressure, entropy or reference.</exception>
+    public ChemicalPotentialShift StandardStateShift(double temperatureK, double pressureBar, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteReference(datasetReferenceEvPerAtom);
+        return new ChemicalPotentialShift(Species.Element, StandardStateChemicalPotential(temperatureK, pressureBar, standardEntropyJPerMolK),
+            datasetReferenceEvPerAtom, Reference.ZeroPointEnergyEvPerMolecule / Species.AtomsPerMolecule);
     }
 
     /// <summary>Δμ of the gas's element at (T, p) against the dataset's reference for it, eV/atom.</summary>
