@@ -84,6 +84,37 @@ public sealed class GasReservoir
             datasetReferenceEvPerAtom, Reference.ZeroPointEnergyEvPerMolecule / Species.AtomsPerMolecule);
     }
 
+    /// <summary>
+    /// The pressure at which the element has Δμ = <paramref name="deltaMuEvPerAtom"/> at T in the Ellingham
+    /// approximation: the same ideal-gas inversion as <see cref="PressureAt"/>, from the standard-state μ at p°.
+    /// </summary>
+    /// <exception cref="ThermoInputException">A bad temperature, entropy, Δμ or reference.</exception>
+    public PressureForShift StandardStatePressureAt(double deltaMuEvPerAtom, double temperatureK, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteShift(deltaMuEvPerAtom);
+        ChemicalPotentialShift standard = StandardStateShift(temperatureK, PhysicalConstants.StandardPressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK);
+        return PressureFrom(deltaMuEvPerAtom, temperatureK, standard.DeltaMuEvPerAtom);
+    }
+
+    /// <summary>
+    /// The temperature at which the element has Δμ = <paramref name="deltaMuEvPerAtom"/> at p in the Ellingham
+    /// approximation, where Δμ is a straight line in T: solved in closed form; not converged (NaN) when the line
+    /// never reaches it at a positive temperature.
+    /// </summary>
+    /// <exception cref="ThermoInputException">A bad pressure, entropy, Δμ or reference.</exception>
+    public TemperatureSolveResult StandardStateTemperatureAt(double deltaMuEvPerAtom, double pressureBar, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteShift(deltaMuEvPerAtom);
+        const double low = 1.0, high = 1001.0;
+        double atLow = StandardStateShift(low, pressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK).DeltaMuEvPerAtom;
+        double atHigh = StandardStateShift(high, pressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK).DeltaMuEvPerAtom;
+        double slope = (atHigh - atLow) / (high - low);
+        double t = low + ((deltaMuEvPerAtom - atLow) / slope);
+        return double.IsFinite(t) && t > 0
+            ? new TemperatureSolveResult(TemperatureSolveStatus.Converged, t, t, t, 0, 1, 0, double.PositiveInfinity)
+            : new TemperatureSolveResult(TemperatureSolveStatus.NoSignChangeInRange, double.NaN, 0, double.PositiveInfinity, 0, 0, 0, double.PositiveInfinity);
+    }
+
     /// <summary>Δμ of the gas's element at (T, p) against the dataset's reference for it, eV/atom.</summary>
     /// <exception cref="ThermoInputException">Bad temperature or pressure, or a non-finite reference.</exception>
     public ChemicalPotentialShift Shift(double temperatureK, double pressureBar, double datasetReferenceEvPerAtom)
@@ -117,7 +148,12 @@ public sealed class GasReservoir
     {
         RequireFiniteShift(deltaMuEvPerAtom);
         ChemicalPotentialShift standard = Shift(temperatureK, PhysicalConstants.StandardPressureBar, datasetReferenceEvPerAtom);
-        double lnRatio = Species.AtomsPerMolecule * (deltaMuEvPerAtom - standard.DeltaMuEvPerAtom)
+        return PressureFrom(deltaMuEvPerAtom, temperatureK, standard.DeltaMuEvPerAtom);
+    }
+
+    private PressureForShift PressureFrom(double deltaMuEvPerAtom, double temperatureK, double standardDeltaMuEvPerAtom)
+    {
+        double lnRatio = Species.AtomsPerMolecule * (deltaMuEvPerAtom - standardDeltaMuEvPerAtom)
             / (PhysicalConstants.BoltzmannEvPerK * temperatureK);
         double log10Bar = Math.Log10(PhysicalConstants.StandardPressureBar) + lnRatio / Math.Log(10.0);
         return new PressureForShift(Species.Formula, temperatureK, deltaMuEvPerAtom, log10Bar);
