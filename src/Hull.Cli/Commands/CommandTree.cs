@@ -33,6 +33,7 @@ public static class CommandTree
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
+        root.Subcommands.Add(ThermoCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());

@@ -63,7 +63,7 @@ public static class TemperatureStabilityFigure
                 chart.Canvas.Raw($"<circle data-kind=\"crossing\" data-phase=\"{Escape(curve.Result.PhaseId)}\" data-temperature-k=\"{crossing.TemperatureK.ToString("R", CultureInfo.InvariantCulture)}\" cx=\"{Px(cx)}\" cy=\"{Px(zeroY)}\" r=\"5\" fill=\"{FigurePalette.Background}\" stroke=\"{colour}\" stroke-width=\"2.2\"/>\n");
                 string label = string.Create(CultureInfo.InvariantCulture, $"{crossing.TemperatureK:0} K");
                 double labelY = zeroY + (crossing.Direction == CrossingDirection.DecomposesAbove ? 22 + (12 * i) : -14 - (12 * i));
-                chart.Canvas.Raw($"<text data-kind=\"crossing-label\" x=\"{Px(cx)}\" y=\"{Px(labelY)}\" font-size=\"{Px(FigurePalette.SmallFontSize)}\" text-anchor=\"middle\" fill=\"{colour}\" font-weight=\"bold\">{Escape(label)}</text>\n");
+                chart.Canvas.Raw($"<text data-kind=\"label\" x=\"{Px(cx)}\" y=\"{Px(labelY)}\" font-size=\"{Px(FigurePalette.SmallFontSize)}\" text-anchor=\"middle\" fill=\"{colour}\" font-weight=\"bold\">{Escape(label)}</text>\n");
             }
 
             double ly = chart.LegendY(i);
