@@ -41,6 +41,7 @@ internal static class BatchValidator
                     i, row.Id, nameof(EntryRow.Basis));
             }
             if (row.Metadata is not null) CheckText(i, row.Id, nameof(EntryRow.Metadata), row.Metadata);
+            if (row.TemperatureModel is { } model) CheckModel(i, row.Id, model);
 
             if (!firstIndexById.TryAdd(row.Id, i))
             {
@@ -48,6 +49,42 @@ internal static class BatchValidator
                 throw new DuplicateEntryException(
                     $"row {i}: id '{row.Id}' repeats row {first} of the same batch; ids must be unique within a batch",
                     i, row.Id, first, existingVersion: null);
+            }
+        }
+    }
+
+    // What the file could not hold or the server could not read back: the server's own checks come first.
+    private static void CheckModel(int i, string id, StoredTemperatureModel model)
+    {
+        const string field = nameof(EntryRow.TemperatureModel);
+        CheckText(i, id, field, model.Formula);
+        if (model.StandardEntropyJPerMolK is double entropy)
+        {
+            if (!double.IsFinite(entropy) || entropy < 0)
+            {
+                throw new InvalidBatchException($"row {i} (id '{id}'): the standard entropy is {entropy} J/(mol K); it must be finite and not negative", i, id, field);
+            }
+            return;
+        }
+        if (!StoredFreeEnergyAnchorTokens.IsAccepted(model.FreeEnergyAnchor))
+        {
+            throw new InvalidBatchException(
+                $"row {i} (id '{id}'): free-energy anchor '{model.FreeEnergyAnchor}' is not one of {string.Join(", ", StoredFreeEnergyAnchorTokens.All)}", i, id, field);
+        }
+        var points = model.FreeEnergyPoints;
+        if (points.Length < 2)
+        {
+            throw new InvalidBatchException($"row {i} (id '{id}'): the G(T) table has {points.Length} point{(points.Length == 1 ? "" : "s")}; it needs at least 2", i, id, field);
+        }
+        for (int k = 0; k < points.Length; k++)
+        {
+            StoredFreeEnergyPoint point = points[k];
+            bool ordered = k == 0 || point.TemperatureK > points[k - 1].TemperatureK;
+            if (!double.IsFinite(point.TemperatureK) || point.TemperatureK <= 0 || !double.IsFinite(point.ThermalFreeEnergyEv) || !ordered)
+            {
+                throw new InvalidBatchException(
+                    $"row {i} (id '{id}'): G(T) point {k + 1} ({point.TemperatureK} K, {point.ThermalFreeEnergyEv} eV) must have a finite temperature above 0 K, above the point before it, and a finite energy",
+                    i, id, field);
             }
         }
     }

@@ -49,7 +49,8 @@ public sealed partial class DatasetStore
                     formula      TEXT NOT NULL,
                     energy_ev    REAL NOT NULL,
                     energy_basis TEXT NOT NULL,
-                    metadata     TEXT NOT NULL
+                    metadata     TEXT NOT NULL,
+                    {TemperatureModelColumns.StagingDefinitions}
                 )
                 """);
             create.ExecuteNonQuery();
@@ -74,15 +75,17 @@ public sealed partial class DatasetStore
         return Write((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            TemperatureModelColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
             using SqliteCommand insert = connection.Command(transaction, $"""
-                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata)
-                VALUES ($id, $formula, $energy, $basis, $metadata)
+                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames})
+                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points)
                 """);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
             SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
             SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
+            var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insert);
             insert.Prepare();
             foreach (EntryRow row in batch)
             {
@@ -92,6 +95,7 @@ public sealed partial class DatasetStore
                 energy.Value = row.EnergyEv + 0.0;
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
+                TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
                 insert.ExecuteNonQuery();
             }
 
@@ -124,15 +128,21 @@ public sealed partial class DatasetStore
             string filter = tokens is null ? string.Empty
                 : tokens.Length == 0 ? "WHERE 0"
                 : "WHERE energy_basis IN (" + string.Join(", ", tokens.Select((_, i) => $"$b{i}")) + ")";
+            string staging = StagingTable(session.Key);
+            // A session begun before migration 5 has no model columns: its rows have no models.
+            string models = TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging)
+                ? TemperatureModelColumns.StagingNames
+                : "NULL, NULL, NULL, NULL";
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models} FROM {staging} {filter} ORDER BY rowid");
             for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 // Staging tables are appended to only, so rowid k+1 is the session's row k.
-                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5));
+                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
+                    TemperatureModelColumns.Read(reader, 6));
                 rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
             }
             return new StagedImport(
@@ -192,6 +202,18 @@ public sealed partial class DatasetStore
                 {
                     throw DescribeCommitDuplicate(connection, transaction, session, staging, previous);
                 }
+            }
+
+            // The models go to the rows just moved: ids are unique in the session, so (id, new version) finds each.
+            if (TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging))
+            {
+                using SqliteCommand models = connection.Command(transaction, $"""
+                    INSERT INTO entry_temperature_models (row_id, formula, standard_entropy_j_per_mol_k, free_energy_anchor, free_energy_points)
+                    SELECT e.row_id, s.model_formula, s.standard_entropy_j_per_mol_k, s.free_energy_anchor, s.free_energy_points
+                    FROM {staging} AS s JOIN entries AS e ON e.dataset_id = $d AND e.entry_id = s.entry_id AND e.first_version = $v
+                    WHERE s.model_formula IS NOT NULL
+                    """);
+                models.With("$d", session.DatasetId).With("$v", newVersion).ExecuteNonQuery();
             }
 
             int count = checked((int)session.StagedCount);

@@ -55,6 +55,9 @@ public sealed partial class DatasetStore
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
             insert.Prepare();
 
+            using SqliteCommand insertModel = TemperatureModelColumns.InsertForLastEntry(connection, transaction);
+            var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insertModel);
+
             int inserted = 0, replaced = 0;
             for (int i = 0; i < batch.Length; i++)
             {
@@ -79,6 +82,11 @@ public sealed partial class DatasetStore
                 try
                 {
                     insert.ExecuteNonQuery();
+                    if (row.TemperatureModel is not null)
+                    {
+                        TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
+                        insertModel.ExecuteNonQuery();
+                    }
                 }
                 catch (SqliteException e) when (e.SqliteExtendedErrorCode == SqliteConstraintUnique && policy == DuplicatePolicy.Reject)
                 {

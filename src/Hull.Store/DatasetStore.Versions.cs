@@ -8,7 +8,9 @@ public sealed partial class DatasetStore
 {
     // The rows visible at version $k (see Schema).
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
-    private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata";
+    // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join}.
+    private const string EntryColumns =
+        "entries.entry_id, entries.formula, entries.energy_ev, entries.energy_basis, entries.metadata, " + TemperatureModelColumns.Select;
 
     /// <summary>
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
@@ -87,7 +89,7 @@ public sealed partial class DatasetStore
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion live = ResolveVersion(connection, transaction, dataset, version);
             using SqliteCommand command = connection.Command(transaction,
-                    $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND entry_id = $id AND {VisibleAtK}")
+                    $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = $d AND entry_id = $id AND {VisibleAtK}")
                 .With("$d", dataset.DatasetId).With("$id", entryId).With("$k", live.Version);
             using SqliteDataReader reader = command.ExecuteReader();
             return reader.Read() ? ReadEntry(reader) : null;
@@ -219,12 +221,13 @@ public sealed partial class DatasetStore
 
     /// <summary>The query for one version's rows in id order; parameters $d, $k, and $after / $limit when asked for.</summary>
     internal static string VisibleRowsSql(bool afterId, bool limit) =>
-        $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND {VisibleAtK}" +
-        (afterId ? " AND entry_id > $after" : string.Empty) + " ORDER BY entry_id" + (limit ? " LIMIT $limit" : string.Empty);
+        $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = $d AND {VisibleAtK}" +
+        (afterId ? " AND entry_id > $after" : string.Empty) + " ORDER BY entries.entry_id" + (limit ? " LIMIT $limit" : string.Empty);
 
     private static EntryRow ReadEntry(SqliteDataReader reader)
     {
-        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4));
+        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
+            TemperatureModelColumns.Read(reader, 5));
     }
 
     // Keeps a computed fingerprint with its version when no write is in progress; otherwise the next request computes

@@ -95,6 +95,6 @@ public sealed class ThermoCommandTests : IAsyncLifetime
         File.WriteAllText(mismatch, "entry_id,formula,standard_entropy_j_per_mol_k,source\nAg,Ag,42.55,x\nAg2O,AgO,57.8,x\n");
         var refused = await CliRun.RunAsync("thermo", "decompose", "ag", "Ag2O", "--pressure", "1", "--models", mismatch, "--server", Server);
         Assert.NotEqual(0, refused.ExitCode);
-        Assert.Contains("models[1].model_formula", refused.Err);
+        Assert.Contains("models[1].model.formula", refused.Err);
     }
 }

@@ -36,7 +36,7 @@ public sealed class ThermoServiceTests : IAsyncLifetime
     public async Task DisposeAsync() => await _server.DisposeAsync();
 
     private static ThermoSolidModel Entropy(string id, string formula, double s) =>
-        new() { EntryId = id, ModelFormula = formula, StandardEntropyJPerMolK = s, Source = "NBS Tables (1982)" };
+        new() { EntryId = id, Model = new SolidTemperatureModel { Formula = formula, StandardEntropyJPerMolK = s }, Source = "NBS Tables (1982)" };
 
     // NBS Tables (1982) S° in J/(mol K): Ag 42.55, Ag2O 121.3, Cu 33.15, CuO 42.63, Cu2O 93.14, O2 205.138 — from memory
     private static IEnumerable<ThermoSolidModel> Models() =>
@@ -105,6 +105,34 @@ public sealed class ThermoServiceTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task Stored_models_answer_when_the_request_gives_none_and_inline_ones_win()
+    {
+        Entry Modelled(Entry entry, double s)
+        {
+            entry.TemperatureModel = new SolidTemperatureModel { StandardEntropyJPerMolK = s };
+            return entry;
+        }
+
+        // NBS Tables (1982), as above — from memory
+        await Data.CreateWithAsync(C, "stored",
+            Modelled(Data.Formation("Ag", "Ag", 0), 42.55), Data.Formation("O", "O", 0),
+            Modelled(Data.Formation("Ag2O", "Ag2O", -31.05 / KilojoulesPerMolPerEv / 3), 121.3));
+        var request = new FindDecompositionTemperaturesRequest
+        {
+            Dataset = "stored", Phase = new CompoundRef { EntryId = "Ag2O" }, FromK = 300, ToK = 900, Gas = Oxygen(1.0), Treatment = ThermoTreatment.Ellingham,
+        };
+        FindDecompositionTemperaturesResponse stored = await Thermo.FindDecompositionTemperaturesAsync(request, C.Call());
+        Assert.Equal("stored", stored.ModelsFrom);
+        Assert.Equal(31050 / 66.369, Assert.Single(stored.Crossings).TemperatureK, 1e-6);
+
+        // An inline S° for Ag2O over the stored one: 31050 / (2 × 42.55 + ½ × 205.138 − 131.3) = 550.83 K, by hand
+        request.Models.Add(Entropy("Ag2O", "Ag2O", 131.3));
+        FindDecompositionTemperaturesResponse both = await Thermo.FindDecompositionTemperaturesAsync(request, C.Call());
+        Assert.Equal("request and stored", both.ModelsFrom);
+        Assert.Equal(31050 / 56.369, Assert.Single(both.Crossings).TemperatureK, 1e-6);
+    }
+
+    [Fact]
     public async Task The_gas_potential_converts_both_ways()
     {
         var request = new GetGasPotentialRequest
@@ -153,7 +181,7 @@ public sealed class ThermoServiceTests : IAsyncLifetime
         { "gas", "gas.gas" },
         { "pressure", "gas.pressure_bar" },
         { "temperature", "from_k" },
-        { "formula", "models[1].model_formula" },
+        { "formula", "models[1].model.formula" },
         { "unknown-entry", "models[0].entry_id" },
         { "no-element-model", "models" },
     };
@@ -173,7 +201,7 @@ public sealed class ThermoServiceTests : IAsyncLifetime
             case "gas": request.Gas.Gas = "Ar"; break;
             case "pressure": request.Gas.PressureBar = -1; break;
             case "temperature": request.FromK = 50; break;
-            case "formula": request.Models[1].ModelFormula = "AgO"; break;
+            case "formula": request.Models[1].Model.Formula = "AgO"; break;
             case "unknown-entry": request.Models[0].EntryId = "nope"; break;
             case "no-element-model": request.Models.RemoveAt(0); break;
         }

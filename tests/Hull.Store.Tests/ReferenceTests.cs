@@ -14,24 +14,13 @@ public sealed class ReferenceTests : IDisposable
     {
         // The documented layout written out by hand: prefix, then per row (id order) length-prefixed UTF-8 texts and
         // the energy's binary64 bits, little-endian.
-        var bytes = new List<byte>();
-        bytes.AddRange("hull.store.content.v1\n"u8.ToArray());
-        void Text(string s)
-        {
-            byte[] utf8 = Encoding.UTF8.GetBytes(s);
-            bytes.AddRange(BitConverter.GetBytes(utf8.Length)); // little-endian on every platform .NET runs here
-            bytes.AddRange(utf8);
-        }
-        Text("a");
-        Text("Fe3O4");
-        bytes.AddRange([0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0xF8, 0xBF]); // -1.5 = 0xBFF8000000000000 (IEEE 754 binary64)
-        Text("formation_per_atom");
-        Text("");
-        Text("b\U0001D518");
-        Text("O2");
-        bytes.AddRange([0, 0, 0, 0, 0, 0, 0, 0]); // -0.0 is written as +0.0
-        Text("total_per_atom");
-        Text("µ = −4.9 eV");
+        var bytes = new LayoutBytes()
+            .Text("a").Text("Fe3O4")
+            .Raw(0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0xF8, 0xBF) // -1.5 = 0xBFF8000000000000 (IEEE 754 binary64)
+            .Text("formation_per_atom").Text("")
+            .Text("b\U0001D518").Text("O2")
+            .Raw(0, 0, 0, 0, 0, 0, 0, 0) // -0.0 is written as +0.0
+            .Text("total_per_atom").Text("µ = −4.9 eV");
         string file = Path.Combine(_directory.Path, "layout.bin");
         File.WriteAllBytes(file, bytes.ToArray());
 

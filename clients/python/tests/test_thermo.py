@@ -100,4 +100,4 @@ def test_the_figure_and_refusals(client, demo, tmp_path):
     bad = [{"entry_id": CATHODE, "formula": "CoO2", "standard_entropy_j_per_mol_k": 50.0}]
     with pytest.raises(InvalidArgumentError) as caught:
         client.find_decomposition_temperatures(DEMO_DATASET, f"entry:{CATHODE}", 300, 1500, pressure_bar=0.21, models=bad)
-    assert [v.field for v in caught.value.field_violations] == ["models[0].model_formula"]
+    assert [v.field for v in caught.value.field_violations] == ["models[0].model.formula"]

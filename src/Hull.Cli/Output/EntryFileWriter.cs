@@ -25,6 +25,7 @@ public static class EntryFileWriter
                 json.WriteNumber(EntryFileLayout.EnergyEv, e.EnergyEv);
                 json.WriteString(EntryFileLayout.Basis, EntryFileLayout.TokenOf(e.Basis));
                 json.WriteString(EntryFileLayout.Note, e.Note);
+                if (e.TemperatureModel is { } model) WriteModel(json, model);
                 json.WriteEndObject();
             }
 
@@ -33,5 +34,31 @@ public static class EntryFileWriter
         }
 
         return Encoding.UTF8.GetString(buffer.ToArray());
+    }
+
+    private static void WriteModel(Utf8JsonWriter json, SolidTemperatureModel model)
+    {
+        if (model.KindCase == SolidTemperatureModel.KindOneofCase.StandardEntropyJPerMolK)
+        {
+            json.WriteNumber(EntryFileLayout.StandardEntropy, model.StandardEntropyJPerMolK);
+        }
+        else if (model.FreeEnergyTable is { } table)
+        {
+            json.WriteStartObject(EntryFileLayout.FreeEnergyTable);
+            json.WriteString(EntryFileLayout.Anchor, EntryFileLayout.TokenOf(table.Anchor));
+            json.WriteStartArray(EntryFileLayout.Points);
+            foreach (FreeEnergyPoint point in table.Points)
+            {
+                json.WriteStartObject();
+                json.WriteNumber(EntryFileLayout.TemperatureK, point.TemperatureK);
+                json.WriteNumber(EntryFileLayout.ThermalFreeEnergyEv, point.ThermalFreeEnergyEv);
+                json.WriteEndObject();
+            }
+
+            json.WriteEndArray();
+            json.WriteEndObject();
+        }
+
+        if (model.Formula.Length > 0) json.WriteString(EntryFileLayout.ModelFormula, model.Formula);
     }
 }

@@ -1,6 +1,7 @@
 using System.Collections.Concurrent;
 using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
+using Hull.Core.Thermo.Solids;
 using Hull.Server.Errors;
 using Hull.Server.Mapping;
 using Hull.Store;
@@ -18,11 +19,12 @@ public sealed class VersionSnapshot
     private readonly ChemicalSystemGrouping _systems;
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
 
-    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored)
+    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, SolidTemperatureModel?[] temperatureModels)
     {
         Version = version;
         Entries = entries;
         FormulasAsStored = formulasAsStored;
+        TemperatureModels = temperatureModels;
         _indexById = new Dictionary<string, int>(entries.Length, StringComparer.Ordinal);
         for (int i = 0; i < entries.Length; i++)
         {
@@ -44,6 +46,9 @@ public sealed class VersionSnapshot
     /// <summary>Each entry's formula exactly as imported (parallel to <see cref="Entries"/>).</summary>
     public IReadOnlyList<string> FormulasAsStored { get; }
 
+    /// <summary>Each entry's temperature model, null where it has none (parallel to <see cref="Entries"/>).</summary>
+    public IReadOnlyList<SolidTemperatureModel?> TemperatureModels { get; }
+
     /// <summary>Element lists of the systems contained in no other present system, ordered by name.</summary>
     public IReadOnlyList<IReadOnlyList<string>> MaximalSystems { get; }
 
@@ -54,6 +59,7 @@ public sealed class VersionSnapshot
         IReadOnlyList<EntryRow> rows = store.GetEntries(version.Dataset, version.Version);
         var entries = new PhaseEntry[rows.Count];
         var formulas = new string[rows.Count];
+        var models = new SolidTemperatureModel?[rows.Count];
         for (int i = 0; i < rows.Count; i++)
         {
             EntryRow row = rows[i];
@@ -66,10 +72,25 @@ public sealed class VersionSnapshot
 
             formulas[i] = row.Formula;
             entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.BasisOf(row));
+            if (row.TemperatureModel is { } stored)
+            {
+                try
+                {
+                    models[i] = TemperatureModelMapping.ToCore(row.Id, stored);
+                }
+                catch (InvalidDataException e)
+                {
+                    throw RpcErrors.FailedPrecondition($"dataset '{version.Dataset}' version {version.Version}: {e.Message}",
+                        ErrorReasons.DatasetNotAnalysable, $"entry:{row.Id}");
+                }
+            }
         }
 
-        return new VersionSnapshot(version, entries, formulas);
+        return new VersionSnapshot(version, entries, formulas, models);
     }
+
+    /// <summary>The temperature model of the entry with <paramref name="id"/>; null when it has none or the version has no such entry.</summary>
+    public SolidTemperatureModel? TemperatureModelOf(string id) => _indexById.TryGetValue(id, out int row) ? TemperatureModels[row] : null;
 
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>
     public bool TryFind(string id, out int row) => _indexById.TryGetValue(id, out row);

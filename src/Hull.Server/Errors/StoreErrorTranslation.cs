@@ -54,6 +54,7 @@ public static class StoreErrorTranslation
             nameof(EntryRow.EnergyEv) => "energy_ev",
             nameof(EntryRow.Basis) => "basis",
             nameof(EntryRow.Metadata) => "note",
+            nameof(EntryRow.TemperatureModel) => "temperature_model",
             _ => string.Empty,
         };
         return field.Length == 0 ? $"entries[{e.RowIndex}]" : $"entries[{e.RowIndex}].{field}";

@@ -64,66 +64,61 @@ public static class ThermoWireMapping
         }
     }
 
-    /// <summary>The request's inline models; every entry id must be in the version.</summary>
+    /// <summary>
+    /// The request's inline models, each checked through Core as a stored model is (<see cref="TemperatureModelMapping"/>):
+    /// a per-entry model against its entry's formula unit (the entry must be in the version), a per-formula model
+    /// against its formula.
+    /// </summary>
     public static TemperatureModelSet ModelsOf(IReadOnlyList<ThermoSolidModel> models, Func<string, Composition?> entryComposition)
     {
-        var byId = new List<KeyValuePair<string, SolidTemperatureModel>>();
-        var byFormula = new List<SolidTemperatureModel>();
+        var byId = new List<KeyValuePair<string, Core.Thermo.Solids.SolidTemperatureModel>>();
+        var byFormula = new List<Core.Thermo.Solids.SolidTemperatureModel>();
         for (int i = 0; i < models.Count; i++)
         {
             ThermoSolidModel wire = models[i];
             string field = $"models[{i}]";
-            string? formulaText = wire.ModelFormula.Length > 0 ? wire.ModelFormula
-                : wire.TargetCase == ThermoSolidModel.TargetOneofCase.Formula ? wire.Formula : null;
-            if (wire.TargetCase == ThermoSolidModel.TargetOneofCase.None)
+            if (wire.Model is null)
             {
-                throw RpcErrors.InvalidArgument(field, "a temperature model needs its target: an entry_id or a formula");
+                throw RpcErrors.InvalidArgument($"{field}.model", "no model given: a standard entropy or a free-energy table");
             }
 
-            if (wire.TargetCase == ThermoSolidModel.TargetOneofCase.EntryId && entryComposition(wire.EntryId) is null)
+            string target;
+            Composition composition;
+            Protos.V1.SolidTemperatureModel model = wire.Model;
+            switch (wire.TargetCase)
             {
-                throw RpcErrors.NotFound($"entry '{wire.EntryId}' of {field} is not in the version", $"{field}.entry_id");
-            }
-
-            if (formulaText is null)
-            {
-                throw RpcErrors.InvalidArgument($"{field}.model_formula",
-                    $"the model of entry '{wire.EntryId}' needs model_formula: the formula its numbers are per formula unit of");
-            }
-
-            if (!Composition.TryParse(formulaText, out Composition? formula, out FormulaParseException? parseError))
-            {
-                throw RpcErrors.InvalidArgument(wire.ModelFormula.Length > 0 ? $"{field}.model_formula" : $"{field}.formula", parseError.Message);
-            }
-
-            try
-            {
-                SolidTemperatureModel model = wire.ModelCase switch
-                {
-                    ThermoSolidModel.ModelOneofCase.StandardEntropyJPerMolK => new StandardEntropyModel(formula, wire.StandardEntropyJPerMolK, wire.Source),
-                    ThermoSolidModel.ModelOneofCase.FreeEnergyTable => new TabulatedFreeEnergyModel(formula,
-                        [.. wire.FreeEnergyTable.Rows.Select(r => new FreeEnergyPoint(r.TemperatureK, r.FreeEnergyAboveAnchorEv))], wire.Source),
-                    _ => throw RpcErrors.InvalidArgument(field, "a temperature model needs a standard_entropy_j_per_mol_k or a free_energy_table"),
-                };
-                if (wire.TargetCase == ThermoSolidModel.TargetOneofCase.EntryId)
-                {
-                    if (!entryComposition(wire.EntryId)!.HasSameProportions(formula))
+                case ThermoSolidModel.TargetOneofCase.EntryId:
+                    target = wire.EntryId;
+                    composition = entryComposition(wire.EntryId)
+                        ?? throw RpcErrors.NotFound($"entry '{wire.EntryId}' of {field} is not in the version", $"{field}.entry_id");
+                    break;
+                case ThermoSolidModel.TargetOneofCase.Formula:
+                    if (!Composition.TryParse(wire.Formula, out Composition? parsed, out FormulaParseException? error))
                     {
-                        throw RpcErrors.InvalidArgument($"{field}.model_formula",
-                            $"entry '{wire.EntryId}' is {entryComposition(wire.EntryId)!.Formula}, but its model is for {formula.Formula}");
+                        throw RpcErrors.InvalidArgument($"{field}.formula", error.Message);
                     }
 
-                    byId.Add(KeyValuePair.Create(wire.EntryId, model));
-                }
-                else
-                {
-                    byFormula.Add(model);
-                }
+                    target = $"formula {parsed.Formula}";
+                    composition = parsed;
+                    if (model.Formula.Length == 0)
+                    {
+                        model = model.Clone();
+                        model.Formula = wire.Formula;
+                    }
+
+                    break;
+                default:
+                    throw RpcErrors.InvalidArgument(field, "a temperature model needs its target: an entry_id or a formula");
             }
-            catch (Core.Thermo.ThermoInputException e)
+
+            if (!TemperatureModelMapping.TryFromWire(model, target, composition, out Store.StoredTemperatureModel? stored, out (string Field, string Problem) fault))
             {
-                throw RpcErrors.InvalidArgument(field, e.Message);
+                throw RpcErrors.InvalidArgument(fault.Field.Length == 0 ? $"{field}.model" : $"{field}.model.{fault.Field}", fault.Problem);
             }
+
+            Core.Thermo.Solids.SolidTemperatureModel core = TemperatureModelMapping.ToCore(target, stored!);
+            if (wire.TargetCase == ThermoSolidModel.TargetOneofCase.EntryId) byId.Add(KeyValuePair.Create(wire.EntryId, core));
+            else byFormula.Add(core);
         }
 
         try

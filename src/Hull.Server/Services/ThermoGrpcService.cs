@@ -125,7 +125,7 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
             EnergyAboveHullEvPerClosedAtom = e.EnergyAboveHullEvPerAtom,
             IsHullVertex = e.IsHullVertex,
             Decomposition = WireMapping.ToWire(e.Decomposition),
-            Model = models.For(e.Entry)?.Describe() ?? string.Empty,
+            Model = models.For(e.Entry) is { } model ? SolidFreeEnergy.Describe(model, e.Composition) : string.Empty,
         }));
         response.StablePhaseIds.AddRange(hull.Hull.StablePhases.Select(p => p.Id));
         response.ReservoirEntryIds.AddRange(hull.ReservoirEntryIds);
@@ -219,8 +219,12 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
         return (inline.Over(stored), from);
     }
 
-    /// <summary>The temperature models stored with the version's entries (none until entries carry them).</summary>
-    private static TemperatureModelSet StoredModels(VersionSnapshot snapshot) => TemperatureModelSet.None;
+    /// <summary>The temperature models stored with the version's entries, by entry id.</summary>
+    private static TemperatureModelSet StoredModels(VersionSnapshot snapshot) => new(
+        snapshot.Entries.Select((e, row) => (e.Id, Model: snapshot.TemperatureModels[row]))
+            .Where(p => p.Model is not null)
+            .Select(p => KeyValuePair.Create(p.Id, p.Model!)),
+        []);
 
     private static T Answer<T>(Func<T> call, string field) => Answer(call, _ => field);
 

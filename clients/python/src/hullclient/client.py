@@ -284,10 +284,12 @@ class HullClient:
 
     @_calls("DatasetService", "ImportEntries")
     def import_entries(self, dataset: str, entries, *, on_duplicate: str = "reject", source_label: str = "",
-                       note: str = "") -> r.ImportResult:
+                       note: str = "", free_energy_tables=None) -> r.ImportResult:
         """One batch (a DataFrame or an entry file) in one call, as one new version. For large tables use
-        import_table, which sends many batches and still makes one version."""
-        prepared = entry_input.prepare(entries)
+        import_table, which sends many batches and still makes one version. Temperature models come in the entry
+        columns (standard_entropy_j_per_mol_k, temperature_model_formula, free_energy_table) or, for G(T) tables,
+        as `free_energy_tables` (a frame or table CSV: entry_id, anchor, temperature_k, thermal_free_energy_ev)."""
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         request = wire.datasets_pb2.ImportEntriesRequest(dataset=dataset, entries=prepared.entries,
                                                     duplicate_policy=self._policy(on_duplicate),
                                                     source_label=source_label or self._label(entries), note=note)
@@ -307,9 +309,9 @@ class HullClient:
         return r.import_session(reply)
 
     @_calls("DatasetService", "StageEntries")
-    def stage_entries(self, session_id: str, entries) -> r.ImportSession:
-        """Adds one batch to an open session, all or nothing."""
-        prepared = entry_input.prepare(entries)
+    def stage_entries(self, session_id: str, entries, *, free_energy_tables=None) -> r.ImportSession:
+        """Adds one batch to an open session, all or nothing (temperature models as for import_entries)."""
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         try:
             reply = self._call(self._datasets.StageEntries, self.stage_entries.hull_rpc,
                                wire.datasets_pb2.StageEntriesRequest(session_id=session_id, entries=prepared.entries))
@@ -331,8 +333,9 @@ class HullClient:
 
     @_calls("DatasetService", "ExportEntries")
     def export_entries(self, dataset: str, version: int = 0, page_size: int = 0) -> pd.DataFrame:
-        """Every entry of a version in id order, with the file columns (id, formula, energy_ev, basis, note); the
-        frame imports again unchanged. attrs['version'] is the version read."""
+        """Every entry of a version in id order, with the file columns (id, formula, energy_ev, basis, note, and
+        standard_entropy_j_per_mol_k, temperature_model_formula, free_energy_table when some entry has a temperature
+        model); the frame imports again unchanged. attrs['version'] is the version read."""
         rows, version_read = [], 0
         for message in self._stream(self._datasets.ExportEntries, self.export_entries.hull_rpc,
                                     wire.datasets_pb2.ExportEntriesRequest(dataset=dataset, version=version, page_size=page_size)):
@@ -361,15 +364,15 @@ class HullClient:
 
     def import_table(self, dataset: str, entries, *, on_duplicate: str = "reject", create: bool = False,
                      batch_size: int = DEFAULT_BATCH_SIZE, source_label: str = "", note: str = "",
-                     progress: Optional[Callable[[int, int], None]] = None) -> r.ImportResult:
+                     progress: Optional[Callable[[int, int], None]] = None, free_energy_tables=None) -> r.ImportResult:
         """Imports a DataFrame or an entry file (CSV/JSON) as ONE new version, in batches of `batch_size` rows
         through an import session: every row is checked here first, then each batch by the server; a refused row,
         an exception or Ctrl+C cancels the session and nothing is written. `progress(staged, total)` is called
         after each batch. A refused row is named by its DataFrame index label or file line (HullError.rows).
-        With create=True a missing dataset is created first."""
+        With create=True a missing dataset is created first. Temperature models as for import_entries."""
         if not (isinstance(batch_size, int) and batch_size > 0):
             raise ValueError(f"batch_size must be a positive integer, not {batch_size!r}")
-        prepared = entry_input.prepare(entries)
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         if len(prepared) == 0:
             raise EntryInputError(self._label(entries) or "entries", "no entries to import")
         first_row = {}

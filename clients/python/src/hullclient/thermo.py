@@ -3,8 +3,8 @@
 Gas potentials are a frozen dataclass; the hull at (T, p) is a DataFrame of entries on the grand-free-energy axis
 (eV per closed-element atom); decomposition temperatures are a dataclass holding the crossings as a DataFrame.
 Temperature models go with each request (`models`: a CSV path in the CLI's layout, a DataFrame or dicts with
-entry_id / formula / standard_entropy_j_per_mol_k / free_energy_table [(T, G − H) ...] / source). Every number
-is the server's.
+entry_id / formula / standard_entropy_j_per_mol_k, or free_energy_table [(T, G − E) ...] with its anchor
+("computed_0k" or "fitted_298k") / source), over the models stored with the entries. Every number is the server's.
 
 Caution: released oxygen and hot oxides or cathodes are a fire hazard. These are thermodynamic estimates from
 computed energies; real thermal and thermal-runaway safety work follows local rules and licensed practice.
@@ -27,6 +27,8 @@ CROSSING_COLUMNS = ("temperature_k", "direction", "bracket_low_k", "bracket_high
                     "reaction", "products", "gas_released_molecules_per_formula_unit")
 _TREATMENTS = {"tabulated": 2, "ellingham": 1}
 _DIRECTIONS = {1: "decomposes above", 2: "forms above"}
+# The anchor tokens of an entry's free-energy table (the store's and the CLI's spelling).
+_ANCHORS = {"computed_0k": 1, "fitted_298k": 2}
 
 
 @dataclass(frozen=True)
@@ -145,7 +147,8 @@ def models(given) -> list:
     for row in rows:
         entry_id = str(row.get("entry_id") or "")
         formula = str(row.get("formula") or "")
-        message = wire.thermo_pb2.ThermoSolidModel(model_formula=formula, source=str(row.get("source") or ""))
+        message = wire.thermo_pb2.ThermoSolidModel(source=str(row.get("source") or ""))
+        message.model.formula = formula
         if entry_id:
             message.entry_id = entry_id
         else:
@@ -153,10 +156,14 @@ def models(given) -> list:
         table = row.get("free_energy_table")
         entropy = row.get("standard_entropy_j_per_mol_k")
         if table is not None and len(table) > 0:
-            message.free_energy_table.rows.extend(
-                wire.thermo_pb2.ThermoFreeEnergyRow(temperature_k=float(t), free_energy_above_anchor_ev=float(g)) for t, g in table)
+            anchor = str(row.get("anchor") or "")
+            if anchor not in _ANCHORS:
+                raise ValueError(f"a free_energy_table needs its anchor: one of {', '.join(_ANCHORS)}; got {anchor!r}")
+            message.model.free_energy_table.anchor = _ANCHORS[anchor]
+            message.model.free_energy_table.points.extend(
+                wire.entries_pb2.FreeEnergyPoint(temperature_k=float(t), thermal_free_energy_ev=float(g)) for t, g in table)
         elif entropy is not None and not (isinstance(entropy, float) and math.isnan(entropy)):
-            message.standard_entropy_j_per_mol_k = float(entropy)
+            message.model.standard_entropy_j_per_mol_k = float(entropy)
         result.append(message)
     return result
 
