@@ -61,7 +61,7 @@ public sealed class VersionSnapshot
 
     /// <summary>Reads and parses every entry of <paramref name="version"/>.</summary>
     /// <exception cref="Grpc.Core.RpcException">FAILED_PRECONDITION when a stored row cannot be read as an entry.</exception>
-    public static VersionSnapshot Load(DatasetStore store, VersionRef version)
+    public static VersionSnapshot Load(IDatasetStore store, VersionRef version)
     {
         IReadOnlyList<EntryRow> rows = store.GetEntries(version.Dataset, version.Version);
         var entries = new PhaseEntry[rows.Count];
