@@ -38,7 +38,7 @@ catch (Exception e) when (e is IOException or UnauthorizedAccessException)
     return e is UnauthorizedAccessException ? 3 : 4;
 }
 
-Console.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.Store.DataDirectory})");
+Console.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.StoreLocation})");
 Console.Out.Flush();
 await server.WaitForShutdownAsync();
 await server.StopAsync();

@@ -6,8 +6,8 @@ namespace Hull.Store;
 // Defect studies: immutable versions of a study file, kept as given beside a dataset.
 public sealed partial class DatasetStore
 {
-    /// <summary>Longest study name accepted; names are labels, not documents.</summary>
-    public const int MaxStudyNameLength = 200;
+    /// <summary>As <see cref="IDatasetStore.MaxStudyNameLength"/>.</summary>
+    public const int MaxStudyNameLength = IDatasetStore.MaxStudyNameLength;
 
     /// <summary>
     /// Writes the study file's texts as a new version of <paramref name="studyName"/> in the dataset (1 for a new

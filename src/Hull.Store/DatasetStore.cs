@@ -8,17 +8,16 @@ namespace Hull.Store;
 /// Thread-safe: each operation takes its own pooled connection; reads run concurrently on consistent snapshots,
 /// writes go one at a time. Every import creates a new immutable version; older versions read the same forever.
 /// </summary>
-public sealed partial class DatasetStore : IDisposable
+public sealed partial class DatasetStore : IDatasetStore
 {
     /// <summary>Name of the database file inside the data directory.</summary>
     public const string DatabaseFileName = "hull-store.sqlite3";
 
-    /// <summary>What <see cref="GetLatestVersion"/> and summaries report for a dataset without any live version.</summary>
-    public const long NoVersion = 0;
+    /// <summary>As <see cref="IDatasetStore.NoVersion"/> (kept here for callers that name the SQLite store).</summary>
+    public const long NoVersion = IDatasetStore.NoVersion;
 
-    /// <summary>Largest page <see cref="GetEntries(string, long?, string?, int)"/> returns: bounds one call's memory
-    /// (a few MB) while keeping the per-page overhead small next to the rows.</summary>
-    public const int MaxPageSize = 10_000;
+    /// <summary>As <see cref="IDatasetStore.MaxPageSize"/>.</summary>
+    public const int MaxPageSize = IDatasetStore.MaxPageSize;
 
     // A health probe waits this long for an import in progress to finish; longer means the store is not answering.
     private static readonly TimeSpan HealthWriteWait = TimeSpan.FromSeconds(10);
@@ -44,6 +43,9 @@ public sealed partial class DatasetStore : IDisposable
 
     /// <summary>The absolute data directory the store lives in.</summary>
     public string DataDirectory { get; }
+
+    /// <summary>The data directory: where an SQLite store lives.</summary>
+    public string Location => DataDirectory;
 
     /// <summary>The absolute path of the database file.</summary>
     public string DatabasePath => _connections.DatabasePath;

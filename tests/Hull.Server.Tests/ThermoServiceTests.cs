@@ -36,7 +36,7 @@ public sealed class ThermoServiceTests : IAsyncLifetime
     public async Task DisposeAsync() => await _server.DisposeAsync();
 
     private static ThermoSolidModel Entropy(string id, string formula, double s) =>
-        new() { EntryId = id, Model = new SolidTemperatureModel { Formula = formula, StandardEntropyJPerMolK = s }, Source = "NBS Tables (1982)" };
+        new() { EntryId = id, Model = new EntryTemperatureModel { Formula = formula, StandardEntropyJPerMolK = s }, Source = "NBS Tables (1982)" };
 
     // NBS Tables (1982) S° in J/(mol K): Ag 42.55, Ag2O 121.3, Cu 33.15, CuO 42.63, Cu2O 93.14, O2 205.138 — from memory
     private static IEnumerable<ThermoSolidModel> Models() =>
@@ -109,7 +109,7 @@ public sealed class ThermoServiceTests : IAsyncLifetime
     {
         Entry Modelled(Entry entry, double s)
         {
-            entry.TemperatureModel = new SolidTemperatureModel { StandardEntropyJPerMolK = s };
+            entry.TemperatureModel = new EntryTemperatureModel { StandardEntropyJPerMolK = s };
             return entry;
         }
 

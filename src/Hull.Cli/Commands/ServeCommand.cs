@@ -66,7 +66,7 @@ public static class ServeCommand
 
             await using (server)
             {
-                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.DataDirectory})");
+                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.StoreLocation})");
                 output.Flush();
                 try
                 {

@@ -9,7 +9,7 @@ namespace Hull.Cli.Input;
 /// <c>entry_id,formula,standard_entropy_j_per_mol_k,source</c>: a row with an entry id is that entry's model (the
 /// formula is the formula unit S° is per, and must be the entry's: the server checks it); a row without one applies
 /// to every entry of that formula. JSON: <c>{"models": [{"entryId": ..., "model": {...}}]}</c> in the wire's JSON
-/// names (ThermoSolidModel, whose model is an entry's SolidTemperatureModel), which also holds free-energy tables.
+/// names (ThermoSolidModel, whose model is an entry's EntryTemperatureModel), which also holds free-energy tables.
 /// </summary>
 public static class ThermoModelFile
 {
@@ -79,7 +79,7 @@ public static class ThermoModelFile
                 throw new InputFileException(path, i + 1, $"standard_entropy_j_per_mol_k '{cells[2]}' is not a number");
             }
 
-            var model = new ThermoSolidModel { Model = new SolidTemperatureModel { Formula = cells[1], StandardEntropyJPerMolK = entropy }, Source = cells[3] };
+            var model = new ThermoSolidModel { Model = new EntryTemperatureModel { Formula = cells[1], StandardEntropyJPerMolK = entropy }, Source = cells[3] };
             if (cells[0].Length > 0) model.EntryId = cells[0];
             else model.Formula = cells[1];
             models.Add(model);

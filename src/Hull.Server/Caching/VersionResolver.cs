@@ -9,7 +9,7 @@ namespace Hull.Server.Caching;
 /// never changes, so its fingerprint is remembered; deleting a dataset or version through this server forgets
 /// the dataset's fingerprints, so a dataset recreated under the same name is never confused with the old one.
 /// </summary>
-public sealed class VersionResolver(DatasetStore store)
+public sealed class VersionResolver(IDatasetStore store)
 {
     /// <summary>Fingerprints remembered before the memory is cleared; each is about 200 bytes.</summary>
     private const int MaxRemembered = 100_000;
@@ -28,7 +28,7 @@ public sealed class VersionResolver(DatasetStore store)
         if (version == 0)
         {
             version = store.GetLatestVersion(dataset);
-            if (version == DatasetStore.NoVersion)
+            if (version == IDatasetStore.NoVersion)
             {
                 throw RpcErrors.VersionNotFound(dataset, null, $"dataset '{dataset}' has no version yet; import entries first");
             }

@@ -25,10 +25,10 @@ namespace Hull.Server.Hosting;
 public sealed class HullServer : IAsyncDisposable
 {
     private readonly WebApplication _app;
-    private readonly DatasetStore _store;
+    private readonly IDatasetStore _store;
     private int _stopped;
 
-    private HullServer(WebApplication app, DatasetStore store, Uri address)
+    private HullServer(WebApplication app, IDatasetStore store, Uri address)
     {
         _app = app;
         _store = store;
@@ -41,8 +41,8 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>The port actually bound (useful with port 0).</summary>
     public int Port => Address.Port;
 
-    /// <summary>The store's directory.</summary>
-    public string DataDirectory => _store.DataDirectory;
+    /// <summary>Where the store keeps its data (see <see cref="IDatasetStore.Location"/>).</summary>
+    public string StoreLocation => _store.Location;
 
     /// <summary>
     /// Whether a failure of <see cref="StartAsync"/> means the store cannot be opened, so that a host (such as the
@@ -51,7 +51,7 @@ public sealed class HullServer : IAsyncDisposable
     public static bool IsStoreFailure(Exception error) => error is StoreException;
 
     /// <summary>The store the server runs on (for in-process callers such as tests).</summary>
-    public DatasetStore Store => _store;
+    public IDatasetStore Store => _store;
 
     /// <summary>The hull cache (for in-process callers such as tests).</summary>
     public HullCache Cache => _app.Services.GetRequiredService<HullCache>();
@@ -64,7 +64,7 @@ public sealed class HullServer : IAsyncDisposable
     {
         ArgumentNullException.ThrowIfNull(options);
         X509Certificate2? certificate = LoadCertificate(options);
-        DatasetStore store = DatasetStore.Open(options.DataDirectory);
+        IDatasetStore store = DatasetStore.Open(options.DataDirectory);
         try
         {
             WebApplication app = Build(options, store, certificate);
@@ -100,7 +100,7 @@ public sealed class HullServer : IAsyncDisposable
 
     public async ValueTask DisposeAsync() => await StopAsync();
 
-    private static WebApplication Build(HullServerOptions options, DatasetStore store, X509Certificate2? certificate)
+    private static WebApplication Build(HullServerOptions options, IDatasetStore store, X509Certificate2? certificate)
     {
         WebApplicationBuilder builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions
         {

@@ -4,7 +4,7 @@ using Microsoft.Extensions.Diagnostics.HealthChecks;
 namespace Hull.Server.Hosting;
 
 /// <summary>Healthy only when the store can read and write its database right now.</summary>
-public sealed class StoreHealthCheck(DatasetStore store) : IHealthCheck
+public sealed class StoreHealthCheck(IDatasetStore store) : IHealthCheck
 {
     public async Task<HealthCheckResult> CheckHealthAsync(HealthCheckContext context, CancellationToken cancellationToken = default)
     {

@@ -69,7 +69,9 @@ public static class ThermoWireMapping
     /// a per-entry model against its entry's formula unit (the entry must be in the version), a per-formula model
     /// against its formula.
     /// </summary>
-    public static TemperatureModelSet ModelsOf(IReadOnlyList<ThermoSolidModel> models, Func<string, Composition?> entryComposition)
+    /// <remarks>A table on another anchor than <paramref name="gasMode"/> (when a gas is open) is refused naming the model.</remarks>
+    public static TemperatureModelSet ModelsOf(IReadOnlyList<ThermoSolidModel> models, Func<string, Composition?> entryComposition,
+        Core.Thermo.Gases.GasReferenceMode? gasMode)
     {
         var byId = new List<KeyValuePair<string, Core.Thermo.Solids.SolidTemperatureModel>>();
         var byFormula = new List<Core.Thermo.Solids.SolidTemperatureModel>();
@@ -84,7 +86,7 @@ public static class ThermoWireMapping
 
             string target;
             Composition composition;
-            Protos.V1.SolidTemperatureModel model = wire.Model;
+            EntryTemperatureModel model = wire.Model;
             switch (wire.TargetCase)
             {
                 case ThermoSolidModel.TargetOneofCase.EntryId:
@@ -116,7 +118,20 @@ public static class ThermoWireMapping
                 throw RpcErrors.InvalidArgument(fault.Field.Length == 0 ? $"{field}.model" : $"{field}.model.{fault.Field}", fault.Problem);
             }
 
-            Core.Thermo.Solids.SolidTemperatureModel core = TemperatureModelMapping.ToCore(target, stored!);
+            AnchoredSolidModel anchored = TemperatureModelMapping.ToCore(target, composition, stored!);
+            if (gasMode is { } mode)
+            {
+                try
+                {
+                    anchored.RequireAnchorFor(mode, target);
+                }
+                catch (Core.Thermo.ThermoInputException e)
+                {
+                    throw RpcErrors.InvalidArgument($"{field}.model.free_energy_table.anchor", e.Message);
+                }
+            }
+
+            Core.Thermo.Solids.SolidTemperatureModel core = anchored.Model;
             if (wire.TargetCase == ThermoSolidModel.TargetOneofCase.EntryId) byId.Add(KeyValuePair.Create(wire.EntryId, core));
             else byFormula.Add(core);
         }

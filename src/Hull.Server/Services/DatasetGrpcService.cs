@@ -11,7 +11,7 @@ namespace Hull.Server.Services;
 
 /// <summary>The dataset service: checks each request, then delegates to the store.</summary>
 public sealed class DatasetGrpcService(
-    DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
+    IDatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
     : DatasetService.DatasetServiceBase
 {
     private const string DatasetsList = "datasets";
@@ -103,7 +103,7 @@ public sealed class DatasetGrpcService(
         long latest = store.GetLatestVersion(dataset);
         ReferenceLedger ledger = await LedgerAsync(dataset, latest, cancellation);
         (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
-            rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest, cancellation)).Entries,
+            rows, policy, ledger, async () => latest == IDatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest, cancellation)).Entries,
             rowsField, rowIndexes);
         if (violations.Count > 0)
         {
@@ -116,7 +116,7 @@ public sealed class DatasetGrpcService(
     /// <summary>The reference ledger of <paramref name="version"/> (empty for none), remembered or read once.</summary>
     private async Task<ReferenceLedger> LedgerAsync(string dataset, long version, CancellationToken cancellation)
     {
-        if (version == DatasetStore.NoVersion) return ReferenceLedger.Empty;
+        if (version == IDatasetStore.NoVersion) return ReferenceLedger.Empty;
         if (imports.TryGetLedger(dataset, version, out ReferenceLedger known)) return known;
         ReferenceLedger ledger = ReferenceLedger.Of((await SnapshotAsync(dataset, version, cancellation)).Entries);
         imports.Remember(dataset, version, ledger);
@@ -269,9 +269,9 @@ public sealed class DatasetGrpcService(
     internal static int PageSize(int requested, string field)
     {
         if (requested == 0) return DefaultPageSize;
-        if (requested < 0 || requested > DatasetStore.MaxPageSize)
+        if (requested < 0 || requested > IDatasetStore.MaxPageSize)
         {
-            throw RpcErrors.InvalidArgument(field, $"page size {requested} is outside 1..{DatasetStore.MaxPageSize} (0 = {DefaultPageSize})");
+            throw RpcErrors.InvalidArgument(field, $"page size {requested} is outside 1..{IDatasetStore.MaxPageSize} (0 = {DefaultPageSize})");
         }
 
         return requested;

@@ -115,7 +115,7 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
         if (hull.GasShift is { } shift) response.Gas = ThermoWireMapping.ToWire(shift, ThermoWireMapping.GasReferenceEntryId(system));
         response.Components.AddRange(hull.Hull.Components);
         response.References.AddRange(hull.References.Select(ThermoWireMapping.ToWire));
-        var models = ModelSet(snapshot, request.Models).Models;
+        var models = ModelSet(snapshot, request.Models, gas, closed.Hull.Components).Models;
         response.Entries.AddRange(hull.Hull.Entries.Select(e => new ThermoHullEntry
         {
             EntryId = e.Id,
@@ -125,7 +125,7 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
             EnergyAboveHullEvPerClosedAtom = e.EnergyAboveHullEvPerAtom,
             IsHullVertex = e.IsHullVertex,
             Decomposition = WireMapping.ToWire(e.Decomposition),
-            Model = models.For(e.Entry) is { } model ? SolidFreeEnergy.Describe(model, e.Composition) : string.Empty,
+            Model = models.For(e.Entry)?.Describe() ?? string.Empty,
         }));
         response.StablePhaseIds.AddRange(hull.Hull.StablePhases.Select(p => p.Id));
         response.ReservoirEntryIds.AddRange(hull.ReservoirEntryIds);
@@ -197,7 +197,7 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
     private (ThermoSystem System, string ModelsFrom) Prepare(VersionSnapshot snapshot, SystemHull closed,
         IReadOnlyList<ThermoSolidModel> wireModels, ThermoTreatment treatment, ThermoGas? gas)
     {
-        (TemperatureModelSet models, string from) = ModelSet(snapshot, wireModels);
+        (TemperatureModelSet models, string from) = ModelSet(snapshot, wireModels, gas, closed.Components);
         FreeEnergyTreatment core = ThermoWireMapping.FromWire(treatment);
         ThermoSystem system = Answer(() => ThermoSystem.Prepare(closed, models, core, gas), e =>
             e.Message.Contains("gas", StringComparison.OrdinalIgnoreCase) && e.EntryId is null && !e.Message.Contains("pure entry", StringComparison.Ordinal) ? "gas.gas" : "models");
@@ -205,10 +205,12 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
     }
 
     /// <summary>The request's models over the stored ones, and where they came from.</summary>
-    private static (TemperatureModelSet Models, string From) ModelSet(VersionSnapshot snapshot, IReadOnlyList<ThermoSolidModel> wireModels)
+    private static (TemperatureModelSet Models, string From) ModelSet(VersionSnapshot snapshot, IReadOnlyList<ThermoSolidModel> wireModels, ThermoGas? gas,
+        IReadOnlyList<string> system)
     {
-        TemperatureModelSet inline = ThermoWireMapping.ModelsOf(wireModels, id => snapshot.TryFind(id, out int row) ? snapshot.Entries[row].Composition : null);
-        TemperatureModelSet stored = StoredModels(snapshot);
+        TemperatureModelSet inline = ThermoWireMapping.ModelsOf(wireModels,
+            id => snapshot.TryFind(id, out int row) ? snapshot.Entries[row].Composition : null, gas?.Mode);
+        TemperatureModelSet stored = snapshot.StoredModelSet;
         string from = (inline.Count > 0, stored.Count > 0) switch
         {
             (true, true) => "request and stored",
@@ -216,15 +218,28 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
             (false, true) => "stored",
             _ => "none",
         };
-        return (inline.Over(stored), from);
-    }
+        TemperatureModelSet models = inline.Over(stored);
+        if (gas is not null)
+        {
+            // A stored table counted on the other zero than the gas reference would shift every reaction it enters.
+            for (int row = 0; row < snapshot.Entries.Count; row++)
+            {
+                if (snapshot.TemperatureModels[row] is not { } anchored) continue;
+                PhaseEntry entry = snapshot.Entries[row];
+                if (!entry.Composition.Elements.All(system.Contains) || !ReferenceEquals(models.For(entry), anchored.Model)) continue;
+                try
+                {
+                    anchored.RequireAnchorFor(gas.Mode, entry.Id);
+                }
+                catch (ThermoInputException e)
+                {
+                    throw RpcErrors.InvalidArgument("gas.reference", e.Message);
+                }
+            }
+        }
 
-    /// <summary>The temperature models stored with the version's entries, by entry id.</summary>
-    private static TemperatureModelSet StoredModels(VersionSnapshot snapshot) => new(
-        snapshot.Entries.Select((e, row) => (e.Id, Model: snapshot.TemperatureModels[row]))
-            .Where(p => p.Model is not null)
-            .Select(p => KeyValuePair.Create(p.Id, p.Model!)),
-        []);
+        return (models, from);
+    }
 
     private static T Answer<T>(Func<T> call, string field) => Answer(call, _ => field);
 

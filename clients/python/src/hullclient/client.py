@@ -5,6 +5,7 @@ test holds that list against the services declared in protos/hull/v1, so a call 
 Python method fails the tests.
 """
 
+import copy
 import os
 import re
 import ssl
@@ -139,7 +140,8 @@ class HullClient:
     token:    bearer token sent with every call (write calls need it when the server has one); default $HULL_TOKEN.
     ca_file:  PEM certificates trusted for an https:// server besides the system's (a private authority or the
               server's self-signed certificate); the server's name is still checked; default $HULL_CA_FILE.
-    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls.
+    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls,
+              and `with_timeout(seconds)` gives a view with its own deadline for one call or a few.
     warn_coverage: emit CoverageWarning / SystemProblemWarning where the CLI prints its warnings.
 
     Use as a context manager, or call close().
@@ -185,7 +187,21 @@ class HullClient:
     # --- plumbing -----------------------------------------------------------------------------------------------
 
     def close(self):
-        self._channel.close()
+        # A view made by with_timeout shares its parent's connection: only the parent closes it.
+        if not getattr(self, "_shares_channel", False):
+            self._channel.close()
+
+    def with_timeout(self, seconds: float) -> "HullClient":
+        """This client with another deadline (seconds), sharing the connection: `hull.with_timeout(5).stable_phases(...)`.
+
+        The original keeps its own `timeout`; closing the view leaves the connection open.
+        """
+        if not (isinstance(seconds, (int, float)) and not isinstance(seconds, bool) and seconds > 0):
+            raise ValueError(f"timeout must be a positive number of seconds, not {seconds!r}")
+        view = copy.copy(self)
+        view.timeout = float(seconds)
+        view._shares_channel = True
+        return view
 
     def __enter__(self):
         return self

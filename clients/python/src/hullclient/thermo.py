@@ -3,7 +3,7 @@
 Gas potentials are a frozen dataclass; the hull at (T, p) is a DataFrame of entries on the grand-free-energy axis
 (eV per closed-element atom); decomposition temperatures are a dataclass holding the crossings as a DataFrame.
 Temperature models go with each request (`models`: a CSV path in the CLI's layout, a DataFrame or dicts with
-entry_id / formula / standard_entropy_j_per_mol_k, or free_energy_table [(T, G − E) ...] with its anchor
+entry_id / formula / standard_entropy_j_per_mol_k, or free_energy_table [(T, G − H(anchor)) ...] with its anchor
 ("computed_0k" or "fitted_298k") / source), over the models stored with the entries. Every number is the server's.
 
 Caution: released oxygen and hot oxides or cathodes are a fire hazard. These are thermodynamic estimates from
@@ -160,8 +160,8 @@ def models(given) -> list:
             if anchor not in _ANCHORS:
                 raise ValueError(f"a free_energy_table needs its anchor: one of {', '.join(_ANCHORS)}; got {anchor!r}")
             message.model.free_energy_table.anchor = _ANCHORS[anchor]
-            message.model.free_energy_table.points.extend(
-                wire.entries_pb2.FreeEnergyPoint(temperature_k=float(t), thermal_free_energy_ev=float(g)) for t, g in table)
+            message.model.free_energy_table.rows.extend(
+                wire.entries_pb2.EntryFreeEnergyRow(temperature_k=float(t), free_energy_above_anchor_ev=float(g)) for t, g in table)
         elif entropy is not None and not (isinstance(entropy, float) and math.isnan(entropy)):
             message.model.standard_entropy_j_per_mol_k = float(entropy)
         result.append(message)

@@ -3,16 +3,15 @@ using Hull.Core.Chemistry;
 namespace Hull.Core.Thermo.Solids;
 
 /// <summary>
-/// Temperature models of a set of entries: per entry id (checked against the entry's formula unit), and per reduced
-/// formula for every entry of that composition without a model of its own (an id's model wins; the shared model's
-/// values are per formula unit of its own formula). Immutable.
+/// Temperature models of a set of entries: per entry id, and per reduced formula for every entry of that composition
+/// without a model of its own (an id's model wins). Immutable.
 /// </summary>
 public sealed class TemperatureModelSet
 {
     private readonly Dictionary<string, SolidTemperatureModel> _byId;
     private readonly Dictionary<Composition, SolidTemperatureModel> _byReducedFormula;
 
-    /// <exception cref="ThermoInputException">An id or a reduced formula given twice, an empty id, or a shared model without its formula.</exception>
+    /// <exception cref="ThermoInputException">An id or a reduced formula given twice, or an empty id.</exception>
     public TemperatureModelSet(
         IEnumerable<KeyValuePair<string, SolidTemperatureModel>> byEntryId,
         IEnumerable<SolidTemperatureModel> byFormula)
@@ -38,17 +37,18 @@ public sealed class TemperatureModelSet
         foreach (SolidTemperatureModel model in byFormula)
         {
             ArgumentNullException.ThrowIfNull(model);
-            Composition formula = model.FormulaUnit
-                ?? throw new ThermoInputException("A temperature model shared by a formula's entries needs that formula.");
-            if (!_byReducedFormula.TryAdd(formula.Reduced, model))
+            if (!_byReducedFormula.TryAdd(model.Formula.Reduced, model))
             {
-                throw new ThermoInputException($"Two temperature models are given for the formula {formula.ReducedFormula}.");
+                throw new ThermoInputException($"Two temperature models are given for the formula {model.Formula.ReducedFormula}.");
             }
         }
     }
 
     /// <summary>No models.</summary>
     public static TemperatureModelSet None { get; } = new([], []);
+
+    /// <summary>The ids that have a model of their own.</summary>
+    public IReadOnlyCollection<string> EntryIds => _byId.Keys;
 
     /// <summary>How many models the set holds.</summary>
     public int Count => _byId.Count + _byReducedFormula.Count;
@@ -64,14 +64,14 @@ public sealed class TemperatureModelSet
         return new TemperatureModelSet(ids, formulas.Values);
     }
 
-    /// <summary>The entry's model (its own, else its formula's), checked against its formula unit; null when it has none.</summary>
-    /// <exception cref="ThermoInputException">Its own model is for another formula unit.</exception>
+    /// <summary>The entry's model (its own, else its formula's), checked against its composition; null when it has none.</summary>
+    /// <exception cref="ThermoInputException">The model is for another composition.</exception>
     public SolidTemperatureModel? For(PhaseEntry entry)
     {
         ArgumentNullException.ThrowIfNull(entry);
         if (_byId.TryGetValue(entry.Id, out SolidTemperatureModel? own))
         {
-            own.CheckFormulaOf(entry.Id, entry.Composition);
+            own.RequireMatches(entry);
             return own;
         }
 

@@ -75,7 +75,7 @@ public static class DecompositionTemperatures
             if (pure.Length < 2) continue;
             double t = fromK;
             ThermoSystem.Member current = LowestAt(pure, t);
-            if (pure.All(m => SolidFreeEnergy.IsLinearInTemperature(m.Model)))
+            if (pure.All(m => m.Model.IsLinearInTemperature))
             {
                 // Straight lines: the lowest one is left only for a line of smaller slope, where they meet.
                 while (true)

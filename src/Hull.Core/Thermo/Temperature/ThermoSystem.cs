@@ -121,17 +121,10 @@ public sealed class ThermoSystem
                 continue;
             }
 
-            if (treatment == FreeEnergyTreatment.Ellingham && !SolidFreeEnergy.IsLinearInTemperature(model))
+            if (treatment == FreeEnergyTreatment.Ellingham && !model.IsLinearInTemperature)
             {
                 throw new ThermoInputException(
-                    $"Entry '{entry.Id}' has a tabulated free energy ({SolidFreeEnergy.Describe(model, entry.Composition)}); the Ellingham approximation needs a standard entropy (constant H and S) for every solid. Use the tabulated-gas treatment for tabulated G(T).",
-                    entryId: entry.Id);
-            }
-
-            if (model is FreeEnergyTableModel table && gas is not null && table.Anchor.PairedGasMode() != gas.Mode)
-            {
-                throw new ThermoInputException(
-                    $"Entry '{entry.Id}' has a free-energy table on the {FreeEnergyAnchorTokens.ToToken(table.Anchor)} anchor, but the {gas.Species.Formula} reference is {(gas.Mode == GasReferenceMode.ComputedMoleculeEnergy ? "a computed molecule (0 K)" : "fitted (298.15 K)")}: a table and the gas must count from the same zero.",
+                    $"Entry '{entry.Id}' has a tabulated free energy ({model.Describe()}); the Ellingham approximation needs a standard entropy (constant H and S) for every solid. Use the tabulated-gas treatment for tabulated G(T).",
                     entryId: entry.Id);
             }
 
@@ -313,7 +306,7 @@ public sealed class ThermoSystem
 
         /// <summary>G(T) per atom on the dataset's formation-energy scale: formation energy + G(T) − H(anchor).</summary>
         public double FreeEnergyEvPerAtom(double temperatureK) =>
-            FormationEnergyEvPerAtom + SolidFreeEnergy.AboveAnchorEvPerAtom(Model, Entry.Id, Entry.Composition, temperatureK);
+            FormationEnergyEvPerAtom + Model.FreeEnergyAboveAnchorEvPerAtom(temperatureK, Entry.Id);
     }
 
     /// <summary>Everything placed at one temperature.</summary>

@@ -22,7 +22,7 @@ internal static class HandbookOxides
         new(id, Composition.Parse(formula), Ev(kilojoulesPerMol), EnergyBasis.FormationPerFormulaUnit);
 
     public static KeyValuePair<string, SolidTemperatureModel> Entropy(string id, string formula, double entropyJPerMolK) =>
-        KeyValuePair.Create(id, (SolidTemperatureModel)new StandardEntropyModel(entropyJPerMolK, formula));
+        KeyValuePair.Create(id, (SolidTemperatureModel)new StandardEntropyModel(Composition.Parse(formula), entropyJPerMolK, "NBS Tables (1982)"));
 
     // NBS Tables (1982): Ag2O(s) ΔfH° = −31.05 kJ/mol, S° = 121.3 J/(mol K); Ag(s) S° = 42.55 J/(mol K) — from memory
     public static (SystemHull Hull, TemperatureModelSet Models) Silver() => (
