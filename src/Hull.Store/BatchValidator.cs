@@ -80,10 +80,10 @@ internal static class BatchValidator
         {
             StoredFreeEnergyPoint point = points[k];
             bool ordered = k == 0 || point.TemperatureK > points[k - 1].TemperatureK;
-            if (!double.IsFinite(point.TemperatureK) || point.TemperatureK <= 0 || !double.IsFinite(point.ThermalFreeEnergyEv) || !ordered)
+            if (!double.IsFinite(point.TemperatureK) || point.TemperatureK <= 0 || !double.IsFinite(point.FreeEnergyAboveAnchorEv) || !ordered)
             {
                 throw new InvalidBatchException(
-                    $"row {i} (id '{id}'): G(T) point {k + 1} ({point.TemperatureK} K, {point.ThermalFreeEnergyEv} eV) must have a finite temperature above 0 K, above the point before it, and a finite energy",
+                    $"row {i} (id '{id}'): G(T) point {k + 1} ({point.TemperatureK} K, {point.FreeEnergyAboveAnchorEv} eV) must have a finite temperature above 0 K, above the point before it, and a finite energy",
                     i, id, field);
             }
         }

@@ -87,7 +87,7 @@ public static class ContentFingerprint
             foreach (StoredFreeEnergyPoint point in model.FreeEnergyPoints)
             {
                 WriteDouble(point.TemperatureK, ref length);
-                WriteDouble(point.ThermalFreeEnergyEv, ref length);
+                WriteDouble(point.FreeEnergyAboveAnchorEv, ref length);
             }
         }
 

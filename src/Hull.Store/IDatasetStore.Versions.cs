@@ -1,6 +1,7 @@
 namespace Hull.Store;
 
-// Reading versions, deleting them, and their fingerprints.
+// Reading versions, deleting them, and their fingerprints. Rows come back exactly as imported, their temperature
+// model (EntryRow.TemperatureModel) included: a model is versioned with its row (schema step 5 in every backend).
 public partial interface IDatasetStore
 {
     /// <summary>

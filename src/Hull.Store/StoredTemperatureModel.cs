@@ -4,7 +4,7 @@ namespace Hull.Store;
 
 /// <summary>
 /// An entry's temperature model as stored: exactly one of a standard entropy S° (J/(mol K) per formula unit) or a
-/// table of thermal free energies G(T) − E (eV per formula unit) with the token of the anchor it is counted on, and
+/// table of G(T) − H(anchor) (eV per formula unit) with the token of the anchor it is counted on, and
 /// the formula unit the values refer to as given (empty for the entry's own). The Store keeps it as given and does
 /// not interpret it; the server checks it (and that its formula matches the entry's) before a batch gets here.
 /// Build one with <see cref="StandardEntropy"/> or <see cref="FreeEnergyTable"/>.

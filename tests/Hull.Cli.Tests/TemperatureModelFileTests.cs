@@ -23,25 +23,25 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
 
     // G(T) − H°(298.15 K) = −T S° of Ag2O in the Ellingham approximation, −T × 121.3 / 96485.33212 eV, by hand.
     private const string SilverTables = """
-        entry_id,anchor,temperature_k,thermal_free_energy_ev
+        entry_id,anchor,temperature_k,free_energy_above_anchor_ev
         # Ag2O with S° held constant
         ag2o-table,fitted_298k,300,-0.377156
         ag2o-table,fitted_298k,500,-0.628594
         ag2o-table,fitted_298k,700,-0.880031
         """;
 
-    private static SolidTemperatureModel Entropy(double value, string formula = "") => new() { StandardEntropyJPerMolK = value, Formula = formula };
+    private static EntryTemperatureModel Entropy(double value, string formula = "") => new() { StandardEntropyJPerMolK = value, Formula = formula };
 
-    private static SolidTemperatureModel SilverOxideTable() => new()
+    private static EntryTemperatureModel SilverOxideTable() => new()
     {
-        FreeEnergyTable = new FreeEnergyTable
+        FreeEnergyTable = new EntryFreeEnergyTable
         {
             Anchor = FreeEnergyAnchor.Fitted298K,
-            Points =
+            Rows =
             {
-                new FreeEnergyPoint { TemperatureK = 300, ThermalFreeEnergyEv = -0.377156 },
-                new FreeEnergyPoint { TemperatureK = 500, ThermalFreeEnergyEv = -0.628594 },
-                new FreeEnergyPoint { TemperatureK = 700, ThermalFreeEnergyEv = -0.880031 },
+                new EntryFreeEnergyRow { TemperatureK = 300, FreeEnergyAboveAnchorEv = -0.377156 },
+                new EntryFreeEnergyRow { TemperatureK = 500, FreeEnergyAboveAnchorEv = -0.628594 },
+                new EntryFreeEnergyRow { TemperatureK = 700, FreeEnergyAboveAnchorEv = -0.880031 },
             },
         },
     };
@@ -70,26 +70,26 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
         var records = EntryFileReader.Read(File("silver.json", """
             [{"id": "ag", "formula": "Ag", "energy_ev": 0, "basis": "formation_per_atom", "standard_entropy_j_per_mol_k": 42.55},
              {"id": "ag2o", "formula": "Ag2O", "energy_ev": -0.3218, "basis": "formation_per_formula_unit", "temperature_model_formula": "Ag2O",
-              "free_energy_table": {"anchor": "fitted_298k", "points": [{"temperature_k": 300, "thermal_free_energy_ev": -0.377156},
-                {"temperature_k": 500, "thermal_free_energy_ev": -0.628594}, {"temperature_k": 700, "thermal_free_energy_ev": -0.880031}]}},
+              "free_energy_table": {"anchor": "fitted_298k", "rows": [{"temperature_k": 300, "free_energy_above_anchor_ev": -0.377156},
+                {"temperature_k": 500, "free_energy_above_anchor_ev": -0.628594}, {"temperature_k": 700, "free_energy_above_anchor_ev": -0.880031}]}},
              {"id": "o2", "formula": "O2", "energy_ev": 0, "basis": "formation_per_atom", "standard_entropy_j_per_mol_k": null}]
             """));
         Assert.Equal(Entropy(42.55), records[0].TemperatureModel);
-        SolidTemperatureModel table = SilverOxideTable();
+        EntryTemperatureModel table = SilverOxideTable();
         table.Formula = "Ag2O";
         Assert.Equal(table, records[1].TemperatureModel);
         Assert.Null(records[2].TemperatureModel);
     }
 
     [Theory]
-    [InlineData("""{"standard_entropy_j_per_mol_k": 121.3, "free_energy_table": {"anchor": "fitted_298k", "points": []}}""",
+    [InlineData("""{"standard_entropy_j_per_mol_k": 121.3, "free_energy_table": {"anchor": "fitted_298k", "rows": []}}""",
         "both \"standard_entropy_j_per_mol_k\" and \"free_energy_table\" are given; an entry has one temperature model")]
     [InlineData("""{"standard_entropy_j_per_mol_k": "121.3"}""", "\"standard_entropy_j_per_mol_k\" must be a finite number of J/(mol K)")]
-    [InlineData("""{"free_energy_table": {"anchor": "room", "points": []}}""", "anchor 'room' is not one of computed_0k, fitted_298k")]
-    [InlineData("""{"free_energy_table": {"points": []}}""", "\"anchor\" must be given as a string")]
-    [InlineData("""{"free_energy_table": {"anchor": "computed_0k", "points": [{"temperature_k": "hot", "thermal_free_energy_ev": 0}]}}""",
-        "points[0]: \"temperature_k\" must be a finite number")]
-    [InlineData("""{"free_energy_table": {"anchor": "computed_0k", "points": [{"t": 300}]}}""", "points[0]: unknown field \"t\"")]
+    [InlineData("""{"free_energy_table": {"anchor": "room", "rows": []}}""", "anchor 'room' is not one of computed_0k, fitted_298k")]
+    [InlineData("""{"free_energy_table": {"rows": []}}""", "\"anchor\" must be given as a string")]
+    [InlineData("""{"free_energy_table": {"anchor": "computed_0k", "rows": [{"temperature_k": "hot", "free_energy_above_anchor_ev": 0}]}}""",
+        "rows[0]: \"temperature_k\" must be a finite number")]
+    [InlineData("""{"free_energy_table": {"anchor": "computed_0k", "rows": [{"t": 300}]}}""", "rows[0]: unknown field \"t\"")]
     [InlineData("""{"temperature_model_formula": "Ag2O"}""", "names the temperature-model formula 'Ag2O' but has neither")]
     public void Bad_json_models_are_refused_with_the_entry(string model, string message)
     {
@@ -105,15 +105,15 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
     }
 
     [Theory]
-    [InlineData("entry_id,anchor,temperature_k\nx,fitted_298k,300\n", 1, "the header has no 'thermal_free_energy_ev' column")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\nag2o-table,warm,300,-0.38\n", 2, "anchor 'warm' is not one of computed_0k, fitted_298k")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\nag2o-table,fitted_298k,300K,-0.38\n", 2, "column 'temperature_k': '300K' is not a finite number of K")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\nag2o-table,fitted_298k,300,-0.38\nag2o-table,computed_0k,500,-0.63\n", 3,
+    [InlineData("entry_id,anchor,temperature_k\nx,fitted_298k,300\n", 1, "the header has no 'free_energy_above_anchor_ev' column")]
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nag2o-table,warm,300,-0.38\n", 2, "anchor 'warm' is not one of computed_0k, fitted_298k")]
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nag2o-table,fitted_298k,300K,-0.38\n", 2, "column 'temperature_k': '300K' is not a finite number of K")]
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nag2o-table,fitted_298k,300,-0.38\nag2o-table,computed_0k,500,-0.63\n", 3,
         "entry 'ag2o-table': anchor 'computed_0k' differs from 'fitted_298k' on line 2; one table has one anchor")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\nmissing,fitted_298k,300,-0.38\n", 2, "entry 'missing' is in none of the entry files imported with it")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\nag2o,fitted_298k,300,-0.38\n", 2,
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nmissing,fitted_298k,300,-0.38\n", 2, "entry 'missing' is in none of the entry files imported with it")]
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nag2o,fitted_298k,300,-0.38\n", 2,
         "entry 'ag2o' already has a standard entropy in silver.csv line 3; an entry has one temperature model")]
-    [InlineData("entry_id,anchor,temperature_k,thermal_free_energy_ev\n", null, "no points")]
+    [InlineData("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\n", null, "no points")]
     public void Bad_table_files_are_refused_with_their_line(string text, int? line, string message)
     {
         string entries = File("silver.csv", SilverCsv);
@@ -144,7 +144,7 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
             Assert.Equal("Ag2O", rows[1].GetProperty("temperature_model_formula").GetString());
             JsonElement table = rows[2].GetProperty("free_energy_table");
             Assert.Equal("fitted_298k", table.GetProperty("anchor").GetString());
-            Assert.Equal([300.0, 500.0, 700.0], table.GetProperty("points").EnumerateArray().Select(p => p.GetProperty("temperature_k").GetDouble()));
+            Assert.Equal([300.0, 500.0, 700.0], table.GetProperty("rows").EnumerateArray().Select(p => p.GetProperty("temperature_k").GetDouble()));
             Assert.False(rows[3].TryGetProperty("standard_entropy_j_per_mol_k", out _));
         }
 
@@ -157,7 +157,7 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
         Assert.False(System.IO.File.Exists(csv));
         Assert.Equal(0, (await CliRun.RunAsync("export", "one", "--csv", "-o", csv, "--free-energy-tables", csvTables, "--server", Server)).ExitCode);
         Assert.StartsWith("id,formula,energy_ev,basis,note,standard_entropy_j_per_mol_k,temperature_model_formula", System.IO.File.ReadAllText(csv));
-        Assert.Equal("entry_id,anchor,temperature_k,thermal_free_energy_ev\nag2o-table,fitted_298k,300,-0.377156\nag2o-table,fitted_298k,500,-0.628594\nag2o-table,fitted_298k,700,-0.880031\n",
+        Assert.Equal("entry_id,anchor,temperature_k,free_energy_above_anchor_ev\nag2o-table,fitted_298k,300,-0.377156\nag2o-table,fitted_298k,500,-0.628594\nag2o-table,fitted_298k,700,-0.880031\n",
             System.IO.File.ReadAllText(csvTables).ReplaceLineEndings("\n"));
 
         string jsonFile = File("exported.json", json.Out);
@@ -183,12 +183,12 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
     [Fact]
     public async Task A_model_the_server_refuses_is_named_by_file_line_and_field_and_nothing_is_written()
     {
-        string entries = File("silver.csv", SilverCsv.Replace("ag2o,Ag2O,-0.3218,formation_per_formula_unit,121.3,Ag2O", "ag2o,Ag2O,-0.3218,formation_per_formula_unit,121.3,Ag4O2"));
+        string entries = File("silver.csv", SilverCsv.Replace("ag2o,Ag2O,-0.3218,formation_per_formula_unit,121.3,Ag2O", "ag2o,Ag2O,-0.3218,formation_per_formula_unit,121.3,AgO"));
         string tables = File("tables.csv", SilverTables.Replace("ag2o-table,fitted_298k,500", "ag2o-table,fitted_298k,250"));
         var run = await CliRun.RunAsync("import", "bad", entries, "--free-energy-tables", tables, "--create", "--server", Server);
         Assert.Equal(ExitCodes.Rejected, run.ExitCode);
-        Assert.Contains("silver.csv line 3 (id 'ag2o'), temperature_model.formula: Entry 'ag2o': the temperature model is for Ag4O2, not the entry's Ag2O", run.Err);
-        Assert.Contains("silver.csv line 5 (id 'ag2o-table'), temperature_model.free_energy_table.points: Free-energy table point 2 (T = 250 K) is below point 1 (T = 300 K)", run.Err);
+        Assert.Contains("silver.csv line 3 (id 'ag2o'), temperature_model.formula: Entry 'ag2o' is Ag2O, but its temperature model (S° = 121.3 J/(mol K) per AgO) is for AgO", run.Err);
+        Assert.Contains("silver.csv line 5 (id 'ag2o-table'), temperature_model.free_energy_table.rows: Row 1 of the tabulated free energy of Ag2O is at 250 K, not above row 0 (300 K)", run.Err);
         var versions = await CliRun.RunAsync("versions", "list", "bad", "--json", "--server", Server);
         Assert.DoesNotContain("\"version\"", versions.Out);
     }

@@ -44,6 +44,7 @@ public sealed class HealthAndReflectionTests
         Assert.Contains("hull.v1.StabilityService", services);
         Assert.Contains("hull.v1.DiagnosticsService", services);
         Assert.Contains("hull.v1.ElectrochemistryService", services);
+        Assert.Contains("hull.v1.ThermoService", services);
         Assert.Contains("grpc.health.v1.Health", services);
 
         await call.RequestStream.WriteAsync(new ServerReflectionRequest { FileContainingSymbol = "hull.v1.StabilityService" });

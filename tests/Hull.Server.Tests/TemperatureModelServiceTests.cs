@@ -7,8 +7,8 @@ using Hull.Server.Tests.Support;
 using DatasetStore = Hull.Store.DatasetStore;
 using StoredFreeEnergyAnchorTokens = Hull.Store.StoredFreeEnergyAnchorTokens;
 using WireAnchor = Hull.Protos.V1.FreeEnergyAnchor;
-using WireModel = Hull.Protos.V1.SolidTemperatureModel;
-using WirePoint = Hull.Protos.V1.FreeEnergyPoint;
+using WireModel = Hull.Protos.V1.EntryTemperatureModel;
+using WirePoint = Hull.Protos.V1.EntryFreeEnergyRow;
 
 namespace Hull.Server.Tests;
 
@@ -44,8 +44,8 @@ public sealed class TemperatureModelServiceTests : IAsyncLifetime
 
     private static Entry WithTable(Entry entry, WireAnchor anchor, params (double T, double G)[] points)
     {
-        var table = new FreeEnergyTable { Anchor = anchor };
-        table.Points.AddRange(points.Select(p => new WirePoint { TemperatureK = p.T, ThermalFreeEnergyEv = p.G }));
+        var table = new EntryFreeEnergyTable { Anchor = anchor };
+        table.Rows.AddRange(points.Select(p => new WirePoint { TemperatureK = p.T, FreeEnergyAboveAnchorEv = p.G }));
         entry.TemperatureModel = new WireModel { FreeEnergyTable = table };
         return entry;
     }
@@ -82,16 +82,25 @@ public sealed class TemperatureModelServiceTests : IAsyncLifetime
         using DatasetStore store = DatasetStore.Open(_server.DataDirectory);
         VersionSnapshot v1 = VersionSnapshot.Load(store, new VersionRef("silver", 1, store.GetFingerprint("silver", 1)));
         Assert.Equal(["ag", "ag2o", "o2"], v1.Entries.Select(e => e.Id));
-        Assert.Equal(new StandardEntropyModel(SilverEntropy), v1.TemperatureModels[0]);
-        Assert.Equal(new StandardEntropyModel(SilverOxideEntropy, "Ag2O"), v1.TemperatureModels[1]);
+        var silverModel = Assert.IsType<StandardEntropyModel>(v1.TemperatureModels[0]!.Model);
+        Assert.Equal((SilverEntropy, "Ag"), (silverModel.EntropyJPerMolK, silverModel.Formula.Formula));
+        Assert.Null(v1.TemperatureModels[0]!.TableAnchor);
+        Assert.Equal(SilverOxideEntropy, Assert.IsType<StandardEntropyModel>(v1.TemperatureModels[1]!.Model).EntropyJPerMolK);
         Assert.Null(v1.TemperatureModels[2]);
         Assert.Equal(v1.TemperatureModels[1], v1.TemperatureModelOf("ag2o"));
         Assert.Null(v1.TemperatureModelOf("o2"));
         Assert.Null(v1.TemperatureModelOf("no-such-entry"));
+        Assert.Equal(2, v1.StoredModelSet.Count);
+        Assert.Same(v1.TemperatureModels[1]!.Model, v1.StoredModelSet.For(v1.Entries[1]));
+        Assert.Null(v1.StoredModelSet.For(v1.Entries[2]));
+
         VersionSnapshot v2 = VersionSnapshot.Load(store, new VersionRef("silver", 2, store.GetFingerprint("silver", 2)));
-        var table = Assert.IsType<FreeEnergyTableModel>(v2.TemperatureModels[1]);
-        Assert.Equal(Core.Thermo.Solids.FreeEnergyAnchor.Fitted298K, table.Anchor);
+        Assert.Equal(Core.Thermo.Solids.FreeEnergyAnchor.Fitted298K, v2.TemperatureModels[1]!.TableAnchor);
+        var table = Assert.IsType<TabulatedFreeEnergyModel>(v2.TemperatureModels[1]!.Model);
         Assert.Equal([300.0, 500.0, 700.0], table.Points.Select(p => p.TemperatureK));
+        Assert.Equal((300.0, 700.0), table.TemperatureRangeK);
+        // Linear between rows, per atom of Ag2O: (−0.377156 − 0.628594) / 2 / 3 atoms at 400 K, by hand.
+        Assert.Equal((-0.377156 - 0.628594) / 2 / 3, table.FreeEnergyAboveAnchorEvPerAtom(400, "ag2o-table"), 12);
     }
 
     [Fact]
@@ -109,27 +118,43 @@ public sealed class TemperatureModelServiceTests : IAsyncLifetime
 
     public static TheoryData<string, Entry, string, string> BadModels() => new()
     {
-        { "negative entropy", WithEntropy(Data.Formation("x", "Ag2O", -0.1), -1.0), "entries[1].temperature_model.standard_entropy_j_per_mol_k", "not negative" },
+        { "negative entropy", WithEntropy(Data.Formation("x", "Ag2O", -0.1), -1.0), "entries[1].temperature_model.standard_entropy_j_per_mol_k",
+            "The standard entropy of Ag2O must be finite and not negative; got -1 J/(mol K)" },
         { "NaN entropy", WithEntropy(Data.Formation("x", "Ag2O", -0.1), double.NaN), "entries[1].temperature_model.standard_entropy_j_per_mol_k", "got NaN" },
-        { "one point", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Fitted298K, (300, -0.38)),
-            "entries[1].temperature_model.free_energy_table.points", "has 1 point; it needs at least 2" },
+        { "one row", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Fitted298K, (300, -0.38)),
+            "entries[1].temperature_model.free_energy_table.rows", "needs at least two rows" },
         { "unsorted", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Fitted298K, (300, -0.38), (700, -0.88), (500, -0.63)),
-            "entries[1].temperature_model.free_energy_table.points", "point 3 (T = 500 K) is below point 2 (T = 700 K)" },
+            "entries[1].temperature_model.free_energy_table.rows", "Row 2 of the tabulated free energy of Ag2O is at 500 K, not above row 1 (700 K): temperatures must rise" },
         { "repeated", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Fitted298K, (300, -0.38), (300, -0.38)),
-            "entries[1].temperature_model.free_energy_table.points", "point 2 (T = 300 K) repeats point 1" },
+            "entries[1].temperature_model.free_energy_table.rows", "Row 1 of the tabulated free energy of Ag2O is at 300 K, not above row 0 (300 K)" },
         { "zero kelvin", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Computed0K, (0, 0.1), (300, -0.38)),
-            "entries[1].temperature_model.free_energy_table.points", "point 1 (T = 0 K): temperatures must be finite and above 0 K" },
+            "entries[1].temperature_model.free_energy_table.rows", "Row 0 of the tabulated free energy of Ag2O is at 0 K; temperatures must be above 0 K" },
+        { "negative kelvin", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Computed0K, (-5, 0.1), (300, -0.38)),
+            "entries[1].temperature_model.free_energy_table.rows", "needs a finite temperature" },
         { "no anchor", WithTable(Data.Formation("x", "Ag2O", -0.1), WireAnchor.Unspecified, (300, -0.38), (500, -0.63)),
             "entries[1].temperature_model.free_energy_table.anchor", "anchor is not given" },
         { "no kind", new Entry(Data.Formation("x", "Ag2O", -0.1)) { TemperatureModel = new WireModel { Formula = "Ag2O" } },
             "entries[1].temperature_model", "neither a standard entropy nor a free-energy table" },
-        { "doubled formula", WithEntropy(Data.Formation("x", "Ag2O", -0.1), 2 * SilverOxideEntropy, "Ag4O2"),
-            "entries[1].temperature_model.formula", "the temperature model is for Ag4O2, not the entry's Ag2O" },
         { "other formula", WithEntropy(Data.Formation("x", "Ag2O", -0.1), SilverOxideEntropy, "AgO"),
-            "entries[1].temperature_model.formula", "it is another composition" },
+            "entries[1].temperature_model.formula", "Entry 'x' is Ag2O, but its temperature model (S° = 121.3 J/(mol K) per AgO) is for AgO" },
         { "unparsable formula", WithEntropy(Data.Formation("x", "Ag2O", -0.1), SilverOxideEntropy, "Ag2Q"),
             "entries[1].temperature_model.formula", "the temperature model's formula does not parse" },
     };
+
+    [Fact]
+    public async Task A_model_given_per_formula_unit_of_a_multiple_is_kept_as_given()
+    {
+        // The numbers are per formula unit of the model's formula: 2 × 121.3 J/(mol K) per Ag4O2 is Ag2O's S°.
+        Entry doubled = WithEntropy(Data.Total("ag2o", "Ag2O", -0.3218), 2 * SilverOxideEntropy, "Ag4O2");
+        await ImportAsync(DuplicatePolicy.Reject, doubled);
+        Assert.Equal([doubled], await ExportAsync());
+        using DatasetStore store = DatasetStore.Open(_server.DataDirectory);
+        VersionSnapshot v1 = VersionSnapshot.Load(store, new VersionRef("silver", 1, store.GetFingerprint("silver", 1)));
+        var model = Assert.IsType<StandardEntropyModel>(v1.TemperatureModels[0]!.Model);
+        Assert.Equal("Ag4O2", model.Formula.Formula);
+        var single = new StandardEntropyModel(Core.Chemistry.Composition.Parse("Ag2O"), SilverOxideEntropy);
+        Assert.Equal(single.EntropyEvPerKPerAtom, model.EntropyEvPerKPerAtom, 15);
+    }
 
     [Theory]
     [MemberData(nameof(BadModels))]

@@ -115,6 +115,20 @@ reaction = hull.get_reaction_profile(dataset, "entry:coat-Al2O3-corundum", "entr
 display(reaction.most_negative)
 
 # %% [markdown]
+# ## When does the delithiated cathode give off oxygen?
+# Invented standard entropies (data-demo/thermo) make each entry's free energy at T; oxygen is open at its μ(T, p).
+# Released oxygen and hot cathodes are a fire hazard: these are estimates, and real thermal-runaway safety work
+# follows local rules and licensed practice.
+
+# %%
+entropies = demo / "thermo" / "li-co-o-entropies.csv"
+release = hull.find_decomposition_temperatures(dataset, "entry:ter-LiCo2O4-delithiated", 300, 1500, pressure_bar=0.21,
+                                               models=entropies, chemical_system="Li-Co-O")
+display(release.crossings[["temperature_k", "direction", "reaction", "gas_released_molecules_per_formula_unit"]])
+stability_in_air = hull.draw_temperature_figure(dataset, ["entry:ter-LiCo2O4-delithiated", "entry:bin-Co3O4"], 300, 1500,
+                                                pressure_bar=0.21, models=entropies, chemical_system="Li-Co-O")
+
+# %% [markdown]
 # ## Native defects and a Mg dopant in the alumina coating
 # A defect study of Al2O3 (invented supercell energies in `data-demo/defects/`) is checked against a dataset of the
 # coatings, the elements and the Mg phases, then read at the window's O-rich vertex: the transition levels, the
@@ -158,6 +172,7 @@ saved = [
     hull.draw_phase_diagram(dataset, end_members=["LiCoO2", "LiNiO2", "LiMnO2"]).save(figures / "pseudo-ternary-layered.svg"),
     hull.draw_phase_diagram(dataset, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15).save(figures / "quaternary-Co-Li-Ni-O.svg"),
     profile.figure.save(figures / "voltage-Li-into-CoO2.svg"),
+    stability_in_air.save(figures / "thermo-Li-Co-O-in-air.svg"),
     defect_figure.save(figures / "defects-Al2O3-O-rich.svg"),
 ]
 for path in saved:

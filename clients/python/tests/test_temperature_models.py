@@ -20,7 +20,7 @@ FARADAY = 1.602176634e-19 * 6.02214076e23  # J/mol per eV per formula unit: e N_
 
 def ellingham_points(temperatures):
     """G(T) − H°(298.15 K) = −T S° of Ag2O with S° held constant (the Ellingham approximation), eV per formula unit."""
-    return [{"temperature_k": t, "thermal_free_energy_ev": -t * SILVER_OXIDE_ENTROPY / FARADAY} for t in temperatures]
+    return [{"temperature_k": t, "free_energy_above_anchor_ev": -t * SILVER_OXIDE_ENTROPY / FARADAY} for t in temperatures]
 
 
 def silver_frame():
@@ -32,13 +32,13 @@ def silver_frame():
         "note": ["", "", "", ""],
         "standard_entropy_j_per_mol_k": [SILVER_ENTROPY, SILVER_OXIDE_ENTROPY, math.nan, math.nan],
         "temperature_model_formula": ["", "Ag2O", "", ""],
-        "free_energy_table": [None, None, {"anchor": "fitted_298k", "points": ellingham_points([300.0, 500.0, 700.0])}, None],
+        "free_energy_table": [None, None, {"anchor": "fitted_298k", "rows": ellingham_points([300.0, 500.0, 700.0])}, None],
     })
 
 
 def test_the_ellingham_points_are_the_hand_worked_values():
     # −300 K × 121.3 J/(mol K) / 96485.33212 C/mol = −0.377156 eV, by hand
-    assert ellingham_points([300.0])[0]["thermal_free_energy_ev"] == pytest.approx(-0.377156, abs=5e-7)
+    assert ellingham_points([300.0])[0]["free_energy_above_anchor_ev"] == pytest.approx(-0.377156, abs=5e-7)
 
 
 def test_a_frame_with_models_round_trips_through_versions_and_matches_the_cli(client, server):
@@ -52,7 +52,7 @@ def test_a_frame_with_models_round_trips_through_versions_and_matches_the_cli(cl
     replacement = frame.iloc[[1]].copy()
     replacement["standard_entropy_j_per_mol_k"] = math.nan
     replacement["temperature_model_formula"] = ""
-    replacement["free_energy_table"] = [{"anchor": "computed_0k", "points": ellingham_points([250.0, 900.0])}]
+    replacement["free_energy_table"] = [{"anchor": "computed_0k", "rows": ellingham_points([250.0, 900.0])}]
     client.import_entries("silver-models", replacement, on_duplicate="replace")
     pd.testing.assert_frame_equal(client.export_entries("silver-models", version=1), frame)
     latest = client.export_entries("silver-models").set_index("id")
@@ -110,15 +110,15 @@ def test_the_cli_imports_what_the_client_writes(client, server, tmp_path):
 @pytest.mark.parametrize("column, value, message", [
     ("both", None, "both 'standard_entropy_j_per_mol_k' and 'free_energy_table' are given; an entry has one temperature model"),
     ("standard_entropy_j_per_mol_k", "warm", "'warm' is not a finite number of J/(mol K)"),
-    ("free_energy_table", {"anchor": "room", "points": []}, "anchor 'room' is not one of computed_0k, fitted_298k"),
-    ("free_energy_table", {"anchor": "fitted_298k", "points": [{"temperature_k": "hot", "thermal_free_energy_ev": 0}]},
+    ("free_energy_table", {"anchor": "room", "rows": []}, "anchor 'room' is not one of computed_0k, fitted_298k"),
+    ("free_energy_table", {"anchor": "fitted_298k", "rows": [{"temperature_k": "hot", "free_energy_above_anchor_ev": 0}]},
      "'hot' is not a finite number of K"),
     ("temperature_model_formula", "Ag2O", "the temperature-model formula 'Ag2O' is given but the entry has neither"),
 ])
 def test_bad_cells_are_refused_here_naming_the_row(client, column, value, message):
     frame = silver_frame().set_index(pd.Index(["a", "b", "c", "d"]))
     if column == "both":
-        frame.at["b", "free_energy_table"] = {"anchor": "fitted_298k", "points": ellingham_points([300.0, 400.0])}
+        frame.at["b", "free_energy_table"] = {"anchor": "fitted_298k", "rows": ellingham_points([300.0, 400.0])}
     else:
         frame.at["d", column] = value
     with pytest.raises(EntryInputError) as caught:
@@ -128,16 +128,17 @@ def test_bad_cells_are_refused_here_naming_the_row(client, column, value, messag
 
 
 @pytest.mark.parametrize("change, field, message", [
-    ({"standard_entropy_j_per_mol_k": -1.0}, "temperature_model.standard_entropy_j_per_mol_k", "not negative"),
-    ({"free_energy_table": {"anchor": "fitted_298k", "points": ellingham_points([300.0])}, "standard_entropy_j_per_mol_k": math.nan},
-     "temperature_model.free_energy_table.points", "has 1 point; it needs at least 2"),
-    ({"free_energy_table": {"anchor": "fitted_298k", "points": ellingham_points([500.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
-     "temperature_model.free_energy_table.points", "point 2 (T = 300 K) is below point 1 (T = 500 K)"),
-    ({"free_energy_table": {"anchor": "fitted_298k", "points": ellingham_points([300.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
-     "temperature_model.free_energy_table.points", "repeats point 1"),
-    ({"free_energy_table": {"anchor": "computed_0k", "points": ellingham_points([0.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
-     "temperature_model.free_energy_table.points", "temperatures must be finite and above 0 K"),
-    ({"temperature_model_formula": "Ag4O2"}, "temperature_model.formula", "the temperature model is for Ag4O2, not the entry's Ag2O"),
+    ({"standard_entropy_j_per_mol_k": -1.0}, "temperature_model.standard_entropy_j_per_mol_k",
+     "The standard entropy of Ag2O must be finite and not negative"),
+    ({"free_energy_table": {"anchor": "fitted_298k", "rows": ellingham_points([300.0])}, "standard_entropy_j_per_mol_k": math.nan},
+     "temperature_model.free_energy_table.rows", "needs at least two rows"),
+    ({"free_energy_table": {"anchor": "fitted_298k", "rows": ellingham_points([500.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
+     "temperature_model.free_energy_table.rows", "Row 1 of the tabulated free energy of Ag2O is at 300 K, not above row 0 (500 K)"),
+    ({"free_energy_table": {"anchor": "fitted_298k", "rows": ellingham_points([300.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
+     "temperature_model.free_energy_table.rows", "not above row 0 (300 K)"),
+    ({"free_energy_table": {"anchor": "computed_0k", "rows": ellingham_points([0.0, 300.0])}, "standard_entropy_j_per_mol_k": math.nan},
+     "temperature_model.free_energy_table.rows", "temperatures must be above 0 K"),
+    ({"temperature_model_formula": "AgO"}, "temperature_model.formula", "Entry 'ag2o' is Ag2O, but its temperature model"),
 ])
 def test_models_the_server_refuses_name_the_row_and_write_nothing(client, change, field, message):
     name = f"refused-{uuid.uuid4().hex[:12]}"

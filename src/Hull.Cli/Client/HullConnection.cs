@@ -39,6 +39,7 @@ public sealed class HullConnection : IDisposable
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
         Windows = new WindowService.WindowServiceClient(_channel);
         Electrochemistry = new ElectrochemistryService.ElectrochemistryServiceClient(_channel);
+        Thermo = new ThermoService.ThermoServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
@@ -55,6 +56,8 @@ public sealed class HullConnection : IDisposable
     public WindowService.WindowServiceClient Windows { get; }
 
     public ElectrochemistryService.ElectrochemistryServiceClient Electrochemistry { get; }
+
+    public ThermoService.ThermoServiceClient Thermo { get; }
 
     public Health.HealthClient Health { get; }
 

@@ -33,6 +33,7 @@ public static class CommandTree
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
+        root.Subcommands.Add(ThermoCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
@@ -138,7 +139,7 @@ public static class CommandTree
         var create = new Option<bool>("--create") { Description = "create the dataset first if it does not exist" };
         var tables = new Option<string?>("--free-energy-tables")
         {
-            Description = "a CSV of G(T) points for entries of the files (columns entry_id, anchor, temperature_k, thermal_free_energy_ev)",
+            Description = "a CSV of G(T) points for entries of the files (columns entry_id, anchor, temperature_k, free_energy_above_anchor_ev)",
         };
         var import = new Command("import", "import entries from files as one new dataset version: all of them or, on any error or interruption, none")
         {
@@ -259,16 +260,16 @@ public static class CommandTree
             object?[] cells = [e.Id, e.Formula, e.EnergyEv, EntryFileLayout.TokenOf(e.Basis), e.Note];
             if (models)
             {
-                SolidTemperatureModel? model = e.TemperatureModel;
-                object? entropy = model?.KindCase == SolidTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? model.StandardEntropyJPerMolK : null;
+                EntryTemperatureModel? model = e.TemperatureModel;
+                object? entropy = model?.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? model.StandardEntropyJPerMolK : null;
                 cells = [.. cells, entropy, model?.Formula ?? string.Empty];
             }
 
             if (summary)
             {
-                FreeEnergyTable? points = e.TemperatureModel?.FreeEnergyTable;
+                EntryFreeEnergyTable? points = e.TemperatureModel?.FreeEnergyTable;
                 cells = [.. cells, points is null ? string.Empty
-                    : string.Create(CultureInfo.InvariantCulture, $"{EntryFileLayout.TokenOf(points.Anchor)}, {points.Points.Count} points, {points.Points.Min(p => p.TemperatureK)}-{points.Points.Max(p => p.TemperatureK)} K")];
+                    : string.Create(CultureInfo.InvariantCulture, $"{EntryFileLayout.TokenOf(points.Anchor)}, {points.Rows.Count} points, {points.Rows.Min(p => p.TemperatureK)}-{points.Rows.Max(p => p.TemperatureK)} K")];
             }
 
             table.Add(cells);

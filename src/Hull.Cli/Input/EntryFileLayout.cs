@@ -13,8 +13,8 @@ namespace Hull.Cli.Input;
 /// '#' are skipped. JSON: an array of objects with these fields, or an object whose "entries" member is one.
 /// Temperature models, optional: <c>standard_entropy_j_per_mol_k</c> (S° per formula unit; an empty cell is none)
 /// and <c>temperature_model_formula</c> (the formula unit the model's values refer to; empty for the entry's own).
-/// A G(T) table comes in JSON as a <c>free_energy_table</c> object (<c>anchor</c>, <c>points</c>: objects with
-/// <c>temperature_k</c> and <c>thermal_free_energy_ev</c>), and for any entry file in a table file of its own
+/// A G(T) table comes in JSON as a <c>free_energy_table</c> object (<c>anchor</c>, <c>rows</c>: objects with
+/// <c>temperature_k</c> and <c>free_energy_above_anchor_ev</c>), and for any entry file in a table file of its own
 /// (<see cref="FreeEnergyTableFile"/>).
 /// </remarks>
 public static class EntryFileLayout
@@ -27,12 +27,12 @@ public static class EntryFileLayout
     public const string StandardEntropy = "standard_entropy_j_per_mol_k";
     public const string ModelFormula = "temperature_model_formula";
 
-    /// <summary>JSON only: an entry's G(T) table, an object with <see cref="Anchor"/> and <see cref="Points"/>.</summary>
+    /// <summary>JSON only: an entry's G(T) table, an object with <see cref="Anchor"/> and <see cref="Rows"/>.</summary>
     public const string FreeEnergyTable = "free_energy_table";
     public const string Anchor = "anchor";
-    public const string Points = "points";
+    public const string Rows = "rows";
     public const string TemperatureK = "temperature_k";
-    public const string ThermalFreeEnergyEv = "thermal_free_energy_ev";
+    public const string FreeEnergyAboveAnchorEv = "free_energy_above_anchor_ev";
 
     /// <summary>The columns of entries without temperature models, in the order files are written.</summary>
     public static IReadOnlyList<string> PlainColumns { get; } = [Id, Formula, EnergyEv, Basis, Note];

@@ -7,7 +7,7 @@ namespace Hull.Cli.Input;
 /// temperature model when the file gives one.
 /// </summary>
 public sealed record EntryRecord(string Id, string Formula, double EnergyEv, EnergyBasis Basis, string Note, int Line,
-    SolidTemperatureModel? TemperatureModel = null)
+    EntryTemperatureModel? TemperatureModel = null)
 {
     public Entry ToWire()
     {

@@ -8,7 +8,7 @@ namespace Hull.Cli.Input;
 /// The per-dataset table of G(T) points that goes beside entry files (`hull import --free-energy-tables`, and out
 /// of `hull export --csv --free-energy-tables`): CSV, one point per line, columns <c>entry_id</c>, <c>anchor</c>
 /// (computed_0k or fitted_298k, the same on every point of one entry), <c>temperature_k</c> and
-/// <c>thermal_free_energy_ev</c> (G(T) − E of one formula unit, eV). An entry's points keep the file's order; the
+/// <c>free_energy_above_anchor_ev</c> (G(T) − H(anchor) of one formula unit, eV, on the anchor the entry's energy stands for). An entry's points keep the file's order; the
 /// server refuses a table that is not strictly increasing in temperature. Blank lines and '#' lines are skipped.
 /// </summary>
 public static class FreeEnergyTableFile
@@ -17,10 +17,10 @@ public static class FreeEnergyTableFile
 
     /// <summary>The columns, in the order files are written; all are required.</summary>
     public static IReadOnlyList<string> Columns { get; } =
-        [EntryId, EntryFileLayout.Anchor, EntryFileLayout.TemperatureK, EntryFileLayout.ThermalFreeEnergyEv];
+        [EntryId, EntryFileLayout.Anchor, EntryFileLayout.TemperatureK, EntryFileLayout.FreeEnergyAboveAnchorEv];
 
     /// <summary>One entry's table as read, with the line of its first point.</summary>
-    public sealed record EntryTable(string EntryId, FreeEnergyTable Table, int FirstLine);
+    public sealed record EntryTable(string EntryId, EntryFreeEnergyTable Table, int FirstLine);
 
     /// <summary>The tables of a file, in the order their entries first appear.</summary>
     public static IReadOnlyList<EntryTable> Read(string path)
@@ -70,10 +70,10 @@ public static class FreeEnergyTableFile
             double Number(string name, string unit) => CsvEntryReader.ParseNumber(Field(name), out double value)
                 ? value
                 : throw new InputFileException(path, line, $"column '{name}': '{Field(name)}' is not a finite number of {unit}");
-            var point = new FreeEnergyPoint
+            var point = new EntryFreeEnergyRow
             {
                 TemperatureK = Number(EntryFileLayout.TemperatureK, "K"),
-                ThermalFreeEnergyEv = Number(EntryFileLayout.ThermalFreeEnergyEv, "eV"),
+                FreeEnergyAboveAnchorEv = Number(EntryFileLayout.FreeEnergyAboveAnchorEv, "eV"),
             };
 
             if (byId.TryGetValue(id, out var known))
@@ -84,11 +84,11 @@ public static class FreeEnergyTableFile
                         $"entry '{id}': anchor '{anchorText}' differs from '{known.AnchorText}' on line {known.Table.FirstLine}; one table has one anchor");
                 }
 
-                known.Table.Table.Points.Add(point);
+                known.Table.Table.Rows.Add(point);
                 continue;
             }
 
-            var table = new EntryTable(id, new FreeEnergyTable { Anchor = anchor, Points = { point } }, line);
+            var table = new EntryTable(id, new EntryFreeEnergyTable { Anchor = anchor, Rows = { point } }, line);
             byId.Add(id, (table, anchorText));
             tables.Add(table);
         }
@@ -120,14 +120,14 @@ public static class FreeEnergyTableFile
             }
 
             EntryRecord record = records[at.Input][at.Record];
-            if (record.TemperatureModel is { KindCase: not SolidTemperatureModel.KindOneofCase.None } model)
+            if (record.TemperatureModel is { KindCase: not EntryTemperatureModel.KindOneofCase.None } model)
             {
-                string kind = model.KindCase == SolidTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? "a standard entropy" : "a G(T) table";
+                string kind = model.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? "a standard entropy" : "a G(T) table";
                 throw new InputFileException(tablePath, table.FirstLine,
                     $"entry '{table.EntryId}' already has {kind} in {Path.GetFileName(inputs[at.Input].Path)} {EntryFileReader.Locate(record)}; an entry has one temperature model");
             }
 
-            var withTable = record.TemperatureModel?.Clone() ?? new SolidTemperatureModel();
+            var withTable = record.TemperatureModel?.Clone() ?? new EntryTemperatureModel();
             withTable.FreeEnergyTable = table.Table.Clone();
             records[at.Input][at.Record] = record with { TemperatureModel = withTable };
         }
@@ -142,9 +142,9 @@ public static class FreeEnergyTableFile
         foreach (Entry entry in entries)
         {
             if (entry.TemperatureModel?.FreeEnergyTable is not { } points) continue;
-            foreach (FreeEnergyPoint point in points.Points)
+            foreach (EntryFreeEnergyRow point in points.Rows)
             {
-                table.Add(entry.Id, EntryFileLayout.TokenOf(points.Anchor), point.TemperatureK, point.ThermalFreeEnergyEv);
+                table.Add(entry.Id, EntryFileLayout.TokenOf(points.Anchor), point.TemperatureK, point.FreeEnergyAboveAnchorEv);
             }
         }
 

@@ -88,7 +88,7 @@ public static class JsonEntryReader
                 : throw Fail($"field \"{EntryFileLayout.StandardEntropy}\" must be a finite number of J/(mol K), not {entropyElement.GetRawText()}");
         }
 
-        SolidTemperatureModel? model = TemperatureModelText.FromEntropy(entropy, Text(EntryFileLayout.ModelFormula, required: false));
+        EntryTemperatureModel? model = TemperatureModelText.FromEntropy(entropy, Text(EntryFileLayout.ModelFormula, required: false));
         if (item.TryGetProperty(EntryFileLayout.FreeEnergyTable, out JsonElement tableElement) && tableElement.ValueKind != JsonValueKind.Null)
         {
             if (entropy is not null)
@@ -96,7 +96,7 @@ public static class JsonEntryReader
                 throw Fail($"both \"{EntryFileLayout.StandardEntropy}\" and \"{EntryFileLayout.FreeEnergyTable}\" are given; an entry has one temperature model");
             }
 
-            model ??= new SolidTemperatureModel();
+            model ??= new EntryTemperatureModel();
             model.FreeEnergyTable = ReadTable(tableElement, Fail);
         }
 
@@ -104,15 +104,15 @@ public static class JsonEntryReader
         return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1), model);
     }
 
-    private static FreeEnergyTable ReadTable(JsonElement table, Func<string, InputFileException> fail)
+    private static EntryFreeEnergyTable ReadTable(JsonElement table, Func<string, InputFileException> fail)
     {
         string at = $"field \"{EntryFileLayout.FreeEnergyTable}\"";
-        if (table.ValueKind != JsonValueKind.Object) throw fail($"{at} must be an object with \"{EntryFileLayout.Anchor}\" and \"{EntryFileLayout.Points}\"");
+        if (table.ValueKind != JsonValueKind.Object) throw fail($"{at} must be an object with \"{EntryFileLayout.Anchor}\" and \"{EntryFileLayout.Rows}\"");
         foreach (JsonProperty property in table.EnumerateObject())
         {
-            if (property.Name is not (EntryFileLayout.Anchor or EntryFileLayout.Points))
+            if (property.Name is not (EntryFileLayout.Anchor or EntryFileLayout.Rows))
             {
-                throw fail($"{at}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.Anchor}, {EntryFileLayout.Points}");
+                throw fail($"{at}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.Anchor}, {EntryFileLayout.Rows}");
             }
         }
 
@@ -121,16 +121,16 @@ public static class JsonEntryReader
             throw fail($"{at}: \"{EntryFileLayout.Anchor}\" must be given as a string, one of {string.Join(", ", EntryFileLayout.AnchorTokens.Keys)}");
         }
 
-        var wire = new FreeEnergyTable { Anchor = EntryFileLayout.ParseAnchor(anchor.GetString()!, problem => fail($"{at}: {problem}")) };
-        if (!table.TryGetProperty(EntryFileLayout.Points, out JsonElement points) || points.ValueKind != JsonValueKind.Array)
+        var wire = new EntryFreeEnergyTable { Anchor = EntryFileLayout.ParseAnchor(anchor.GetString()!, problem => fail($"{at}: {problem}")) };
+        if (!table.TryGetProperty(EntryFileLayout.Rows, out JsonElement points) || points.ValueKind != JsonValueKind.Array)
         {
-            throw fail($"{at}: \"{EntryFileLayout.Points}\" must be an array of objects with \"{EntryFileLayout.TemperatureK}\" and \"{EntryFileLayout.ThermalFreeEnergyEv}\"");
+            throw fail($"{at}: \"{EntryFileLayout.Rows}\" must be an array of objects with \"{EntryFileLayout.TemperatureK}\" and \"{EntryFileLayout.FreeEnergyAboveAnchorEv}\"");
         }
 
         int k = 0;
         foreach (JsonElement point in points.EnumerateArray())
         {
-            string where = $"{at}: points[{k}]";
+            string where = $"{at}: rows[{k}]";
             if (point.ValueKind != JsonValueKind.Object) throw fail($"{where} must be an object");
             double Number(string name) =>
                 point.TryGetProperty(name, out JsonElement value) && FiniteNumber(value, out double number)
@@ -138,13 +138,13 @@ public static class JsonEntryReader
                     : throw fail($"{where}: \"{name}\" must be a finite number");
             foreach (JsonProperty property in point.EnumerateObject())
             {
-                if (property.Name is not (EntryFileLayout.TemperatureK or EntryFileLayout.ThermalFreeEnergyEv))
+                if (property.Name is not (EntryFileLayout.TemperatureK or EntryFileLayout.FreeEnergyAboveAnchorEv))
                 {
-                    throw fail($"{where}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.TemperatureK}, {EntryFileLayout.ThermalFreeEnergyEv}");
+                    throw fail($"{where}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.TemperatureK}, {EntryFileLayout.FreeEnergyAboveAnchorEv}");
                 }
             }
 
-            wire.Points.Add(new FreeEnergyPoint { TemperatureK = Number(EntryFileLayout.TemperatureK), ThermalFreeEnergyEv = Number(EntryFileLayout.ThermalFreeEnergyEv) });
+            wire.Rows.Add(new EntryFreeEnergyRow { TemperatureK = Number(EntryFileLayout.TemperatureK), FreeEnergyAboveAnchorEv = Number(EntryFileLayout.FreeEnergyAboveAnchorEv) });
             k++;
         }
 

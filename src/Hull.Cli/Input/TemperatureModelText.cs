@@ -8,11 +8,11 @@ public static class TemperatureModelText
     /// <summary>
     /// The model of an entry line: S° when given, else only the formula (a G(T) table may still come for it), else none.
     /// </summary>
-    public static SolidTemperatureModel? FromEntropy(double? entropyJPerMolK, string modelFormula)
+    public static EntryTemperatureModel? FromEntropy(double? entropyJPerMolK, string modelFormula)
     {
         string formula = modelFormula.Trim();
         if (entropyJPerMolK is null && formula.Length == 0) return null;
-        var model = new SolidTemperatureModel { Formula = formula };
+        var model = new EntryTemperatureModel { Formula = formula };
         if (entropyJPerMolK is double entropy) model.StandardEntropyJPerMolK = entropy;
         return model;
     }
@@ -25,7 +25,7 @@ public static class TemperatureModelText
     {
         foreach (EntryRecord record in records)
         {
-            if (record.TemperatureModel is { KindCase: SolidTemperatureModel.KindOneofCase.None } model)
+            if (record.TemperatureModel is { KindCase: EntryTemperatureModel.KindOneofCase.None } model)
             {
                 throw new InputFileException(path, record.Line > 0 ? record.Line : null,
                     $"{(record.Line > 0 ? string.Empty : EntryFileReader.Locate(record) + ": ")}entry '{record.Id}' names the temperature-model formula '{model.Formula}' but has neither a {EntryFileLayout.StandardEntropy} nor a G(T) table");

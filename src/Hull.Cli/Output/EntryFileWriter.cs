@@ -36,9 +36,9 @@ public static class EntryFileWriter
         return Encoding.UTF8.GetString(buffer.ToArray());
     }
 
-    private static void WriteModel(Utf8JsonWriter json, SolidTemperatureModel model)
+    private static void WriteModel(Utf8JsonWriter json, EntryTemperatureModel model)
     {
-        if (model.KindCase == SolidTemperatureModel.KindOneofCase.StandardEntropyJPerMolK)
+        if (model.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK)
         {
             json.WriteNumber(EntryFileLayout.StandardEntropy, model.StandardEntropyJPerMolK);
         }
@@ -46,12 +46,12 @@ public static class EntryFileWriter
         {
             json.WriteStartObject(EntryFileLayout.FreeEnergyTable);
             json.WriteString(EntryFileLayout.Anchor, EntryFileLayout.TokenOf(table.Anchor));
-            json.WriteStartArray(EntryFileLayout.Points);
-            foreach (FreeEnergyPoint point in table.Points)
+            json.WriteStartArray(EntryFileLayout.Rows);
+            foreach (EntryFreeEnergyRow point in table.Rows)
             {
                 json.WriteStartObject();
                 json.WriteNumber(EntryFileLayout.TemperatureK, point.TemperatureK);
-                json.WriteNumber(EntryFileLayout.ThermalFreeEnergyEv, point.ThermalFreeEnergyEv);
+                json.WriteNumber(EntryFileLayout.FreeEnergyAboveAnchorEv, point.FreeEnergyAboveAnchorEv);
                 json.WriteEndObject();
             }
 

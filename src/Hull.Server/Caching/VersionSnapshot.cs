@@ -18,13 +18,17 @@ public sealed class VersionSnapshot
     private readonly Dictionary<string, int> _indexById;
     private readonly ChemicalSystemGrouping _systems;
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
+    private readonly Lazy<TemperatureModelSet> _storedModelSet;
 
-    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, SolidTemperatureModel?[] temperatureModels)
+    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, AnchoredSolidModel?[] temperatureModels)
     {
         Version = version;
         Entries = entries;
         FormulasAsStored = formulasAsStored;
         TemperatureModels = temperatureModels;
+        _storedModelSet = new Lazy<TemperatureModelSet>(() => new TemperatureModelSet(
+            Enumerable.Range(0, entries.Length).Where(i => temperatureModels[i] is not null)
+                .Select(i => KeyValuePair.Create(entries[i].Id, temperatureModels[i]!.Model)), []));
         _indexById = new Dictionary<string, int>(entries.Length, StringComparer.Ordinal);
         for (int i = 0; i < entries.Length; i++)
         {
@@ -46,8 +50,11 @@ public sealed class VersionSnapshot
     /// <summary>Each entry's formula exactly as imported (parallel to <see cref="Entries"/>).</summary>
     public IReadOnlyList<string> FormulasAsStored { get; }
 
-    /// <summary>Each entry's temperature model, null where it has none (parallel to <see cref="Entries"/>).</summary>
-    public IReadOnlyList<SolidTemperatureModel?> TemperatureModels { get; }
+    /// <summary>Each entry's stored temperature model with its table's anchor, null where it has none (parallel to <see cref="Entries"/>).</summary>
+    public IReadOnlyList<AnchoredSolidModel?> TemperatureModels { get; }
+
+    /// <summary>The stored models by entry id, as Core's set (every model checked against its entry's composition on import).</summary>
+    public TemperatureModelSet StoredModelSet => _storedModelSet.Value;
 
     /// <summary>Element lists of the systems contained in no other present system, ordered by name.</summary>
     public IReadOnlyList<IReadOnlyList<string>> MaximalSystems { get; }
@@ -59,7 +66,7 @@ public sealed class VersionSnapshot
         IReadOnlyList<EntryRow> rows = store.GetEntries(version.Dataset, version.Version);
         var entries = new PhaseEntry[rows.Count];
         var formulas = new string[rows.Count];
-        var models = new SolidTemperatureModel?[rows.Count];
+        var models = new AnchoredSolidModel?[rows.Count];
         for (int i = 0; i < rows.Count; i++)
         {
             EntryRow row = rows[i];
@@ -76,7 +83,7 @@ public sealed class VersionSnapshot
             {
                 try
                 {
-                    models[i] = TemperatureModelMapping.ToCore(row.Id, stored);
+                    models[i] = TemperatureModelMapping.ToCore(row.Id, composition, stored);
                 }
                 catch (InvalidDataException e)
                 {
@@ -90,7 +97,7 @@ public sealed class VersionSnapshot
     }
 
     /// <summary>The temperature model of the entry with <paramref name="id"/>; null when it has none or the version has no such entry.</summary>
-    public SolidTemperatureModel? TemperatureModelOf(string id) => _indexById.TryGetValue(id, out int row) ? TemperatureModels[row] : null;
+    public AnchoredSolidModel? TemperatureModelOf(string id) => _indexById.TryGetValue(id, out int row) ? TemperatureModels[row] : null;
 
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>
     public bool TryFind(string id, out int row) => _indexById.TryGetValue(id, out row);

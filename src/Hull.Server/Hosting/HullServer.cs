@@ -169,6 +169,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();
+        app.MapGrpcService<ThermoGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

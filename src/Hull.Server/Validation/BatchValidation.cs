@@ -114,7 +114,7 @@ public static class BatchValidation
             }
 
             StoredTemperatureModel? model = null;
-            if (entry.TemperatureModel is not null && composition is not null &&
+            if (entry.TemperatureModel is not null && composition is not null && EntryRules.CheckId(entry.Id) is null &&
                 !TemperatureModelMapping.TryFromWire(entry.TemperatureModel, entry.Id, composition, out model, out var fault))
             {
                 violations.Add(new(fault.Field.Length == 0 ? $"{at}.temperature_model" : $"{at}.temperature_model.{fault.Field}", fault.Problem));

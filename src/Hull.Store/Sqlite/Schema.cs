@@ -106,7 +106,7 @@ internal static class Schema
         new(5, "temperature models of entries: a standard entropy or a G(T) table, versioned with their entry row", """
             -- A model belongs to one entry row and shares its visibility range: a replace closes the old row with its
             -- model and the new row brings its own (or none); rows deleted with a version take their models along.
-            -- Exactly one kind per row: S° (J/(mol K) per formula unit), or a G(T) − E table (eV per formula unit) with
+            -- Exactly one kind per row: S° (J/(mol K) per formula unit), or a G(T) − H(anchor) table (eV per formula unit) with
             -- the anchor it is counted on, as 16-byte points (temperature K, free energy eV; binary64 little-endian).
             -- formula is the formula unit the values refer to as given ('' for the entry's own).
             CREATE TABLE entry_temperature_models (

@@ -89,7 +89,7 @@ internal static class TemperatureModelColumns
         for (int i = 0; i < points.Count; i++)
         {
             BinaryPrimitives.WriteDoubleLittleEndian(bytes.AsSpan(i * BytesPerPoint), points[i].TemperatureK);
-            BinaryPrimitives.WriteDoubleLittleEndian(bytes.AsSpan(i * BytesPerPoint + 8), points[i].ThermalFreeEnergyEv);
+            BinaryPrimitives.WriteDoubleLittleEndian(bytes.AsSpan(i * BytesPerPoint + 8), points[i].FreeEnergyAboveAnchorEv);
         }
         return bytes;
     }

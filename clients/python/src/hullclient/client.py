@@ -21,6 +21,7 @@ from hullclient import defects as d
 from hullclient import electrochemistry as ec
 from hullclient import entries as entry_input
 from hullclient import results as r
+from hullclient import thermo as th
 from hullclient import _stubs as wire
 from hullclient.errors import EntryInputError, HullError, NotFoundError, from_rpc_error
 
@@ -181,6 +182,7 @@ class HullClient:
         self._windows = wire.windows_pb2_grpc.WindowServiceStub(self._channel)
         self._defects = wire.defects_pb2_grpc.DefectServiceStub(self._channel)
         self._electrochemistry = wire.electrochemistry_pb2_grpc.ElectrochemistryServiceStub(self._channel)
+        self._thermo = wire.thermo_pb2_grpc.ThermoServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -866,3 +868,74 @@ class HullClient:
                                dataset=dataset, version=version, phase=_compound(phase), ion=ion,
                                **ec.charge_number(charge_number)))
         return ec.electrochemical_window(reply)
+
+    # --- ThermoService ------------------------------------------------------------------------------------------
+    # Released oxygen and hot oxides or cathodes are a fire hazard: these are estimates, and real thermal and
+    # thermal-runaway safety work follows local rules and licensed practice.
+
+    @_calls("ThermoService", "GetGasPotential")
+    def get_gas_potential(self, gas: Union[str, th.Gas], temperature_k: float, *, pressure_bar: Optional[float] = None,
+                          dataset: str = "", version: int = 0, treatment: str = "tabulated",
+                          reference_ev_per_atom: float = 0.0,
+                          delta_mu_ev_per_atom: Optional[float] = None) -> th.GasPotential:
+        """μ(T, p) of `gas` ("O2", or th.Gas(...) for a computed reference) per molecule and per atom with its parts,
+        and Δμ against `dataset`'s reference for the element (without a dataset: reference_ev_per_atom). With
+        delta_mu_ev_per_atom: the pressure at temperature_k and the temperature at pressure_bar that give it.
+        treatment: "tabulated" (the gas's tabulated H(T), S(T)) or "ellingham" (H, S at 298.15 K)."""
+        request = wire.thermo_pb2.GetGasPotentialRequest(
+            dataset=dataset, version=version, gas=th.gas_conditions(gas, pressure_bar), temperature_k=temperature_k,
+            treatment=th.treatment(treatment), reference_ev_per_atom=reference_ev_per_atom)
+        if delta_mu_ev_per_atom is not None:
+            request.delta_mu_ev_per_atom = delta_mu_ev_per_atom
+        return th.gas_potential(self._call(self._thermo.GetGasPotential, self.get_gas_potential.hull_rpc, request))
+
+    @_calls("ThermoService", "GetHullAtConditions")
+    def get_hull_at_conditions(self, dataset: str, chemical_system: str, temperature_k: float, *,
+                               gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                               models=None, treatment: str = "tabulated", version: int = 0) -> pd.DataFrame:
+        """The hull of `chemical_system` ("Li-Co-O") at temperature_k with the gas's element open at Δμ(T, p) (gas=None:
+        none open), the solids' free energies from `models` (see hullclient.thermo; default: the stored ones). One
+        row per modelled entry (HULL_COLUMNS), energies per closed-element atom. attrs: used, chemical_system,
+        components, energy_axis, energy_unit, temperature_k, treatment, gas (GasPoint), references ({element: entry
+        id at T}), changed_references, stable_phase_ids, reservoir_entry_ids, unmodelled_entry_ids, models_from, caution."""
+        request = wire.thermo_pb2.GetHullAtConditionsRequest(
+            dataset=dataset, version=version, chemical_system=chemical_system, temperature_k=temperature_k,
+            treatment=th.treatment(treatment), models=th.models(models))
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.hull_frame(self._call(self._thermo.GetHullAtConditions, self.get_hull_at_conditions.hull_rpc, request))
+
+    @_calls("ThermoService", "FindDecompositionTemperatures")
+    def find_decomposition_temperatures(self, dataset: str, phase: str, from_k: float, to_k: float, *,
+                                        gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                                        models=None, treatment: str = "tabulated", scan_intervals: int = 0,
+                                        chemical_system: str = "", version: int = 0) -> th.DecompositionTemperatures:
+        """Every temperature in [from_k, to_k] where `phase` (a formula, or 'entry:ID') decomposes or forms at the gas's
+        pressure: sign changes of its signed decomposition energy (the phase minus the hull without its composition),
+        exact under treatment="ellingham", root-solved on a scan (scan_intervals, default 256) otherwise; with what it
+        turns into and the gas it gives off."""
+        request = wire.thermo_pb2.FindDecompositionTemperaturesRequest(
+            dataset=dataset, version=version, phase=_compound(phase), from_k=from_k, to_k=to_k,
+            treatment=th.treatment(treatment), models=th.models(models), scan_intervals=scan_intervals,
+            chemical_system=chemical_system)
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.decomposition_temperatures(
+            self._call(self._thermo.FindDecompositionTemperatures, self.find_decomposition_temperatures.hull_rpc, request))
+
+    @_calls("ThermoService", "DrawTemperatureFigure")
+    def draw_temperature_figure(self, dataset: str, phases: Sequence[str], from_k: float, to_k: float, *,
+                                gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                                models=None, treatment: str = "tabulated", samples: int = 0,
+                                chemical_system: str = "", version: int = 0) -> th.TemperatureFigure:
+        """The signed decomposition energies of one to eight `phases` (formulas or 'entry:ID') against temperature at
+        the gas's pressure, as SVG (TemperatureFigure.svg, .save(path)), with each phase's crossings."""
+        request = wire.thermo_pb2.DrawTemperatureFigureRequest(
+            dataset=dataset, version=version, phases=[_compound(p) for p in phases], from_k=from_k, to_k=to_k,
+            treatment=th.treatment(treatment), models=th.models(models), samples=samples, chemical_system=chemical_system)
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.temperature_figure(self._call(self._thermo.DrawTemperatureFigure, self.draw_temperature_figure.hull_rpc, request))

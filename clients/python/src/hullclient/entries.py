@@ -7,9 +7,9 @@ skipped; JSON as `{"entries": [...]}` or a bare array of objects. Basis tokens c
 
 Temperature models (optional): `standard_entropy_j_per_mol_k` (S° per formula unit; empty/NaN for none) and
 `temperature_model_formula` (the formula unit the model's values refer to; empty for the entry's own). A G(T) table
-is a `free_energy_table` cell (JSON files and DataFrames): `{"anchor": "fitted_298k", "points": [{"temperature_k":
-300, "thermal_free_energy_ev": -0.377}, ...]}`; or, for any entries, a separate table in the CLI's table-file layout
-(`entry_id, anchor, temperature_k, thermal_free_energy_ev`, one point per row) given as `free_energy_tables=`.
+is a `free_energy_table` cell (JSON files and DataFrames): `{"anchor": "fitted_298k", "rows": [{"temperature_k":
+300, "free_energy_above_anchor_ev": -0.377}, ...]}` (G(T) − H(anchor) per formula unit, eV); or, for any entries, a separate table in the CLI's table-file layout
+(`entry_id, anchor, temperature_k, free_energy_above_anchor_ev`, one point per row) given as `free_energy_tables=`.
 Anchor tokens come from the contract's FreeEnergyAnchor names (`FREE_ENERGY_ANCHOR_FITTED_298K` is `fitted_298k`).
 """
 
@@ -32,7 +32,7 @@ TABLE = "free_energy_table"
 # Every column an entry file or frame may have; an export has the model columns only when some entry has a model.
 COLUMNS = PLAIN_COLUMNS + (ENTROPY, MODEL_FORMULA, TABLE)
 REQUIRED_COLUMNS = ("id", "formula", "energy_ev", "basis")
-TABLE_FILE_COLUMNS = ("entry_id", "anchor", "temperature_k", "thermal_free_energy_ev")
+TABLE_FILE_COLUMNS = ("entry_id", "anchor", "temperature_k", "free_energy_above_anchor_ev")
 _ENUM_PREFIX = "ENERGY_BASIS_"
 _ANCHOR_PREFIX = "FREE_ENERGY_ANCHOR_"
 
@@ -88,18 +88,18 @@ def _missing(value):
 
 def _table_cell(where, cell):
     """A `free_energy_table` cell (the JSON layout) as the wire's table."""
-    if not isinstance(cell, dict) or set(cell) - {"anchor", "points"}:
+    if not isinstance(cell, dict) or set(cell) - {"anchor", "rows"}:
         raise EntryInputError(where, f"column '{TABLE}': expected {{\"anchor\": ..., \"points\": [...]}}, not {cell!r}")
-    table = entries_pb2.FreeEnergyTable(anchor=_anchor(f"{where}, {TABLE}", cell.get("anchor")))
-    points = cell.get("points")
-    if not isinstance(points, (list, tuple)):
-        raise EntryInputError(where, f"column '{TABLE}': 'points' must be a list of {{temperature_k, thermal_free_energy_ev}}")
-    for k, point in enumerate(points):
-        at = f"{where}, {TABLE} points[{k}]"
-        if not isinstance(point, dict) or set(point) != {"temperature_k", "thermal_free_energy_ev"}:
-            raise EntryInputError(at, "expected {\"temperature_k\": ..., \"thermal_free_energy_ev\": ...}")
-        table.points.add(temperature_k=_number(at, "temperature_k", point["temperature_k"], "K"),
-                         thermal_free_energy_ev=_number(at, "thermal_free_energy_ev", point["thermal_free_energy_ev"], "eV"))
+    table = entries_pb2.EntryFreeEnergyTable(anchor=_anchor(f"{where}, {TABLE}", cell.get("anchor")))
+    rows = cell.get("rows")
+    if not isinstance(rows, (list, tuple)):
+        raise EntryInputError(where, f"column '{TABLE}': 'rows' must be a list of {{temperature_k, free_energy_above_anchor_ev}}")
+    for k, point in enumerate(rows):
+        at = f"{where}, {TABLE} rows[{k}]"
+        if not isinstance(point, dict) or set(point) != {"temperature_k", "free_energy_above_anchor_ev"}:
+            raise EntryInputError(at, "expected {\"temperature_k\": ..., \"free_energy_above_anchor_ev\": ...}")
+        table.rows.add(temperature_k=_number(at, "temperature_k", point["temperature_k"], "K"),
+                         free_energy_above_anchor_ev=_number(at, "free_energy_above_anchor_ev", point["free_energy_above_anchor_ev"], "eV"))
     return table
 
 
@@ -112,7 +112,7 @@ def _model(where, record):
         raise EntryInputError(where, f"both '{ENTROPY}' and '{TABLE}' are given; an entry has one temperature model")
     if not (has_entropy or has_table or formula):
         return None
-    model = entries_pb2.SolidTemperatureModel(formula=formula)
+    model = entries_pb2.EntryTemperatureModel(formula=formula)
     if has_entropy:
         model.standard_entropy_j_per_mol_k = _number(where, ENTROPY, entropy, "J/(mol K)")
     if has_table:
@@ -262,7 +262,7 @@ def read_entries(path) -> pd.DataFrame:
 
 def _table_dict(table):
     return {"anchor": anchor_token(table.anchor),
-            "points": [{"temperature_k": p.temperature_k, "thermal_free_energy_ev": p.thermal_free_energy_ev} for p in table.points]}
+            "rows": [{"temperature_k": p.temperature_k, "free_energy_above_anchor_ev": p.free_energy_above_anchor_ev} for p in table.rows]}
 
 
 def to_frame(entries) -> pd.DataFrame:
@@ -310,12 +310,12 @@ def tables_from_frame(tables, name="free_energy_tables"):
                 raise EntryInputError(where, f"entry '{ident}': anchor '{record['anchor']}' differs from '{first_anchor_text}' "
                                              f"at {first}; one table has one anchor")
         else:
-            table = entries_pb2.FreeEnergyTable(anchor=anchor)
+            table = entries_pb2.EntryFreeEnergyTable(anchor=anchor)
             found[ident] = (table, where, record["anchor"])
-        table.points.add(temperature_k=_number(where, "temperature_k", record["temperature_k"], "K"),
-                         thermal_free_energy_ev=_number(where, "thermal_free_energy_ev", record["thermal_free_energy_ev"], "eV"))
+        table.rows.add(temperature_k=_number(where, "temperature_k", record["temperature_k"], "K"),
+                         free_energy_above_anchor_ev=_number(where, "free_energy_above_anchor_ev", record["free_energy_above_anchor_ev"], "eV"))
     if not found:
-        raise EntryInputError(name, "no points")
+        raise EntryInputError(name, "no rows")
     return {ident: (table, where) for ident, (table, where, _) in found.items()}
 
 
@@ -391,9 +391,9 @@ def write_free_energy_tables(frame: pd.DataFrame, path) -> Path:
         writer.writerow(TABLE_FILE_COLUMNS)
         for e in checked.entries:
             if e.HasField("temperature_model") and e.temperature_model.WhichOneof("kind") == TABLE:
-                for p in e.temperature_model.free_energy_table.points:
+                for p in e.temperature_model.free_energy_table.rows:
                     writer.writerow([e.id, anchor_token(e.temperature_model.free_energy_table.anchor), repr(p.temperature_k),
-                                     repr(p.thermal_free_energy_ev)])
+                                     repr(p.free_energy_above_anchor_ev)])
     return target
 
 

@@ -3,10 +3,11 @@ using Hull.Core.Thermo.Gases;
 namespace Hull.Core.Thermo.Solids;
 
 /// <summary>
-/// What an entry's energy stands for when its <see cref="FreeEnergyTableModel"/> adds a thermal free energy to it:
+/// What an entry's energy stands for when its <see cref="TabulatedFreeEnergyModel"/> adds G(T) − H(anchor) to it:
 /// the same two anchors as the gas reference modes (<see cref="GasReferenceMode"/>), so that a solid's G(T) and a
 /// gas's μ(T, p) are counted from the same zero. A table on one anchor must be used with the gas mode of the same
-/// anchor; mixing them shifts every reaction by H°(298.15 K) − H°(0) of the species involved.
+/// anchor; mixing them shifts every reaction by H°(298.15 K) − H°(0) of the species involved. A stored table says
+/// which it is on (<see cref="AnchoredSolidModel"/>).
 /// </summary>
 public enum FreeEnergyAnchor
 {

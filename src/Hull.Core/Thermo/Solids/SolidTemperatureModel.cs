@@ -3,48 +3,49 @@ using Hull.Core.Chemistry;
 namespace Hull.Core.Thermo.Solids;
 
 /// <summary>
-/// How a solid entry's free energy changes with temperature: a standard entropy (<see cref="StandardEntropyModel"/>,
-/// the Ellingham approximation of constant ΔH and ΔS) or a tabulated G(T) (<see cref="FreeEnergyTableModel"/>).
-/// An entry carries at most one. Values are per formula unit of the entry's formula as written; a model may name the
-/// formula unit its values refer to, which must then be that same formula unit (<see cref="CheckFormulaOf"/>).
-/// A gas's entropy never belongs here: it enters through the gas's μ(T, p) alone.
+/// How a solid's free energy changes with temperature, given per formula unit of <see cref="Formula"/>: its energy
+/// (the entry's, standing for H at the gas mode's anchor temperature) plus <see cref="FreeEnergyAboveAnchorEvPerAtom"/>.
+/// The formula says which composition the numbers belong to; a model applied to an entry of another reduced
+/// composition is refused (<see cref="RequireMatches"/>).
 /// </summary>
 public abstract record SolidTemperatureModel
 {
-    private protected SolidTemperatureModel(Composition? formulaUnit)
+    private protected SolidTemperatureModel(Composition formula, string? source)
     {
-        FormulaUnit = formulaUnit;
+        Formula = formula ?? throw new ThermoInputException("A temperature model needs the formula its numbers are per formula unit of.");
+        Source = string.IsNullOrWhiteSpace(source) ? null : source;
     }
 
-    /// <summary>The formula unit the values refer to when the model names one; null means the entry's own.</summary>
-    public Composition? FormulaUnit { get; }
+    /// <summary>The formula whose formula unit the model's numbers are given per.</summary>
+    public Composition Formula { get; }
 
-    /// <summary>
-    /// Refuses a model whose named formula unit is not the entry's: a different composition, or the same
-    /// proportions in another amount (per-formula-unit values would then be off by that factor).
-    /// </summary>
-    /// <exception cref="ThermoInputException">The formulas differ; names the entry and both formulas.</exception>
-    public void CheckFormulaOf(string entryId, Composition entryComposition)
-    {
-        ArgumentNullException.ThrowIfNull(entryComposition);
-        if (FormulaUnit is null || FormulaUnit == entryComposition) return;
-        string why = FormulaUnit.HasSameProportions(entryComposition)
-            ? $"it has the same proportions but {FormulaUnit.AtomsPerFormulaUnit} atoms per formula unit instead of {entryComposition.AtomsPerFormulaUnit}, so its per-formula-unit values would be off by that factor"
-            : "it is another composition";
-        throw new ThermoInputException(
-            $"Entry '{entryId}': the temperature model is for {FormulaUnit.Formula}, not the entry's {entryComposition.Formula}: {why}; give the values per formula unit of {entryComposition.Formula}.",
-            entryId: entryId);
-    }
+    /// <summary>Where the numbers come from, as the caller said (a table, a calculation); null when not said.</summary>
+    public string? Source { get; }
 
-    /// <summary>Reads an optional formula; null or blank means none.</summary>
-    private protected static Composition? ParseFormula(string? formula, string what)
+    /// <summary>G(T) − H(anchor) per atom, eV/atom.</summary>
+    /// <exception cref="ThermoInputException">A temperature outside what the model covers.</exception>
+    public abstract double FreeEnergyAboveAnchorEvPerAtom(double temperatureK, string entryId);
+
+    /// <summary>True when G(T) − H(anchor) is a straight line in T (constant H and S: the Ellingham approximation).</summary>
+    public abstract bool IsLinearInTemperature { get; }
+
+    /// <summary>The lowest and highest temperature the model covers, K.</summary>
+    public abstract (double FromK, double ToK) TemperatureRangeK { get; }
+
+    /// <summary>A short description for answers, e.g. "S° = 121.3 J/(mol K) per Ag2O".</summary>
+    public abstract string Describe();
+
+    /// <summary>Refuses the model on an entry whose reduced composition differs from the model's.</summary>
+    /// <exception cref="ThermoInputException">The formulas do not match; names the entry, both formulas and the model.</exception>
+    public void RequireMatches(PhaseEntry entry)
     {
-        if (string.IsNullOrWhiteSpace(formula)) return null;
-        if (!Composition.TryParse(formula, out Composition? composition, out FormulaParseException? error))
+        ArgumentNullException.ThrowIfNull(entry);
+        if (!entry.Composition.HasSameProportions(Formula))
         {
-            throw new ThermoInputException($"{what}: formula '{formula}' does not parse: {error.Message}");
+            throw new ThermoInputException(
+                $"Entry '{entry.Id}' is {entry.Composition.Formula}, but its temperature model ({Describe()}) is for {Formula.Formula}: "
+                + "a model's formula must have the entry's composition (any multiple of it).",
+                entryId: entry.Id);
         }
-
-        return composition;
     }
 }
