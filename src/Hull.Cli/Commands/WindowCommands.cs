@@ -12,7 +12,7 @@ namespace Hull.Cli.Commands;
 public static class WindowCommands
 {
     public static IEnumerable<Command> Build(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap) =>
-        [WindowCommand(wrap), SliceCommand(wrap), DopantCommand(wrap)];
+        [WindowCommand(wrap), SliceCommand(wrap), DopantCommand(wrap), FigureCommand(wrap)];
 
     private sealed record Common(
         Argument<string> Dataset, Argument<string> Compound, Option<bool> ByFormula, Option<long> Version,
@@ -108,15 +108,63 @@ public static class WindowCommands
         return command;
     }
 
+    private static Command FigureCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        var x = new Option<string?>("--x") { Description = "element whose Δμ runs along x (with --y; default: the first two elements other than the most abundant)" };
+        var y = new Option<string?>("--y") { Description = "element whose Δμ runs up y" };
+        var at = new Option<string[]>("--at") { Description = "for 4+ elements, a section potential ELEMENT=EV (repeatable; all but x, y and one more; default: the vertices' mean)", Arity = ArgumentArity.OneOrMore };
+        var output = new Option<string?>("--output", "-o") { Description = "SVG file to write (default: DATASET-vVERSION-COMPOUND-window.svg)" };
+        var command = new Command("window-figure", "draw a compound's window (or a section of it) in the plane of two potentials as SVG");
+        foreach (Symbol s in o.All) Add(command, s);
+        foreach (Option option in new Option[] { x, y, at, output }) command.Options.Add(option);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new DrawWindowFigureRequest
+            {
+                Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c),
+                XElement = c.Get(x) ?? string.Empty, YElement = c.Get(y) ?? string.Empty,
+            };
+            foreach (string text in c.Get(at) ?? []) request.Section.Add(ParseFixed(text, "--at"));
+            DrawWindowFigureResponse response = await c.Server.Windows.DrawWindowFigureAsync(request, c.Server.Call(t));
+            string path = c.Get(output) ?? FigureFileName(response);
+            await File.WriteAllTextAsync(path, response.Svg, new System.Text.UTF8Encoding(false), t);
+            var summary = response.Clone();
+            summary.Svg = string.Empty;
+            c.Emit(summary, () => VerticesTable(response.Window.Elements, response.DrawnVertices), FigureCaption(response, path));
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    internal static string FigureFileName(DrawWindowFigureResponse response) =>
+        string.Concat($"{response.Used.Dataset}-v{response.Used.Version}-{response.Window.EntryId}-window.svg".Select(ch => char.IsAsciiLetterOrDigit(ch) || ch is '-' or '.' or '_' ? ch : '_'));
+
+    internal static string FigureCaption(DrawWindowFigureResponse r, string path)
+    {
+        string drawn = r.DrawnDimension switch
+        {
+            2 => "a polygon",
+            1 => "a segment",
+            0 => "a point",
+            _ => r.SectionMisses ? "nothing: the section misses the window" : "nothing: no window",
+        };
+        string section = r.Section.Count == 0 ? string.Empty
+            : $"; section at {string.Join(", ", r.Section.Select(p => $"dmu_{p.Element} = {Number(p.ChemicalPotentialEv)} eV"))}{(r.SectionChosenByDefault ? " (the vertices' mean)" : string.Empty)}";
+        return Caption(r.Used, r.Window) + "\n" +
+               $"drawn on dmu_{r.XElement} (x) and dmu_{r.YElement} (y){(r.DependentElement.Length > 0 ? $", dmu_{r.DependentElement} from the compound's energy" : string.Empty)}{section}: {drawn}, " +
+               $"{r.DrawnLineIds.Count} lines{(r.LinesLeftOut > 0 ? $" ({r.LinesLeftOut} more left out)" : string.Empty)}; wrote {path}";
+    }
+
     private static void Add(Command command, Symbol symbol)
     {
         if (symbol is Argument a) command.Arguments.Add(a);
         else command.Options.Add((Option)symbol);
     }
 
-    internal static FixedPotential ParseFixed(string text)
+    internal static FixedPotential ParseFixed(string text, string option = "--fix")
     {
-        (string element, double value) = ElectrochemistryCommands.ParseElementValue(text, "--fix", "O=-1.5");
+        (string element, double value) = ElectrochemistryCommands.ParseElementValue(text, option, "O=-1.5");
         return new FixedPotential { Element = element, ChemicalPotentialEv = value };
     }
 

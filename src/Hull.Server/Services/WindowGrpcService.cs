@@ -1,5 +1,6 @@
 using Grpc.Core;
 using Hull.Core.Chemistry;
+using Hull.Core.Figures;
 using Hull.Core.Thermo;
 using Hull.Core.Windows;
 using Hull.Protos.V1;
@@ -98,6 +99,62 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
             response.Limits.Add(WindowWireMapping.ToWire(limit));
         }
 
+        return response;
+    }
+
+    public override async Task<DrawWindowFigureResponse> DrawWindowFigure(DrawWindowFigureRequest request, ServerCallContext context)
+    {
+        WindowOptions options = Options(request.Settings);
+        if (request.XElement.Length > 0 != request.YElement.Length > 0)
+        {
+            throw RpcErrors.InvalidArgument(request.XElement.Length == 0 ? "x_element" : "y_element", "name both axes' elements, or neither for the default pair");
+        }
+
+        foreach ((string field, string element) in new[] { ("x_element", request.XElement), ("y_element", request.YElement) })
+        {
+            if (element.Length > 0 && !ElementTable.IsSymbol(element)) throw RpcErrors.InvalidArgument(field, $"'{element}' is not an element symbol");
+        }
+
+        if (request.XElement.Length > 0 && request.XElement == request.YElement)
+        {
+            throw RpcErrors.InvalidArgument("y_element", $"both axes are Δμ({request.XElement}); choose two different elements");
+        }
+
+        var section = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < request.Section.Count; i++)
+        {
+            FixedPotential p = request.Section[i];
+            if (!ElementTable.IsSymbol(p.Element)) throw RpcErrors.InvalidArgument($"section[{i}].element", $"'{p.Element}' is not an element symbol");
+            if (!section.TryAdd(p.Element, p.ChemicalPotentialEv)) throw RpcErrors.InvalidArgument($"section[{i}].element", $"{p.Element} is fixed twice");
+        }
+
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        (string x, string y) = request.XElement.Length > 0 ? (request.XElement, request.YElement) : Answer(() => WindowMaps.DefaultAxes(hull.Hull, id));
+        string SectionField(string? element)
+        {
+            int at = request.Section.Select(p => p.Element).ToList().IndexOf(element ?? string.Empty);
+            return at >= 0 ? $"section[{at}]" : element == x ? "x_element" : element == y ? "y_element" : "section";
+        }
+
+        WindowMap map = Answer(() => WindowMaps.Of(hull.Hull, id, x, y, section, options), SectionField);
+        WindowFigureResult figure = WindowFigure.Render(map, new FigureMetadata(snapshot.Version.Dataset, snapshot.Version.Version, snapshot.Version.Fingerprint));
+        string formula = snapshot.FormulasAsStored[row];
+        var response = new DrawWindowFigureResponse
+        {
+            Used = WireMapping.ToWire(snapshot.Version),
+            Window = WindowWireMapping.ToWire(map.Window, formula, hull.Hull.SystemName),
+            Svg = figure.Svg,
+            DrawnDimension = figure.Dimension,
+            XElement = map.XElement,
+            YElement = map.YElement,
+            DependentElement = map.DependentElement ?? string.Empty,
+            SectionChosenByDefault = map.SectionChosenByDefault,
+            SectionMisses = map.SectionMisses,
+            LinesLeftOut = figure.LinesLeftOut,
+        };
+        response.DrawnVertices.AddRange(map.Vertices.Select(v => WindowWireMapping.ToWire(v.Vertex, map.Window.Elements)));
+        response.Section.AddRange(map.FixedPotentialsEv.OrderBy(p => p.Key, StringComparer.Ordinal).Select(p => new FixedPotential { Element = p.Key, ChemicalPotentialEv = p.Value }));
+        response.DrawnLineIds.AddRange(figure.DrawnLineIds);
         return response;
     }
 

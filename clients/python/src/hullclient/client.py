@@ -623,6 +623,27 @@ class HullClient:
         return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
                               tuple(r.dopant_limit(m) for m in reply.limits))
 
+    @_calls("WindowService", "DrawWindowFigure")
+    def draw_window_figure(self, dataset: str, compound: str, *, x_element: str = "", y_element: str = "",
+                           section: Optional[Mapping[str, float]] = None, version: int = 0,
+                           above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                           lowering_ev_per_atom: Optional[float] = None) -> r.WindowFigure:
+        """The window of a compound (a formula, or 'entry:ID') drawn on Δμ of x_element and y_element (both or
+        neither: the default pair); for four or more elements a section at `section` ({'Mn': -1.2}, eV; all but one
+        of the other elements; default the vertices' mean). WindowFigure.save(path) writes the SVG."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(section or {}).items()]
+        reply = self._call(self._windows.DrawWindowFigure, self.draw_window_figure.hull_rpc,
+                           wire.windows_pb2.DrawWindowFigureRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, ""),
+                               x_element=x_element, y_element=y_element, section=fixed))
+        window = r.stability_window(reply.window, wire.windows_pb2)
+        return r.WindowFigure(r.version_used(reply.used), window, reply.svg, reply.drawn_dimension,
+                              r.vertices_frame(reply.drawn_vertices, window.elements), reply.x_element, reply.y_element,
+                              reply.dependent_element, {p.element: p.chemical_potential_ev for p in reply.section},
+                              reply.section_chosen_by_default, reply.section_misses, tuple(reply.drawn_line_ids),
+                              reply.lines_left_out)
+
     # --- DefectService ------------------------------------------------------------------------------------------
 
     def _defect_warnings(self, texts):
