@@ -1,6 +1,7 @@
 """Figures as SVG text with save(), and chemical-potential windows: equal to the CLI's answers for the same
 requests, and each window vertex on the compound's own formation-energy plane worked here from the export."""
 
+import math
 import xml.etree.ElementTree as ET
 
 import pytest
@@ -104,3 +105,18 @@ def test_the_window_figure_is_the_cli_svg_and_draws_the_window_qhull_finds(clien
     shoelace = abs(sum(drawn[k][0] * drawn[(k + 1) % len(drawn)][1] - drawn[(k + 1) % len(drawn)][0] * drawn[k][1]
                        for k in range(len(drawn)))) / 2
     assert shoelace == pytest.approx(hull.volume, rel=1e-3)  # a 2-D hull's "volume" is its area
+
+
+def test_a_slice_by_oxygen_in_air_equals_the_cli_and_the_janaf_hand_value(client, server, demo):
+    # NIST-JANAF Thermochemical Tables, 4th ed. (1998), O2 at 1000 K: H° − H°(298.15 K) = 22.703 kJ/mol,
+    # S° = 243.578 J/(mol K) — from memory; CODATA 2018 k_B and e·N_A; the demo's references taken as fitted.
+    k_b = 8.617333262e-5
+    hand = ((22.703 - 243.578) / 96.4853321233 + k_b * 1000 * math.log(0.21)) / 2
+    sliced = client.slice_stability_window(DEMO_DATASET, f"entry:{CATHODE}", fixed_gases={"O2": (1000, 0.21)},
+                                           gas_at_temperature_k=1000)
+    assert sliced.fixed_potentials_used["O"] == pytest.approx(hand, abs=1e-4)  # the Shomate fit, a few J/mol off
+    expected = cli_json(server.url, "window-slice", DEMO_DATASET, CATHODE, "--fix-gas", "O2=1000,0.21", "--gas-temperature", "1000")
+    assert [p["chemical_potential_ev"] for p in expected["fixed_potentials_used"]] == [sliced.fixed_potentials_used["O"]]
+    assert len(sliced.slice.vertices) == len(expected["slice"].get("vertices", []))
+    for _, row in sliced.slice.vertices.iterrows():
+        assert row["log10_p_O2_bar"] == pytest.approx(math.log10(0.21), abs=1e-9)

@@ -219,6 +219,8 @@ class WindowSlice:
     # When it misses: the window's point nearest to the slice, in `whole.elements` order, eV.
     nearest_point_ev: Tuple[float, ...]
     distance_ev: Optional[float]
+    # The fixed potentials as used, gases' Δμ included, eV.
+    fixed_potentials_used: Dict[str, float] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
@@ -449,6 +451,12 @@ def vertices_frame(vertices, elements) -> pd.DataFrame:
         row["elements_at_reference"] = tuple(v.elements_at_reference)
         for volt in v.voltages:
             row[f"volts_against_{volt.element}_metal"] = volt.volts_against_metal
+        for gas in v.gas_conditions:
+            if gas.HasField("log10_pressure_bar"):
+                row[f"log10_p_{gas.gas}_bar"] = gas.log10_pressure_bar
+                row[f"p_{gas.gas}_bar"] = gas.pressure_bar
+            if gas.temperature_status:
+                row[f"T_{gas.gas}_k"] = gas.temperature_k if gas.HasField("temperature_k") else math.nan
         rows.append(row)
     columns = [f"delta_mu_{e}_ev" for e in elements] + ["limiting_phase_ids", "elements_at_reference"]
     extra = sorted({k for r in rows for k in r if k not in columns})
