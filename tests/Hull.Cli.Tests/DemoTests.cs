@@ -54,7 +54,8 @@ public sealed class DemoTests
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();
             Assert.Equal(
                 ["binary-Li-O.svg", "pseudo-ternary-layered-oxides.svg", "quaternary-Li-Co-Ni-O.svg",
-                 "reaction-coat-Al2O3-corundum-ter-LiMn2O4-spinel.svg", "ternary-Li-Co-O.svg", "thermo-Li-Co-O-in-air.svg", "voltage-Li-into-CoO2.svg"],
+                 "reaction-coat-Al2O3-corundum-ter-LiMn2O4-spinel.svg", "ternary-Li-Co-O.svg", "thermo-Li-Co-O-in-air.svg", "voltage-Li-into-CoO2.svg",
+                 "window-ter-LiCoO2-r3m.svg"],
                 files.Select(Path.GetFileName));
             // Profile figures (voltage, reaction) label only their plateaus or minimum; phase diagrams label every stable phase.
             foreach (string file in files)

@@ -170,7 +170,7 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         }
 
         await new DemoFigures(output).RunEndMembersAsync(hull, DatasetName, t);
-        await WindowDemoStep.RunAsync(hull, output, DatasetName, t);
+        await WindowDemoStep.RunAsync(hull, output, DatasetName, FiguresFolder, t);
         await ElectrochemistryDemoStep.RunAsync(hull, output, DatasetName, FiguresFolder, t);
 
         // 8. Versioning: a replacement makes a new version; the old one answers exactly as before.

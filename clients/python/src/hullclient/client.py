@@ -12,7 +12,7 @@ import ssl
 import urllib.parse
 import warnings
 from pathlib import Path
-from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Union
+from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Tuple, Union
 
 import grpc
 import pandas as pd
@@ -96,13 +96,24 @@ def _compound(compound: str):
     return wire.windows_pb2.CompoundRef(formula=compound)
 
 
-def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits):
+def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                     gas_at_temperature_k=None, gas_at_pressure_bar=None):
     settings = wire.windows_pb2.WindowSettings(projection_omits=projection_omits or "")
+    if gas_at_temperature_k is not None:
+        settings.gas_at_temperature_k = gas_at_temperature_k
+    if gas_at_pressure_bar is not None:
+        settings.gas_at_pressure_bar = gas_at_pressure_bar
     if above_hull_tolerance_ev_per_atom is not None:
         settings.above_hull_tolerance_ev_per_atom = above_hull_tolerance_ev_per_atom
     if lowering_ev_per_atom is not None:
         settings.lowering_ev_per_atom = lowering_ev_per_atom
     return settings
+
+
+def _gas_potentials(gases):
+    """{"O2": (temperature_k, pressure_bar)} as the wire's gas potentials."""
+    return [wire.windows_pb2.GasPotential(gas=g, temperature_k=float(tp[0]), pressure_bar=float(tp[1]))
+            for g, tp in dict(gases or {}).items()]
 
 
 def _system_roots() -> bytes:
@@ -606,29 +617,41 @@ class HullClient:
     @_calls("WindowService", "GetStabilityWindow")
     def get_stability_window(self, dataset: str, compound: str, *, version: int = 0,
                              above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                             lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowAnswer:
-        """The chemical-potential window of a compound (a formula, or 'entry:ID')."""
+                             lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                             gas_at_temperature_k: Optional[float] = None,
+                             gas_at_pressure_bar: Optional[float] = None) -> r.WindowAnswer:
+        """The chemical-potential window of a compound (a formula, or 'entry:ID'). With gas_at_temperature_k (or
+        gas_at_pressure_bar) each gas element's Δμ is also given as its gas's pressure at that temperature (or the
+        temperature at that pressure): columns log10_p_O2_bar, p_O2_bar, T_O2_k."""
         reply = self._call(self._windows.GetStabilityWindow, self.get_stability_window.hull_rpc,
                            wire.windows_pb2.GetStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits)))
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar)))
         return r.WindowAnswer(r.version_used(reply.used), r.stability_window(reply.window, wire.windows_pb2))
 
     @_calls("WindowService", "SliceStabilityWindow")
-    def slice_stability_window(self, dataset: str, compound: str, fixed_potentials: Mapping[str, float], *,
+    def slice_stability_window(self, dataset: str, compound: str, fixed_potentials: Optional[Mapping[str, float]] = None, *,
+                               fixed_gases: Optional[Mapping[str, Tuple[float, float]]] = None,
                                version: int = 0, allow_above_reference: bool = False,
                                above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                               lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowSlice:
-        """The window with some Δμ held fixed ({'O': -1.0}, eV); when it misses, the nearest window point."""
-        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials).items()]
+                               lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                               gas_at_temperature_k: Optional[float] = None,
+                               gas_at_pressure_bar: Optional[float] = None) -> r.WindowSlice:
+        """The window with some Δμ held fixed ({'O': -1.0}, eV), or gas elements by their gas at (T, p)
+        (fixed_gases={'O2': (1273, 0.21)}, K and bar); when it misses, the nearest window point."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials or {}).items()]
         reply = self._call(self._windows.SliceStabilityWindow, self.slice_stability_window.hull_rpc,
                            wire.windows_pb2.SliceStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits),
-                               fixed_potentials=fixed, allow_above_reference=allow_above_reference))
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar),
+                               fixed_potentials=fixed, allow_above_reference=allow_above_reference,
+                               fixed_gases=_gas_potentials(fixed_gases)))
         return r.WindowSlice(r.version_used(reply.used), r.stability_window(reply.whole, wire.windows_pb2),
                              r.stability_window(reply.slice, wire.windows_pb2), reply.misses, tuple(reply.nearest_point_ev),
-                             reply.distance_ev if reply.HasField("distance_ev") else None)
+                             reply.distance_ev if reply.HasField("distance_ev") else None,
+                             {p.element: p.chemical_potential_ev for p in reply.fixed_potentials_used})
 
     @_calls("WindowService", "GetDopantLimits")
     def get_dopant_limits(self, dataset: str, compound: str, dopants: Union[str, Iterable[str]], *, version: int = 0,
@@ -643,6 +666,29 @@ class HullClient:
                                dopants=dopants))
         return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
                               tuple(r.dopant_limit(m) for m in reply.limits))
+
+    @_calls("WindowService", "DrawWindowFigure")
+    def draw_window_figure(self, dataset: str, compound: str, *, x_element: str = "", y_element: str = "",
+                           section: Optional[Mapping[str, float]] = None,
+                           section_gases: Optional[Mapping[str, Tuple[float, float]]] = None, version: int = 0,
+                           above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                           lowering_ev_per_atom: Optional[float] = None) -> r.WindowFigure:
+        """The window of a compound (a formula, or 'entry:ID') drawn on Δμ of x_element and y_element (both or
+        neither: the default pair); for four or more elements a section at `section` ({'Mn': -1.2}, eV; all but one
+        of the other elements; default the vertices' mean). WindowFigure.save(path) writes the SVG."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(section or {}).items()]
+        reply = self._call(self._windows.DrawWindowFigure, self.draw_window_figure.hull_rpc,
+                           wire.windows_pb2.DrawWindowFigureRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, ""),
+                               x_element=x_element, y_element=y_element, section=fixed,
+                               section_gases=_gas_potentials(section_gases)))
+        window = r.stability_window(reply.window, wire.windows_pb2)
+        return r.WindowFigure(r.version_used(reply.used), window, reply.svg, reply.drawn_dimension,
+                              r.vertices_frame(reply.drawn_vertices, window.elements), reply.x_element, reply.y_element,
+                              reply.dependent_element, {p.element: p.chemical_potential_ev for p in reply.section},
+                              reply.section_chosen_by_default, reply.section_misses, tuple(reply.drawn_line_ids),
+                              reply.lines_left_out)
 
     # --- DefectService ------------------------------------------------------------------------------------------
 
