@@ -17,7 +17,7 @@ namespace Hull.Server.Hosting;
 /// skipped (its queries are refused anyway); any failure only ends the warming early.
 /// </summary>
 public sealed class StartupHullWarming(
-    DatasetStore store, VersionResolver versions, HullCache cache, StartupWarmingSettings settings, IHostApplicationLifetime lifetime,
+    IDatasetStore store, VersionResolver versions, HullCache cache, StartupWarmingSettings settings, IHostApplicationLifetime lifetime,
     ILogger<StartupHullWarming> log) : BackgroundService
 {
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
@@ -38,7 +38,7 @@ public sealed class StartupHullWarming(
             foreach (DatasetSummary dataset in store.ListDatasets())
             {
                 if (built >= settings.MaxHulls) break;
-                if (dataset.LatestVersion == DatasetStore.NoVersion) continue;
+                if (dataset.LatestVersion == IDatasetStore.NoVersion) continue;
                 VersionSnapshot snapshot = await cache.GetSnapshotAsync(versions.Resolve(dataset.Name, 0), stoppingToken);
                 datasets++;
                 foreach (IReadOnlyList<string> system in SystemsByEntryCount(snapshot.Entries))
