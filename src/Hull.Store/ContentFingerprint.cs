@@ -9,7 +9,9 @@ namespace Hull.Store;
 /// dataset or history, so a cache of results built from rows can key on it. The byte stream hashed is
 /// <c>"hull.store.content.v1\n"</c>, then for each row in <see cref="EntryIdOrder"/>: id, formula, energy, basis
 /// token, metadata. Each text is a 4-byte little-endian length of its UTF-8 bytes followed by those bytes; the
-/// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. Persisted fingerprints depend on this
+/// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. A row with an energy uncertainty or a
+/// correlation group then adds the byte 'u', the σ's bits (NaN bits when none) and the group's text (empty when
+/// none); rows without either add nothing, so fingerprints of data without them are unchanged. Persisted fingerprints depend on this
 /// layout: change it only together with the prefix and a schema migration that clears stored fingerprints.
 /// </summary>
 public static class ContentFingerprint
@@ -50,6 +52,14 @@ public static class ContentFingerprint
             length += 8;
             WriteText(row.Basis, ref length);
             WriteText(row.Metadata ?? string.Empty, ref length);
+            if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
+            {
+                Ensure(length + 9);
+                _buffer[length++] = (byte)'u';
+                BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits((row.SigmaEvPerAtom ?? double.NaN) + 0.0));
+                length += 8;
+                WriteText(row.CorrelationGroup ?? string.Empty, ref length);
+            }
             _hash.AppendData(_buffer, 0, length);
         }
 

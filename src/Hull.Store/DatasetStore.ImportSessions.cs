@@ -49,7 +49,9 @@ public sealed partial class DatasetStore
                     formula      TEXT NOT NULL,
                     energy_ev    REAL NOT NULL,
                     energy_basis TEXT NOT NULL,
-                    metadata     TEXT NOT NULL
+                    metadata     TEXT NOT NULL,
+                    energy_sigma_ev_per_atom REAL NULL,
+                    correlation_group        TEXT NULL
                 )
                 """);
             create.ExecuteNonQuery();
@@ -75,14 +77,16 @@ public sealed partial class DatasetStore
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             using SqliteCommand insert = connection.Command(transaction, $"""
-                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata)
-                VALUES ($id, $formula, $energy, $basis, $metadata)
+                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group)
+                VALUES ($id, $formula, $energy, $basis, $metadata, $sigma, $group)
                 """);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
             SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
             SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
+            SqliteParameter sigma = insert.Parameters.Add("$sigma", SqliteType.Real);
+            SqliteParameter group = insert.Parameters.Add("$group", SqliteType.Text);
             insert.Prepare();
             foreach (EntryRow row in batch)
             {
@@ -92,6 +96,8 @@ public sealed partial class DatasetStore
                 energy.Value = row.EnergyEv + 0.0;
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
+                sigma.Value = row.SigmaEvPerAtom is { } s ? s + 0.0 : DBNull.Value;
+                group.Value = (object?)row.CorrelationGroup ?? DBNull.Value;
                 insert.ExecuteNonQuery();
             }
 
@@ -125,14 +131,15 @@ public sealed partial class DatasetStore
                 : tokens.Length == 0 ? "WHERE 0"
                 : "WHERE energy_basis IN (" + string.Join(", ", tokens.Select((_, i) => $"$b{i}")) + ")";
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
             for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 // Staging tables are appended to only, so rowid k+1 is the session's row k.
-                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5));
+                var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
+                    reader.IsDBNull(6) ? null : reader.GetDouble(6), reader.IsDBNull(7) ? null : reader.GetString(7));
                 rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
             }
             return new StagedImport(
@@ -180,8 +187,8 @@ public sealed partial class DatasetStore
 
             // The open-row index refuses a second open row of an id: a repeat inside the session, or (Reject) a stored id.
             using (SqliteCommand move = connection.Command(transaction, $"""
-                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version)
-                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, $v FROM {staging} ORDER BY rowid
+                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version)
+                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, $v FROM {staging} ORDER BY rowid
                        """))
             {
                 try

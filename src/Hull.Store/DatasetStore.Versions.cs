@@ -8,7 +8,7 @@ public sealed partial class DatasetStore
 {
     // The rows visible at version $k (see Schema).
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
-    private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata";
+    private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group";
 
     /// <summary>
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
@@ -224,7 +224,8 @@ public sealed partial class DatasetStore
 
     private static EntryRow ReadEntry(SqliteDataReader reader)
     {
-        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4));
+        return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
+            reader.IsDBNull(5) ? null : reader.GetDouble(5), reader.IsDBNull(6) ? null : reader.GetString(6));
     }
 
     // Keeps a computed fingerprint with its version when no write is in progress; otherwise the next request computes

@@ -10,4 +10,7 @@ namespace Hull.Store;
 /// <param name="EnergyEv">Energy in eV (per formula unit or per atom, see <paramref name="Basis"/>); finite.</param>
 /// <param name="Basis">What the energy refers to, as a token (e.g. "total_per_atom"); kept as given, not interpreted.</param>
 /// <param name="Metadata">Free text; empty when none.</param>
-public sealed record EntryRow(string Id, string Formula, double EnergyEv, string Basis, string Metadata = "");
+/// <param name="SigmaEvPerAtom">Standard deviation of the energy's error, eV/atom; null when none is given.</param>
+/// <param name="CorrelationGroup">The group of entries sharing a systematic error; null when none.</param>
+public sealed record EntryRow(
+    string Id, string Formula, double EnergyEv, string Basis, string Metadata = "", double? SigmaEvPerAtom = null, string? CorrelationGroup = null);

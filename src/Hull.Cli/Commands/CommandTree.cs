@@ -32,6 +32,7 @@ public static class CommandTree
         foreach (Command electrochemistryCommand in ElectrochemistryCommands.Build(wrap)) root.Subcommands.Add(electrochemistryCommand);
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
+        root.Subcommands.Add(OddsCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));

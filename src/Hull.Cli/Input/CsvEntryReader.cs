@@ -40,7 +40,8 @@ public static class CsvEntryReader
             }
 
             var basis = EntryFileLayout.ParseBasis(Field(EntryFileLayout.Basis), problem => new InputFileException(path, line, $"column 'basis': {problem}"));
-            records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line));
+            double? sigma = EntryFileLayout.ParseSigma(Field(EntryFileLayout.Sigma), problem => new InputFileException(path, line, $"column '{EntryFileLayout.Sigma}': {problem}"));
+            records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line, sigma, Field(EntryFileLayout.CorrelationGroup).Trim()));
         }
 
         if (columns is null) throw new InputFileException(path, null, $"no header line; the first line must name the columns, e.g. {string.Join(",", EntryFileLayout.Columns)}");

@@ -2,8 +2,17 @@ using Hull.Protos.V1;
 
 namespace Hull.Cli.Input;
 
-/// <summary>One entry read from a file, with the line it came from (1-based) so that errors can point at it.</summary>
-public sealed record EntryRecord(string Id, string Formula, double EnergyEv, EnergyBasis Basis, string Note, int Line)
+/// <summary>
+/// One entry read from a file, with the line it came from (1-based) so that errors can point at it, and its energy
+/// uncertainty (σ in eV/atom, correlation group) where the file gives them.
+/// </summary>
+public sealed record EntryRecord(string Id, string Formula, double EnergyEv, EnergyBasis Basis, string Note, int Line,
+    double? SigmaEvPerAtom = null, string CorrelationGroup = "")
 {
-    public Entry ToWire() => new() { Id = Id, Formula = Formula, EnergyEv = EnergyEv, Basis = Basis, Note = Note };
+    public Entry ToWire()
+    {
+        var entry = new Entry { Id = Id, Formula = Formula, EnergyEv = EnergyEv, Basis = Basis, Note = Note, CorrelationGroup = CorrelationGroup };
+        if (SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
+        return entry;
+    }
 }

@@ -79,7 +79,16 @@ public static class JsonEntryReader
         }
 
         var basis = EntryFileLayout.ParseBasis(Text(EntryFileLayout.Basis, required: true), problem => Fail($"field \"basis\": {problem}"));
+        double? sigma = null;
+        if (item.TryGetProperty(EntryFileLayout.Sigma, out JsonElement sigmaElement) && sigmaElement.ValueKind != JsonValueKind.Null)
+        {
+            sigma = sigmaElement.ValueKind == JsonValueKind.Number && sigmaElement.TryGetDouble(out double s)
+                ? EntryFileLayout.ParseSigma(s.ToString("R", System.Globalization.CultureInfo.InvariantCulture), problem => Fail($"field \"{EntryFileLayout.Sigma}\": {problem}"))
+                : throw Fail($"field \"{EntryFileLayout.Sigma}\" must be a number of eV/atom, not {sigmaElement.GetRawText()}");
+        }
+
         // JSON has no line per entry that a reader can report cheaply; the entry's index stands in (0-based).
-        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1));
+        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1),
+            sigma, Text(EntryFileLayout.CorrelationGroup, required: false).Trim());
     }
 }

@@ -25,6 +25,8 @@ public static class EntryFileWriter
                 json.WriteNumber(EntryFileLayout.EnergyEv, e.EnergyEv);
                 json.WriteString(EntryFileLayout.Basis, EntryFileLayout.TokenOf(e.Basis));
                 json.WriteString(EntryFileLayout.Note, e.Note);
+                if (e.HasEnergySigmaEvPerAtom) json.WriteNumber(EntryFileLayout.Sigma, e.EnergySigmaEvPerAtom);
+                if (e.CorrelationGroup.Length > 0) json.WriteString(EntryFileLayout.CorrelationGroup, e.CorrelationGroup);
                 json.WriteEndObject();
             }
 

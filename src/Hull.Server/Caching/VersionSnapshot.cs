@@ -1,6 +1,7 @@
 using System.Collections.Concurrent;
 using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
+using Hull.Core.Thermo.Uncertainty;
 using Hull.Server.Errors;
 using Hull.Server.Mapping;
 using Hull.Store;
@@ -18,9 +19,10 @@ public sealed class VersionSnapshot
     private readonly ChemicalSystemGrouping _systems;
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
 
-    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored)
+    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, EnergyUncertainty[] uncertainties)
     {
         Version = version;
+        Uncertainties = uncertainties;
         Entries = entries;
         FormulasAsStored = formulasAsStored;
         _indexById = new Dictionary<string, int>(entries.Length, StringComparer.Ordinal);
@@ -41,6 +43,9 @@ public sealed class VersionSnapshot
     /// <summary>Every entry of the version, in id order.</summary>
     public IReadOnlyList<PhaseEntry> Entries { get; }
 
+    /// <summary>The energy uncertainty of every entry that has a σ or a correlation group, in id order.</summary>
+    public IReadOnlyList<EnergyUncertainty> Uncertainties { get; }
+
     /// <summary>Each entry's formula exactly as imported (parallel to <see cref="Entries"/>).</summary>
     public IReadOnlyList<string> FormulasAsStored { get; }
 
@@ -54,6 +59,7 @@ public sealed class VersionSnapshot
         IReadOnlyList<EntryRow> rows = store.GetEntries(version.Dataset, version.Version);
         var entries = new PhaseEntry[rows.Count];
         var formulas = new string[rows.Count];
+        var uncertainties = new List<EnergyUncertainty>();
         for (int i = 0; i < rows.Count; i++)
         {
             EntryRow row = rows[i];
@@ -66,9 +72,13 @@ public sealed class VersionSnapshot
 
             formulas[i] = row.Formula;
             entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.BasisOf(row));
+            if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
+            {
+                uncertainties.Add(new EnergyUncertainty(row.Id, row.SigmaEvPerAtom ?? 0.0, row.CorrelationGroup));
+            }
         }
 
-        return new VersionSnapshot(version, entries, formulas);
+        return new VersionSnapshot(version, entries, formulas, [.. uncertainties]);
     }
 
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>

@@ -47,14 +47,20 @@ public static class WireMapping
             ? basis
             : throw new InvalidDataException($"stored entry '{row.Id}' has the unknown energy basis '{row.Basis}'");
 
-    public static Entry ToWire(EntryRow row) => new()
+    public static Entry ToWire(EntryRow row)
     {
-        Id = row.Id,
-        Formula = row.Formula,
-        EnergyEv = row.EnergyEv,
-        Basis = ToWire(BasisOf(row)),
-        Note = row.Metadata ?? string.Empty,
-    };
+        var entry = new Entry
+        {
+            Id = row.Id,
+            Formula = row.Formula,
+            EnergyEv = row.EnergyEv,
+            Basis = ToWire(BasisOf(row)),
+            Note = row.Metadata ?? string.Empty,
+            CorrelationGroup = row.CorrelationGroup ?? string.Empty,
+        };
+        if (row.SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
+        return entry;
+    }
 
     public static Protos.V1.DatasetSummary ToWire(Store.DatasetSummary summary) => new()
     {

@@ -113,9 +113,22 @@ public static class BatchValidation
                 violations.Add(new($"{at}.note", entryNoteProblem));
             }
 
+            if (entry.HasEnergySigmaEvPerAtom && !(double.IsFinite(entry.EnergySigmaEvPerAtom) && entry.EnergySigmaEvPerAtom >= 0))
+            {
+                violations.Add(new($"{at}.energy_sigma_ev_per_atom",
+                    $"the energy uncertainty is {Describe(entry.EnergySigmaEvPerAtom)}; it must be a finite, non-negative number of eV/atom"));
+            }
+
+            if (entry.CorrelationGroup.Length > 0 && EntryRules.CheckText(entry.CorrelationGroup, "correlation group") is { } groupProblem)
+            {
+                violations.Add(new($"{at}.correlation_group", groupProblem));
+            }
+
             if (violations.Count == before && violations.Count < RpcErrors.MaxViolationsReported)
             {
-                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note));
+                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note,
+                    entry.HasEnergySigmaEvPerAtom ? entry.EnergySigmaEvPerAtom : null,
+                    entry.CorrelationGroup.Length > 0 ? entry.CorrelationGroup : null));
             }
         }
 

@@ -1,7 +1,7 @@
 """Entries as the user holds them (a DataFrame, a CSV or JSON file) turned into wire entries, row by row.
 
 The file layouts are the CLI's (src/Hull.Cli/README.md, "Entry files"): columns `id, formula, energy_ev, basis,
-note` (`note` optional); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
+note, sigma_ev_per_atom, correlation_group` (the last three optional; sigma empty or NaN for none); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
 skipped; JSON as `{"entries": [...]}` or a bare array of objects. Basis tokens come from the contract's enum names
 (`ENERGY_BASIS_TOTAL_PER_ATOM` is `total_per_atom`), as the CLI derives them.
 """
@@ -18,7 +18,7 @@ import pandas as pd
 from hullclient._stubs import entries_pb2
 from hullclient.errors import EntryInputError
 
-COLUMNS = ("id", "formula", "energy_ev", "basis", "note")
+COLUMNS = ("id", "formula", "energy_ev", "basis", "note", "sigma_ev_per_atom", "correlation_group")
 REQUIRED_COLUMNS = ("id", "formula", "energy_ev", "basis")
 _ENUM_PREFIX = "ENERGY_BASIS_"
 
@@ -72,7 +72,26 @@ def _entry(where, record):
     if token not in tokens:
         raise EntryInputError(where, f"column 'basis': '{token}' is not one of {', '.join(tokens)}")
     note = _text(record, "note")
-    return entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note)
+    entry = entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note,
+                              correlation_group=_text(record, "correlation_group").strip())
+    sigma = _sigma(where, record.get("sigma_ev_per_atom"))
+    if sigma is not None:
+        entry.energy_sigma_ev_per_atom = sigma
+    return entry
+
+
+def _sigma(where, cell):
+    """An energy uncertainty cell: None (also empty text or NaN) for none, else a finite number >= 0 of eV/atom."""
+    if cell is None or (isinstance(cell, str) and not cell.strip()) or (isinstance(cell, float) and math.isnan(cell)):
+        return None
+    try:
+        value = float(cell.strip()) if isinstance(cell, str) else float(cell)
+    except (TypeError, ValueError):
+        value = math.nan
+    if isinstance(cell, bool) or not math.isfinite(value) or value < 0:
+        raise EntryInputError(where, f"column 'sigma_ev_per_atom': '{cell}' is not an energy uncertainty: "
+                                     "give a finite number >= 0 of eV/atom, or leave it empty")
+    return value
 
 
 def from_frame(frame: pd.DataFrame, name: str = "DataFrame") -> PreparedEntries:
@@ -177,6 +196,9 @@ def to_frame(entries) -> pd.DataFrame:
         "energy_ev": pd.Series([e.energy_ev for e in entries], dtype="float64"),
         "basis": [basis_token(e.basis) for e in entries],
         "note": [e.note for e in entries],
+        "sigma_ev_per_atom": pd.Series([e.energy_sigma_ev_per_atom if e.HasField("energy_sigma_ev_per_atom") else math.nan
+                                        for e in entries], dtype="float64"),
+        "correlation_group": [e.correlation_group for e in entries],
     }, columns=list(COLUMNS))
 
 
@@ -191,13 +213,19 @@ def write_entries(frame: pd.DataFrame, path) -> Path:
     checked = to_frame(from_frame(frame).entries)
     records = checked.to_dict("records")
     if suffix == ".json":
+        for record in records:
+            if math.isnan(record["sigma_ev_per_atom"]):
+                del record["sigma_ev_per_atom"]
+            if not record["correlation_group"]:
+                del record["correlation_group"]
         target.write_text(json.dumps({"entries": records}, indent=1, ensure_ascii=False) + "\n", encoding="utf-8")
         return target
     with target.open("w", newline="", encoding="utf-8") as handle:
         writer = csv.writer(handle, lineterminator="\n")
         writer.writerow(COLUMNS)
         for r in records:
-            writer.writerow([r["id"], r["formula"], repr(float(r["energy_ev"])), r["basis"], r["note"]])
+            sigma = "" if math.isnan(r["sigma_ev_per_atom"]) else repr(float(r["sigma_ev_per_atom"]))
+            writer.writerow([r["id"], r["formula"], repr(float(r["energy_ev"])), r["basis"], r["note"], sigma, r["correlation_group"]])
     return target
 
 

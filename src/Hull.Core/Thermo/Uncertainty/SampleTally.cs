@@ -17,6 +17,7 @@ internal sealed class SampleTally
     private bool[][] _vertex;
     private int[][] _products;
     private int[] _stableSets = [];
+    private int[] _rebuilt = [];
     private long[] _vertexCounts;
 
     public SampleTally(int entries)
@@ -66,7 +67,11 @@ internal sealed class SampleTally
         _products[entry][sample] = Intern(products);
     }
 
-    public void RecordStableSet(int sample, int[] vertexPoints) => _stableSets[sample] = Intern(vertexPoints);
+    public void RecordStableSet(int sample, int[] vertexPoints, int pointsRebuilt)
+    {
+        _stableSets[sample] = Intern(vertexPoints);
+        _rebuilt[sample] = pointsRebuilt;
+    }
 
     /// <summary>The largest √(p(1−p)/N) over the entries.</summary>
     public double LargestVertexStandardError()
@@ -145,7 +150,8 @@ internal sealed class SampleTally
             reason,
             plan.TargetStandardError,
             LargestVertexStandardError(),
-            setup.Groups);
+            setup.Groups,
+            _rebuilt.AsSpan(0, n).ToArray().Average());
     }
 
     /// <summary>The percentile by linear interpolation between order statistics at rank (N − 1) q (common practice;
@@ -217,6 +223,7 @@ internal sealed class SampleTally
 
         int capacity = Math.Max(total, Math.Min(2 * _stableSets.Length, SamplingLimits.MaxSamples));
         Array.Resize(ref _stableSets, capacity);
+        Array.Resize(ref _rebuilt, capacity);
         for (int e = 0; e < _entries; e++)
         {
             Array.Resize(ref _above[e], capacity);

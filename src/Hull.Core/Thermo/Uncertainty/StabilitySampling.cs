@@ -156,7 +156,7 @@ public static class StabilitySampling
             vertexSet[k] = keptPoints[hull.VertexPointIndices[k]];
         }
 
-        tally.RecordStableSet(slot, vertexSet);
+        tally.RecordStableSet(slot, vertexSet, keptPoints.Length);
         for (int e = 0; e < setup.EntryPoints.Length; e++)
         {
             int i = setup.EntryPoints[e];
@@ -192,7 +192,7 @@ public static class StabilitySampling
     private static void RecordPlain(SamplingSetup setup, SampleTally tally, int slot)
     {
         SystemHull plain = setup.Plain;
-        tally.RecordStableSet(slot, [.. plain.VertexPointIndices]);
+        tally.RecordStableSet(slot, [.. plain.VertexPointIndices], 0);
         for (int e = 0; e < setup.EntryPoints.Length; e++)
         {
             int i = setup.EntryPoints[e];

@@ -3,7 +3,8 @@ namespace Hull.Core.Thermo.Uncertainty;
 /// <summary>
 /// Stability of one chemical system's entries under their energy uncertainty: per entry odds, the probable stable
 /// set (entries that are vertices in at least half the samples) and the stable set seen most often with its
-/// frequency, with how many samples were drawn, from which seed, and why sampling stopped.
+/// frequency, with how many samples were drawn, from which seed, and why sampling stopped; and how many points
+/// (entries and reference corners) each sample's hull was rebuilt over, on average (the rest could not be vertices).
 /// </summary>
 public sealed record StabilitySamplingResult(
     string SystemName,
@@ -18,4 +19,5 @@ public sealed record StabilitySamplingResult(
     SamplingStopReason StopReason,
     double? TargetStandardError,
     double LargestVertexStandardError,
-    IReadOnlyList<CorrelationGroup> Groups);
+    IReadOnlyList<CorrelationGroup> Groups,
+    double MeanPointsRebuilt);
