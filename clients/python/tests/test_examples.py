@@ -13,7 +13,8 @@ import pytest
 from conftest import CLIENT_DIR
 
 EXAMPLES = CLIENT_DIR / "examples"
-FIGURES = ("ternary-Li-Co-O.svg", "pseudo-ternary-layered.svg", "quaternary-Co-Li-Ni-O.svg", "voltage-Li-into-CoO2.svg")
+FIGURES = ("ternary-Li-Co-O.svg", "pseudo-ternary-layered.svg", "quaternary-Co-Li-Ni-O.svg", "voltage-Li-into-CoO2.svg",
+           "odds-Li-Co-O.svg")
 
 
 def example_environment(server, dataset, figures):

@@ -205,7 +205,11 @@ public static class CommandTree
                 else
                 {
                     var table = new Table([.. EntryFileLayout.Columns]);
-                    foreach (Entry e in entries) table.Add(e.Id, e.Formula, e.EnergyEv, EntryFileLayout.TokenOf(e.Basis), e.Note);
+                    foreach (Entry e in entries)
+                    {
+                        string sigma = e.HasEnergySigmaEvPerAtom ? e.EnergySigmaEvPerAtom.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
+                        table.Add(e.Id, e.Formula, e.EnergyEv, EntryFileLayout.TokenOf(e.Basis), e.Note, sigma, e.CorrelationGroup);
+                    }
                     if (c.Format == OutputFormat.Table) writer.WriteLine($"dataset {c.Get(dataset)}, version {usedVersion}: {entries.Count} entries");
                     TableRenderer.Write(writer, table, c.Format);
                 }
