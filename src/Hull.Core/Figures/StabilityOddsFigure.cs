@@ -131,7 +131,7 @@ public static class StabilityOddsFigure
         canvas.Text(left + 32, y + 8, "plain-hull tie-line", FigurePalette.SmallFontSize);
         y += 30;
         canvas.Text(left, y, "probable stable set", FigurePalette.SmallFontSize, extra: "font-weight=\"bold\"");
-        canvas.Text(left, y + 14, "(vertex in ≥ 50 % of samples):", FigurePalette.SmallFontSize);
+        canvas.Text(left, y + 14, "(≥ 50 % of samples):", FigurePalette.SmallFontSize);
         y += 30;
         // The compounds only: the elements are always there.
         var compounds = odds.ProbableStableSet.Select(id => odds.Entries.First(o => o.EntryId == id))
