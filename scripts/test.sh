@@ -20,6 +20,8 @@ command -v protoc >/dev/null 2>&1 || missing+=(protobuf-compiler)
 command -v grpc_python_plugin >/dev/null 2>&1 || missing+=(protobuf-compiler-grpc)
 command -v jupyter-nbconvert >/dev/null 2>&1 || missing+=(jupyter-nbconvert)
 command -v openssl >/dev/null 2>&1 || missing+=(openssl)
+# The PostgreSQL store's tests run against a throwaway cluster (scripts/postgres-throwaway.sh).
+ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1 || missing+=(postgresql)
 if ((${#missing[@]})); then
   echo "installing reference tools: ${missing[*]}"
   if [ "$(id -u)" -ne 0 ]; then sudo=sudo; else sudo=; fi
@@ -31,7 +33,15 @@ fi
 
 log=$(mktemp)
 junit=$(mktemp)
-trap 'rm -f "$log" "$junit"' EXIT
+# One throwaway PostgreSQL cluster for every test project (each test takes a schema of its own), stopped and
+# removed on exit whatever happens.
+pg_dir=$(mktemp -d /tmp/hull-test-postgres.XXXXXX)
+chmod 755 "$pg_dir"
+trap 'bash scripts/postgres-throwaway.sh stop "$pg_dir" || true; rm -rf "$log" "$junit" "$pg_dir"' EXIT
+pg_start=$(date +%s.%N)
+HULL_TEST_POSTGRES=$(bash scripts/postgres-throwaway.sh start "$pg_dir")
+export HULL_TEST_POSTGRES
+echo "test PostgreSQL: ${HULL_TEST_POSTGRES} (started in $(/usr/bin/python3 -c "import sys; print(f'{float(sys.argv[2]) - float(sys.argv[1]):.1f}')" "$pg_start" "$(date +%s.%N)") s)"
 set +e
 dotnet test Hull.sln -c Release --nologo 2>&1 | tee "$log"
 status=${PIPESTATUS[0]}

@@ -3,8 +3,8 @@ using System.Diagnostics;
 namespace Hull.Bench;
 
 /// <summary>
-/// "Ours whole-process": bench/Hull.Solve published with Native AOT, the way the engine is deployed as a command-line
-/// program. The hull suites publish it themselves before timing anything, so the executable they time is always
+/// "Ours whole-process": bench/Hull.Solve (and bench/Hull.Window for windows) published with Native AOT, the way the
+/// engine is deployed as a command-line program. The hull suites publish it themselves before timing anything, so the executable they time is always
 /// built from the current sources (the same PointsFileSolver.cs the in-process runs use).
 /// </summary>
 public static class NativeSolver
@@ -14,15 +14,21 @@ public static class NativeSolver
     /// <summary>Publishing on 2 busy cores takes about a minute from scratch; more than this means something hangs.</summary>
     private static readonly TimeSpan PublishTimeout = TimeSpan.FromMinutes(15);
 
-    public static string ProjectPath(string repoRoot) => Path.Combine(repoRoot, "bench", "Hull.Solve", "Hull.Solve.csproj");
+    /// <summary>The hull engine's executable (bench/Hull.Solve).</summary>
+    public const string HullTool = "Hull.Solve";
 
-    public static string PublishDirectory(string repoRoot) => Path.Combine(repoRoot, "bench", "Hull.Solve", "bin", "publish-aot");
+    /// <summary>The window vertex enumeration's executable (bench/Hull.Window).</summary>
+    public const string WindowTool = "Hull.Window";
 
-    public static string ExecutablePath(string repoRoot) => Path.Combine(PublishDirectory(repoRoot), "Hull.Solve");
+    public static string ProjectPath(string repoRoot, string tool = HullTool) => Path.Combine(repoRoot, "bench", tool, tool + ".csproj");
+
+    public static string PublishDirectory(string repoRoot, string tool = HullTool) => Path.Combine(repoRoot, "bench", tool, "bin", "publish-aot");
+
+    public static string ExecutablePath(string repoRoot, string tool = HullTool) => Path.Combine(PublishDirectory(repoRoot, tool), tool);
 
     /// <summary>The publish command, as a user would type it from the repository root.</summary>
-    public const string PublishCommand =
-        "dotnet publish bench/Hull.Solve/Hull.Solve.csproj -c Release -r " + RuntimeIdentifier + " -o bench/Hull.Solve/bin/publish-aot";
+    public static string PublishCommand(string tool = HullTool) =>
+        $"dotnet publish bench/{tool}/{tool}.csproj -c Release -r {RuntimeIdentifier} -o bench/{tool}/bin/publish-aot";
 
     /// <summary>Arguments of one whole-process run on a points file.</summary>
     public static IReadOnlyList<string> Arguments(string pointsFile) => [pointsFile];
@@ -32,7 +38,7 @@ public static class NativeSolver
     /// path. Trim and AOT warnings are errors in that project, so a publish that succeeds is AOT-clean.
     /// </summary>
     /// <exception cref="InvalidOperationException">The publish failed; the message gives the command to run by hand.</exception>
-    public static string Publish(string repoRoot)
+    public static string Publish(string repoRoot, string tool = HullTool)
     {
         var psi = new ProcessStartInfo(DotnetHost())
         {
@@ -41,7 +47,7 @@ public static class NativeSolver
             UseShellExecute = false,
             WorkingDirectory = repoRoot,
         };
-        foreach (var a in new[] { "publish", ProjectPath(repoRoot), "-c", "Release", "-r", RuntimeIdentifier, "-o", PublishDirectory(repoRoot), "--nologo" })
+        foreach (var a in new[] { "publish", ProjectPath(repoRoot, tool), "-c", "Release", "-r", RuntimeIdentifier, "-o", PublishDirectory(repoRoot, tool), "--nologo" })
         {
             psi.ArgumentList.Add(a);
         }
@@ -52,7 +58,7 @@ public static class NativeSolver
             psi.Environment.Remove(v);
         }
 
-        Console.WriteLine($"-- publishing the Native AOT solver: {PublishCommand}");
+        Console.WriteLine($"-- publishing the Native AOT executable {tool}: {PublishCommand(tool)}");
         var sw = Stopwatch.StartNew();
         string output;
         int exitCode;
@@ -65,7 +71,7 @@ public static class NativeSolver
             {
                 p.Kill(entireProcessTree: true);
                 p.WaitForExit();
-                throw Failure(repoRoot, $"did not finish within {PublishTimeout.TotalMinutes:F0} min", stdout.Result + stderr.Result);
+                throw Failure(repoRoot, tool, $"did not finish within {PublishTimeout.TotalMinutes:F0} min", stdout.Result + stderr.Result);
             }
             p.WaitForExit();
             output = stdout.Result + stderr.Result;
@@ -73,21 +79,21 @@ public static class NativeSolver
         }
         catch (System.ComponentModel.Win32Exception e)
         {
-            throw Failure(repoRoot, $"could not start '{psi.FileName}' ({e.Message})", "");
+            throw Failure(repoRoot, tool, $"could not start '{psi.FileName}' ({e.Message})", "");
         }
-        if (exitCode != 0) throw Failure(repoRoot, $"exited with code {exitCode}", output);
-        string exe = ExecutablePath(repoRoot);
-        if (!File.Exists(exe)) throw Failure(repoRoot, $"succeeded but {exe} is missing", output);
+        if (exitCode != 0) throw Failure(repoRoot, tool, $"exited with code {exitCode}", output);
+        string exe = ExecutablePath(repoRoot, tool);
+        if (!File.Exists(exe)) throw Failure(repoRoot, tool, $"succeeded but {exe} is missing", output);
         Console.WriteLine($"   published in {sw.Elapsed.TotalSeconds:F0} s: {exe}");
         return exe;
     }
 
-    private static InvalidOperationException Failure(string repoRoot, string what, string output)
+    private static InvalidOperationException Failure(string repoRoot, string tool, string what, string output)
     {
         var tail = output.Split('\n', StringSplitOptions.RemoveEmptyEntries).TakeLast(25);
         return new InvalidOperationException(
-            $"Publishing the Native AOT solver {what}. Run this from {repoRoot} to see why, and fix it before timing:\n"
-            + $"  {PublishCommand}\n"
+            $"Publishing the Native AOT executable {tool} {what}. Run this from {repoRoot} to see why, and fix it before timing:\n"
+            + $"  {PublishCommand(tool)}\n"
             + "(it needs the .NET SDK's ILCompiler package, which the SDK restores itself, and clang or gcc with the "
             + "system linker and zlib headers)\nLast lines of its output:\n" + string.Join('\n', tail));
     }

@@ -66,7 +66,7 @@ try
         Hull6d8dSuite.Name => Hull6d8dSuite.Run(options, work, repoRoot),
         Dataset60Suite.Name => Dataset60Suite.Run(options, work),
         FiguresSuite.Name => FiguresSuite.Run(options),
-        WindowsSuite.Name => WindowsSuite.Run(options, work),
+        WindowsSuite.Name => WindowsSuite.Run(options, work, repoRoot),
         DefectEwaldSuite.Name => DefectEwaldSuite.Run(options, repoRoot),
         ElectrochemistrySuite.Name => ElectrochemistrySuite.Run(options, work),
         EngineChoiceSuite.Name => EngineChoiceSuite.Run(options),

@@ -39,6 +39,23 @@ public sealed record BenchOptions
     /// <summary>Only compare the two ways to import (a call per batch, one session), repetitions interleaved; prints only.</summary>
     public bool ImportOnly { get; init; }
 
+    /// <summary>Only time `hull analyze` of the warm dataset as JSON and as CSV (--reps times, interleaved); prints only.</summary>
+    public bool OutputFormatsOnly { get; init; }
+
+    /// <summary>Only measure fresh servers' first second against their warm rate (--reps fresh servers per case); prints only.</summary>
+    public bool ColdStartOnly { get; init; }
+
+    /// <summary>Another server build to run side by side with this one (--reps fresh servers of each); prints only.</summary>
+    public string? CompareServerDll { get; init; }
+
+    /// <summary>The server and CLI builds to measure; null = this checkout's.</summary>
+    public string? ServerDll { get; init; }
+
+    public string? CliDll { get; init; }
+
+    /// <summary>Extra arguments for every server the run starts (e.g. "--warm-hulls 0").</summary>
+    public string[] ServerArgs { get; init; } = [];
+
     /// <summary>Folder for server traces (dotnet-trace) under 64-client load; null = no trace.</summary>
     public string? TraceDirectory { get; init; }
 
@@ -57,6 +74,12 @@ public sealed record BenchOptions
           --clients A,B,C      client counts (default 1,8,64)
           --no-pinned          skip the pinned-version runs
           --import-only        only the import, per-batch calls against one session side by side (--reps times, interleaved); prints only
+          --output-formats     only `hull analyze` of the warm dataset, --json against --csv (--reps times, interleaved); prints only
+          --cold-start         only fresh servers' first second against their warm rate (--reps servers per case); prints only
+          --compare-server DLL only this server against another build's Hull.Server.dll (--reps fresh servers each, interleaved); prints only
+          --server-dll DLL     the server build to measure (default: this checkout's)
+          --server-args "A B"  extra arguments for every server started (e.g. "--warm-hulls 0")
+          --cli-dll DLL        the CLI build --output-formats runs (default: this checkout's hull.dll)
           --trace DIR          after the measurements, trace the server for 10 s under 64 clients of each query kind
           --output FILE        write the results (default bench/SERVICE.md for a full run; nothing for --quick)
         """;
@@ -85,6 +108,12 @@ public sealed record BenchOptions
                 "--clients" => options with { ClientCounts = Value().Split(',').Select(c => Positive(c, "--clients")).ToArray() },
                 "--no-pinned" => options with { PinnedVersionRuns = false },
                 "--import-only" => options with { ImportOnly = true, OutputPath = null },
+                "--output-formats" => options with { OutputFormatsOnly = true, OutputPath = null },
+                "--cold-start" => options with { ColdStartOnly = true, OutputPath = null },
+                "--compare-server" => options with { CompareServerDll = Path.GetFullPath(Value()), OutputPath = null },
+                "--server-dll" => options with { ServerDll = Path.GetFullPath(Value()) },
+                "--server-args" => options with { ServerArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },
+                "--cli-dll" => options with { CliDll = Path.GetFullPath(Value()) },
                 "--trace" => options with { TraceDirectory = Path.GetFullPath(Value()) },
                 "--output" => options with { OutputPath = Path.GetFullPath(Value()) },
                 _ => throw new FormatException($"unknown option '{args[i]}'"),

@@ -38,12 +38,6 @@ public static class ImportComparison
                 $"repetition {r + 1}: calls {calls[^1].EntriesPerSecond:N0}/s, session {sessions[^1].EntriesPerSecond:N0}/s (load {ProcFiles.LoadAverage1Minute():F2})"));
         }
 
-        static double Median(IEnumerable<double> values)
-        {
-            double[] sorted = values.Order().ToArray();
-            return sorted.Length % 2 == 1 ? sorted[sorted.Length / 2] : (sorted[sorted.Length / 2 - 1] + sorted[sorted.Length / 2]) / 2;
-        }
-
         var text = new StringBuilder();
         text.AppendLine(CultureInfo.InvariantCulture, $"### Import: {entries.Count:N0} entries in {options.ImportBatches} batches, {options.Repetitions} repetitions, medians");
         text.AppendLine();
@@ -52,10 +46,10 @@ public static class ImportComparison
         foreach ((string name, List<ImportSample> samples, int versions) in new[] { ("a call per batch", calls, options.ImportBatches), ("one session", sessions, 1) })
         {
             text.AppendLine(CultureInfo.InvariantCulture,
-                $"| {name} | {versions} | {Median(samples.Select(s => s.EntriesPerSecond)):N0} | {samples.Min(s => s.EntriesPerSecond):N0}–{samples.Max(s => s.EntriesPerSecond):N0} | " +
-                $"{Median(samples.Select(s => s.BatchP50Ms)):F1} | {Median(samples.Select(s => s.BatchMaxMs)):F1} | {Median(samples.Select(s => s.ServerCpuCores)):F2} |");
+                $"| {name} | {versions} | {Medians.Of(samples.Select(s => s.EntriesPerSecond)):N0} | {samples.Min(s => s.EntriesPerSecond):N0}–{samples.Max(s => s.EntriesPerSecond):N0} | " +
+                $"{Medians.Of(samples.Select(s => s.BatchP50Ms)):F1} | {Medians.Of(samples.Select(s => s.BatchMaxMs)):F1} | {Medians.Of(samples.Select(s => s.ServerCpuCores)):F2} |");
         }
-        double ratio = Median(sessions.Select(s => s.EntriesPerSecond)) / Median(calls.Select(s => s.EntriesPerSecond));
+        double ratio = Medians.Of(sessions.Select(s => s.EntriesPerSecond)) / Medians.Of(calls.Select(s => s.EntriesPerSecond));
         text.AppendLine();
         text.AppendLine(CultureInfo.InvariantCulture, $"Session rate / per-call rate (medians): {ratio:F3}; load average at the end {ProcFiles.LoadAverages()}.");
         return text.ToString();

@@ -37,11 +37,23 @@ Console.Error.WriteLine("servicebench: warning: a Debug build; measure with -c R
 #else
 const string Configuration = "Release";
 #endif
-string serverDll = Path.Combine(root, "src", "Hull.Server", "bin", Configuration, "net10.0", "Hull.Server.dll");
+string serverDll = options.ServerDll ?? Path.Combine(root, "src", "Hull.Server", "bin", Configuration, "net10.0", "Hull.Server.dll");
 if (!File.Exists(serverDll))
 {
     Console.Error.WriteLine($"servicebench: the server is not built at {serverDll}; run `dotnet build -c {Configuration} src/Hull.Server`");
     return 2;
+}
+
+if (options.ColdStartOnly)
+{
+    Console.WriteLine(await ColdStart.RunAsync(serverDll, options));
+    return 0;
+}
+
+if (options.CompareServerDll is not null)
+{
+    Console.WriteLine(await ServerComparison.RunAsync(serverDll, options.CompareServerDll, options));
+    return 0;
 }
 
 DateTime started = DateTime.UtcNow;
@@ -51,13 +63,9 @@ string dataDirectory = Path.Combine(Path.GetTempPath(), $"hull-servicebench-{Env
 Directory.CreateDirectory(dataDirectory);
 try
 {
-    using ServerProcess server = await ServerProcess.StartAsync(serverDll, dataDirectory);
+    using ServerProcess server = await ServerProcess.StartAsync(serverDll, dataDirectory, options.ServerArgs);
     Console.WriteLine($"server pid {server.ProcessId} on {server.Address} (data {dataDirectory})");
-    GrpcChannel[] channels = Enumerable.Range(0, options.Channels).Select(_ => GrpcChannel.ForAddress(server.Address, new GrpcChannelOptions
-    {
-        MaxReceiveMessageSize = 64 * 1024 * 1024,
-        HttpHandler = new SocketsHttpHandler { EnableMultipleHttp2Connections = true },
-    })).ToArray();
+    GrpcChannel[] channels = Enumerable.Range(0, options.Channels).Select(_ => WarmDataset.Channel(server.Address)).ToArray();
     var datasets = new DatasetService.DatasetServiceClient(channels[0]);
     if (options.ImportOnly)
     {
@@ -70,42 +78,27 @@ try
     var diagnostics = new DiagnosticsService.DiagnosticsServiceClient(channels[0]);
     StabilityService.StabilityServiceClient[] stability = channels.Select(c => new StabilityService.StabilityServiceClient(c)).ToArray();
 
-    // The warm dataset, imported through the RPC like any client would.
-    const string WarmDataset = "warm";
-    List<Entry> warmEntries = new SyntheticOxides(seed: 1).Entries(options.WarmEntries, "w");
-    List<Candidate> candidates = new SyntheticOxides(seed: 7).Candidates(options.CandidatePool);
-    ImportSample warmImport = await ImportRun.RunAsync(datasets, WarmDataset, warmEntries, 1_000, server);
+    // The warm dataset, imported through the RPC like any client would, and every entry and candidate queried once.
+    WarmData warm = await WarmDataset.PrepareAsync(channels[0], options, server);
+    List<Entry> warmEntries = warm.Entries;
+    List<Candidate> candidates = warm.Candidates;
+    ImportSample warmImport = warm.Import;
+    long warmVersion = warm.Version;
+    double cacheWarmSeconds = warm.CacheWarmSeconds;
+    CacheStatistics afterWarming = warm.AfterWarming;
     Console.WriteLine($"warm import: {warmImport.Entries:N0} entries in {warmImport.Seconds:F2} s = {warmImport.EntriesPerSecond:N0}/s");
-
-    // Every entry once (in requests of 1,000 ids) builds and caches the hull of every chemical system present;
-    // every candidate once checks that they all answer.
-    long start = Stopwatch.GetTimestamp();
-    long warmVersion = 0;
-    foreach (Entry[] chunk in warmEntries.Chunk(1_000))
-    {
-        var request = new GetEntryStabilityRequest { Dataset = WarmDataset };
-        request.EntryIds.AddRange(chunk.Select(e => e.Id));
-        GetEntryStabilityResponse response = await stability[0].GetEntryStabilityAsync(request, deadline: DateTime.UtcNow.AddMinutes(5));
-        warmVersion = response.Used.Version;
-        for (int i = 0; i < chunk.Length; i++)
-        {
-            if (response.Results[i].EntryId != chunk[i].Id) throw new InvalidOperationException($"result {i} is {response.Results[i].EntryId}, not {chunk[i].Id}");
-        }
-    }
-
-    foreach (Candidate[] chunk in candidates.Chunk(1_000))
-    {
-        var request = new AssessCandidatesRequest { Dataset = WarmDataset };
-        request.Candidates.AddRange(chunk);
-        AssessCandidatesResponse response = await stability[0].AssessCandidatesAsync(request, deadline: DateTime.UtcNow.AddMinutes(5));
-        if (response.Results.Count != chunk.Length) throw new InvalidOperationException("a candidate went unanswered");
-    }
-
-    double cacheWarmSeconds = Stopwatch.GetElapsedTime(start).TotalSeconds;
-    CacheStatistics afterWarming = await diagnostics.GetCacheStatisticsAsync(new GetCacheStatisticsRequest());
     Console.WriteLine($"cache warm: {afterWarming.HullBuilds} hulls built in {cacheWarmSeconds:F2} s (version {warmVersion})");
 
-    var load = new QueryLoad(stability, WarmDataset, warmEntries.Select(e => e.Id).ToArray(), candidates);
+    if (options.OutputFormatsOnly)
+    {
+        string cliDll = options.CliDll ?? Path.Combine(root, "src", "Hull.Cli", "bin", Configuration, "net10.0", "hull.dll");
+        Console.WriteLine(await OutputFormats.RunAsync(cliDll, server.Address, options));
+        foreach (GrpcChannel channel in channels) channel.Dispose();
+        server.Stop();
+        return 0;
+    }
+
+    var load = new QueryLoad(stability, WarmDataset.Name, warmEntries.Select(e => e.Id).ToArray(), candidates);
     // A fresh server and client still run first-tier JIT code and compile the hot paths in the background; one
     // unrecorded run of each kind lets that settle before anything is measured.
     foreach (QueryKind kind in Enum.GetValues<QueryKind>())

@@ -21,10 +21,12 @@ public enum QueryKind
 /// <param name="ServerCpuCores">Server CPU seconds per wall second over the window (2.0 = both cores).</param>
 /// <param name="ClientCpuCores">Load generator CPU seconds per wall second.</param>
 /// <param name="OtherCpuCores">Every other process on the machine, from /proc/stat.</param>
+/// <param name="AnsweredInWindow">Calls started in the window that were answered before it closed (a cold server's
+/// first calls can outlast the window; <see cref="QueriesPerSecond"/> waits for them).</param>
 public sealed record LoadSample(
     QueryKind Kind, int Clients, string VersionMode, long Calls, long Errors, string? FirstError, double WindowSeconds,
     double QueriesPerSecond, double P50Ms, double P99Ms, double MaxMs,
-    double ServerCpuCores, double ClientCpuCores, double OtherCpuCores, double LoadAverage1Minute);
+    double ServerCpuCores, double ClientCpuCores, double OtherCpuCores, double LoadAverage1Minute, long AnsweredInWindow = 0);
 
 /// <summary>
 /// Closed-loop load: each client is its own sequential loop (send a query, await the answer, send the next), all
@@ -75,7 +77,8 @@ public sealed class QueryLoad(
             logs.Select(l => l.FirstError).FirstOrDefault(e => e is not null), windowSeconds,
             latencies.Length / windowSeconds, Milliseconds(Percentile(latencies, 0.50)), Milliseconds(Percentile(latencies, 0.99)),
             Milliseconds(latencies.Length == 0 ? 0 : latencies[^1]),
-            serverCpu / cpuSeconds, clientCpu / cpuSeconds, otherCpu / cpuSeconds, ProcFiles.LoadAverage1Minute());
+            serverCpu / cpuSeconds, clientCpu / cpuSeconds, otherCpu / cpuSeconds, ProcFiles.LoadAverage1Minute(),
+            logs.Sum(l => l.AnsweredBy(stopAt)));
     }
 
     /// <summary>Nearest-rank percentile of sorted values.</summary>
@@ -124,6 +127,7 @@ public sealed class QueryLoad(
             if (t0 >= measureFrom)
             {
                 log.LatencyTicks.Add(t1 - t0);
+                log.EndTicks.Add(t1);
                 log.LastEnd = Math.Max(log.LastEnd, t1);
             }
         }
@@ -134,6 +138,10 @@ public sealed class QueryLoad(
     private sealed class ClientLog
     {
         public List<long> LatencyTicks { get; } = new(16_384);
+
+        public List<long> EndTicks { get; } = new(16_384);
+
+        public long AnsweredBy(long time) => EndTicks.Count(t => t <= time);
 
         public long LastEnd { get; set; }
 

@@ -153,11 +153,7 @@ public static class ResultsReport
 
     private static string Name(QueryKind kind) => kind == QueryKind.EntryById ? "entry by id" : "ad-hoc composition";
 
-    private static double Median(IEnumerable<LoadSample> samples, Func<LoadSample, double> value)
-    {
-        double[] v = samples.Select(value).Order().ToArray();
-        return v.Length % 2 == 1 ? v[v.Length / 2] : (v[v.Length / 2 - 1] + v[v.Length / 2]) / 2;
-    }
+    private static double Median(IEnumerable<LoadSample> samples, Func<LoadSample, double> value) => Medians.Of(samples.Select(value));
 
     private static string Percent(double fraction) => (fraction * 100).ToString("F0", CultureInfo.InvariantCulture) + " %";
 }

@@ -27,7 +27,7 @@ public sealed class ServerProcess : IDisposable
     public bool HasExited => _process.HasExited;
 
     /// <summary>Starts the server on a free loopback port and waits for its "listening" line.</summary>
-    public static async Task<ServerProcess> StartAsync(string serverDll, string dataDirectory)
+    public static async Task<ServerProcess> StartAsync(string serverDll, string dataDirectory, IEnumerable<string>? extraArgs = null)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -35,7 +35,7 @@ public sealed class ServerProcess : IDisposable
             RedirectStandardError = true,
             UseShellExecute = false,
         };
-        foreach (string arg in new[] { serverDll, "--data-dir", dataDirectory, "--port", "0", "--host", "127.0.0.1" })
+        foreach (string arg in new[] { serverDll, "--data-dir", dataDirectory, "--port", "0", "--host", "127.0.0.1" }.Concat(extraArgs ?? []))
         {
             start.ArgumentList.Add(arg);
         }

@@ -29,7 +29,7 @@ catch (TlsFileException e)
 }
 catch (StoreException e)
 {
-    Console.Error.WriteLine($"hull-server: cannot open the store in '{options.DataDirectory}': {e.Message}");
+    Console.Error.WriteLine($"hull-server: cannot open the store {options.StoreDescription}: {e.Message}");
     return 3;
 }
 catch (Exception e) when (e is IOException or UnauthorizedAccessException)
@@ -38,7 +38,7 @@ catch (Exception e) when (e is IOException or UnauthorizedAccessException)
     return e is UnauthorizedAccessException ? 3 : 4;
 }
 
-Console.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.Store.DataDirectory})");
+Console.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.StoreLocation})");
 Console.Out.Flush();
 await server.WaitForShutdownAsync();
 await server.StopAsync();

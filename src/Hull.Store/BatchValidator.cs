@@ -41,6 +41,7 @@ internal static class BatchValidator
                     i, row.Id, nameof(EntryRow.Basis));
             }
             if (row.Metadata is not null) CheckText(i, row.Id, nameof(EntryRow.Metadata), row.Metadata);
+            if (row.TemperatureModel is { } model) CheckModel(i, row.Id, model);
             if (row.SigmaEvPerAtom is { } sigma && !(double.IsFinite(sigma) && sigma >= 0))
             {
                 throw new InvalidBatchException(
@@ -66,12 +67,55 @@ internal static class BatchValidator
         }
     }
 
+    // What the file could not hold or the server could not read back: the server's own checks come first.
+    private static void CheckModel(int i, string id, StoredTemperatureModel model)
+    {
+        const string field = nameof(EntryRow.TemperatureModel);
+        CheckText(i, id, field, model.Formula);
+        if (model.StandardEntropyJPerMolK is double entropy)
+        {
+            if (!double.IsFinite(entropy) || entropy < 0)
+            {
+                throw new InvalidBatchException($"row {i} (id '{id}'): the standard entropy is {entropy} J/(mol K); it must be finite and not negative", i, id, field);
+            }
+            return;
+        }
+        if (!StoredFreeEnergyAnchorTokens.IsAccepted(model.FreeEnergyAnchor))
+        {
+            throw new InvalidBatchException(
+                $"row {i} (id '{id}'): free-energy anchor '{model.FreeEnergyAnchor}' is not one of {string.Join(", ", StoredFreeEnergyAnchorTokens.All)}", i, id, field);
+        }
+        var points = model.FreeEnergyPoints;
+        if (points.Length < 2)
+        {
+            throw new InvalidBatchException($"row {i} (id '{id}'): the G(T) table has {points.Length} point{(points.Length == 1 ? "" : "s")}; it needs at least 2", i, id, field);
+        }
+        for (int k = 0; k < points.Length; k++)
+        {
+            StoredFreeEnergyPoint point = points[k];
+            bool ordered = k == 0 || point.TemperatureK > points[k - 1].TemperatureK;
+            if (!double.IsFinite(point.TemperatureK) || point.TemperatureK <= 0 || !double.IsFinite(point.FreeEnergyAboveAnchorEv) || !ordered)
+            {
+                throw new InvalidBatchException(
+                    $"row {i} (id '{id}'): G(T) point {k + 1} ({point.TemperatureK} K, {point.FreeEnergyAboveAnchorEv} eV) must have a finite temperature above 0 K, above the point before it, and a finite energy",
+                    i, id, field);
+            }
+        }
+    }
+
     // A lone UTF-16 surrogate cannot be encoded as UTF-8: SQLite would store U+FFFD instead, silently changing the text.
+    // U+0000 cannot be held by PostgreSQL's text (see StoreArguments.CheckStoredText).
     private static void CheckText(int rowIndex, string id, string field, string text)
     {
         for (int k = 0; k < text.Length; k++)
         {
             char c = text[k];
+            if (c == '\0')
+            {
+                throw new InvalidBatchException(
+                    $"row {rowIndex} (id '{id}'): {field} holds the character U+0000 at character {k + 1}; it cannot be stored",
+                    rowIndex, id, field);
+            }
             if (char.IsHighSurrogate(c) && k + 1 < text.Length && char.IsLowSurrogate(text[k + 1]))
             {
                 k++;

@@ -9,10 +9,15 @@ namespace Hull.Store;
 /// dataset or history, so a cache of results built from rows can key on it. The byte stream hashed is
 /// <c>"hull.store.content.v1\n"</c>, then for each row in <see cref="EntryIdOrder"/>: id, formula, energy, basis
 /// token, metadata. Each text is a 4-byte little-endian length of its UTF-8 bytes followed by those bytes; the
-/// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. A row with an energy uncertainty or a
-/// correlation group then adds the byte 'u', the σ's bits (NaN bits when none) and the group's text (empty when
-/// none); rows without either add nothing, so fingerprints of data without them are unchanged. Persisted fingerprints depend on this
-/// layout: change it only together with the prefix and a schema migration that clears stored fingerprints.
+/// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. A row with a temperature model then
+/// adds the marker FF FF FF FF (no text length is negative, so it cannot be read as the next row's id), a kind byte
+/// (1: standard entropy, 2: G(T) table), the model's formula text, and either the entropy's bits or the anchor token,
+/// a 4-byte little-endian point count and each point's temperature and free-energy bits. A row with an energy
+/// uncertainty or a correlation group then (after the model, when it has both) adds the byte 'u', the σ's bits (NaN
+/// bits when none) and the group's text (empty when none). A row with neither adds nothing, so every version without
+/// models and uncertainties keeps the fingerprint it had before they existed (and the prefix stays), and a row with
+/// only one of them keeps the layout it had before the other existed. Persisted fingerprints depend on this layout:
+/// change it only together with the prefix and a schema migration that clears stored fingerprints.
 /// </summary>
 public static class ContentFingerprint
 {
@@ -33,6 +38,11 @@ public static class ContentFingerprint
     /// <summary>Hashes rows fed in id order, one at a time, so a version can be fingerprinted while it streams.</summary>
     internal sealed class Builder : IDisposable
     {
+        // Where a row's temperature model begins: -1 where a text length would stand, which no text can have.
+        private const int ModelMarker = -1;
+        private const byte StandardEntropyKind = 1;
+        private const byte FreeEnergyTableKind = 2;
+
         private readonly IncrementalHash _hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         private byte[] _buffer = new byte[256];
 
@@ -52,6 +62,7 @@ public static class ContentFingerprint
             length += 8;
             WriteText(row.Basis, ref length);
             WriteText(row.Metadata ?? string.Empty, ref length);
+            if (row.TemperatureModel is { } model) WriteModel(model, ref length);
             if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
             {
                 Ensure(length + 9);
@@ -66,6 +77,37 @@ public static class ContentFingerprint
         public string Finish() => Convert.ToHexStringLower(_hash.GetHashAndReset());
 
         public void Dispose() => _hash.Dispose();
+
+        private void WriteModel(StoredTemperatureModel model, ref int length)
+        {
+            Ensure(length + 5);
+            BinaryPrimitives.WriteInt32LittleEndian(_buffer.AsSpan(length), ModelMarker);
+            _buffer[length + 4] = model.IsFreeEnergyTable ? FreeEnergyTableKind : StandardEntropyKind;
+            length += 5;
+            WriteText(model.Formula, ref length);
+            if (model.StandardEntropyJPerMolK is double entropy)
+            {
+                WriteDouble(entropy, ref length);
+                return;
+            }
+            WriteText(model.FreeEnergyAnchor!, ref length);
+            Ensure(length + 4);
+            BinaryPrimitives.WriteInt32LittleEndian(_buffer.AsSpan(length), model.FreeEnergyPoints.Length);
+            length += 4;
+            foreach (StoredFreeEnergyPoint point in model.FreeEnergyPoints)
+            {
+                WriteDouble(point.TemperatureK, ref length);
+                WriteDouble(point.FreeEnergyAboveAnchorEv, ref length);
+            }
+        }
+
+        // -0.0 + 0.0 is +0.0; every other value is unchanged, as for the energy.
+        private void WriteDouble(double value, ref int length)
+        {
+            Ensure(length + 8);
+            BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits(value + 0.0));
+            length += 8;
+        }
 
         private void WriteText(string text, ref int length)
         {

@@ -13,6 +13,7 @@ public sealed partial class DatasetStore
     {
         DatasetName.Validate(name);
         description ??= string.Empty;
+        StoreArguments.CheckStoredText(description, "description");
         DateTimeOffset now = _clock.GetUtcNow();
         return Write((connection, transaction) =>
         {

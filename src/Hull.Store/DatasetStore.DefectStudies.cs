@@ -6,8 +6,8 @@ namespace Hull.Store;
 // Defect studies: immutable versions of a study file, kept as given beside a dataset.
 public sealed partial class DatasetStore
 {
-    /// <summary>Longest study name accepted; names are labels, not documents.</summary>
-    public const int MaxStudyNameLength = 200;
+    /// <summary>As <see cref="IDatasetStore.MaxStudyNameLength"/>.</summary>
+    public const int MaxStudyNameLength = IDatasetStore.MaxStudyNameLength;
 
     /// <summary>
     /// Writes the study file's texts as a new version of <paramref name="studyName"/> in the dataset (1 for a new
@@ -18,10 +18,9 @@ public sealed partial class DatasetStore
     public DefectStudyRecord SaveDefectStudy(string datasetName, string studyName, string studyJson, string chargeStatesCsv, BatchProvenance provenance)
     {
         DatasetName.Validate(datasetName);
-        ArgumentNullException.ThrowIfNull(provenance);
-        CheckStudyName(studyName);
-        if (string.IsNullOrEmpty(studyJson)) throw new InvalidBatchException("the study document is empty", field: "study_json");
-        if (chargeStatesCsv is null) throw new InvalidBatchException("the charge-state table is missing", field: "charge_states_csv");
+        StoreArguments.CheckProvenance(provenance);
+        StoreArguments.CheckStudyName(studyName);
+        StoreArguments.CheckStudyTexts(studyJson, chargeStatesCsv);
         string fingerprint = DefectStudyFingerprint.Compute(studyJson, chargeStatesCsv);
         DateTimeOffset now = _clock.GetUtcNow();
 
@@ -52,7 +51,7 @@ public sealed partial class DatasetStore
     public DefectStudyRecord GetDefectStudy(string datasetName, string studyName, long? version = null)
     {
         DatasetName.Validate(datasetName);
-        CheckStudyName(studyName);
+        StoreArguments.CheckStudyName(studyName);
         return Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
@@ -85,12 +84,5 @@ public sealed partial class DatasetStore
             while (reader.Read()) result.Add((reader.GetString(0), reader.GetInt64(1)));
             return (IReadOnlyList<(string, long)>)result.AsReadOnly();
         });
-    }
-
-    private static void CheckStudyName(string studyName)
-    {
-        if (string.IsNullOrWhiteSpace(studyName)) throw new InvalidBatchException("a defect study needs a name", field: "study_name");
-        if (studyName.Length > MaxStudyNameLength) throw new InvalidBatchException($"a study name has at most {MaxStudyNameLength} characters", field: "study_name");
-        if (studyName.Any(char.IsControl)) throw new InvalidBatchException("a study name may not hold control characters", field: "study_name");
     }
 }

@@ -25,9 +25,9 @@ public sealed partial class DatasetStore
     public ImportSessionInfo BeginImport(string datasetName, DuplicatePolicy policy, BatchProvenance provenance, TimeSpan idleExpiry)
     {
         DatasetName.Validate(datasetName);
-        ArgumentNullException.ThrowIfNull(provenance);
-        CheckPolicy(policy);
-        CheckExpiry(idleExpiry);
+        StoreArguments.CheckProvenance(provenance);
+        StoreArguments.CheckPolicy(policy);
+        StoreArguments.CheckExpiry(idleExpiry);
         DateTimeOffset now = _clock.GetUtcNow();
         DateTimeOffset expires = now + idleExpiry;
         string sessionId = Convert.ToHexStringLower(RandomNumberGenerator.GetBytes(16));
@@ -39,7 +39,7 @@ public sealed partial class DatasetStore
                 VALUES ($s, $d, $p, $source, $note, $t, $e)
                 RETURNING session_key
                 """);
-            insert.With("$s", sessionId).With("$d", dataset.DatasetId).With("$p", PolicyToken(policy))
+            insert.With("$s", sessionId).With("$d", dataset.DatasetId).With("$p", StoreArguments.PolicyToken(policy))
                 .With("$source", provenance.SourceLabel ?? string.Empty).With("$note", provenance.Note ?? string.Empty)
                 .With("$t", UtcText.Write(now)).With("$e", expires.ToUnixTimeMilliseconds());
             long key = (long)insert.ExecuteScalar()!;
@@ -50,8 +50,8 @@ public sealed partial class DatasetStore
                     energy_ev    REAL NOT NULL,
                     energy_basis TEXT NOT NULL,
                     metadata     TEXT NOT NULL,
-                    energy_sigma_ev_per_atom REAL NULL,
-                    correlation_group        TEXT NULL
+                    {TemperatureModelColumns.StagingDefinitions},
+                    {UncertaintyColumns.StagingDefinitions}
                 )
                 """);
             create.ExecuteNonQuery();
@@ -68,7 +68,7 @@ public sealed partial class DatasetStore
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         ArgumentNullException.ThrowIfNull(rows);
-        CheckExpiry(idleExpiry);
+        StoreArguments.CheckExpiry(idleExpiry);
         EntryRow[] batch = [.. rows];
         BatchValidator.Validate(batch);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -76,17 +76,19 @@ public sealed partial class DatasetStore
         return Write((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
+            TemperatureModelColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
+            UncertaintyColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
             using SqliteCommand insert = connection.Command(transaction, $"""
-                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group)
-                VALUES ($id, $formula, $energy, $basis, $metadata, $sigma, $group)
+                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {UncertaintyColumns.Names})
+                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points, $sigma, $group)
                 """);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
             SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
             SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
-            SqliteParameter sigma = insert.Parameters.Add("$sigma", SqliteType.Real);
-            SqliteParameter group = insert.Parameters.Add("$group", SqliteType.Text);
+            var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insert);
+            var (sigma, group) = UncertaintyColumns.AddParameters(insert);
             insert.Prepare();
             foreach (EntryRow row in batch)
             {
@@ -96,8 +98,8 @@ public sealed partial class DatasetStore
                 energy.Value = row.EnergyEv + 0.0;
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
-                sigma.Value = row.SigmaEvPerAtom is { } s ? s + 0.0 : DBNull.Value;
-                group.Value = (object?)row.CorrelationGroup ?? DBNull.Value;
+                TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
+                UncertaintyColumns.Bind(row, sigma, group);
                 insert.ExecuteNonQuery();
             }
 
@@ -130,16 +132,24 @@ public sealed partial class DatasetStore
             string filter = tokens is null ? string.Empty
                 : tokens.Length == 0 ? "WHERE 0"
                 : "WHERE energy_basis IN (" + string.Join(", ", tokens.Select((_, i) => $"$b{i}")) + ")";
+            string staging = StagingTable(session.Key);
+            // A session begun before migration 5 has no model columns: its rows have no models.
+            string models = TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging)
+                ? TemperatureModelColumns.StagingNames
+                : "NULL, NULL, NULL, NULL";
+            // One begun before migration 6 has no uncertainty columns: its rows have none.
+            string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group FROM {StagingTable(session.Key)} {filter} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties} FROM {staging} {filter} ORDER BY rowid");
             for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 // Staging tables are appended to only, so rowid k+1 is the session's row k.
+                var (sigma, group) = UncertaintyColumns.Read(reader, 10);
                 var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
-                    reader.IsDBNull(6) ? null : reader.GetDouble(6), reader.IsDBNull(7) ? null : reader.GetString(7));
+                    TemperatureModelColumns.Read(reader, 6), sigma, group);
                 rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
             }
             return new StagedImport(
@@ -159,7 +169,8 @@ public sealed partial class DatasetStore
     /// <param name="sessionId">The session to commit.</param>
     /// <param name="checkedStagedCount">How many rows the caller checked (from <see cref="ReadStagedImport"/>); a batch
     /// staged since then would be written unchecked, so the commit is refused. Null commits whatever is staged.</param>
-    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null)
+    /// <param name="basedOn">The latest version the caller checked the rows against; null commits on whatever is latest.</param>
+    public ImportResult CommitImport(string sessionId, long? checkedStagedCount = null, long? basedOn = null)
     {
         ArgumentNullException.ThrowIfNull(sessionId);
         DateTimeOffset now = _clock.GetUtcNow();
@@ -172,8 +183,10 @@ public sealed partial class DatasetStore
                 throw new ImportSessionChangedException(sessionId, expected, session.StagedCount);
             }
             LiveVersion? previous = FindLatestLive(connection, transaction, session.DatasetId);
+            StoreArguments.CheckBase(session.DatasetName, basedOn, previous?.Version);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
+            string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
 
             int replaced = 0;
             if (session.Policy == DuplicatePolicy.Replace)
@@ -187,8 +200,8 @@ public sealed partial class DatasetStore
 
             // The open-row index refuses a second open row of an id: a repeat inside the session, or (Reject) a stored id.
             using (SqliteCommand move = connection.Command(transaction, $"""
-                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version)
-                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, $v FROM {staging} ORDER BY rowid
+                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {UncertaintyColumns.Names}, first_version)
+                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, {uncertainties}, $v FROM {staging} ORDER BY rowid
                        """))
             {
                 try
@@ -199,6 +212,20 @@ public sealed partial class DatasetStore
                 {
                     throw DescribeCommitDuplicate(connection, transaction, session, staging, previous);
                 }
+            }
+
+            // The models go to the rows just moved: ids are unique in the session, so (id, new version) finds each.
+            // CROSS JOIN keeps the staging table outside: each of its rows finds its entry by index, where the
+            // planner's own order scanned the unindexed staging table once per entry row (quadratic in the import).
+            if (TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging))
+            {
+                using SqliteCommand models = connection.Command(transaction, $"""
+                    INSERT INTO entry_temperature_models (row_id, formula, standard_entropy_j_per_mol_k, free_energy_anchor, free_energy_points)
+                    SELECT e.row_id, s.model_formula, s.standard_entropy_j_per_mol_k, s.free_energy_anchor, s.free_energy_points
+                    FROM {staging} AS s CROSS JOIN entries AS e ON e.dataset_id = $d AND e.entry_id = s.entry_id AND e.first_version = $v
+                    WHERE s.model_formula IS NOT NULL
+                    """);
+                models.With("$d", session.DatasetId).With("$v", newVersion).ExecuteNonQuery();
             }
 
             int count = checked((int)session.StagedCount);
@@ -239,7 +266,7 @@ public sealed partial class DatasetStore
             var sessions = new List<ImportSessionInfo>();
             while (reader.Read())
             {
-                sessions.Add(new ImportSessionInfo(reader.GetString(0), datasetName, ParsePolicy(reader.GetString(1)), reader.GetInt64(2),
+                sessions.Add(new ImportSessionInfo(reader.GetString(0), datasetName, StoreArguments.ParsePolicy(reader.GetString(1)), reader.GetInt64(2),
                     DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(3))));
             }
             return sessions;
@@ -299,7 +326,7 @@ public sealed partial class DatasetStore
         using SqliteDataReader reader = command.ExecuteReader();
         if (!reader.Read()) throw new ImportSessionNotFoundException(sessionId, expired: false);
         if (reader.GetInt64(8) <= now.ToUnixTimeMilliseconds()) throw new ImportSessionNotFoundException(sessionId, expired: true);
-        return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), ParsePolicy(reader.GetString(4)),
+        return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3), StoreArguments.ParsePolicy(reader.GetString(4)),
             new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7), DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)));
     }
 
@@ -318,9 +345,7 @@ public sealed partial class DatasetStore
             {
                 int index = checked((int)(reader.GetInt64(0) - 1));
                 int first = checked((int)(reader.GetInt64(2) - 1));
-                return new DuplicateEntryException(
-                    $"id '{reader.GetString(1)}' repeats entry {first + 1} of this import; ids must be unique within an import",
-                    index, reader.GetString(1), first, existingVersion: null);
+                return StoreArguments.RepeatedInSession(index, reader.GetString(1), first);
             }
         }
 
@@ -333,9 +358,7 @@ public sealed partial class DatasetStore
         if (!found.Read()) throw new InvalidOperationException("a unique constraint failed at commit, but no staged id repeats or is stored");
         int row = checked((int)(found.GetInt64(0) - 1));
         string id = found.GetString(1);
-        return new DuplicateEntryException(
-            $"id '{id}' is already in dataset '{session.DatasetName}' version {previous?.Version}",
-            row, id, firstRowIndex: null, existingVersion: previous?.Version);
+        return StoreArguments.AlreadyStored(row, id, session.DatasetName, previous?.Version, rowPrefix: false);
     }
 
     private static void DropSession(SqliteConnection connection, SqliteTransaction transaction, long key)
@@ -375,21 +398,4 @@ public sealed partial class DatasetStore
         }
         return StagingKeys(connection, transaction).Where(k => !open.Contains(k)).ToList();
     }
-
-    private static void CheckPolicy(DuplicatePolicy policy)
-    {
-        if (policy is not (DuplicatePolicy.Reject or DuplicatePolicy.Replace))
-        {
-            throw new ArgumentOutOfRangeException(nameof(policy), policy, "not a defined duplicate policy");
-        }
-    }
-
-    private static void CheckExpiry(TimeSpan idleExpiry)
-    {
-        if (idleExpiry <= TimeSpan.Zero) throw new ArgumentOutOfRangeException(nameof(idleExpiry), idleExpiry, "must be positive");
-    }
-
-    private static string PolicyToken(DuplicatePolicy policy) => policy == DuplicatePolicy.Replace ? "replace" : "reject";
-
-    private static DuplicatePolicy ParsePolicy(string token) => token == "replace" ? DuplicatePolicy.Replace : DuplicatePolicy.Reject;
 }

@@ -18,11 +18,11 @@ public sealed partial class DatasetStore
     /// <exception cref="InvalidBatchException">Empty batch or a faulty row (index, id and field named); nothing written.</exception>
     /// <exception cref="DuplicateEntryException">A repeated id, as above; nothing written.</exception>
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
-    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance)
+    public ImportResult ImportBatch(string datasetName, IReadOnlyList<EntryRow> rows, DuplicatePolicy policy, BatchProvenance provenance, long? basedOn = null)
     {
         DatasetName.Validate(datasetName);
-        ArgumentNullException.ThrowIfNull(provenance);
-        CheckPolicy(policy);
+        StoreArguments.CheckProvenance(provenance);
+        StoreArguments.CheckPolicy(policy);
         ArgumentNullException.ThrowIfNull(rows);
         // A private copy: what was validated is exactly what gets written, whatever the caller does with its list.
         EntryRow[] batch = [.. rows];
@@ -33,6 +33,7 @@ public sealed partial class DatasetStore
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion? previous = FindLatestLive(connection, transaction, dataset.DatasetId);
+            StoreArguments.CheckBase(datasetName, basedOn, previous?.Version);
             long newVersion = dataset.LastVersionIssued + 1;
 
             using SqliteCommand close = connection.Command(transaction, """
@@ -53,9 +54,11 @@ public sealed partial class DatasetStore
             SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
-            SqliteParameter sigma = insert.Parameters.Add("$sigma", SqliteType.Real);
-            SqliteParameter group = insert.Parameters.Add("$group", SqliteType.Text);
+            var (sigma, group) = UncertaintyColumns.AddParameters(insert);
             insert.Prepare();
+
+            using SqliteCommand insertModel = TemperatureModelColumns.InsertForLastEntry(connection, transaction);
+            var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insertModel);
 
             int inserted = 0, replaced = 0;
             for (int i = 0; i < batch.Length; i++)
@@ -78,18 +81,20 @@ public sealed partial class DatasetStore
                 energy.Value = row.EnergyEv + 0.0;
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
-                sigma.Value = row.SigmaEvPerAtom is { } s ? s + 0.0 : DBNull.Value;
-                group.Value = (object?)row.CorrelationGroup ?? DBNull.Value;
+                UncertaintyColumns.Bind(row, sigma, group);
                 try
                 {
                     insert.ExecuteNonQuery();
+                    if (row.TemperatureModel is not null)
+                    {
+                        TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
+                        insertModel.ExecuteNonQuery();
+                    }
                 }
                 catch (SqliteException e) when (e.SqliteExtendedErrorCode == SqliteConstraintUnique && policy == DuplicatePolicy.Reject)
                 {
                     // Only an open row of the same id can collide: repeats inside the batch were refused before.
-                    throw new DuplicateEntryException(
-                        $"row {i}: id '{row.Id}' is already in dataset '{datasetName}' version {previous?.Version}",
-                        i, row.Id, firstRowIndex: null, existingVersion: previous?.Version);
+                    throw StoreArguments.AlreadyStored(i, row.Id, datasetName, previous?.Version, rowPrefix: true);
                 }
             }
 

@@ -8,20 +8,27 @@ public sealed partial class DatasetStore
 {
     // The rows visible at version $k (see Schema).
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
-    private const string EntryColumns = "entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group";
+    // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join},
+    // then its energy uncertainty's.
+    private const string EntryColumns =
+        "entries.entry_id, entries.formula, entries.energy_ev, entries.energy_basis, entries.metadata, " + TemperatureModelColumns.Select
+        + ", entries.energy_sigma_ev_per_atom, entries.correlation_group";
 
     /// <summary>
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
     /// commit to the database by any connection or process (see <see cref="LatestVersionMemory"/>).
     /// </summary>
-    public long GetLatestVersion(string datasetName)
+    public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
+
+    /// <inheritdoc />
+    public DatasetLatest GetLatest(string datasetName)
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
         return _latest.Get(datasetName, () => Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-            return FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
+            return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion);
         }));
     }
 
@@ -56,10 +63,7 @@ public sealed partial class DatasetStore
     public EntryPage GetEntries(string datasetName, long? version, string? afterId, int limit)
     {
         DatasetName.Validate(datasetName);
-        if (limit < 1 || limit > MaxPageSize)
-        {
-            throw new ArgumentOutOfRangeException(nameof(limit), limit, $"a page holds 1 to {MaxPageSize} entries");
-        }
+        StoreArguments.CheckPageLimit(limit);
         return Read((connection, transaction) =>
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
@@ -87,7 +91,7 @@ public sealed partial class DatasetStore
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             LiveVersion live = ResolveVersion(connection, transaction, dataset, version);
             using SqliteCommand command = connection.Command(transaction,
-                    $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND entry_id = $id AND {VisibleAtK}")
+                    $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = $d AND entry_id = $id AND {VisibleAtK}")
                 .With("$d", dataset.DatasetId).With("$id", entryId).With("$k", live.Version);
             using SqliteDataReader reader = command.ExecuteReader();
             return reader.Read() ? ReadEntry(reader) : null;
@@ -182,9 +186,7 @@ public sealed partial class DatasetStore
         if (version is null)
         {
             return FindLatestLive(connection, transaction, dataset.DatasetId)
-                   ?? throw new VersionNotFoundException(dataset.Name, null, dataset.LastVersionIssued == 0
-                       ? $"dataset '{dataset.Name}' has no version yet; import a batch first"
-                       : $"dataset '{dataset.Name}' has no live version: all of its {dataset.LastVersionIssued} versions were deleted");
+                   ?? throw StoreArguments.NoLiveVersion(dataset.Name, dataset.LastVersionIssued);
         }
 
         long k = version.Value;
@@ -192,16 +194,8 @@ public sealed partial class DatasetStore
             "SELECT entry_count, deleted_at_utc FROM dataset_versions WHERE dataset_id = $d AND version = $v")
             .With("$d", dataset.DatasetId).With("$v", k);
         using SqliteDataReader reader = command.ExecuteReader();
-        if (!reader.Read())
-        {
-            string range = dataset.LastVersionIssued == 0 ? "it has no version yet" : $"its versions run from 1 to {dataset.LastVersionIssued}";
-            throw new VersionNotFoundException(dataset.Name, k, $"dataset '{dataset.Name}' has no version {k}; {range}");
-        }
-        if (!reader.IsDBNull(1))
-        {
-            throw new VersionNotFoundException(dataset.Name, k,
-                $"version {k} of dataset '{dataset.Name}' was deleted at {reader.GetString(1)}");
-        }
+        if (!reader.Read()) throw StoreArguments.NoSuchVersion(dataset.Name, k, dataset.LastVersionIssued);
+        if (!reader.IsDBNull(1)) throw StoreArguments.DeletedVersion(dataset.Name, k, reader.GetString(1));
         return new LiveVersion(k, reader.GetInt64(0));
     }
 
@@ -219,13 +213,14 @@ public sealed partial class DatasetStore
 
     /// <summary>The query for one version's rows in id order; parameters $d, $k, and $after / $limit when asked for.</summary>
     internal static string VisibleRowsSql(bool afterId, bool limit) =>
-        $"SELECT {EntryColumns} FROM entries WHERE dataset_id = $d AND {VisibleAtK}" +
-        (afterId ? " AND entry_id > $after" : string.Empty) + " ORDER BY entry_id" + (limit ? " LIMIT $limit" : string.Empty);
+        $"SELECT {EntryColumns} FROM entries {TemperatureModelColumns.Join} WHERE dataset_id = $d AND {VisibleAtK}" +
+        (afterId ? " AND entry_id > $after" : string.Empty) + " ORDER BY entries.entry_id" + (limit ? " LIMIT $limit" : string.Empty);
 
     private static EntryRow ReadEntry(SqliteDataReader reader)
     {
+        var (sigma, group) = UncertaintyColumns.Read(reader, 9);
         return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
-            reader.IsDBNull(5) ? null : reader.GetDouble(5), reader.IsDBNull(6) ? null : reader.GetString(6));
+            TemperatureModelColumns.Read(reader, 5), sigma, group);
     }
 
     // Keeps a computed fingerprint with its version when no write is in progress; otherwise the next request computes
@@ -242,6 +237,7 @@ public sealed partial class DatasetStore
                 WHERE dataset_id = $d AND version = $v AND content_sha256 IS NULL
                 """, ("$f", fingerprint), ("$d", datasetId), ("$v", version));
             transaction.Commit();
+            _signal.CommittedHere();
         }
         catch (SqliteException)
         {

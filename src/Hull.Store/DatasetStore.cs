@@ -8,17 +8,16 @@ namespace Hull.Store;
 /// Thread-safe: each operation takes its own pooled connection; reads run concurrently on consistent snapshots,
 /// writes go one at a time. Every import creates a new immutable version; older versions read the same forever.
 /// </summary>
-public sealed partial class DatasetStore : IDisposable
+public sealed partial class DatasetStore : IDatasetStore
 {
     /// <summary>Name of the database file inside the data directory.</summary>
     public const string DatabaseFileName = "hull-store.sqlite3";
 
-    /// <summary>What <see cref="GetLatestVersion"/> and summaries report for a dataset without any live version.</summary>
-    public const long NoVersion = 0;
+    /// <summary>As <see cref="IDatasetStore.NoVersion"/> (kept here for callers that name the SQLite store).</summary>
+    public const long NoVersion = IDatasetStore.NoVersion;
 
-    /// <summary>Largest page <see cref="GetEntries(string, long?, string?, int)"/> returns: bounds one call's memory
-    /// (a few MB) while keeping the per-page overhead small next to the rows.</summary>
-    public const int MaxPageSize = 10_000;
+    /// <summary>As <see cref="IDatasetStore.MaxPageSize"/>.</summary>
+    public const int MaxPageSize = IDatasetStore.MaxPageSize;
 
     // A health probe waits this long for an import in progress to finish; longer means the store is not answering.
     private static readonly TimeSpan HealthWriteWait = TimeSpan.FromSeconds(10);
@@ -27,6 +26,7 @@ public sealed partial class DatasetStore : IDisposable
     private const int SqliteNotADatabase = 26;
 
     private readonly ConnectionFactory _connections;
+    private readonly DataVersionSignal _signal;
     private readonly LatestVersionMemory _latest;
     private readonly TimeProvider _clock;
 
@@ -34,16 +34,20 @@ public sealed partial class DatasetStore : IDisposable
     private readonly SemaphoreSlim _writeGate = new(1, 1);
     private int _disposed;
 
-    private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock)
+    private DatasetStore(ConnectionFactory connections, string dataDirectory, TimeProvider clock, TimeSpan crossProcessWindow)
     {
         _connections = connections;
-        _latest = new LatestVersionMemory(connections);
+        _signal = new DataVersionSignal(connections, crossProcessWindow);
+        _latest = new LatestVersionMemory(_signal);
         _clock = clock;
         DataDirectory = dataDirectory;
     }
 
     /// <summary>The absolute data directory the store lives in.</summary>
     public string DataDirectory { get; }
+
+    /// <summary>The data directory: where an SQLite store lives.</summary>
+    public string Location => DataDirectory;
 
     /// <summary>The absolute path of the database file.</summary>
     public string DatabasePath => _connections.DatabasePath;
@@ -55,7 +59,12 @@ public sealed partial class DatasetStore : IDisposable
     /// </summary>
     /// <param name="dataDirectory">Directory holding the database file.</param>
     /// <param name="clock">Source of commit times; the system clock when null.</param>
-    public static DatasetStore Open(string dataDirectory, TimeProvider? clock = null)
+    public static DatasetStore Open(string dataDirectory, TimeProvider? clock = null) =>
+        Open(dataDirectory, clock, DataVersionSignal.DefaultCrossProcessWindow);
+
+    /// <summary>As <see cref="Open(string, TimeProvider?)"/>, with the time another process's commit may go unseen
+    /// by "latest version" questions (see <see cref="DataVersionSignal"/>); for tests.</summary>
+    internal static DatasetStore Open(string dataDirectory, TimeProvider? clock, TimeSpan crossProcessWindow)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(dataDirectory);
         clock ??= TimeProvider.System;
@@ -81,7 +90,7 @@ public sealed partial class DatasetStore : IDisposable
         {
             throw new StoreCorruptException(path, "the file is not an SQLite database", e);
         }
-        return new DatasetStore(new ConnectionFactory(path), directory, clock);
+        return new DatasetStore(new ConnectionFactory(path), directory, clock, crossProcessWindow);
     }
 
     /// <summary>True only when the database file is there and its schema table can be read and written.</summary>
@@ -124,6 +133,7 @@ public sealed partial class DatasetStore : IDisposable
                 return false;
             }
             transaction.Commit();
+            _signal.CommittedHere();
             problem = null;
             return true;
         }
@@ -169,6 +179,7 @@ public sealed partial class DatasetStore : IDisposable
             using SqliteTransaction transaction = connection.BeginTransaction(deferred: false);
             T result = body(connection, transaction);
             transaction.Commit();
+            _signal.CommittedHere();
             return result;
         }
         finally

@@ -47,18 +47,22 @@ public sealed class DemoTests
         Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-carriers-O-rich.svg")));
         Assert.True(File.Exists(Path.Combine(figures, "defects", "Al2O3-carriers-O-rich-to-Al-rich.svg")));
         Assert.Contains("along the window from the O-rich to the Al-rich vertex", run.Out);
+        Assert.Contains("12. Temperature and oxygen pressure: when does the delithiated cathode give off oxygen?", run.Out);
+        Assert.Contains("decomposes above  LiCo2O4 -> 1/3 Co3O4 + LiCoO2", run.Out);
+        Assert.Contains("released oxygen and hot cathodes are a fire hazard", run.Out);
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();
             Assert.Equal(
                 ["binary-Li-O.svg", "odds-Li-Co-O.svg", "pseudo-ternary-layered-oxides.svg", "quaternary-Li-Co-Ni-O.svg",
-                 "reaction-coat-Al2O3-corundum-ter-LiMn2O4-spinel.svg", "ternary-Li-Co-O.svg", "voltage-Li-into-CoO2.svg"],
+                 "reaction-coat-Al2O3-corundum-ter-LiMn2O4-spinel.svg", "ternary-Li-Co-O.svg", "thermo-Li-Co-O-in-air.svg", "voltage-Li-into-CoO2.svg",
+                 "window-ter-LiCoO2-r3m.svg"],
                 files.Select(Path.GetFileName));
             // Profile figures (voltage, reaction) label only their plateaus or minimum; phase diagrams label every stable phase.
             foreach (string file in files)
             {
                 string name = Path.GetFileName(file);
-                AssertNoLabelOverlaps(XDocument.Load(file), name, name.StartsWith("voltage-", StringComparison.Ordinal) || name.StartsWith("reaction-", StringComparison.Ordinal) ? 1 : 3);
+                AssertNoLabelOverlaps(XDocument.Load(file), name, name.StartsWith("voltage-", StringComparison.Ordinal) || name.StartsWith("reaction-", StringComparison.Ordinal) || name.StartsWith("thermo-", StringComparison.Ordinal) ? 1 : 3);
             }
         }
         finally

@@ -56,7 +56,7 @@ public sealed class ImportInterruptionTests : IDisposable
         client.Kill();
 
         Assert.Empty(server.Store.ListVersions("big"));
-        Assert.Equal(0, CountRows(server.Store.DatabasePath, "entries"));
+        Assert.Equal(0, CountRows(((DatasetStore)server.Store).DatabasePath, "entries"));
         long staged = server.Store.CountStagedRows();
         Assert.InRange(staged, 9_000, Entries - 1);
         await WaitUntilAsync(() => server.Store.CountStagedRows() == 0, "the lapsed session's rows to be removed");
@@ -118,7 +118,7 @@ public sealed class ImportInterruptionTests : IDisposable
 
         Assert.NotEqual(0, await import);
         Assert.Contains("hull: cancelled", progress.Text);
-        Assert.Equal(0, CountRows(server.Store.DatabasePath, "entries"));
+        Assert.Equal(0, CountRows(((DatasetStore)server.Store).DatabasePath, "entries"));
         Assert.Empty(server.Store.ListVersions("big"));
         Assert.Equal(0, server.Store.CountStagedRows());
         Assert.Empty(server.Store.ListImports("big"));

@@ -81,4 +81,25 @@ public sealed class WindowCommandTests : IAsyncLifetime
         Assert.Equal(0, miss.ExitCode);
         Assert.Contains("the slice misses the window", miss.Out);
     }
+
+    [Fact]
+    public async Task Window_figure_writes_the_svg_and_lists_the_drawn_vertices()
+    {
+        string path = Path.Combine(_folder, "licoo2-window.svg");
+        var run = await CliRun.RunAsync("window-figure", "w", "LiCoO2", "--x", "Li", "--y", "Co", "--output", path, "--server", Server, "--csv");
+        Assert.Equal(0, run.ExitCode);
+        string svg = File.ReadAllText(path);
+        Assert.StartsWith("<?xml", svg, StringComparison.Ordinal);
+        Assert.Contains("x-element=\"Li\" y-element=\"Co\" dependent=\"O\"", svg, StringComparison.Ordinal);
+        string[] rows = run.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("vertex,dmu_Co_ev,dmu_Li_ev,dmu_O_ev,Li_volts_vs_metal,limiting_phases,at_reference", rows[0]);
+        int markers = svg.Split("data-kind=\"window-vertex\"").Length - 1;
+        Assert.Equal(rows.Length - 1, markers);
+
+        var table = await CliRun.RunAsync("window-figure", "w", "LiCoO2", "--output", path, "--server", Server);
+        Assert.Contains("drawn on dmu_Co (x) and dmu_Li (y), dmu_O from the compound's energy", table.Out);
+        var section = await CliRun.RunAsync("window-figure", "w", "LiCoO2", "--at", "O=-1", "--output", path, "--server", Server);
+        Assert.Equal(ExitCodes.Rejected, section.ExitCode);
+        Assert.Contains("takes no section potentials", section.Err);
+    }
 }

@@ -22,10 +22,11 @@ public sealed class HealthAndReflectionTests
         Assert.Equal(HealthCheckResponse.Types.ServingStatus.Serving, (await health.CheckAsync(new HealthCheckRequest(), s.Clients.Call())).Status);
 
         // Take the database file away: the store is no longer usable, and the check says so on the next call.
-        File.Move(s.Server.Store.DatabasePath, s.Server.Store.DatabasePath + ".moved");
+        string database = ((DatasetStore)s.Server.Store).DatabasePath;
+        File.Move(database, database + ".moved");
         Assert.Equal(HealthCheckResponse.Types.ServingStatus.NotServing, (await health.CheckAsync(new HealthCheckRequest(), s.Clients.Call())).Status);
 
-        File.Move(s.Server.Store.DatabasePath + ".moved", s.Server.Store.DatabasePath);
+        File.Move(database + ".moved", database);
         Assert.Equal(HealthCheckResponse.Types.ServingStatus.Serving, (await health.CheckAsync(new HealthCheckRequest(), s.Clients.Call())).Status);
     }
 
@@ -43,6 +44,7 @@ public sealed class HealthAndReflectionTests
         Assert.Contains("hull.v1.StabilityService", services);
         Assert.Contains("hull.v1.DiagnosticsService", services);
         Assert.Contains("hull.v1.ElectrochemistryService", services);
+        Assert.Contains("hull.v1.ThermoService", services);
         Assert.Contains("grpc.health.v1.Health", services);
 
         await call.RequestStream.WriteAsync(new ServerReflectionRequest { FileContainingSymbol = "hull.v1.StabilityService" });

@@ -39,9 +39,22 @@ public sealed class ServerCommandLineTests
     [InlineData(new[] { "--host", "example" }, "--host 'example' is not an IP address")]
     [InlineData(new[] { "--max-entries-per-system", "0" }, "--max-entries-per-system must be at least 1")]
     [InlineData(new[] { "--log-level", "loud" }, "--log-level 'loud' is not one of")]
+    [InlineData(new[] { "--data-dir", "/d", "--postgres", "Host=db" }, "give --data-dir or --postgres, not both")]
+    [InlineData(new[] { "--postgres", "Host=db;Colour=blue" }, "--postgres: the PostgreSQL connection string cannot be read")]
+    [InlineData(new[] { "--postgres", "Database=hull" }, "--postgres: the PostgreSQL connection string names no Host")]
     public void Bad_options_are_named(string[] args, string expected)
     {
         Assert.Null(ServerCommandLine.Parse(args, out string? error, out _));
         Assert.Contains(expected, error);
+    }
+
+    [Fact]
+    public void A_postgres_connection_selects_the_shared_store_and_is_described_without_its_password()
+    {
+        HullServerOptions? options = ServerCommandLine.Parse(["--postgres", "Host=db.example;Database=hull;Username=u;Password=secret"], out string? error, out _);
+        Assert.Null(error);
+        Assert.Equal("Host=db.example;Database=hull;Username=u;Password=secret", options!.PostgresConnectionString);
+        Assert.Equal("postgresql://u@db.example:5432/hull", options.StoreDescription);
+        Assert.Null(ServerCommandLine.Parse(["--data-dir", "/d"], out _, out _)!.PostgresConnectionString);
     }
 }

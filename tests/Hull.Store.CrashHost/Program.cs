@@ -2,16 +2,24 @@ using System.Diagnostics;
 using Hull.Store;
 using Hull.Store.CrashHost;
 
-// Usage: Hull.Store.CrashHost <data-directory> <batches> <rows-per-batch>
+// Usage: Hull.Store.CrashHost <data-directory | postgresql:connection-string> <batches> <rows-per-batch>
+//        Hull.Store.CrashHost <data-directory | postgresql:connection-string> --shared WRITER <batches> <rows-per-batch>
+// The second form is one writer of the shared-dataset test (see SharedWriter).
 // Continues from the last committed batch: with versions 1..n present, the next batch is n (version n + 1).
 // Prints "committed <version>" after each commit returns; only then has the batch been reported to the test.
+if (args.Length == 5 && args[1] == "--shared" && int.TryParse(args[3], out int sharedBatches) && int.TryParse(args[4], out int sharedRows))
+{
+    using IDatasetStore shared = HostStore.Open(args[0]);
+    return SharedWriter.Run(shared, args[2], sharedBatches, sharedRows);
+}
+
 if (args.Length != 3 || !int.TryParse(args[1], out int batches) || !int.TryParse(args[2], out int rowsPerBatch))
 {
-    Console.Error.WriteLine("usage: Hull.Store.CrashHost <data-directory> <batches> <rows-per-batch>");
+    Console.Error.WriteLine("usage: Hull.Store.CrashHost <data-directory | postgresql:connection-string> <batches> <rows-per-batch>");
     return 64;
 }
 
-using DatasetStore store = DatasetStore.Open(args[0]);
+using IDatasetStore store = HostStore.Open(args[0]);
 if (!store.ListDatasets().Any(d => d.Name == CrashBatches.DatasetName))
 {
     store.CreateDataset(CrashBatches.DatasetName, "crash-safety test data");

@@ -1,16 +1,18 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>A batch with one bad row changes nothing, says which row, and burns no version number.</summary>
-public sealed class AtomicityTests : IDisposable
+public abstract class AtomicityTests : IDisposable
 {
     private const string Dataset = "atoms";
-    private readonly TempDirectory _directory = new();
-    private readonly DatasetStore _store;
+    private readonly StoreLocation _directory;
+    private readonly IDatasetStore _store;
     private readonly IReadOnlyList<EntryRow> _before;
 
-    public AtomicityTests()
+    protected AtomicityTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path);
+        _directory = backend.NewLocation();
+        _store = _directory.Open();
         _store.CreateDataset(Dataset);
         _store.ImportBatch(Dataset, [Rows.Make("a", -1), Rows.Make("b", -2), Rows.Make("c", -3)], DuplicatePolicy.Reject, BatchProvenance.None);
         _before = _store.GetEntries(Dataset);
@@ -33,6 +35,8 @@ public sealed class AtomicityTests : IDisposable
         { "undefined basis", Rows.Make("x3", basis: "total_per_electron"), nameof(EntryRow.Basis) },
         { "unpaired surrogate in metadata", Rows.Make("x3", metadata: "ok \uD800 broken"), nameof(EntryRow.Metadata) },
         { "unpaired surrogate in id", Rows.Make("x\uDC00"), nameof(EntryRow.Id) },
+        { "U+0000 in metadata (PostgreSQL text cannot hold it)", Rows.Make("x3", metadata: "a\0b"), nameof(EntryRow.Metadata) },
+        { "U+0000 in id", Rows.Make("x\0"), nameof(EntryRow.Id) },
         { "null row", null, null },
     };
 
@@ -118,4 +122,12 @@ public sealed class AtomicityTests : IDisposable
         // No version number was used up by the failed batch.
         Assert.Equal(2, _store.ImportBatch(Dataset, [Rows.Make("after")], DuplicatePolicy.Reject, BatchProvenance.None).NewVersion);
     }
+}
+
+public sealed class AtomicityTestsOnSqlite() : AtomicityTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class AtomicityTestsOnPostgres() : AtomicityTests(StoreBackend.Postgres)
+{
 }

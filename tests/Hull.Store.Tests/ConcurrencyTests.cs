@@ -1,3 +1,4 @@
+using Hull.Store.Tests.Backends;
 using System.Collections.Concurrent;
 using System.Diagnostics;
 using Xunit.Abstractions;
@@ -8,7 +9,7 @@ namespace Hull.Store.Tests;
 /// Writers import into their own datasets while readers read all of them, through two store instances on the same
 /// file (as two processes would); the outcome equals running the same imports one after another.
 /// </summary>
-public sealed class ConcurrencyTests(ITestOutputHelper output)
+public abstract class ConcurrencyTests(StoreBackend backend, ITestOutputHelper output)
 {
     private const int Writers = 4;
     private const int BatchesPerWriter = 12;
@@ -19,16 +20,16 @@ public sealed class ConcurrencyTests(ITestOutputHelper output)
     {
         List<Step>[] plans = Enumerable.Range(0, Writers).Select(Plan).ToArray();
 
-        using var concurrentDirectory = new TempDirectory();
-        using var sequentialDirectory = new TempDirectory();
+        using var concurrentDirectory = backend.NewLocation();
+        using var sequentialDirectory = backend.NewLocation();
         var concurrentResults = new List<string>[Writers];
         var seenByReaders = new ConcurrentDictionary<(string Dataset, long Version), string>();
         int readsChecked = 0;
 
-        using (DatasetStore first = DatasetStore.Open(concurrentDirectory.Path))
-        using (DatasetStore second = DatasetStore.Open(concurrentDirectory.Path))
+        using (IDatasetStore first = concurrentDirectory.Open())
+        using (IDatasetStore second = concurrentDirectory.Open())
         {
-            DatasetStore[] stores = [first, second];
+            IDatasetStore[] stores = [first, second];
             for (int w = 0; w < Writers; w++) first.CreateDataset(DatasetOf(w));
 
             var failures = new ConcurrentQueue<Exception>();
@@ -68,8 +69,8 @@ public sealed class ConcurrencyTests(ITestOutputHelper output)
         }
         Assert.True(readsChecked > 20, $"readers ran only {readsChecked} times alongside the writers");
 
-        using DatasetStore concurrent = DatasetStore.Open(concurrentDirectory.Path);
-        using DatasetStore sequential = DatasetStore.Open(sequentialDirectory.Path);
+        using IDatasetStore concurrent = concurrentDirectory.Open();
+        using IDatasetStore sequential = sequentialDirectory.Open();
         var sequentialClock = Stopwatch.StartNew();
         for (int w = 0; w < Writers; w++)
         {
@@ -128,7 +129,7 @@ public sealed class ConcurrencyTests(ITestOutputHelper output)
         return steps;
     }
 
-    private static List<string> Apply(DatasetStore store, int writer, List<Step> plan)
+    private static List<string> Apply(IDatasetStore store, int writer, List<Step> plan)
     {
         var results = new List<string>();
         for (int b = 0; b < plan.Count; b++)
@@ -145,7 +146,7 @@ public sealed class ConcurrencyTests(ITestOutputHelper output)
         return results;
     }
 
-    private static void ReadOnce(DatasetStore store, Random random, ConcurrentDictionary<(string, long), string> seen)
+    private static void ReadOnce(IDatasetStore store, Random random, ConcurrentDictionary<(string, long), string> seen)
     {
         string dataset = DatasetOf(random.Next(Writers));
         IReadOnlyList<DatasetVersionInfo> versions = store.ListVersions(dataset);
@@ -171,4 +172,12 @@ public sealed class ConcurrencyTests(ITestOutputHelper output)
             failures.Enqueue(e);
         }
     }
+}
+
+public sealed class ConcurrencyTestsOnSqlite(ITestOutputHelper output) : ConcurrencyTests(StoreBackend.Sqlite, output)
+{
+}
+
+public sealed class ConcurrencyTestsOnPostgres(ITestOutputHelper output) : ConcurrencyTests(StoreBackend.Postgres, output)
+{
 }

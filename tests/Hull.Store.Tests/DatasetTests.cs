@@ -1,14 +1,18 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>Dataset names, creation, listing, description and deletion.</summary>
-public sealed class DatasetTests : IDisposable
+public abstract class DatasetTests : IDisposable
 {
-    private readonly TempDirectory _directory = new();
-    private readonly DatasetStore _store;
+    private readonly StoreBackend _backend;
+    private readonly StoreLocation _directory;
+    private readonly IDatasetStore _store;
 
-    public DatasetTests()
+    protected DatasetTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path);
+        _backend = backend;
+        _directory = backend.NewLocation();
+        _store = _directory.Open();
     }
 
     public void Dispose()
@@ -67,7 +71,8 @@ public sealed class DatasetTests : IDisposable
         var clock = new SetClock();
         var t0 = new DateTimeOffset(2025, 3, 1, 12, 0, 0, TimeSpan.Zero);
         DateTimeOffset At(int seconds) => t0.AddSeconds(seconds).AddTicks(1234567); // sub-second part must survive too
-        using DatasetStore store = DatasetStore.Open(Path.Combine(_directory.Path, "clocked"), clock);
+        using StoreLocation clocked = _backend.NewLocation();
+        using IDatasetStore store = clocked.Open(clock);
         clock.Now = At(0);
         store.CreateDataset("zeta", "last by name");
         clock.Now = At(1);
@@ -80,7 +85,7 @@ public sealed class DatasetTests : IDisposable
         IReadOnlyList<DatasetSummary> list = store.ListDatasets();
         Assert.Equal(
             [
-                new DatasetSummary("alpha", "first by name", At(1), DatasetStore.NoVersion, 0),
+                new DatasetSummary("alpha", "first by name", At(1), IDatasetStore.NoVersion, 0),
                 new DatasetSummary("zeta", "last by name", At(0), 2, 5),
             ],
             list);
@@ -106,7 +111,7 @@ public sealed class DatasetTests : IDisposable
         Assert.Throws<DatasetNotFoundException>(() => _store.GetEntries("tmp"));
 
         _store.CreateDataset("tmp");
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("tmp"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("tmp"));
         Assert.Equal(1, _store.ImportBatch("tmp", Rows.Many("u", 1), DuplicatePolicy.Reject, BatchProvenance.None).NewVersion);
         Rows.AssertSame(Rows.Many("u", 1), _store.GetEntries("tmp"));
     }
@@ -141,4 +146,12 @@ public sealed class DatasetTests : IDisposable
 
         public override DateTimeOffset GetUtcNow() => Now;
     }
+}
+
+public sealed class DatasetTestsOnSqlite() : DatasetTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class DatasetTestsOnPostgres() : DatasetTests(StoreBackend.Postgres)
+{
 }

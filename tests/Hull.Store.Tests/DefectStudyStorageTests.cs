@@ -1,7 +1,8 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>Defect studies are stored as immutable versions of their texts, exported byte for byte.</summary>
-public sealed class DefectStudyStorageTests
+public abstract class DefectStudyStorageTests(StoreBackend backend)
 {
     // Texts with what a careless store would change: a BOM, CRLF line ends, trailing spaces, non-ASCII, no final newline.
     private const string Json = "\uFEFF{\r\n  \"host\": \"ZnO\",  \r\n  \"note\": \"Δμ_O = −1 eV\"\r\n}";
@@ -10,8 +11,8 @@ public sealed class DefectStudyStorageTests
     [Fact]
     public void Versions_are_kept_apart_and_read_back_exactly()
     {
-        using var directory = new TempDirectory();
-        using var store = DatasetStore.Open(directory.Path);
+        using var directory = backend.NewLocation();
+        using var store = directory.Open();
         store.CreateDataset("oxides", "demo");
         var first = store.SaveDefectStudy("oxides", "zno-native", Json, Csv, new BatchProvenance("study.json", "first"));
         var second = store.SaveDefectStudy("oxides", "zno-native", Json.Replace("ZnO", "MgO"), "", new BatchProvenance("study.json", "second"));
@@ -31,22 +32,22 @@ public sealed class DefectStudyStorageTests
     [Fact]
     public void Stored_versions_survive_reopening()
     {
-        using var directory = new TempDirectory();
-        using (var store = DatasetStore.Open(directory.Path))
+        using var directory = backend.NewLocation();
+        using (var store = directory.Open())
         {
             store.CreateDataset("oxides", "demo");
             store.SaveDefectStudy("oxides", "s", Json, Csv, BatchProvenance.None);
         }
 
-        using var again = DatasetStore.Open(directory.Path);
+        using var again = directory.Open();
         Assert.Equal(Csv, again.GetDefectStudy("oxides", "s", 1).ChargeStatesCsv);
     }
 
     [Fact]
     public void Bad_requests_write_nothing_and_say_what()
     {
-        using var directory = new TempDirectory();
-        using var store = DatasetStore.Open(directory.Path);
+        using var directory = backend.NewLocation();
+        using var store = directory.Open();
         store.CreateDataset("oxides", "demo");
         Assert.Throws<DatasetNotFoundException>(() => store.SaveDefectStudy("missing", "s", Json, Csv, BatchProvenance.None));
         Assert.Equal("study_name", Assert.Throws<InvalidBatchException>(() => store.SaveDefectStudy("oxides", " ", Json, Csv, BatchProvenance.None)).Field);
@@ -55,4 +56,12 @@ public sealed class DefectStudyStorageTests
         var e = Assert.Throws<DefectStudyNotFoundException>(() => store.GetDefectStudy("oxides", "s", 3));
         Assert.Contains("no version 3 of defect study 's'", e.Message);
     }
+}
+
+public sealed class DefectStudyStorageTestsOnSqlite() : DefectStudyStorageTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class DefectStudyStorageTestsOnPostgres() : DefectStudyStorageTests(StoreBackend.Postgres)
+{
 }

@@ -1,14 +1,16 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>Unknown datasets, unknown or deleted versions and bad arguments get distinct errors that say what is wrong.</summary>
-public sealed class ErrorTests : IDisposable
+public abstract class ErrorTests : IDisposable
 {
-    private readonly TempDirectory _directory = new();
-    private readonly DatasetStore _store;
+    private readonly StoreLocation _directory;
+    private readonly IDatasetStore _store;
 
-    public ErrorTests()
+    protected ErrorTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path);
+        _directory = backend.NewLocation();
+        _store = _directory.Open();
     }
 
     public void Dispose()
@@ -44,7 +46,7 @@ public sealed class ErrorTests : IDisposable
         var none = Assert.Throws<VersionNotFoundException>(() => _store.GetEntries("d"));
         Assert.Equal("dataset 'd' has no version yet; import a batch first", none.Message);
         Assert.Null(none.Version);
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("d"));
 
         _store.ImportBatch("d", [Rows.Make("a")], DuplicatePolicy.Reject, BatchProvenance.None);
         _store.ImportBatch("d", [Rows.Make("b")], DuplicatePolicy.Reject, BatchProvenance.None);
@@ -62,7 +64,7 @@ public sealed class ErrorTests : IDisposable
         _store.DeleteVersion("d", 2);
         var allGone = Assert.Throws<VersionNotFoundException>(() => _store.GetEntries("d"));
         Assert.Equal("dataset 'd' has no live version: all of its 2 versions were deleted", allGone.Message);
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("d"));
 
         // Numbers are never reused, and the dataset starts again from nothing.
         ImportResult next = _store.ImportBatch("d", [Rows.Make("c")], DuplicatePolicy.Reject, BatchProvenance.None);
@@ -92,8 +94,8 @@ public sealed class ErrorTests : IDisposable
         _store.CreateDataset("d");
         _store.ImportBatch("d", [Rows.Make("a")], DuplicatePolicy.Reject, BatchProvenance.None);
         Assert.Throws<ArgumentOutOfRangeException>(() => _store.GetEntries("d", null, null, 0));
-        Assert.Throws<ArgumentOutOfRangeException>(() => _store.GetEntries("d", null, null, DatasetStore.MaxPageSize + 1));
-        Assert.Single(_store.GetEntries("d", null, null, DatasetStore.MaxPageSize).Entries);
+        Assert.Throws<ArgumentOutOfRangeException>(() => _store.GetEntries("d", null, null, IDatasetStore.MaxPageSize + 1));
+        Assert.Single(_store.GetEntries("d", null, null, IDatasetStore.MaxPageSize).Entries);
     }
 
     [Fact]
@@ -114,7 +116,7 @@ public sealed class ErrorTests : IDisposable
         Assert.Equal("the store has been closed", problem);
     }
 
-    private static void Run(DatasetStore store, string operation, string name)
+    private static void Run(IDatasetStore store, string operation, string name)
     {
         switch (operation)
         {
@@ -131,4 +133,12 @@ public sealed class ErrorTests : IDisposable
             default: throw new ArgumentException(operation);
         }
     }
+}
+
+public sealed class ErrorTestsOnSqlite() : ErrorTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class ErrorTestsOnPostgres() : ErrorTests(StoreBackend.Postgres)
+{
 }

@@ -1,16 +1,18 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>Import sessions: many staged batches become one version at commit; a cancel or a lapse leaves nothing.</summary>
-public sealed class ImportSessionTests : IDisposable
+public abstract class ImportSessionTests : IDisposable
 {
     private static readonly TimeSpan Idle = TimeSpan.FromMinutes(10);
-    private readonly TempDirectory _directory = new();
+    private readonly StoreLocation _directory;
     private readonly SetClock _clock = new();
-    private readonly DatasetStore _store;
+    private readonly IDatasetStore _store;
 
-    public ImportSessionTests()
+    protected ImportSessionTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path, _clock);
+        _directory = backend.NewLocation();
+        _store = _directory.Open(_clock);
         _store.CreateDataset("d");
     }
 
@@ -54,7 +56,7 @@ public sealed class ImportSessionTests : IDisposable
 
         _store.CancelImport(session.SessionId);
 
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("d"));
         Assert.Empty(_store.ListVersions("d"));
         Assert.Equal(0, _store.CountStagedRows());
         var e = Assert.Throws<ImportSessionNotFoundException>(() => _store.StageBatch(session.SessionId, Rows.Many("b", 1), Idle));
@@ -204,10 +206,18 @@ public sealed class ImportSessionTests : IDisposable
         _store.StageBatch(session.SessionId, Rows.Many("late", 1), Idle);
         var changed = Assert.Throws<ImportSessionChangedException>(() => _store.CommitImport(session.SessionId, staged.Session.StagedCount));
         Assert.Contains("4 checked, 5 staged", changed.Message);
-        Assert.Equal(DatasetStore.NoVersion, _store.GetLatestVersion("d"));
+        Assert.Equal(IDatasetStore.NoVersion, _store.GetLatestVersion("d"));
         Assert.Equal(5, _store.CountStagedRows());
 
         Assert.Equal(new ImportResult(1, 5, 0), _store.CommitImport(session.SessionId, _store.ReadStagedImport(session.SessionId).Session.StagedCount));
         Assert.Throws<ImportSessionNotFoundException>(() => _store.ReadStagedImport(session.SessionId));
     }
+}
+
+public sealed class ImportSessionTestsOnSqlite() : ImportSessionTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class ImportSessionTestsOnPostgres() : ImportSessionTests(StoreBackend.Postgres)
+{
 }

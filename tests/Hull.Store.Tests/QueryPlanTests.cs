@@ -37,5 +37,7 @@ public sealed class QueryPlanTests : IDisposable
         Assert.Contains("USING INDEX entries_by_id_and_range (dataset_id=?", text);
         Assert.DoesNotContain("TEMP B-TREE", text);
         Assert.DoesNotContain("SCAN entries", text);
+        // The temperature models join by the row's key, one lookup per visible row.
+        Assert.Contains("SEARCH m USING INTEGER PRIMARY KEY (rowid=?)", text);
     }
 }

@@ -1,37 +1,32 @@
+using Hull.Store.Tests.Backends;
 using System.Text;
 
 namespace Hull.Store.Tests;
 
 /// <summary>The fingerprint and the entry order, checked against general-purpose tools outside the project.</summary>
-public sealed class ReferenceTests : IDisposable
+public abstract class ReferenceTests(StoreBackend backend) : IDisposable
 {
     private readonly TempDirectory _directory = new();
+    private readonly StoreLocation _location = backend.NewLocation();
 
-    public void Dispose() => _directory.Dispose();
+    public void Dispose()
+    {
+        _location.Dispose();
+        _directory.Dispose();
+    }
 
     [Fact]
     public void TheFingerprintIsSha256OfTheDocumentedLayout()
     {
         // The documented layout written out by hand: prefix, then per row (id order) length-prefixed UTF-8 texts and
         // the energy's binary64 bits, little-endian.
-        var bytes = new List<byte>();
-        bytes.AddRange("hull.store.content.v1\n"u8.ToArray());
-        void Text(string s)
-        {
-            byte[] utf8 = Encoding.UTF8.GetBytes(s);
-            bytes.AddRange(BitConverter.GetBytes(utf8.Length)); // little-endian on every platform .NET runs here
-            bytes.AddRange(utf8);
-        }
-        Text("a");
-        Text("Fe3O4");
-        bytes.AddRange([0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0xF8, 0xBF]); // -1.5 = 0xBFF8000000000000 (IEEE 754 binary64)
-        Text("formation_per_atom");
-        Text("");
-        Text("b\U0001D518");
-        Text("O2");
-        bytes.AddRange([0, 0, 0, 0, 0, 0, 0, 0]); // -0.0 is written as +0.0
-        Text("total_per_atom");
-        Text("µ = −4.9 eV");
+        var bytes = new LayoutBytes()
+            .Text("a").Text("Fe3O4")
+            .Raw(0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0xF8, 0xBF) // -1.5 = 0xBFF8000000000000 (IEEE 754 binary64)
+            .Text("formation_per_atom").Text("")
+            .Text("b\U0001D518").Text("O2")
+            .Raw(0, 0, 0, 0, 0, 0, 0, 0) // -0.0 is written as +0.0
+            .Text("total_per_atom").Text("µ = −4.9 eV");
         string file = Path.Combine(_directory.Path, "layout.bin");
         File.WriteAllBytes(file, bytes.ToArray());
 
@@ -43,7 +38,7 @@ public sealed class ReferenceTests : IDisposable
         EntryRow b = new("b\U0001D518", "O2", -0.0, "total_per_atom", "µ = −4.9 eV");
         Assert.Equal(expected, ContentFingerprint.Compute([b, a]));
 
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("fp");
         store.ImportBatch("fp", [b, a], DuplicatePolicy.Reject, BatchProvenance.None);
         Assert.Equal(expected, store.GetFingerprint("fp", 1));
@@ -54,7 +49,7 @@ public sealed class ReferenceTests : IDisposable
     [Fact]
     public void FingerprintsFollowContentNotHistory()
     {
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("one");
         store.CreateDataset("two");
         store.ImportBatch("one", [Rows.Make("x", -1), Rows.Make("y", -2)], DuplicatePolicy.Reject, BatchProvenance.None);
@@ -75,7 +70,7 @@ public sealed class ReferenceTests : IDisposable
             "mp-10", "mp-9", "mp-1", "Mp-1", "a", "a b", "ab", "a-b", "é", "e\u0301", "Z", "_x", "~",
             "e\uE000", "e\U0001D518", "e\uFFFD", "日本", "10", "9", "α", "ω",
         ];
-        using DatasetStore store = DatasetStore.Open(_directory.Path);
+        using IDatasetStore store = _location.Open();
         store.CreateDataset("order");
         store.ImportBatch("order", ids.Select(id => Rows.Make(id)).ToList(), DuplicatePolicy.Reject, BatchProvenance.None);
 
@@ -91,4 +86,12 @@ public sealed class ReferenceTests : IDisposable
         Assert.True(string.CompareOrdinal("e\uE000", "e\U0001D518") > 0);
         Assert.True(EntryIdOrder.Comparer.Compare("e\uE000", "e\U0001D518") < 0);
     }
+}
+
+public sealed class ReferenceTestsOnSqlite() : ReferenceTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class ReferenceTestsOnPostgres() : ReferenceTests(StoreBackend.Postgres)
+{
 }

@@ -115,32 +115,9 @@ public sealed class SchemaMigrationTests : IDisposable
         Assert.Equal(Enumerable.Range(1, Schema.Migrations.Count), Schema.Migrations.Select(m => m.Version));
     }
 
-    private SqliteConnection Raw(bool create = false)
-    {
-        var connection = new SqliteConnection(new SqliteConnectionStringBuilder
-        {
-            DataSource = _directory.DatabasePath,
-            Mode = create ? SqliteOpenMode.ReadWriteCreate : SqliteOpenMode.ReadWrite,
-            Pooling = false,
-        }.ToString());
-        connection.Open();
-        return connection;
-    }
+    private SqliteConnection Raw(bool create = false) => RawDatabase.Open(_directory.DatabasePath, create);
 
-    private static void Execute(SqliteConnection connection, string sql)
-    {
-        using SqliteCommand command = connection.CreateCommand();
-        command.CommandText = sql;
-        command.ExecuteNonQuery();
-    }
+    private static void Execute(SqliteConnection connection, string sql) => RawDatabase.Execute(connection, sql);
 
-    private static List<T> Column<T>(SqliteConnection connection, string sql)
-    {
-        using SqliteCommand command = connection.CreateCommand();
-        command.CommandText = sql;
-        using SqliteDataReader reader = command.ExecuteReader();
-        var values = new List<T>();
-        while (reader.Read()) values.Add(reader.GetFieldValue<T>(0));
-        return values;
-    }
+    private static List<T> Column<T>(SqliteConnection connection, string sql) => RawDatabase.Column<T>(connection, sql);
 }

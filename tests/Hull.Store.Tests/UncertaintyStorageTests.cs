@@ -1,22 +1,26 @@
+using Hull.Store.Tests.Backends;
+
 namespace Hull.Store.Tests;
 
 /// <summary>An entry's energy uncertainty (σ, correlation group): kept per version like the rest of the row, through
-/// a batch and through an import session; checked before anything is written; fingerprinted only where present.</summary>
-public sealed class UncertaintyStorageTests : IDisposable
+/// a batch and through an import session, on every backend; checked before anything is written; fingerprinted only
+/// where present, after the temperature model when a row has both, and alike whichever backend keeps the rows.</summary>
+public abstract class UncertaintyStorageTests : IDisposable
 {
-    private readonly TempDirectory _directory = new();
-    private readonly DatasetStore _store;
+    private readonly StoreLocation _location;
+    private readonly IDatasetStore _store;
 
-    public UncertaintyStorageTests()
+    protected UncertaintyStorageTests(StoreBackend backend)
     {
-        _store = DatasetStore.Open(_directory.Path);
+        _location = backend.NewLocation();
+        _store = _location.Open();
         _store.CreateDataset("d");
     }
 
     public void Dispose()
     {
         _store.Dispose();
-        _directory.Dispose();
+        _location.Dispose();
     }
 
     [Fact]
@@ -27,10 +31,36 @@ public sealed class UncertaintyStorageTests : IDisposable
         ImportSessionInfo session = _store.BeginImport("d", DuplicatePolicy.Replace, BatchProvenance.None, TimeSpan.FromMinutes(5));
         EntryRow replaced = Rows.Make("b") with { SigmaEvPerAtom = 0.0 };
         _store.StageBatch(session.SessionId, [replaced, Rows.Make("c") with { CorrelationGroup = "dft" }], TimeSpan.FromMinutes(5));
+        Rows.AssertSame([replaced, Rows.Make("c") with { CorrelationGroup = "dft" }],
+            _store.ReadStagedImport(session.SessionId).Rows.Select(r => r.Row).ToList());
         _store.CommitImport(session.SessionId);
 
         Rows.AssertSame([plain, withSigma], _store.GetEntries("d", 1));
         Rows.AssertSame([plain, replaced, Rows.Make("c") with { CorrelationGroup = "dft" }], _store.GetEntries("d", 2));
+        Assert.Equal(0.0, _store.GetEntry("d", "b", 2)!.SigmaEvPerAtom);
+        Assert.Null(_store.GetEntry("d", "c", 2)!.SigmaEvPerAtom);
+    }
+
+    [Fact]
+    public void A_row_with_a_model_and_an_uncertainty_keeps_both_and_fingerprints_as_on_sqlite()
+    {
+        EntryRow both = Rows.Make("m") with
+        {
+            TemperatureModel = StoredTemperatureModel.StandardEntropy(121.3, "Ag2O"), SigmaEvPerAtom = -0.0, CorrelationGroup = "ml",
+        };
+        _store.ImportBatch("d", [both, Rows.Make("n") with { SigmaEvPerAtom = 0.03 }], DuplicatePolicy.Reject, BatchProvenance.None);
+        IReadOnlyList<EntryRow> stored = _store.GetEntries("d", 1);
+        Rows.AssertSame([both with { SigmaEvPerAtom = 0.0 }, Rows.Make("n") with { SigmaEvPerAtom = 0.03 }], stored);
+        Assert.Equal(both.TemperatureModel, stored[0].TemperatureModel);
+        // -0 is kept as the +0 SQLite reads back, so that both backends give the same row.
+        Assert.Equal(0L, BitConverter.DoubleToInt64Bits(stored[0].SigmaEvPerAtom!.Value));
+
+        using StoreLocation sqlite = StoreBackend.Sqlite.NewLocation();
+        using IDatasetStore reference = sqlite.Open();
+        reference.CreateDataset("d");
+        reference.ImportBatch("d", [both, Rows.Make("n") with { SigmaEvPerAtom = 0.03 }], DuplicatePolicy.Reject, BatchProvenance.None);
+        Assert.Equal(reference.GetFingerprint("d", 1), _store.GetFingerprint("d", 1));
+        Assert.Equal(ContentFingerprint.Compute(stored), _store.GetFingerprint("d", 1));
     }
 
     [Fact]
@@ -55,6 +85,13 @@ public sealed class UncertaintyStorageTests : IDisposable
         string withSigma = ContentFingerprint.Compute([plain with { SigmaEvPerAtom = 0.02 }]);
         string withGroup = ContentFingerprint.Compute([plain with { CorrelationGroup = "ml" }]);
         string withZero = ContentFingerprint.Compute([plain with { SigmaEvPerAtom = 0.0 }]);
-        Assert.Equal(4, new[] { before, withSigma, withGroup, withZero }.Distinct().Count());
+        var model = StoredTemperatureModel.StandardEntropy(42.55);
+        string withModel = ContentFingerprint.Compute([plain with { TemperatureModel = model }]);
+        string withBoth = ContentFingerprint.Compute([plain with { TemperatureModel = model, SigmaEvPerAtom = 0.02 }]);
+        Assert.Equal(6, new[] { before, withSigma, withGroup, withZero, withModel, withBoth }.Distinct().Count());
     }
 }
+
+public sealed class UncertaintyStorageTestsOnSqlite() : UncertaintyStorageTests(StoreBackend.Sqlite);
+
+public sealed class UncertaintyStorageTestsOnPostgres() : UncertaintyStorageTests(StoreBackend.Postgres);

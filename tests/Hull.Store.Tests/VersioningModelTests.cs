@@ -1,10 +1,11 @@
+using Hull.Store.Tests.Backends;
 namespace Hull.Store.Tests;
 
 /// <summary>
 /// Random imports (reject and replace), version deletions and reads, checked step by step against a plain in-memory
 /// model of what every version must hold. Seeded, so a failure replays exactly.
 /// </summary>
-public sealed class VersioningModelTests
+public abstract class VersioningModelTests(StoreBackend backend)
 {
     private const string Dataset = "model";
 
@@ -27,9 +28,9 @@ public sealed class VersioningModelTests
     public void RandomOperationsMatchTheModel(int seed)
     {
         var random = new Random(seed);
-        using var directory = new TempDirectory();
+        using var directory = backend.NewLocation();
         var model = new Model();
-        DatasetStore store = DatasetStore.Open(directory.Path);
+        IDatasetStore store = directory.Open();
         try
         {
             store.CreateDataset(Dataset, "random operations");
@@ -51,7 +52,7 @@ public sealed class VersioningModelTests
 
             CheckEveryVersion(store, model, $"seed {seed}, end");
             store.Dispose();
-            store = DatasetStore.Open(directory.Path);
+            store = directory.Open();
             CheckEveryVersion(store, model, $"seed {seed}, after reopening");
         }
         finally
@@ -60,7 +61,7 @@ public sealed class VersioningModelTests
         }
     }
 
-    private static void Import(DatasetStore store, Model model, Random random, string context)
+    private static void Import(IDatasetStore store, Model model, Random random, string context)
     {
         int count = random.Next(1, 13);
         List<EntryRow> batch = IdPool.OrderBy(_ => random.Next()).Take(count).Select(id => new EntryRow(
@@ -106,7 +107,7 @@ public sealed class VersioningModelTests
         model.Commit(batch);
     }
 
-    private static void DeleteLiveVersion(DatasetStore store, Model model, Random random)
+    private static void DeleteLiveVersion(IDatasetStore store, Model model, Random random)
     {
         if (model.Snapshots.Count == 0) return;
         long version = random.NextDouble() < 0.4
@@ -116,7 +117,7 @@ public sealed class VersioningModelTests
         model.Delete(version);
     }
 
-    private static void AskForMissingVersion(DatasetStore store, Model model, Random random, string context)
+    private static void AskForMissingVersion(IDatasetStore store, Model model, Random random, string context)
     {
         var missing = new List<long> { 0, -1, model.LastIssued + 1, model.LastIssued + 7 };
         missing.AddRange(model.Deleted);
@@ -131,7 +132,7 @@ public sealed class VersioningModelTests
         _ = context;
     }
 
-    private static void CheckOneVersion(DatasetStore store, Model model, Random random, string context)
+    private static void CheckOneVersion(IDatasetStore store, Model model, Random random, string context)
     {
         if (model.Snapshots.Count == 0)
         {
@@ -173,7 +174,7 @@ public sealed class VersioningModelTests
         CheckFingerprint(store, model, version, context);
     }
 
-    private static void CheckEveryVersion(DatasetStore store, Model model, string context)
+    private static void CheckEveryVersion(IDatasetStore store, Model model, string context)
     {
         for (long version = 1; version <= model.LastIssued; version++)
         {
@@ -195,7 +196,7 @@ public sealed class VersioningModelTests
         }
     }
 
-    private static void CheckFingerprint(DatasetStore store, Model model, long version, string context)
+    private static void CheckFingerprint(IDatasetStore store, Model model, long version, string context)
     {
         string fingerprint = store.GetFingerprint(Dataset, version);
         Assert.True(ContentFingerprint.Compute(model.Snapshots[version]) == fingerprint, $"{context}: fingerprint of version {version}");
@@ -228,7 +229,7 @@ public sealed class VersioningModelTests
 
         public long LastIssued { get; private set; }
 
-        public long Latest => Snapshots.Count == 0 ? DatasetStore.NoVersion : Snapshots.Keys.Last();
+        public long Latest => Snapshots.Count == 0 ? IDatasetStore.NoVersion : Snapshots.Keys.Last();
 
         public void Commit(IEnumerable<EntryRow> batch)
         {
@@ -250,4 +251,12 @@ public sealed class VersioningModelTests
             }
         }
     }
+}
+
+public sealed class VersioningModelTestsOnSqlite() : VersioningModelTests(StoreBackend.Sqlite)
+{
+}
+
+public sealed class VersioningModelTestsOnPostgres() : VersioningModelTests(StoreBackend.Postgres)
+{
 }

@@ -3,7 +3,8 @@
 #
 # The invented demo scenario of `data-demo/` (every number in it is made up): layered lithium transition-metal
 # oxides and alumina coatings. This walk-through imports the files as versions, reads the whole-dataset stability
-# as a DataFrame, places candidates against the hull, and saves the server's phase diagrams as SVG files.
+# as a DataFrame, places candidates against the hull, reads windows, voltages and a coating's defects, and saves
+# the server's figures as SVG files.
 #
 # Run it as a script (`/usr/bin/python3 clients/python/examples/cathode_screening.py`) or as the notebook
 # `cathode_screening.ipynb` beside it; both have the same cells. It talks to the server at `$HULL_SERVER`
@@ -135,6 +136,52 @@ hull.draw_stability_odds_figure(odds_dataset, "Li-Co-O", samples=2000, seed=2026
                                 group_sigmas={"ml-model": 0.02}).save(figures / "odds-Li-Co-O.svg")
 
 # %% [markdown]
+# ## When does the delithiated cathode give off oxygen?
+# Invented standard entropies (data-demo/thermo) make each entry's free energy at T; oxygen is open at its μ(T, p).
+# Released oxygen and hot cathodes are a fire hazard: these are estimates, and real thermal-runaway safety work
+# follows local rules and licensed practice.
+
+# %%
+entropies = demo / "thermo" / "li-co-o-entropies.csv"
+release = hull.find_decomposition_temperatures(dataset, "entry:ter-LiCo2O4-delithiated", 300, 1500, pressure_bar=0.21,
+                                               models=entropies, chemical_system="Li-Co-O")
+display(release.crossings[["temperature_k", "direction", "reaction", "gas_released_molecules_per_formula_unit"]])
+stability_in_air = hull.draw_temperature_figure(dataset, ["entry:ter-LiCo2O4-delithiated", "entry:bin-Co3O4"], 300, 1500,
+                                                pressure_bar=0.21, models=entropies, chemical_system="Li-Co-O")
+
+# %% [markdown]
+# ## Native defects and a Mg dopant in the alumina coating
+# A defect study of Al2O3 (invented supercell energies in `data-demo/defects/`) is checked against a dataset of the
+# coatings, the elements and the Mg phases, then read at the window's O-rich vertex: the transition levels, the
+# formation-energy figure, and the Fermi level of a coating grown at 1600 K and quenched to room temperature.
+# The hazard reminders the server gives with the Mg phases come as DefectWarning; follow your site's safety rules.
+
+# %%
+coatings = f"{dataset}-coatings"
+try:
+    hull.delete_dataset(coatings)
+except NotFoundError:
+    pass
+hull.create_dataset(coatings, "the demo's coatings with the Mg phases (invented)")
+for path in (demo / "round1" / "01-elements-binaries-ternaries.csv", demo / "round1" / "03-coatings.json",
+             demo / "defects" / "mg-phases.csv"):
+    hull.import_table(coatings, path)
+study = hull.import_defect_study(coatings, "al2o3", demo / "defects" / "al2o3-study.json",
+                                 demo / "defects" / "al2o3-charge-states.csv", source_label="data-demo/defects")
+display(study.defects)
+
+# %%
+levels = hull.get_charge_transition_levels(coatings, "al2o3", vertex="O")
+display(levels.levels[levels.levels.thermodynamic])
+defect_figure = hull.draw_defect_formation_figure(coatings, "al2o3", vertex="O")
+
+# %%
+fermi = hull.solve_fermi_level(coatings, "al2o3", temperature_k=1600, operating_temperature_k=300, vertex="O")
+display(fermi)
+mg = hull.get_dopant_solubility(coatings, "al2o3", [1400, 1800])
+print(f"highest Δμ_Mg {mg.max_delta_mu_ev:.4f} eV, limited by {', '.join(mg.limiting_phase_ids)}")
+
+# %% [markdown]
 # ## Phase diagrams drawn by the server, saved as SVG
 
 # %%
@@ -146,6 +193,8 @@ saved = [
     hull.draw_phase_diagram(dataset, end_members=["LiCoO2", "LiNiO2", "LiMnO2"]).save(figures / "pseudo-ternary-layered.svg"),
     hull.draw_phase_diagram(dataset, "Co-Li-Ni-O", azimuth_degrees=30, elevation_degrees=15).save(figures / "quaternary-Co-Li-Ni-O.svg"),
     profile.figure.save(figures / "voltage-Li-into-CoO2.svg"),
+    stability_in_air.save(figures / "thermo-Li-Co-O-in-air.svg"),
+    defect_figure.save(figures / "defects-Al2O3-O-rich.svg"),
 ]
 for path in saved:
     print(path, path.stat().st_size, "bytes")

@@ -108,6 +108,18 @@ def test_a_deadline_is_deadline_exceeded(server, demo):
     assert "Deadline" in caught.value.message
 
 
+def test_a_view_with_its_own_deadline_shares_the_connection(client, demo):
+    short = client.with_timeout(1e-4)
+    assert short.timeout == 1e-4 and client.timeout == 60
+    with pytest.raises(DeadlineExceededError):
+        short.analyze_dataset(DEMO_DATASET)
+    short.close()
+    # The parent's deadline and connection are untouched: the same call completes.
+    assert len(client.analyze_dataset(DEMO_DATASET)) > 0
+    with pytest.raises(ValueError, match="timeout"):
+        client.with_timeout(0)
+
+
 def test_limits_are_resource_exhausted(tmp_path, demo):
     limited = RunningServer(tmp_path / "store", "--max-compositions-per-request", "2")
     try:

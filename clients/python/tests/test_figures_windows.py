@@ -1,6 +1,7 @@
 """Figures as SVG text with save(), and chemical-potential windows: equal to the CLI's answers for the same
 requests, and each window vertex on the compound's own formation-energy plane worked here from the export."""
 
+import math
 import xml.etree.ElementTree as ET
 
 import pytest
@@ -70,3 +71,52 @@ def test_a_slice_and_dopant_limits_equal_the_cli_json(client, server, demo):
     assert al.overall_limiting_phase_ids == tuple(want["overall_limiting_phase_ids"])
     assert list(al.per_host_vertex.max_dopant_potential_ev) == [v["max_dopant_potential_ev"] for v in want["per_host_vertex"]]
     assert len(limits.host.vertices) == len(expected["host"]["vertices"])
+
+
+def test_the_window_figure_is_the_cli_svg_and_draws_the_window_qhull_finds(client, server, demo, tmp_path):
+    from scipy.spatial import ConvexHull  # Qhull through Debian's python3-scipy
+
+    figure = client.draw_window_figure(DEMO_DATASET, f"entry:{CATHODE}", x_element="Li", y_element="Co")
+    assert (figure.x_element, figure.y_element, figure.dependent_element) == ("Li", "Co", "O")
+    assert figure.drawn_dimension == 2 and not figure.section and not figure.section_misses
+    cli_file = tmp_path / "cli.svg"
+    run_cli(server.url, "window-figure", DEMO_DATASET, CATHODE, "--x", "Li", "--y", "Co", "--output", str(cli_file))
+    assert cli_file.read_text(encoding="utf-8") == figure.svg
+
+    # The drawn polygon read back in eV through the plot box and ranges the figure records.
+    root = ET.fromstring(figure.svg)
+    meta = next(e for e in root.iter() if e.tag.endswith("figure"))
+    left, top, width, height = (float(v) for v in meta.get("plot").split())
+    x0, x1 = (float(v) for v in meta.get("x-range").split())
+    y0, y1 = (float(v) for v in meta.get("y-range").split())
+    path = next(e for e in root.iter() if e.get("data-kind") == "window")
+    numbers = [float(t) for t in path.get("d").replace("M", " ").replace("L", " ").replace("Z", " ").replace(",", " ").split()]
+    drawn = [(x0 + (px - left) / width * (x1 - x0), y0 + (top + height - py) / height * (y1 - y0))
+             for px, py in zip(numbers[0::2], numbers[1::2])]
+
+    window = client.get_stability_window(DEMO_DATASET, f"entry:{CATHODE}").window
+    points = [(row["delta_mu_Li_ev"], row["delta_mu_Co_ev"]) for _, row in window.vertices.iterrows()]
+    hull = ConvexHull(points)
+    # Half a written pixel (0.05 px) in eV on each axis.
+    tx, ty = 0.051 / width * (x1 - x0), 0.051 / height * (y1 - y0)
+    assert len(drawn) == len(hull.vertices) == len(figure.drawn_vertices)
+    for i in hull.vertices:
+        assert sum(abs(p[0] - points[i][0]) <= tx and abs(p[1] - points[i][1]) <= ty for p in drawn) == 1
+    shoelace = abs(sum(drawn[k][0] * drawn[(k + 1) % len(drawn)][1] - drawn[(k + 1) % len(drawn)][0] * drawn[k][1]
+                       for k in range(len(drawn)))) / 2
+    assert shoelace == pytest.approx(hull.volume, rel=1e-3)  # a 2-D hull's "volume" is its area
+
+
+def test_a_slice_by_oxygen_in_air_equals_the_cli_and_the_janaf_hand_value(client, server, demo):
+    # NIST-JANAF Thermochemical Tables, 4th ed. (1998), O2 at 1000 K: H° − H°(298.15 K) = 22.703 kJ/mol,
+    # S° = 243.578 J/(mol K) — from memory; CODATA 2018 k_B and e·N_A; the demo's references taken as fitted.
+    k_b = 8.617333262e-5
+    hand = ((22.703 - 243.578) / 96.4853321233 + k_b * 1000 * math.log(0.21)) / 2
+    sliced = client.slice_stability_window(DEMO_DATASET, f"entry:{CATHODE}", fixed_gases={"O2": (1000, 0.21)},
+                                           gas_at_temperature_k=1000)
+    assert sliced.fixed_potentials_used["O"] == pytest.approx(hand, abs=1e-4)  # the Shomate fit, a few J/mol off
+    expected = cli_json(server.url, "window-slice", DEMO_DATASET, CATHODE, "--fix-gas", "O2=1000,0.21", "--gas-temperature", "1000")
+    assert [p["chemical_potential_ev"] for p in expected["fixed_potentials_used"]] == [sliced.fixed_potentials_used["O"]]
+    assert len(sliced.slice.vertices) == len(expected["slice"].get("vertices", []))
+    for _, row in sliced.slice.vertices.iterrows():
+        assert row["log10_p_O2_bar"] == pytest.approx(math.log10(0.21), abs=1e-9)

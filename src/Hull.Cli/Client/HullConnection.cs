@@ -40,6 +40,7 @@ public sealed class HullConnection : IDisposable
         Windows = new WindowService.WindowServiceClient(_channel);
         Uncertainty = new UncertaintyService.UncertaintyServiceClient(_channel);
         Electrochemistry = new ElectrochemistryService.ElectrochemistryServiceClient(_channel);
+        Thermo = new ThermoService.ThermoServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
@@ -58,6 +59,8 @@ public sealed class HullConnection : IDisposable
     public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
 
     public ElectrochemistryService.ElectrochemistryServiceClient Electrochemistry { get; }
+
+    public ThermoService.ThermoServiceClient Thermo { get; }
 
     public Health.HealthClient Health { get; }
 

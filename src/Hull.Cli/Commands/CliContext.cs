@@ -53,7 +53,7 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
     {
         if (Format == OutputFormat.Json)
         {
-            Out.WriteLine(ProtoJson.Format(message));
+            ProtoJson.WriteLine(Out, message);
             return;
         }
 

@@ -34,6 +34,7 @@ public static class CommandTree
         root.Subcommands.Add(FigureCommand.Build(wrap));
         root.Subcommands.Add(OddsCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
+        root.Subcommands.Add(ThermoCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
@@ -137,19 +138,27 @@ public static class CommandTree
             min: 1, max: ImportRunner.MaxBatchSize, fallback: ImportRunner.DefaultBatchSize, meaning: "a batch size");
         var note = new Option<string>("--note") { Description = "note recorded with the version" };
         var create = new Option<bool>("--create") { Description = "create the dataset first if it does not exist" };
+        var tables = new Option<string?>("--free-energy-tables")
+        {
+            Description = "a CSV of G(T) points for entries of the files (columns entry_id, anchor, temperature_k, free_energy_above_anchor_ev)",
+        };
         var import = new Command("import", "import entries from files as one new dataset version: all of them or, on any error or interruption, none")
         {
-            dataset, files, onDuplicate, batchSize, note, create,
+            dataset, files, onDuplicate, batchSize, note, create, tables,
         };
         import.SetAction(wrap(async (c, t) =>
         {
             string name = c.Get(dataset)!;
             // Read every file before sending anything, so that a bad file changes nothing.
-            var inputs = c.Get(files)!.Select(path => (Path: path, Records: EntryFileReader.Read(path))).ToArray();
+            IReadOnlyList<(string Path, IReadOnlyList<EntryRecord> Records)> inputs =
+                [.. c.Get(files)!.Select(path => (Path: path, Records: EntryFileReader.Read(path)))];
             foreach (var input in inputs)
             {
                 if (input.Records.Count == 0) throw new InputFileException(input.Path, null, "no entries");
             }
+
+            if (c.Get(tables) is { } tablePath) inputs = FreeEnergyTableFile.Attach(inputs, tablePath, FreeEnergyTableFile.Read(tablePath));
+            foreach (var input in inputs) TemperatureModelText.RequireKinds(input.Path, input.Records);
 
             if (c.Get(create)) await EnsureDatasetAsync(c, name, t);
             DuplicatePolicy policy = c.Get(onDuplicate) == "replace" ? DuplicatePolicy.Replace : DuplicatePolicy.Reject;
@@ -181,7 +190,11 @@ public static class CommandTree
         var dataset = DatasetArgument();
         var version = VersionOption();
         var output = new Option<string?>("--output", "-o") { Description = "write to this file instead of stdout" };
-        var export = new Command("export", "export a version's entries (with --csv or --json in the import layout)") { dataset, version, output };
+        var tables = new Option<string?>("--free-energy-tables")
+        {
+            Description = "with --csv: write the entries' G(T) tables to this file, in the layout `hull import --free-energy-tables` reads",
+        };
+        var export = new Command("export", "export a version's entries (with --csv or --json in the import layout)") { dataset, version, output, tables };
         export.SetAction(wrap(async (c, t) =>
         {
             var entries = new List<Entry>();
@@ -193,6 +206,16 @@ public static class CommandTree
                 entries.AddRange(page.Entries);
             }
 
+            // A CSV row has no room for a G(T) table: refuse before writing anything rather than drop it.
+            Table freeEnergyTables = FreeEnergyTableFile.ToTable(entries);
+            string? tablePath = c.Get(tables);
+            if (c.Format == OutputFormat.Csv && freeEnergyTables.Rows.Count > 0 && tablePath is null)
+            {
+                int count = entries.Count(e => e.TemperatureModel?.FreeEnergyTable is not null);
+                throw new UsageException($"version {usedVersion} has G(T) tables on {count} entr{(count == 1 ? "y" : "ies")}; a CSV export writes them to a file of their own: add --free-energy-tables FILE (or export with --json)");
+            }
+
+            if (tablePath is not null && c.Format != OutputFormat.Csv) throw new UsageException("--free-energy-tables goes with --csv; a JSON export holds the tables itself");
             string? path = c.Get(output);
             TextWriter writer = path is null ? c.Out : new StreamWriter(path);
             try
@@ -204,14 +227,13 @@ public static class CommandTree
                 }
                 else
                 {
-                    var table = new Table([.. EntryFileLayout.Columns]);
-                    foreach (Entry e in entries)
-                    {
-                        string sigma = e.HasEnergySigmaEvPerAtom ? e.EnergySigmaEvPerAtom.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
-                        table.Add(e.Id, e.Formula, e.EnergyEv, EntryFileLayout.TokenOf(e.Basis), e.Note, sigma, e.CorrelationGroup);
-                    }
                     if (c.Format == OutputFormat.Table) writer.WriteLine($"dataset {c.Get(dataset)}, version {usedVersion}: {entries.Count} entries");
-                    TableRenderer.Write(writer, table, c.Format);
+                    TableRenderer.Write(writer, ExportTable(entries, c.Format), c.Format);
+                    if (tablePath is not null)
+                    {
+                        await using var tableWriter = new StreamWriter(tablePath);
+                        TableRenderer.Write(tableWriter, freeEnergyTables, OutputFormat.Csv);
+                    }
                 }
             }
             finally
@@ -222,6 +244,48 @@ public static class CommandTree
             return ExitCodes.Ok;
         }));
         return export;
+    }
+
+    /// <summary>
+    /// The entries in the import layout (<see cref="EntryFileLayout.Columns"/>' order); the temperature-model columns only
+    /// when some entry has a model and the uncertainty columns only when some entry has a σ or a correlation group, so an
+    /// export of a dataset without either reads as before. The table view sums up a G(T) table in one cell.
+    /// </summary>
+    private static Table ExportTable(IReadOnlyList<Entry> entries, OutputFormat format)
+    {
+        bool models = entries.Any(e => e.TemperatureModel is not null);
+        bool uncertainties = entries.Any(e => e.HasEnergySigmaEvPerAtom || e.CorrelationGroup.Length > 0);
+        bool summary = models && format == OutputFormat.Table && entries.Any(e => e.TemperatureModel?.FreeEnergyTable is not null);
+        string[] columns = [.. EntryFileLayout.PlainColumns, .. models ? EntryFileLayout.ModelColumns : [],
+            .. uncertainties ? EntryFileLayout.UncertaintyColumns : []];
+        var table = new Table(summary ? [.. columns, "g_of_t_table"] : columns);
+        foreach (Entry e in entries)
+        {
+            object?[] cells = [e.Id, e.Formula, e.EnergyEv, EntryFileLayout.TokenOf(e.Basis), e.Note];
+            if (models)
+            {
+                EntryTemperatureModel? model = e.TemperatureModel;
+                object? entropy = model?.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? model.StandardEntropyJPerMolK : null;
+                cells = [.. cells, entropy, model?.Formula ?? string.Empty];
+            }
+
+            if (uncertainties)
+            {
+                string sigma = e.HasEnergySigmaEvPerAtom ? e.EnergySigmaEvPerAtom.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
+                cells = [.. cells, sigma, e.CorrelationGroup];
+            }
+
+            if (summary)
+            {
+                EntryFreeEnergyTable? points = e.TemperatureModel?.FreeEnergyTable;
+                cells = [.. cells, points is null ? string.Empty
+                    : string.Create(CultureInfo.InvariantCulture, $"{EntryFileLayout.TokenOf(points.Anchor)}, {points.Rows.Count} points, {points.Rows.Min(p => p.TemperatureK)}-{points.Rows.Max(p => p.TemperatureK)} K")];
+            }
+
+            table.Add(cells);
+        }
+
+        return table;
     }
 
     private static Command VersionsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)

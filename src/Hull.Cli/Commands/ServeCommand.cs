@@ -50,7 +50,7 @@ public static class ServeCommand
             }
             catch (Exception e) when (HullServer.IsStoreFailure(e))
             {
-                error.WriteLine($"hull serve: cannot open the store in '{serverOptions.DataDirectory}': {e.Message}");
+                error.WriteLine($"hull serve: cannot open the store {serverOptions.StoreDescription}: {e.Message}");
                 return ExitCodes.InputFile;
             }
             catch (IOException e)
@@ -66,7 +66,7 @@ public static class ServeCommand
 
             await using (server)
             {
-                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.DataDirectory})");
+                output.WriteLine($"hull server listening on {server.Address.ToString().TrimEnd('/')} (data: {server.StoreLocation})");
                 output.Flush();
                 try
                 {

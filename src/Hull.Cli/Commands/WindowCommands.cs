@@ -12,13 +12,13 @@ namespace Hull.Cli.Commands;
 public static class WindowCommands
 {
     public static IEnumerable<Command> Build(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap) =>
-        [WindowCommand(wrap), SliceCommand(wrap), DopantCommand(wrap)];
+        [WindowCommand(wrap), SliceCommand(wrap), DopantCommand(wrap), FigureCommand(wrap)];
 
     private sealed record Common(
         Argument<string> Dataset, Argument<string> Compound, Option<bool> ByFormula, Option<long> Version,
-        Option<double?> Tolerance, Option<double?> Lowering, Option<string> Omit)
+        Option<double?> Tolerance, Option<double?> Lowering, Option<string> Omit, Option<double?> GasTemperature, Option<double?> GasPressure)
     {
-        public IEnumerable<Symbol> All => [Dataset, Compound, ByFormula, Version, Tolerance, Lowering, Omit];
+        public IEnumerable<Symbol> All => [Dataset, Compound, ByFormula, Version, Tolerance, Lowering, Omit, GasTemperature, GasPressure];
 
         public CompoundRef CompoundOf(CliContext c) =>
             c.Get(ByFormula) ? new CompoundRef { Formula = c.Get(Compound)! } : new CompoundRef { EntryId = c.Get(Compound)! };
@@ -28,6 +28,8 @@ public static class WindowCommands
             var settings = new WindowSettings { ProjectionOmits = c.Get(Omit) ?? string.Empty };
             if (c.Get(Tolerance) is double t) settings.AboveHullToleranceEvPerAtom = t;
             if (c.Get(Lowering) is double l) settings.LoweringEvPerAtom = l;
+            if (c.Get(GasTemperature) is double gt) settings.GasAtTemperatureK = gt;
+            if (c.Get(GasPressure) is double gp) settings.GasAtPressureBar = gp;
             return settings;
         }
     }
@@ -39,7 +41,9 @@ public static class WindowCommands
         CommandTree.VersionOption(),
         ValueOptions.OptionalNumber("--above-hull-tolerance", "treat a compound at most this far above the hull (eV/atom) as lowered below it", "an energy in eV/atom"),
         ValueOptions.OptionalNumber("--lowering", "how far below the hull such a compound is placed, eV/atom (default 0.001)", "an energy in eV/atom"),
-        new Option<string>("--projection-omits") { Description = "element left out of the projected size (default: the one with most atoms)" });
+        new Option<string>("--projection-omits") { Description = "element left out of the projected size (default: the one with most atoms)" },
+        ValueOptions.OptionalNumber("--gas-temperature", "also give each gas element's dmu (O, N, H, F, Cl) as its gas's pressure at this temperature, K", "a temperature in K"),
+        ValueOptions.OptionalNumber("--gas-pressure", "also give each gas element's dmu as the temperature at this pressure, bar", "a pressure in bar"));
 
     private static Command WindowCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
@@ -60,11 +64,13 @@ public static class WindowCommands
     private static Command SliceCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
         Common o = Options();
-        var fix = new Option<string[]>("--fix") { Description = "a fixed potential ELEMENT=EV (repeatable), e.g. --fix O=-1.5", Arity = ArgumentArity.OneOrMore, Required = true };
+        var fix = new Option<string[]>("--fix") { Description = "a fixed potential ELEMENT=EV (repeatable), e.g. --fix O=-1.5", Arity = ArgumentArity.OneOrMore };
+        var fixGas = new Option<string[]>("--fix-gas") { Description = "a gas element fixed by its gas at GAS=T_K,P_BAR (repeatable), e.g. --fix-gas O2=1273,0.21", Arity = ArgumentArity.OneOrMore };
         var allow = new Option<bool>("--allow-above-reference") { Description = "accept fixed potentials above 0 (such a slice always misses)" };
         var command = new Command("window-slice", "the window with some potentials held fixed, or the nearest window point when that misses");
         foreach (Symbol s in o.All) Add(command, s);
         command.Options.Add(fix);
+        command.Options.Add(fixGas);
         command.Options.Add(allow);
         command.SetAction(wrap(async (c, t) =>
         {
@@ -73,12 +79,15 @@ public static class WindowCommands
                 Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c),
                 AllowAboveReference = c.Get(allow),
             };
-            foreach (string text in c.Get(fix)!) request.FixedPotentials.Add(ParseFixed(text));
+            foreach (string text in c.Get(fix) ?? []) request.FixedPotentials.Add(ParseFixed(text));
+            foreach (string text in c.Get(fixGas) ?? []) request.FixedGases.Add(ParseGas(text, "--fix-gas"));
+            if (request.FixedPotentials.Count + request.FixedGases.Count == 0) throw new UsageException("a slice needs --fix ELEMENT=EV or --fix-gas GAS=T_K,P_BAR");
             SliceStabilityWindowResponse response = await c.Server.Windows.SliceStabilityWindowAsync(request, c.Server.Call(t));
             string caption = Caption(response.Used, response.Slice) + "\n" + (response.Misses
                 ? $"the slice misses the window; nearest window point ({Join(response.Whole.Elements)}): " +
                   $"{string.Join(", ", response.NearestPointEv.Select(v => Number(v)))} eV, {Number(response.DistanceEv)} eV from the slice"
-                : $"slice at {string.Join(", ", request.FixedPotentials.Select(p => $"dmu_{p.Element} = {Number(p.ChemicalPotentialEv)} eV"))}");
+                : $"slice at {string.Join(", ", response.FixedPotentialsUsed.Select(p => $"dmu_{p.Element} = {Number(p.ChemicalPotentialEv)} eV"))}" +
+                  string.Concat(request.FixedGases.Select(g => $"; {g.Gas} at {Number(g.TemperatureK)} K, {Number(g.PressureBar)} bar")));
             c.Emit(response, () => VerticesTable(response.Slice.Elements, response.Slice.Vertices), caption);
             return ExitCodes.Ok;
         }));
@@ -108,16 +117,81 @@ public static class WindowCommands
         return command;
     }
 
+    private static Command FigureCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
+    {
+        Common o = Options();
+        var x = new Option<string?>("--x") { Description = "element whose Δμ runs along x (with --y; default: the first two elements other than the most abundant)" };
+        var y = new Option<string?>("--y") { Description = "element whose Δμ runs up y" };
+        var at = new Option<string[]>("--at") { Description = "for 4+ elements, a section potential ELEMENT=EV (repeatable; all but x, y and one more; default: the vertices' mean)", Arity = ArgumentArity.OneOrMore };
+        var atGas = new Option<string[]>("--at-gas") { Description = "a section potential set by a gas, GAS=T_K,P_BAR (repeatable), e.g. --at-gas O2=1273,0.21", Arity = ArgumentArity.OneOrMore };
+        var output = new Option<string?>("--output", "-o") { Description = "SVG file to write (default: DATASET-vVERSION-COMPOUND-window.svg)" };
+        var command = new Command("window-figure", "draw a compound's window (or a section of it) in the plane of two potentials as SVG");
+        foreach (Symbol s in o.All) Add(command, s);
+        foreach (Option option in new Option[] { x, y, at, atGas, output }) command.Options.Add(option);
+        command.SetAction(wrap(async (c, t) =>
+        {
+            var request = new DrawWindowFigureRequest
+            {
+                Dataset = c.Get(o.Dataset)!, Version = c.Get(o.Version), Compound = o.CompoundOf(c), Settings = o.SettingsOf(c),
+                XElement = c.Get(x) ?? string.Empty, YElement = c.Get(y) ?? string.Empty,
+            };
+            foreach (string text in c.Get(at) ?? []) request.Section.Add(ParseFixed(text, "--at"));
+            foreach (string text in c.Get(atGas) ?? []) request.SectionGases.Add(ParseGas(text, "--at-gas"));
+            DrawWindowFigureResponse response = await c.Server.Windows.DrawWindowFigureAsync(request, c.Server.Call(t));
+            string path = c.Get(output) ?? FigureFileName(response);
+            await File.WriteAllTextAsync(path, response.Svg, new System.Text.UTF8Encoding(false), t);
+            var summary = response.Clone();
+            summary.Svg = string.Empty;
+            c.Emit(summary, () => VerticesTable(response.Window.Elements, response.DrawnVertices), FigureCaption(response, path));
+            return ExitCodes.Ok;
+        }));
+        return command;
+    }
+
+    internal static string FigureFileName(DrawWindowFigureResponse response) =>
+        string.Concat($"{response.Used.Dataset}-v{response.Used.Version}-{response.Window.EntryId}-window.svg".Select(ch => char.IsAsciiLetterOrDigit(ch) || ch is '-' or '.' or '_' ? ch : '_'));
+
+    internal static string FigureCaption(DrawWindowFigureResponse r, string path)
+    {
+        string drawn = r.DrawnDimension switch
+        {
+            2 => "a polygon",
+            1 => "a segment",
+            0 => "a point",
+            _ => r.SectionMisses ? "nothing: the section misses the window" : "nothing: no window",
+        };
+        string section = r.Section.Count == 0 ? string.Empty
+            : $"; section at {string.Join(", ", r.Section.Select(p => $"dmu_{p.Element} = {Number(p.ChemicalPotentialEv)} eV"))}{(r.SectionChosenByDefault ? " (the vertices' mean)" : string.Empty)}";
+        return Caption(r.Used, r.Window) + "\n" +
+               $"drawn on dmu_{r.XElement} (x) and dmu_{r.YElement} (y){(r.DependentElement.Length > 0 ? $", dmu_{r.DependentElement} from the compound's energy" : string.Empty)}{section}: {drawn}, " +
+               $"{r.DrawnLineIds.Count} lines{(r.LinesLeftOut > 0 ? $" ({r.LinesLeftOut} more left out)" : string.Empty)}; wrote {path}";
+    }
+
     private static void Add(Command command, Symbol symbol)
     {
         if (symbol is Argument a) command.Arguments.Add(a);
         else command.Options.Add((Option)symbol);
     }
 
-    internal static FixedPotential ParseFixed(string text)
+    internal static FixedPotential ParseFixed(string text, string option = "--fix")
     {
-        (string element, double value) = ElectrochemistryCommands.ParseElementValue(text, "--fix", "O=-1.5");
+        (string element, double value) = ElectrochemistryCommands.ParseElementValue(text, option, "O=-1.5");
         return new FixedPotential { Element = element, ChemicalPotentialEv = value };
+    }
+
+    /// <summary>GAS=T_K,P_BAR, or a usage error naming the option and an example.</summary>
+    internal static GasPotential ParseGas(string text, string option)
+    {
+        int eq = text.IndexOf('=');
+        string[] parts = eq > 0 ? text[(eq + 1)..].Split(',') : [];
+        if (parts.Length != 2
+            || !double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out double t)
+            || !double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out double p))
+        {
+            throw new UsageException($"{option} '{text}' is not GAS=T_K,P_BAR (e.g. O2=1273,0.21)");
+        }
+
+        return new GasPotential { Gas = text[..eq].Trim(), TemperatureK = t, PressureBar = p };
     }
 
     internal static string Caption(VersionUsed used, StabilityWindow w)
@@ -136,6 +210,13 @@ public static class WindowCommands
             lines.Add($"size: {Number(size.MeasureInPlaneEvPowK)} eV^{size.Dimension} in its own plane, {Number(size.ProjectedMeasureEvPowK)} eV^{size.Dimension} projected on dmu of {Join(size.ProjectionElements)}");
         }
 
+        if (w.Vertices.Any(v => v.GasConditions.Count > 0))
+        {
+            lines.Add("gas columns: log10 of the gas's pressure (bar) at the chosen temperature, or the temperature (K) at the chosen pressure, " +
+                      "that gives each vertex's dmu (ideal gas, the dataset's references as fitted H(298.15 K) references); " +
+                      "pressurised oxygen and hydrogen are fire and explosion hazards: follow local rules and licensed practice");
+        }
+
         foreach (ElementExtremes e in w.Extremes)
         {
             lines.Add($"{e.Element}: richest dmu {Number(e.HighestEv)} eV at vertex {Join(e.HighestAtVertices.Select(i => (i + 1).ToString(CultureInfo.InvariantCulture)))}, " +
@@ -149,11 +230,16 @@ public static class WindowCommands
     {
         WindowVertex[] rows = vertices.ToArray();
         string[] voltages = rows.Length == 0 ? [] : rows[0].Voltages.Select(v => $"{v.Element}_volts_vs_metal").ToArray();
-        var table = new Table(["vertex", .. elements.Select(e => $"dmu_{e}_ev"), .. voltages, "limiting_phases", "at_reference"]);
+        GasCondition[] gases = rows.Length == 0 ? [] : [.. rows[0].GasConditions];
+        bool pressures = gases.Any(g => g.HasLog10PressureBar), temperatures = gases.Any(g => g.TemperatureStatus.Length > 0);
+        string[] gasColumns = [.. gases.SelectMany(g => (pressures ? new[] { $"log10_p_{g.Gas}_bar" } : []).Concat(temperatures ? [$"T_{g.Gas}_k"] : []))];
+        var table = new Table(["vertex", .. elements.Select(e => $"dmu_{e}_ev"), .. voltages, .. gasColumns, "limiting_phases", "at_reference"]);
         int n = 0;
         foreach (WindowVertex v in rows)
         {
-            table.Add([++n, .. v.ChemicalPotentialsEv.Select(x => (object?)x), .. v.Voltages.Select(x => (object?)x.VoltsAgainstMetal),
+            IEnumerable<object?> gasCells = v.GasConditions.SelectMany(g => (pressures ? new object?[] { g.HasLog10PressureBar ? g.Log10PressureBar : null } : [])
+                .Concat(temperatures ? [g.HasTemperatureK ? g.TemperatureK : null] : []));
+            table.Add([++n, .. v.ChemicalPotentialsEv.Select(x => (object?)x), .. v.Voltages.Select(x => (object?)x.VoltsAgainstMetal), .. gasCells,
                 string.Join(" ", v.LimitingPhaseIds), string.Join(" ", v.ElementsAtReference)]);
         }
 

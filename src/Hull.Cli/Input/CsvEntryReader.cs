@@ -34,44 +34,62 @@ public static class CsvEntryReader
             if (id.Length == 0) throw new InputFileException(path, line, "column 'id' is empty");
             if (formula.Length == 0) throw new InputFileException(path, line, "column 'formula' is empty");
             string energyText = Field(EntryFileLayout.EnergyEv).Trim();
-            if (!double.TryParse(energyText, NumberStyles.Float, CultureInfo.InvariantCulture, out double energy) || !double.IsFinite(energy))
+            if (!ParseNumber(energyText, out double energy))
             {
                 throw new InputFileException(path, line, $"column 'energy_ev': '{energyText}' is not a finite number (use a '.' decimal point, e.g. -2.345)");
             }
 
             var basis = EntryFileLayout.ParseBasis(Field(EntryFileLayout.Basis), problem => new InputFileException(path, line, $"column 'basis': {problem}"));
+            string entropyText = Field(EntryFileLayout.StandardEntropy).Trim();
+            double? entropy = null;
+            if (entropyText.Length > 0)
+            {
+                entropy = ParseNumber(entropyText, out double value)
+                    ? value
+                    : throw new InputFileException(path, line, $"column '{EntryFileLayout.StandardEntropy}': '{entropyText}' is not a finite number of J/(mol K)");
+            }
+
             double? sigma = EntryFileLayout.ParseSigma(Field(EntryFileLayout.Sigma), problem => new InputFileException(path, line, $"column '{EntryFileLayout.Sigma}': {problem}"));
-            records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line, sigma, Field(EntryFileLayout.CorrelationGroup).Trim()));
+            records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line,
+                TemperatureModelText.FromEntropy(entropy, Field(EntryFileLayout.ModelFormula)), sigma, Field(EntryFileLayout.CorrelationGroup).Trim()));
         }
 
-        if (columns is null) throw new InputFileException(path, null, $"no header line; the first line must name the columns, e.g. {string.Join(",", EntryFileLayout.Columns)}");
+        if (columns is null) throw new InputFileException(path, null, $"no header line; the first line must name the columns, e.g. {string.Join(",", EntryFileLayout.PlainColumns)}");
         return records;
     }
 
-    private static Dictionary<string, int> ReadHeader(string path, int line, List<string> fields)
+    /// <summary>A finite number in the invariant culture ('.' decimal point, exponent allowed).</summary>
+    internal static bool ParseNumber(string text, out double value) =>
+        double.TryParse(text, NumberStyles.Float, CultureInfo.InvariantCulture, out value) && double.IsFinite(value);
+
+    /// <summary>The header's columns by name; refuses unknown, repeated and missing required ones, naming them.</summary>
+    internal static Dictionary<string, int> ReadHeader(string path, int line, List<string> fields,
+        IReadOnlyList<string>? known = null, IReadOnlyList<string>? required = null)
     {
+        known ??= EntryFileLayout.Columns;
+        required ??= EntryFileLayout.RequiredColumns;
         var columns = new Dictionary<string, int>(StringComparer.Ordinal);
         for (int i = 0; i < fields.Count; i++)
         {
             string name = fields[i].Trim();
-            if (!EntryFileLayout.Columns.Contains(name))
+            if (!known.Contains(name))
             {
-                throw new InputFileException(path, line, $"unknown column '{name}' in the header; the columns are {string.Join(", ", EntryFileLayout.Columns)}");
+                throw new InputFileException(path, line, $"unknown column '{name}' in the header; the columns are {string.Join(", ", known)}");
             }
 
             if (!columns.TryAdd(name, i)) throw new InputFileException(path, line, $"column '{name}' appears twice in the header");
         }
 
-        foreach (string required in EntryFileLayout.RequiredColumns)
+        foreach (string column in required)
         {
-            if (!columns.ContainsKey(required)) throw new InputFileException(path, line, $"the header has no '{required}' column");
+            if (!columns.ContainsKey(column)) throw new InputFileException(path, line, $"the header has no '{column}' column");
         }
 
         return columns;
     }
 
     /// <summary>One CSV record (which may span lines inside quotes), with the line it starts on; null at the end.</summary>
-    private static (int Line, List<string> Fields)? ReadRecord(TextReader reader, string path, ref int lineNumber)
+    internal static (int Line, List<string> Fields)? ReadRecord(TextReader reader, string path, ref int lineNumber)
     {
         string? text = reader.ReadLine();
         if (text is null) return null;

@@ -12,6 +12,11 @@ namespace Hull.Cli.Input;
 /// none), <c>correlation_group</c> (optional: entries computed the same way that share a systematic error). CSV: a header line naming the columns (any order; <c>note</c> may be left out), then one entry per
 /// line; fields may be quoted with double quotes ("" inside quotes is a quote); blank lines and lines starting with
 /// '#' are skipped. JSON: an array of objects with these fields, or an object whose "entries" member is one.
+/// Temperature models, optional: <c>standard_entropy_j_per_mol_k</c> (S° per formula unit; an empty cell is none)
+/// and <c>temperature_model_formula</c> (the formula unit the model's values refer to; empty for the entry's own).
+/// A G(T) table comes in JSON as a <c>free_energy_table</c> object (<c>anchor</c>, <c>rows</c>: objects with
+/// <c>temperature_k</c> and <c>free_energy_above_anchor_ev</c>), and for any entry file in a table file of its own
+/// (<see cref="FreeEnergyTableFile"/>).
 /// </remarks>
 public static class EntryFileLayout
 {
@@ -20,11 +25,29 @@ public static class EntryFileLayout
     public const string EnergyEv = "energy_ev";
     public const string Basis = "basis";
     public const string Note = "note";
+    public const string StandardEntropy = "standard_entropy_j_per_mol_k";
+    public const string ModelFormula = "temperature_model_formula";
     public const string Sigma = "sigma_ev_per_atom";
     public const string CorrelationGroup = "correlation_group";
 
-    /// <summary>Every column name, in the order files are written.</summary>
-    public static IReadOnlyList<string> Columns { get; } = [Id, Formula, EnergyEv, Basis, Note, Sigma, CorrelationGroup];
+    /// <summary>JSON only: an entry's G(T) table, an object with <see cref="Anchor"/> and <see cref="Rows"/>.</summary>
+    public const string FreeEnergyTable = "free_energy_table";
+    public const string Anchor = "anchor";
+    public const string Rows = "rows";
+    public const string TemperatureK = "temperature_k";
+    public const string FreeEnergyAboveAnchorEv = "free_energy_above_anchor_ev";
+
+    /// <summary>The columns of entries without temperature models or uncertainties, in the order files are written.</summary>
+    public static IReadOnlyList<string> PlainColumns { get; } = [Id, Formula, EnergyEv, Basis, Note];
+
+    /// <summary>The temperature-model columns, written after <see cref="PlainColumns"/> when some entry has a model.</summary>
+    public static IReadOnlyList<string> ModelColumns { get; } = [StandardEntropy, ModelFormula];
+
+    /// <summary>The uncertainty columns, written last when some entry has a σ or a correlation group.</summary>
+    public static IReadOnlyList<string> UncertaintyColumns { get; } = [Sigma, CorrelationGroup];
+
+    /// <summary>Every column an entry file may have, in the order files are written: plain, model, uncertainty.</summary>
+    public static IReadOnlyList<string> Columns { get; } = [.. PlainColumns, .. ModelColumns, .. UncertaintyColumns];
 
     /// <summary>The columns a file must have.</summary>
     public static IReadOnlyList<string> RequiredColumns { get; } = [Id, Formula, EnergyEv, Basis];
@@ -56,6 +79,25 @@ public static class EntryFileLayout
     /// <summary>The file token of a wire basis.</summary>
     public static string TokenOf(EnergyBasis basis) =>
         BasisTokens.FirstOrDefault(pair => pair.Value == basis).Key ?? "unspecified";
+
+    /// <summary>
+    /// Free-energy anchor tokens accepted in files: the contract's value names in lower case without their prefix
+    /// (FREE_ENERGY_ANCHOR_FITTED_298K is fitted_298k), the tokens the server stores.
+    /// </summary>
+    public static IReadOnlyDictionary<string, FreeEnergyAnchor> AnchorTokens { get; } = EntriesReflection.Descriptor.EnumTypes
+        .Single(e => e.Name == nameof(FreeEnergyAnchor)).Values
+        .Where(v => v.Number != (int)FreeEnergyAnchor.Unspecified)
+        .ToDictionary(v => v.Name["FREE_ENERGY_ANCHOR_".Length..].ToLowerInvariant(), v => (FreeEnergyAnchor)v.Number, StringComparer.Ordinal);
+
+    /// <summary>The file token of a wire anchor.</summary>
+    public static string TokenOf(FreeEnergyAnchor anchor) =>
+        AnchorTokens.FirstOrDefault(pair => pair.Value == anchor).Key ?? "unspecified";
+
+    /// <summary>Parses an anchor token; the error lists the accepted tokens and says what they mean.</summary>
+    public static FreeEnergyAnchor ParseAnchor(string token, Func<string, Exception> fail) =>
+        AnchorTokens.TryGetValue(token.Trim(), out FreeEnergyAnchor anchor)
+            ? anchor
+            : throw fail($"anchor '{token}' is not one of {string.Join(", ", AnchorTokens.Keys)} (computed_0k: the entry's energy is a computed energy at 0 K; fitted_298k: it stands for H°(298.15 K))");
 
     /// <summary>Parses a basis token; the error lists the accepted tokens.</summary>
     public static EnergyBasis ParseBasis(string token, Func<string, Exception> fail) =>

@@ -3,15 +3,17 @@ using Hull.Protos.V1;
 namespace Hull.Cli.Input;
 
 /// <summary>
-/// One entry read from a file, with the line it came from (1-based) so that errors can point at it, and its energy
-/// uncertainty (σ in eV/atom, correlation group) where the file gives them.
+/// One entry read from a file, with the line it came from (1-based) so that errors can point at it, its
+/// temperature model when the file gives one, and its energy uncertainty (σ in eV/atom, correlation group) where the
+/// file gives them.
 /// </summary>
 public sealed record EntryRecord(string Id, string Formula, double EnergyEv, EnergyBasis Basis, string Note, int Line,
-    double? SigmaEvPerAtom = null, string CorrelationGroup = "")
+    EntryTemperatureModel? TemperatureModel = null, double? SigmaEvPerAtom = null, string CorrelationGroup = "")
 {
     public Entry ToWire()
     {
         var entry = new Entry { Id = Id, Formula = Formula, EnergyEv = EnergyEv, Basis = Basis, Note = Note, CorrelationGroup = CorrelationGroup };
+        if (TemperatureModel is not null) entry.TemperatureModel = TemperatureModel.Clone();
         if (SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
         return entry;
     }

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using Hull.Protos.V1;
 
 namespace Hull.Cli.Input;
 
@@ -48,9 +49,9 @@ public static class JsonEntryReader
 
         foreach (JsonProperty property in item.EnumerateObject())
         {
-            if (!EntryFileLayout.Columns.Contains(property.Name))
+            if (!EntryFileLayout.Columns.Contains(property.Name) && property.Name != EntryFileLayout.FreeEnergyTable)
             {
-                throw Fail($"unknown field \"{property.Name}\"; the fields are {string.Join(", ", EntryFileLayout.Columns)}");
+                throw Fail($"unknown field \"{property.Name}\"; the fields are {string.Join(", ", EntryFileLayout.Columns)}, {EntryFileLayout.FreeEnergyTable}");
             }
         }
 
@@ -79,6 +80,26 @@ public static class JsonEntryReader
         }
 
         var basis = EntryFileLayout.ParseBasis(Text(EntryFileLayout.Basis, required: true), problem => Fail($"field \"basis\": {problem}"));
+        double? entropy = null;
+        if (item.TryGetProperty(EntryFileLayout.StandardEntropy, out JsonElement entropyElement) && entropyElement.ValueKind != JsonValueKind.Null)
+        {
+            entropy = FiniteNumber(entropyElement, out double value)
+                ? value
+                : throw Fail($"field \"{EntryFileLayout.StandardEntropy}\" must be a finite number of J/(mol K), not {entropyElement.GetRawText()}");
+        }
+
+        EntryTemperatureModel? model = TemperatureModelText.FromEntropy(entropy, Text(EntryFileLayout.ModelFormula, required: false));
+        if (item.TryGetProperty(EntryFileLayout.FreeEnergyTable, out JsonElement tableElement) && tableElement.ValueKind != JsonValueKind.Null)
+        {
+            if (entropy is not null)
+            {
+                throw Fail($"both \"{EntryFileLayout.StandardEntropy}\" and \"{EntryFileLayout.FreeEnergyTable}\" are given; an entry has one temperature model");
+            }
+
+            model ??= new EntryTemperatureModel();
+            model.FreeEnergyTable = ReadTable(tableElement, Fail);
+        }
+
         double? sigma = null;
         if (item.TryGetProperty(EntryFileLayout.Sigma, out JsonElement sigmaElement) && sigmaElement.ValueKind != JsonValueKind.Null)
         {
@@ -88,7 +109,60 @@ public static class JsonEntryReader
         }
 
         // JSON has no line per entry that a reader can report cheaply; the entry's index stands in (0-based).
-        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1),
+        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1), model,
             sigma, Text(EntryFileLayout.CorrelationGroup, required: false).Trim());
+    }
+
+    private static EntryFreeEnergyTable ReadTable(JsonElement table, Func<string, InputFileException> fail)
+    {
+        string at = $"field \"{EntryFileLayout.FreeEnergyTable}\"";
+        if (table.ValueKind != JsonValueKind.Object) throw fail($"{at} must be an object with \"{EntryFileLayout.Anchor}\" and \"{EntryFileLayout.Rows}\"");
+        foreach (JsonProperty property in table.EnumerateObject())
+        {
+            if (property.Name is not (EntryFileLayout.Anchor or EntryFileLayout.Rows))
+            {
+                throw fail($"{at}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.Anchor}, {EntryFileLayout.Rows}");
+            }
+        }
+
+        if (!table.TryGetProperty(EntryFileLayout.Anchor, out JsonElement anchor) || anchor.ValueKind != JsonValueKind.String)
+        {
+            throw fail($"{at}: \"{EntryFileLayout.Anchor}\" must be given as a string, one of {string.Join(", ", EntryFileLayout.AnchorTokens.Keys)}");
+        }
+
+        var wire = new EntryFreeEnergyTable { Anchor = EntryFileLayout.ParseAnchor(anchor.GetString()!, problem => fail($"{at}: {problem}")) };
+        if (!table.TryGetProperty(EntryFileLayout.Rows, out JsonElement points) || points.ValueKind != JsonValueKind.Array)
+        {
+            throw fail($"{at}: \"{EntryFileLayout.Rows}\" must be an array of objects with \"{EntryFileLayout.TemperatureK}\" and \"{EntryFileLayout.FreeEnergyAboveAnchorEv}\"");
+        }
+
+        int k = 0;
+        foreach (JsonElement point in points.EnumerateArray())
+        {
+            string where = $"{at}: rows[{k}]";
+            if (point.ValueKind != JsonValueKind.Object) throw fail($"{where} must be an object");
+            double Number(string name) =>
+                point.TryGetProperty(name, out JsonElement value) && FiniteNumber(value, out double number)
+                    ? number
+                    : throw fail($"{where}: \"{name}\" must be a finite number");
+            foreach (JsonProperty property in point.EnumerateObject())
+            {
+                if (property.Name is not (EntryFileLayout.TemperatureK or EntryFileLayout.FreeEnergyAboveAnchorEv))
+                {
+                    throw fail($"{where}: unknown field \"{property.Name}\"; the fields are {EntryFileLayout.TemperatureK}, {EntryFileLayout.FreeEnergyAboveAnchorEv}");
+                }
+            }
+
+            wire.Rows.Add(new EntryFreeEnergyRow { TemperatureK = Number(EntryFileLayout.TemperatureK), FreeEnergyAboveAnchorEv = Number(EntryFileLayout.FreeEnergyAboveAnchorEv) });
+            k++;
+        }
+
+        return wire;
+    }
+
+    private static bool FiniteNumber(JsonElement element, out double value)
+    {
+        value = 0;
+        return element.ValueKind == JsonValueKind.Number && element.TryGetDouble(out value) && double.IsFinite(value);
     }
 }

@@ -25,6 +25,7 @@ public static class EntryFileWriter
                 json.WriteNumber(EntryFileLayout.EnergyEv, e.EnergyEv);
                 json.WriteString(EntryFileLayout.Basis, EntryFileLayout.TokenOf(e.Basis));
                 json.WriteString(EntryFileLayout.Note, e.Note);
+                if (e.TemperatureModel is { } model) WriteModel(json, model);
                 if (e.HasEnergySigmaEvPerAtom) json.WriteNumber(EntryFileLayout.Sigma, e.EnergySigmaEvPerAtom);
                 if (e.CorrelationGroup.Length > 0) json.WriteString(EntryFileLayout.CorrelationGroup, e.CorrelationGroup);
                 json.WriteEndObject();
@@ -35,5 +36,31 @@ public static class EntryFileWriter
         }
 
         return Encoding.UTF8.GetString(buffer.ToArray());
+    }
+
+    private static void WriteModel(Utf8JsonWriter json, EntryTemperatureModel model)
+    {
+        if (model.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK)
+        {
+            json.WriteNumber(EntryFileLayout.StandardEntropy, model.StandardEntropyJPerMolK);
+        }
+        else if (model.FreeEnergyTable is { } table)
+        {
+            json.WriteStartObject(EntryFileLayout.FreeEnergyTable);
+            json.WriteString(EntryFileLayout.Anchor, EntryFileLayout.TokenOf(table.Anchor));
+            json.WriteStartArray(EntryFileLayout.Rows);
+            foreach (EntryFreeEnergyRow point in table.Rows)
+            {
+                json.WriteStartObject();
+                json.WriteNumber(EntryFileLayout.TemperatureK, point.TemperatureK);
+                json.WriteNumber(EntryFileLayout.FreeEnergyAboveAnchorEv, point.FreeEnergyAboveAnchorEv);
+                json.WriteEndObject();
+            }
+
+            json.WriteEndArray();
+            json.WriteEndObject();
+        }
+
+        if (model.Formula.Length > 0) json.WriteString(EntryFileLayout.ModelFormula, model.Formula);
     }
 }

@@ -27,8 +27,13 @@ public static class CarrierFigure
     /// <param name="x">One x value per solution, rising.</param>
     /// <param name="solutions">The solutions along the sweep; every one lists the same defects.</param>
     /// <param name="source">The dataset version the solutions came from, recorded in the metadata; null for none.</param>
-    public static string Render(string title, CarrierFigureAxis axis, IReadOnlyList<double> x, IReadOnlyList<FermiLevelSolution> solutions, FigureMetadata? source = null)
+    public static string Render(string title, CarrierFigureAxis axis, IReadOnlyList<double> x, IReadOnlyList<FermiLevelSolution> solutions, FigureMetadata? source = null) =>
+        Render([(title, false)], axis, x, solutions, source);
+
+    /// <summary>As above, with a title in parts: those marked as formulas are written with subscripts.</summary>
+    public static string Render(IReadOnlyList<(string Text, bool IsFormula)> title, CarrierFigureAxis axis, IReadOnlyList<double> x, IReadOnlyList<FermiLevelSolution> solutions, FigureMetadata? source = null)
     {
+        string plainTitle = string.Concat(title.Select(p => p.Text));
         if (solutions.Count < 2 || x.Count != solutions.Count) throw new FigureInputException($"a carrier figure needs two or more solutions and one x value each (got {solutions.Count} and {x.Count})", nameof(solutions));
         for (int i = 0; i < x.Count; i++)
         {
@@ -59,7 +64,7 @@ public static class CarrierFigure
 
         var canvas = new SvgCanvas(Width, Height);
         var b = canvas.Body;
-        b.Append($"<text x=\"{Px(Left)}\" y=\"{Px(32)}\" font-size=\"{Num(FigurePalette.TitleFontSize, "0.#")}\" fill=\"{FigurePalette.Text}\" xml:space=\"preserve\">{Escape(title)}</text>\n");
+        b.Append($"<text x=\"{Px(Left)}\" y=\"{Px(32)}\" font-size=\"{Num(FigurePalette.TitleFontSize, "0.#")}\" fill=\"{FigurePalette.Text}\" xml:space=\"preserve\">{FormulaText.Sentence(FigurePalette.TitleFontSize, [.. title])}</text>\n");
 
         // Upper panel: decades.
         Frame(canvas, Top, UpperHeight, plotWidth);
@@ -72,7 +77,7 @@ public static class CarrierFigure
         }
 
         VerticalTitle(canvas, Top + UpperHeight / 2, "Concentration (cm\u207b\u00b3)");
-        var ends = new List<(double Y, int Series)>();
+        var ends = new List<(double Y, int Series, double LeaderFromX, bool BelowFloor)>();
         for (int s = 0; s < series.Count; s++)
         {
             var (id, _, kind, colour, dash, logs) = series[s];
@@ -80,10 +85,12 @@ public static class CarrierFigure
             if (path.Length == 0) continue;
             string dashAttribute = dash.Length > 0 ? $" stroke-dasharray=\"{dash}\"" : string.Empty;
             b.Append($"<path data-kind=\"{kind}\" data-id=\"{Escape(id)}\" d=\"{path}\" fill=\"none\" stroke=\"{colour}\" stroke-width=\"1.8\"{dashAttribute}/>\n");
-            if (logs[^1] >= yMin) ends.Add((YUpper(logs[^1]), s));
+            if (logs[^1] >= yMin) ends.Add((YUpper(logs[^1]), s, Left + plotWidth, false));
+            else if (LastFloorCrossing(x, logs, yMin) is { } crossing) ends.Add((YUpper(yMin), s, X(crossing), true));
         }
 
-        // End labels, pushed apart to one line height and kept inside the panel.
+        // End labels, pushed apart to one line height and kept inside the panel. A line that ends below the floor is
+        // labelled at the floor, led there from where it left the panel, and marked with a down arrow.
         ends.Sort((a, c) => a.Y.CompareTo(c.Y));
         const double spacing = 13;
         var placed = new double[ends.Count];
@@ -93,8 +100,16 @@ public static class CarrierFigure
         {
             var (_, label, _, colour, _, _) = series[ends[i].Series];
             double lx = Left + plotWidth + 6;
+            if (ends[i].BelowFloor)
+            {
+                canvas.Line(ends[i].LeaderFromX, ends[i].Y, Left + plotWidth, ends[i].Y, colour, 0.6, "stroke-dasharray=\"1 2\"");
+            }
+
             if (Math.Abs(placed[i] - ends[i].Y) > 1) canvas.Line(Left + plotWidth, ends[i].Y, lx - 1, placed[i], colour, 0.6);
-            b.Append($"<text x=\"{Px(lx)}\" y=\"{Px(placed[i] + 4)}\" font-size=\"{Num(FigurePalette.SmallFontSize, "0.#")}\" fill=\"{colour}\">{Escape(label)}</text>\n");
+            string text = (series[ends[i].Series].Kind == "defect" ? DefectNameText.Markup(label, FigurePalette.SmallFontSize) : Escape(label))
+                + (ends[i].BelowFloor ? " \u2193" : string.Empty);
+            string below = ends[i].BelowFloor ? " data-below-floor=\"true\"" : string.Empty;
+            b.Append($"<text data-label-for=\"{Escape(series[ends[i].Series].Id)}\"{below} x=\"{Px(lx)}\" y=\"{Px(placed[i] + 4)}\" font-size=\"{Num(FigurePalette.SmallFontSize, "0.#")}\" fill=\"{colour}\">{text}</text>\n");
         }
 
         // Lower panel: the Fermi level between the band edges.
@@ -145,7 +160,7 @@ public static class CarrierFigure
         string metadata = $"kind=\"carriers\" x-axis=\"{Escape(axis.Name)}\" x-unit=\"{Escape(axis.Unit)}\" defects=\"{Escape(string.Join(' ', names))}\" "
             + $"statistics=\"{solutions[0].Statistics.ToString().ToLowerInvariant()}\" form=\"{(solutions[0].Form is { } f ? f.ToString().ToLowerInvariant() : "frozen")}\""
             + (source is null ? string.Empty : $" dataset=\"{Escape(source.Dataset)}\" version=\"{source.Version}\" content-sha256=\"{Escape(source.ContentSha256)}\"");
-        return canvas.Finish(title, metadata);
+        return canvas.Finish(plainTitle, metadata);
     }
 
     // The line above the floor only: pieces below it are left out, cut where they cross it.
@@ -175,6 +190,20 @@ public static class CarrierFigure
         }
 
         return path.ToString();
+    }
+
+    // Where the line last falls through the floor (x), or null when it never shows above it.
+    private static double? LastFloorCrossing(IReadOnlyList<double> x, double[] logs, double floor)
+    {
+        for (int i = logs.Length - 1; i > 0; i--)
+        {
+            if (logs[i - 1] < floor || logs[i] >= floor) continue;
+            if (!double.IsFinite(logs[i])) return x[i - 1];
+            double t = (floor - logs[i - 1]) / (logs[i] - logs[i - 1]);
+            return x[i - 1] + t * (x[i] - x[i - 1]);
+        }
+
+        return null;
     }
 
     private static double Log10(double value) => value > 0 ? Math.Log10(value) : double.NegativeInfinity;

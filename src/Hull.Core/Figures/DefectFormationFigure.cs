@@ -142,7 +142,7 @@ public static class DefectFormationFigure
             string dash = DefectLineStyles.Dash(d);
             canvas.Line(LegendLeft, y - 4, LegendLeft + 34, y - 4, DefectLineStyles.Colour(d), 2.4, dash.Length > 0 ? $"stroke-dasharray=\"{dash}\"" : null);
             canvas.Raw($"<text data-kind=\"legend\" data-defect=\"{Escape(curves[d].Line.Defect)}\" x=\"{Px(LegendLeft + 42)}\" y=\"{Px(y)}\" font-size=\"{Px(FigurePalette.LabelFontSize)}\" fill=\"{FigurePalette.Text}\">"
-                + NameMarkup(curves[d].Line.Defect, FigurePalette.LabelFontSize) + "</text>\n");
+                + DefectNameText.Markup(curves[d].Line.Defect, FigurePalette.LabelFontSize) + "</text>\n");
         }
 
         double noteTop = PlotTop + 40 + curves.Length * 22;
@@ -160,35 +160,6 @@ public static class DefectFormationFigure
             $"study=\"{Escape(input.StudyName)}\" study-version=\"{input.StudyVersion}\" band-gap-ev=\"{Num(input.BandGapEv, "R")}\"";
         string svg = canvas.Finish($"Defect formation energies in {input.HostFormula} at {input.PointLabel}", metadata);
         return new DefectFigureResult(svg, curves.Length, marked);
-    }
-
-    /// <summary>
-    /// A defect name with the site after each '_' as a subscript (V_O as V with subscript O, Mg_Al+V_O likewise),
-    /// the usual way of writing point defects; other names are plain text.
-    /// </summary>
-    private static string NameMarkup(string name, double size)
-    {
-        var b = new System.Text.StringBuilder();
-        string drop = Px(FormulaText.SubscriptDrop * size), rise = Px(-FormulaText.SubscriptDrop * size), small = Px(FormulaText.SubscriptScale * size);
-        int i = 0;
-        while (i < name.Length)
-        {
-            int mark = name.IndexOf('_', i);
-            int end = mark < 0 ? -1 : name.IndexOfAny(['+', ' ', ',', '(', ')', '_'], mark + 1);
-            if (mark < 0 || mark + 1 == name.Length || end == mark + 1)
-            {
-                b.Append(Escape(name[i..]));
-                break;
-            }
-
-            end = end < 0 ? name.Length : end;
-            b.Append(Escape(name[i..mark]));
-            b.Append($"<tspan dy=\"{drop}\" font-size=\"{small}\">{Escape(name[(mark + 1)..end])}</tspan>");
-            b.Append($"<tspan dy=\"{rise}\">\u200b</tspan>");
-            i = end;
-        }
-
-        return b.ToString();
     }
 
     /// <summary>The lowest E_f(q) + q E_F over the charge states.</summary>

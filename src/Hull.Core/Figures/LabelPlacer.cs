@@ -42,6 +42,10 @@ internal sealed class LabelPlacer(LabelBox bounds)
         return (fallback, false);
     }
 
+    /// <summary>As <see cref="Place"/>, but a label with no free position is not placed (and not counted): false.</summary>
+    public bool TryPlace(double x, double y, double r, double width, double height, out LabelBox box, out bool leader) =>
+        TryPlace(x, y, r, width, height, true, out box, out leader) || TryPlace(x, y, r, width, height, false, out box, out leader);
+
     private bool TryPlace(double x, double y, double r, double width, double height, bool soft, out LabelBox found, out bool leader)
     {
         for (int ring = 1; ring <= 3; ring++)

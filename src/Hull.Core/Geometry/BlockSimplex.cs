@@ -28,9 +28,10 @@ internal sealed class BlockSimplex
     /// <summary>
     /// After this many steps without a decrease of the objective (a degenerate stretch: the composition lies on a
     /// face shared by several bases), entering and leaving columns are chosen by Bland's smallest-index rule, which
-    /// cannot cycle.
+    /// cannot cycle (over the candidate list first, see <see cref="StallStepsBeforeBlandOverBlock"/>). Lattice data
+    /// are full of such faces; a later switch costs fewer steps than an early one (measured on 8-component data).
     /// </summary>
-    private const int StallStepsBeforeBland = 8;
+    private const int StallStepsBeforeBland = 24;
 
     /// <summary>
     /// Basis weights at or below this are zero in the ratio test. Weights are fractions of atoms computed through a
@@ -38,12 +39,44 @@ internal sealed class BlockSimplex
     /// </summary>
     private const double ZeroWeight = 1e-13;
 
+    /// <summary>
+    /// How many of the most negative columns a pricing pass over the whole block keeps as candidates for the next
+    /// steps (multiple pricing). Steps price the candidates only, until none of them lies below the plane; a
+    /// composition then costs a few passes over the block instead of one per step.
+    /// </summary>
+    private const int CandidateCount = 16;
+
+    /// <summary>
+    /// Blocks of fewer columns are priced in full at every step: the list would save little over one vectorised
+    /// pass and costs its refills.
+    /// </summary>
+    private const int CandidateListFromColumns = 4 * CandidateCount;
+
+    /// <summary>A pricing pass over a large block goes in this many sections at least (partial pricing).</summary>
+    private const int PricingSections = 8;
+
+    /// <summary>A pricing pass stops after a section once it has found this many candidates.</summary>
+    private const int CandidatesToStopPricing = CandidateCount / 4;
+
+    /// <summary>
+    /// After this many steps without a decrease, Bland's rule runs over the whole block rather than the candidate
+    /// list: slower per step, but it cannot cycle whatever the lists held.
+    /// </summary>
+    private const int StallStepsBeforeBlandOverBlock = 32 * StallStepsBeforeBland;
+
     private readonly int _maxRows;
     private readonly double[] _lu;
     private readonly int[] _pivots;
     private readonly double[] _weights;
     private readonly double[] _plane;
     private readonly double[] _direction;
+    private readonly int[] _candidates = new int[2 * CandidateCount];
+    private readonly double[] _candidateCosts = new double[2 * CandidateCount];
+    private readonly double[] _candidateEnergies = new double[2 * CandidateCount];
+    private readonly double[] _candidateRows;
+    private int _candidateCount;
+    private int _priceFrom;
+    private ColumnBlock? _candidatesOf;
     private int _rows;
 
     public BlockSimplex(int maxRows)
@@ -54,6 +87,7 @@ internal sealed class BlockSimplex
         _weights = new double[maxRows];
         _plane = new double[maxRows];
         _direction = new double[maxRows];
+        _candidateRows = new double[maxRows * 2 * CandidateCount];
     }
 
     /// <summary>
@@ -84,6 +118,13 @@ internal sealed class BlockSimplex
             }
         }
 
+        if (!ReferenceEquals(_candidatesOf, block))
+        {
+            // Candidates are column indices of one block; a solve over another starts with none.
+            _candidatesOf = block;
+            _candidateCount = 0;
+            _priceFrom = 0;
+        }
         double best = Objective(block, basis, k);
         int stall = 0;
         // A safety net against a loop, not a budget: Bland's rule terminates, but a long degenerate stretch on a
@@ -98,9 +139,7 @@ internal sealed class BlockSimplex
             SmallLinearSolver.SolveTransposed(_lu.AsSpan(0, k * k), k, _pivots.AsSpan(0, k), mu);
 
             bool bland = stall >= StallStepsBeforeBland;
-            int entering = bland || excludedColumns is not null
-                ? FirstOrLowestBelow(block, mu, excluded, excludedColumns, lowest: !bland)
-                : LowestBelow(block, mu, excluded);
+            int entering = Entering(block, mu, excluded, excludedColumns, bland, stall >= StallStepsBeforeBlandOverBlock);
             if (entering < 0) break;
 
             // Direction: B d = a_entering; the leaving column is the first weight to reach 0 along it.
@@ -204,7 +243,84 @@ internal sealed class BlockSimplex
     /// Whether some column other than <paramref name="excluded"/> lies below the plane <paramref name="mu"/> (over the
     /// block's rows) by more than the entering threshold: false means the plane is optimal over the whole block.
     /// </summary>
-    public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded) => LowestBelow(block, mu, excluded) >= 0;
+    public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded) => FirstBelow(block, mu, excluded, null) >= 0;
+
+    /// <summary>
+    /// The entering column, -1 when the plane is optimal over the whole block. Small blocks are priced in full at
+    /// every step (Dantzig's rule: most negative reduced cost). Large ones price the candidate list first and the
+    /// whole block only when no candidate lies below the plane, which refills the list and is also the optimality
+    /// test over every column. In a degenerate stretch the rule is Bland's (lowest index), over the list at first
+    /// and over the whole block when the stretch goes on, which cannot cycle.
+    /// </summary>
+    private int Entering(ColumnBlock block, ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns, bool bland, bool blandOverBlock)
+    {
+        if (blandOverBlock || (bland && block.Count < CandidateListFromColumns)) return FirstBelow(block, mu, excluded, excludedColumns);
+        if (block.Count < CandidateListFromColumns)
+        {
+            return excludedColumns is null ? LowestBelow(block, mu, excluded) : PriceAll(block, mu, excluded, excludedColumns);
+        }
+        int entering = CandidateBelow(mu, excluded, excludedColumns, bland);
+        if (entering >= 0) return entering;
+        entering = PriceAll(block, mu, excluded, excludedColumns);
+        // The list now holds the most negative columns; Bland's rule takes the lowest index among them.
+        return entering >= 0 && bland ? CandidateBelow(mu, excluded, excludedColumns, bland: true) : entering;
+    }
+
+    /// <summary>
+    /// Among the candidates below −threshold (not excluded): the most negative (lowest index among equals), or with
+    /// <paramref name="bland"/> the lowest index; -1 if none. Candidates are hints only: a column found here lies
+    /// below the plane whichever solve put it on the list.
+    /// </summary>
+    private int CandidateBelow(ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns, bool bland)
+    {
+        int count = _candidateCount;
+        if (count == 0) return -1;
+        int k = mu.Length;
+        int stride = 2 * CandidateCount;
+        var costs = _candidateCosts;
+        int width = Vector<double>.Count;
+        int i = 0;
+        if (Vector.IsHardwareAccelerated)
+        {
+            // The list's capacity is a multiple of the vector width, so the last vector stays inside the arrays.
+            for (; i < count; i += width)
+            {
+                var cost = ReducedCosts(_candidateEnergies, _candidateRows, stride, mu, i);
+                cost.CopyTo(costs, i);
+            }
+        }
+        else
+        {
+            for (; i < count; i++)
+            {
+                double cost = _candidateEnergies[i];
+                for (int r = 0; r < k; r++) cost -= mu[r] * _candidateRows[r * stride + i];
+                costs[i] = cost;
+            }
+        }
+        int best = -1;
+        double bestCost = -EnteringReducedCost;
+        for (i = 0; i < count; i++)
+        {
+            double cost = costs[i];
+            int j = _candidates[i];
+            if (!(cost < -EnteringReducedCost) || j == excluded || (excludedColumns is not null && excludedColumns[j])) continue;
+            bool better = bland
+                ? best < 0 || j < best
+                : cost < bestCost || (cost == bestCost && j < best);
+            if (better) { bestCost = cost; best = j; }
+        }
+        return best;
+    }
+
+    /// <summary>E_j − mu·x_j for the vector of columns from <paramref name="j"/> on, rows <paramref name="stride"/> apart.</summary>
+    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    private static Vector<double> ReducedCosts(double[] energies, double[] rows, int stride, ReadOnlySpan<double> mu, int j)
+    {
+        var cost = new Vector<double>(energies, j);
+        for (int r = 0; r < mu.Length; r++) cost -= new Vector<double>(mu[r]) * new Vector<double>(rows, r * stride + j);
+        return cost;
+    }
 
     /// <summary>The column with the most negative reduced cost E_j − mu·x_j below −threshold, or -1 (Dantzig's rule).</summary>
     private static int LowestBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded)
@@ -240,8 +356,7 @@ internal sealed class BlockSimplex
             var offsets = new Vector<long>(lane);
             for (; j + width <= to; j += width)
             {
-                var cost = new Vector<double>(energies, j);
-                for (int r = 0; r < k; r++) cost -= new Vector<double>(mu[r]) * new Vector<double>(rows, r * stride + j);
+                var cost = ReducedCosts(energies, rows, stride, mu, j);
                 var lower = Vector.LessThan(cost, bestVec);
                 if (lower != Vector<long>.Zero)
                 {
@@ -265,28 +380,157 @@ internal sealed class BlockSimplex
     }
 
     /// <summary>
-    /// With <paramref name="lowest"/>, the column of most negative reduced cost (Dantzig's rule), else the
-    /// lowest-index column (Bland's rule), below −threshold and not excluded; -1 if none. A plain scan: this path
-    /// serves the rare solves with excluded columns and the degenerate stretches.
+    /// Prices every column of the block: returns the column of most negative reduced cost below −threshold (lowest
+    /// index among equals; -1 if none, i.e. the plane is optimal over the whole block) and keeps the
+    /// <see cref="CandidateCount"/> most negative as the candidate list.
     /// </summary>
-    private static int FirstOrLowestBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns, bool lowest)
+    private int PriceAll(ColumnBlock block, ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns)
     {
         int k = mu.Length;
-        int best = -1;
-        double bestCost = -EnteringReducedCost;
-        for (int j = 0; j < block.Count; j++)
+        int stride = block.Stride;
+        int count = block.Count;
+        double[] rows = block.Rows;
+        double[] energies = block.Energies;
+        _candidateCount = 0;
+        // Costs below this enter the list: the threshold while the list has room, then the largest cost kept.
+        double admit = -EnteringReducedCost;
+        // Partial pricing: sections from where the last pass stopped, until enough candidates are found or every
+        // column has been priced (which a pass without a candidate always does: that is the optimality test).
+        int width = Vector<double>.Count;
+        int section = Math.Max(CandidateListFromColumns, count / PricingSections) / width * width;
+        if (_priceFrom >= count) _priceFrom = 0;
+        for (int priced = 0; priced < count && _candidateCount < CandidatesToStopPricing;)
         {
-            if (j == excluded || (excludedColumns is not null && excludedColumns[j])) continue;
-            double cost = block.Energies[j];
-            for (int r = 0; r < k; r++) cost -= mu[r] * block.Rows[r * block.Stride + j];
-            if (cost < bestCost)
-            {
-                if (!lowest) return j;
-                bestCost = cost;
-                best = j;
-            }
+            int from = _priceFrom;
+            int to = Math.Min(count, from + section);
+            PriceRange(block, mu, from, to, excluded, excludedColumns, ref admit);
+            priced += to - from;
+            _priceFrom = to == count ? 0 : to;
+        }
+        int best = -1;
+        double bestCost = double.PositiveInfinity;
+        int listStride = 2 * CandidateCount;
+        for (int i = 0; i < _candidateCount; i++)
+        {
+            double c = _candidateCosts[i];
+            int column = _candidates[i];
+            if (c < bestCost || (c == bestCost && column < best)) { bestCost = c; best = column; }
+            // The list keeps its own copy of the columns, contiguous, so that pricing it is a run of vector operations.
+            _candidateEnergies[i] = energies[column];
+            for (int r = 0; r < k; r++) _candidateRows[r * listStride + i] = rows[r * stride + column];
         }
         return best;
+    }
+
+    private void PriceRange(ColumnBlock block, ReadOnlySpan<double> mu, int from, int to, int excluded, bool[]? excludedColumns, ref double admit)
+    {
+        int k = mu.Length;
+        int stride = block.Stride;
+        double[] rows = block.Rows;
+        double[] energies = block.Energies;
+        int j = from;
+        int width = Vector<double>.Count;
+        if (Vector.IsHardwareAccelerated)
+        {
+            var admitVec = new Vector<double>(admit);
+            for (; j + width <= to; j += width)
+            {
+                var cost = ReducedCosts(energies, rows, stride, mu, j);
+                if (!Vector.LessThanAny(cost, admitVec)) continue;
+                for (int t = 0; t < width; t++)
+                {
+                    if (cost[t] < admit && Admit(j + t, cost[t], excluded, excludedColumns, ref admit)) admitVec = new Vector<double>(admit);
+                }
+            }
+        }
+        for (; j < to; j++)
+        {
+            double cost = energies[j];
+            for (int r = 0; r < k; r++) cost -= mu[r] * rows[r * stride + j];
+            if (cost < admit) Admit(j, cost, excluded, excludedColumns, ref admit);
+        }
+    }
+
+    /// <summary>
+    /// Puts a column below the admission cost on the candidate list. The list holds up to twice
+    /// <see cref="CandidateCount"/>; when full, it keeps the <see cref="CandidateCount"/> lowest and raises the
+    /// admission cost to the largest of those (amortised constant time per column). Returns whether it changed.
+    /// </summary>
+    private bool Admit(int column, double cost, int excluded, bool[]? excludedColumns, ref double admit)
+    {
+        if (column == excluded || (excludedColumns is not null && excludedColumns[column])) return false;
+        _candidates[_candidateCount] = column;
+        _candidateCosts[_candidateCount++] = cost;
+        if (_candidateCount < 2 * CandidateCount) return false;
+        KeepLowest(CandidateCount);
+        _candidateCount = CandidateCount;
+        double largest = double.NegativeInfinity;
+        for (int i = 0; i < CandidateCount; i++) largest = Math.Max(largest, _candidateCosts[i]);
+        admit = largest;
+        return true;
+    }
+
+    /// <summary>Reorders the list so that its first <paramref name="keep"/> entries have the lowest costs (quickselect).</summary>
+    private void KeepLowest(int keep)
+    {
+        int lo = 0, hi = _candidateCount - 1;
+        while (lo < hi)
+        {
+            double pivot = _candidateCosts[(lo + hi) >>> 1];
+            int i = lo, j = hi;
+            while (i <= j)
+            {
+                while (_candidateCosts[i] < pivot) i++;
+                while (_candidateCosts[j] > pivot) j--;
+                if (i > j) break;
+                (_candidateCosts[i], _candidateCosts[j]) = (_candidateCosts[j], _candidateCosts[i]);
+                (_candidates[i], _candidates[j]) = (_candidates[j], _candidates[i]);
+                i++;
+                j--;
+            }
+            // [lo, j] ≤ pivot ≤ [i, hi]: continue in the part that holds position keep - 1.
+            if (keep - 1 <= j) hi = j;
+            else if (keep - 1 >= i) lo = i;
+            else return;
+        }
+    }
+
+    /// <summary>
+    /// The lowest-index column below −threshold that is not excluded, or -1 (Bland's rule; also the plain question
+    /// whether any column lies below the plane). Stops at the first such column.
+    /// </summary>
+    private static int FirstBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded, bool[]? excludedColumns)
+    {
+        int k = mu.Length;
+        int stride = block.Stride;
+        int count = block.Count;
+        double[] rows = block.Rows;
+        double[] energies = block.Energies;
+        const double below = -EnteringReducedCost;
+        int j = 0;
+        int width = Vector<double>.Count;
+        if (Vector.IsHardwareAccelerated && count >= width)
+        {
+            var belowVec = new Vector<double>(below);
+            for (; j + width <= count; j += width)
+            {
+                var cost = ReducedCosts(energies, rows, stride, mu, j);
+                if (!Vector.LessThanAny(cost, belowVec)) continue;
+                for (int t = 0; t < width; t++)
+                {
+                    int column = j + t;
+                    if (cost[t] < below && column != excluded && (excludedColumns is null || !excludedColumns[column])) return column;
+                }
+            }
+        }
+        for (; j < count; j++)
+        {
+            if (j == excluded || (excludedColumns is not null && excludedColumns[j])) continue;
+            double cost = energies[j];
+            for (int r = 0; r < k; r++) cost -= mu[r] * rows[r * stride + j];
+            if (cost < below) return j;
+        }
+        return -1;
     }
 }
 

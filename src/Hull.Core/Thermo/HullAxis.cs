@@ -99,6 +99,21 @@ public sealed class HullAxis
         return new HullAxis(HullAxisQuantity.GrandPotential, name, AtomNormalisation.PerClosedElementAtom, elements, null, null);
     }
 
+    /// <summary>
+    /// Grand free energy per closed-element atom at <paramref name="temperatureK"/>: the solids' free energies at T
+    /// with the given elements open to a gas at their Δμ(T, p) (eV/atom relative to their references).
+    /// </summary>
+    /// <exception cref="ThermoInputException">A bad temperature, or what <see cref="GrandPotential"/> refuses.</exception>
+    public static HullAxis GrandPotentialAt(double temperatureK, IEnumerable<KeyValuePair<string, double>> chemicalPotentialsEvPerAtom)
+    {
+        HullAxis open = GrandPotential(chemicalPotentialsEvPerAtom);
+        FreeEnergy(temperatureK);
+        string name = string.Create(CultureInfo.InvariantCulture, $"grand free energy at {temperatureK:0.##} K (")
+            + string.Join(", ", open.OpenElements.Select(o => string.Create(CultureInfo.InvariantCulture, $"{o.Symbol} open at {o.ChemicalPotentialEvPerAtom:G6} eV")))
+            + ")";
+        return new HullAxis(HullAxisQuantity.GrandPotential, name, AtomNormalisation.PerClosedElementAtom, open.OpenElements, temperatureK, null);
+    }
+
     /// <summary>Formation free energy per atom at <paramref name="temperatureK"/>.</summary>
     /// <exception cref="ThermoInputException">When the temperature is not a finite, non-negative number of kelvin.</exception>
     public static HullAxis FreeEnergy(double temperatureK)

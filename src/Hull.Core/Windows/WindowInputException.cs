@@ -14,6 +14,9 @@ public enum WindowInputSubject
 
     /// <summary>An option (tolerance, lowering, projection).</summary>
     Option,
+
+    /// <summary>An axis of a window map (an element outside the system, or the same element twice).</summary>
+    MapAxis,
 }
 
 /// <summary>A window question that cannot be answered as asked; the message says what and where.</summary>

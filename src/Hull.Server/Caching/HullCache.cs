@@ -25,7 +25,7 @@ public sealed class HullCache
     /// <summary>Whole-dataset analyses kept: they hold a result per entry, so only the recent few.</summary>
     private const int MaxAnalyses = 4;
 
-    private readonly DatasetStore _store;
+    private readonly IDatasetStore _store;
     private readonly ServiceLimits _limits;
     private readonly int _maxHulls;
     private readonly ConcurrentDictionary<(string Dataset, string Fingerprint), Slot<VersionSnapshot>> _snapshots = new();
@@ -34,7 +34,7 @@ public sealed class HullCache
     private readonly ConcurrentDictionary<(string Dataset, string Fingerprint, string References), Slot<DatasetStabilityResult>> _analyses = new();
     private long _clock;
 
-    public HullCache(DatasetStore store, ServiceLimits limits, CacheSettings settings)
+    public HullCache(IDatasetStore store, ServiceLimits limits, CacheSettings settings)
     {
         _store = store;
         _limits = limits;

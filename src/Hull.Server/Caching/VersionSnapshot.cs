@@ -1,6 +1,7 @@
 using System.Collections.Concurrent;
 using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
+using Hull.Core.Thermo.Solids;
 using Hull.Core.Thermo.Uncertainty;
 using Hull.Server.Errors;
 using Hull.Server.Mapping;
@@ -18,13 +19,19 @@ public sealed class VersionSnapshot
     private readonly Dictionary<string, int> _indexById;
     private readonly ChemicalSystemGrouping _systems;
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
+    private readonly Lazy<TemperatureModelSet> _storedModelSet;
 
-    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, EnergyUncertainty[] uncertainties)
+    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, AnchoredSolidModel?[] temperatureModels,
+        EnergyUncertainty[] uncertainties)
     {
         Version = version;
         Uncertainties = uncertainties;
         Entries = entries;
         FormulasAsStored = formulasAsStored;
+        TemperatureModels = temperatureModels;
+        _storedModelSet = new Lazy<TemperatureModelSet>(() => new TemperatureModelSet(
+            Enumerable.Range(0, entries.Length).Where(i => temperatureModels[i] is not null)
+                .Select(i => KeyValuePair.Create(entries[i].Id, temperatureModels[i]!.Model)), []));
         _indexById = new Dictionary<string, int>(entries.Length, StringComparer.Ordinal);
         for (int i = 0; i < entries.Length; i++)
         {
@@ -49,16 +56,23 @@ public sealed class VersionSnapshot
     /// <summary>Each entry's formula exactly as imported (parallel to <see cref="Entries"/>).</summary>
     public IReadOnlyList<string> FormulasAsStored { get; }
 
+    /// <summary>Each entry's stored temperature model with its table's anchor, null where it has none (parallel to <see cref="Entries"/>).</summary>
+    public IReadOnlyList<AnchoredSolidModel?> TemperatureModels { get; }
+
+    /// <summary>The stored models by entry id, as Core's set (every model checked against its entry's composition on import).</summary>
+    public TemperatureModelSet StoredModelSet => _storedModelSet.Value;
+
     /// <summary>Element lists of the systems contained in no other present system, ordered by name.</summary>
     public IReadOnlyList<IReadOnlyList<string>> MaximalSystems { get; }
 
     /// <summary>Reads and parses every entry of <paramref name="version"/>.</summary>
     /// <exception cref="Grpc.Core.RpcException">FAILED_PRECONDITION when a stored row cannot be read as an entry.</exception>
-    public static VersionSnapshot Load(DatasetStore store, VersionRef version)
+    public static VersionSnapshot Load(IDatasetStore store, VersionRef version)
     {
         IReadOnlyList<EntryRow> rows = store.GetEntries(version.Dataset, version.Version);
         var entries = new PhaseEntry[rows.Count];
         var formulas = new string[rows.Count];
+        var models = new AnchoredSolidModel?[rows.Count];
         var uncertainties = new List<EnergyUncertainty>();
         for (int i = 0; i < rows.Count; i++)
         {
@@ -72,14 +86,29 @@ public sealed class VersionSnapshot
 
             formulas[i] = row.Formula;
             entries[i] = new PhaseEntry(row.Id, composition, row.EnergyEv, WireMapping.BasisOf(row));
+            if (row.TemperatureModel is { } stored)
+            {
+                try
+                {
+                    models[i] = TemperatureModelMapping.ToCore(row.Id, composition, stored);
+                }
+                catch (InvalidDataException e)
+                {
+                    throw RpcErrors.FailedPrecondition($"dataset '{version.Dataset}' version {version.Version}: {e.Message}",
+                        ErrorReasons.DatasetNotAnalysable, $"entry:{row.Id}");
+                }
+            }
             if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
             {
                 uncertainties.Add(new EnergyUncertainty(row.Id, row.SigmaEvPerAtom ?? 0.0, row.CorrelationGroup));
             }
         }
 
-        return new VersionSnapshot(version, entries, formulas, [.. uncertainties]);
+        return new VersionSnapshot(version, entries, formulas, models, [.. uncertainties]);
     }
+
+    /// <summary>The temperature model of the entry with <paramref name="id"/>; null when it has none or the version has no such entry.</summary>
+    public AnchoredSolidModel? TemperatureModelOf(string id) => _indexById.TryGetValue(id, out int row) ? TemperatureModels[row] : null;
 
     /// <summary>The row of the entry with <paramref name="id"/>; false when the version has none.</summary>
     public bool TryFind(string id, out int row) => _indexById.TryGetValue(id, out row);

@@ -61,7 +61,7 @@ public sealed class DefectEvaluation
 
     /// <summary>Reads the study version and sets it against the dataset version.</summary>
     public static async Task<DefectEvaluation> LoadAsync(
-        DatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies, string dataset, long version, string studyName,
+        IDatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies, string dataset, long version, string studyName,
         long studyVersion, string hostEntryId, CancellationToken cancellation)
     {
         if (studyVersion < 0) throw RpcErrors.InvalidArgument("study_version", $"study version {studyVersion} is negative; versions count from 1 and 0 means the latest");

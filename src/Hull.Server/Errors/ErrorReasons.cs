@@ -47,6 +47,10 @@ public static class ErrorReasons
         "a write call without the bearer token this server requires");
     public static ErrorReason WriteTokenRejected { get; } = new("WRITE_TOKEN_REJECTED", StatusCode.PermissionDenied,
         "a write call with a bearer token that is not the server's");
+    public static ErrorReason DatasetMoved { get; } = new("DATASET_MOVED", StatusCode.Aborted,
+        "other servers on the same store kept committing to the dataset while the import was checked, five times over; nothing was written; retry");
+    public static ErrorReason StoreUnavailable { get; } = new("STORE_UNAVAILABLE", StatusCode.Unavailable,
+        "the shared store's database cannot be reached right now; nothing of the call was written; retry, here or on another server");
     public static ErrorReason DeadlineExceeded { get; } = new("DEADLINE_EXCEEDED", StatusCode.DeadlineExceeded,
         "the caller's deadline passed before the work finished");
     public static ErrorReason Cancelled { get; } = new("CANCELLED", StatusCode.Cancelled,
@@ -61,7 +65,7 @@ public static class ErrorReasons
         DatasetNotFound, VersionNotFound, EntryNotFound, ImportSessionNotFound, ResourceNotFound,
         DatasetExists, EntryIdExists, ResourceExists,
         MissingElementalReference, DatasetNotAnalysable, PreconditionFailed,
-        LimitExceeded, WriteTokenRequired, WriteTokenRejected,
+        LimitExceeded, WriteTokenRequired, WriteTokenRejected, DatasetMoved, StoreUnavailable,
         DeadlineExceeded, Cancelled, InternalError,
     ];
 

@@ -25,6 +25,8 @@ public static class StoreErrorTranslation
         DuplicateEntryException { ExistingVersion: not null } e => RpcErrors.EntryIdExists(e.EntryId ?? string.Empty,
             e.Message + "; choose the replace duplicate policy to supersede it", RowField(e), WithoutRowPrefix(e)),
         ImportSessionNotFoundException e => RpcErrors.ImportSessionNotFound(e.SessionId, e.Expired, e.Message),
+        BaseVersionChangedException e => RpcErrors.Plain(StatusCode.Aborted, e.Message + "; retry", ErrorReasons.DatasetMoved),
+        StoreUnavailableException e => RpcErrors.Plain(StatusCode.Unavailable, e.Message, ErrorReasons.StoreUnavailable),
         ImportSessionChangedException e => RpcErrors.FailedPrecondition(e.Message, subject: $"import_session:{e.SessionId}"),
         InvalidBatchException e => e.RowIndex is null
             ? RpcErrors.InvalidArgument("entries", e.Message, ErrorReasons.InvalidEntry)
@@ -54,6 +56,7 @@ public static class StoreErrorTranslation
             nameof(EntryRow.EnergyEv) => "energy_ev",
             nameof(EntryRow.Basis) => "basis",
             nameof(EntryRow.Metadata) => "note",
+            nameof(EntryRow.TemperatureModel) => "temperature_model",
             _ => string.Empty,
         };
         return field.Length == 0 ? $"entries[{e.RowIndex}]" : $"entries[{e.RowIndex}].{field}";

@@ -5,6 +5,7 @@ using Hull.Server.Errors;
 using Hull.Server.Security;
 using Hull.Server.Services;
 using Hull.Store;
+using Hull.Store.Postgres;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
@@ -25,10 +26,10 @@ namespace Hull.Server.Hosting;
 public sealed class HullServer : IAsyncDisposable
 {
     private readonly WebApplication _app;
-    private readonly DatasetStore _store;
+    private readonly IDatasetStore _store;
     private int _stopped;
 
-    private HullServer(WebApplication app, DatasetStore store, Uri address)
+    private HullServer(WebApplication app, IDatasetStore store, Uri address)
     {
         _app = app;
         _store = store;
@@ -41,8 +42,8 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>The port actually bound (useful with port 0).</summary>
     public int Port => Address.Port;
 
-    /// <summary>The store's directory.</summary>
-    public string DataDirectory => _store.DataDirectory;
+    /// <summary>Where the store keeps its data (see <see cref="IDatasetStore.Location"/>).</summary>
+    public string StoreLocation => _store.Location;
 
     /// <summary>
     /// Whether a failure of <see cref="StartAsync"/> means the store cannot be opened, so that a host (such as the
@@ -51,20 +52,22 @@ public sealed class HullServer : IAsyncDisposable
     public static bool IsStoreFailure(Exception error) => error is StoreException;
 
     /// <summary>The store the server runs on (for in-process callers such as tests).</summary>
-    public DatasetStore Store => _store;
+    public IDatasetStore Store => _store;
 
     /// <summary>The hull cache (for in-process callers such as tests).</summary>
     public HullCache Cache => _app.Services.GetRequiredService<HullCache>();
 
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
-    /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema).</exception>
+    /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
     /// <exception cref="TlsFileException">A TLS file is missing or unusable.</exception>
     public static async Task<HullServer> StartAsync(HullServerOptions options, CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(options);
         X509Certificate2? certificate = LoadCertificate(options);
-        DatasetStore store = DatasetStore.Open(options.DataDirectory);
+        IDatasetStore store = options.PostgresConnectionString is { } postgres
+            ? PostgresDatasetStore.Open(postgres)
+            : DatasetStore.Open(options.DataDirectory);
         try
         {
             WebApplication app = Build(options, store, certificate);
@@ -100,7 +103,7 @@ public sealed class HullServer : IAsyncDisposable
 
     public async ValueTask DisposeAsync() => await StopAsync();
 
-    private static WebApplication Build(HullServerOptions options, DatasetStore store, X509Certificate2? certificate)
+    private static WebApplication Build(HullServerOptions options, IDatasetStore store, X509Certificate2? certificate)
     {
         WebApplicationBuilder builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions
         {
@@ -143,6 +146,9 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton<Defects.DefectStudyCache>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
         builder.Services.AddHostedService<ImportSessionSweeper>();
+        // Never more than half the cache, so that warming cannot evict what queries need.
+        builder.Services.AddSingleton(new StartupWarmingSettings(Math.Min(options.WarmHullsOnStart, options.MaxCachedHulls / 2)));
+        builder.Services.AddHostedService<StartupHullWarming>();
         builder.Services.AddGrpc(grpc =>
         {
             grpc.MaxReceiveMessageSize = limits.MaxReceiveMessageBytes;
@@ -164,6 +170,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();
+        app.MapGrpcService<ThermoGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

@@ -9,8 +9,19 @@ public sealed record HullServerOptions
     /// <summary>Port the server listens on when none is given.</summary>
     public const int DefaultPort = 50551;
 
-    /// <summary>Directory of the dataset store; created on first start.</summary>
+    /// <summary>Directory of the dataset store (SQLite); created on first start. Unused with <see cref="PostgresConnectionString"/>.</summary>
     public required string DataDirectory { get; init; }
+
+    /// <summary>
+    /// Keep the datasets in this PostgreSQL database (an Npgsql connection string) instead of <see cref="DataDirectory"/>:
+    /// any number of servers on it answer alike (see README, "Running several servers"). Null: SQLite.
+    /// </summary>
+    public string? PostgresConnectionString { get; init; }
+
+    /// <summary>Where the store is, for messages: the data directory, or the PostgreSQL database (never its password).</summary>
+    public string StoreDescription => PostgresConnectionString is null
+        ? $"'{DataDirectory}'"
+        : Hull.Store.Postgres.PostgresDatasetStore.Describe(PostgresConnectionString);
 
     /// <summary>Address to bind; loopback unless a deployment asks for more.</summary>
     public IPAddress BindAddress { get; init; } = IPAddress.Loopback;
@@ -31,6 +42,14 @@ public sealed record HullServerOptions
 
     /// <summary>Hulls kept in the cache before the least recently used are dropped.</summary>
     public int MaxCachedHulls { get; init; } = 512;
+
+    /// <summary>Hulls of the latest versions built in the background once the server listens (see
+    /// <see cref="StartupHullWarming"/>); 0, the default for servers started in-process, builds none. The server's
+    /// command line defaults to <see cref="DefaultWarmHulls"/>.</summary>
+    public int WarmHullsOnStart { get; init; }
+
+    /// <summary>The command line's default for <see cref="WarmHullsOnStart"/>: half the default cache.</summary>
+    public const int DefaultWarmHulls = 256;
 
     /// <summary>How long an import session waits for its next call before it lapses (see <see cref="ImportSessionSettings"/>).</summary>
     public TimeSpan ImportIdleExpiry { get; init; } = ImportSessionSettings.DefaultIdleExpiry;

@@ -5,7 +5,7 @@ using Microsoft.Extensions.Logging;
 namespace Hull.Server.Hosting;
 
 /// <summary>Removes lapsed import sessions and their staged rows: once at start (a crash may have left some) and then periodically.</summary>
-public sealed class ImportSessionSweeper(DatasetStore store, ImportSessionSettings settings, ILogger<ImportSessionSweeper> log) : BackgroundService
+public sealed class ImportSessionSweeper(IDatasetStore store, ImportSessionSettings settings, ILogger<ImportSessionSweeper> log) : BackgroundService
 {
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {

@@ -13,10 +13,15 @@ public static class ServerCommandLine
     /// <summary>Environment variable read for the write token when --write-token is not given (keeps it out of ps).</summary>
     public const string WriteTokenVariable = "HULL_WRITE_TOKEN";
 
+    /// <summary>Environment variable read for the PostgreSQL connection when neither --postgres nor --data-dir is given (keeps a password out of ps).</summary>
+    public const string PostgresVariable = "HULL_POSTGRES";
+
     /// <summary>Every option, in the order help lists them: the one list that the usage text and `hull serve` are built from.</summary>
     public static IReadOnlyList<ServerOptionSpec> Options { get; } =
     [
         new("--data-dir", "DIR", "dataset store directory, created on first start (default: ./hull-data)"),
+        new("--postgres", "CONNECTION", "keep datasets in this PostgreSQL database instead (Npgsql connection string, e.g. " +
+            "'Host=db;Database=hull;Username=hull'; default: $HULL_POSTGRES when --data-dir is not given); servers sharing it answer alike"),
         new("--host", "ADDRESS", "address to bind (default: 127.0.0.1, loopback only)"),
         new("--port", "N", "TCP port (default: 50551; 0 picks a free port and prints it)"),
         new("--tls-cert", "FILE", "serve TLS with this PEM certificate (or PKCS#12 file)"),
@@ -27,6 +32,7 @@ public static class ServerCommandLine
         new("--max-compositions-per-request", "N", "default 1000"),
         new("--max-message-bytes", "N", "largest request message (default 16777216)"),
         new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
+        new("--warm-hulls", "N", $"once listening, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
         new("--log-level", "LEVEL", "Trace, Debug, Information, Warning, Error (default Information)"),
     ];
 
@@ -118,11 +124,26 @@ public static class ServerCommandLine
 
             string? token = values.GetValueOrDefault("--write-token") ?? Environment.GetEnvironmentVariable(WriteTokenVariable);
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
+            int warmHulls = values.TryGetValue("--warm-hulls", out string? warmText) ? ParseInt(warmText, "--warm-hulls") : HullServerOptions.DefaultWarmHulls;
+            if (warmHulls < 0) throw new FormatException($"--warm-hulls must be 0 or more, not {warmHulls}");
+            string? postgres = values.GetValueOrDefault("--postgres");
+            if (postgres is not null && values.ContainsKey("--data-dir")) throw new FormatException("give --data-dir or --postgres, not both");
+            if (postgres is null && !values.ContainsKey("--data-dir"))
+            {
+                // An empty variable counts as unset.
+                string? fromVariable = Environment.GetEnvironmentVariable(PostgresVariable);
+                if (!string.IsNullOrWhiteSpace(fromVariable)) postgres = fromVariable;
+            }
+            if (postgres is not null && Hull.Store.Postgres.PostgresDatasetStore.CheckConnectionString(postgres) is { } badConnection)
+            {
+                throw new FormatException($"--postgres: {badConnection}");
+            }
             int expirySeconds = PositiveInt(values, "--import-expiry-seconds", (int)ImportSessionSettings.DefaultIdleExpiry.TotalSeconds);
             return new HullServerOptions
             {
                 ImportIdleExpiry = TimeSpan.FromSeconds(expirySeconds),
                 DataDirectory = values.GetValueOrDefault("--data-dir") ?? Path.Combine(Environment.CurrentDirectory, "hull-data"),
+                PostgresConnectionString = string.IsNullOrWhiteSpace(postgres) ? null : postgres,
                 BindAddress = host,
                 Port = port,
                 TlsCertificatePath = values.GetValueOrDefault("--tls-cert"),
@@ -130,6 +151,7 @@ public static class ServerCommandLine
                 WriteToken = token?.Trim(),
                 Limits = limits,
                 MinimumLogLevel = level,
+                WarmHullsOnStart = warmHulls,
             };
         }
         catch (FormatException e)

@@ -10,7 +10,7 @@ namespace Hull.Server.Mapping;
 /// <summary>Windows, slices and dopant limits from the science layer to the wire.</summary>
 public static class WindowWireMapping
 {
-    public static WireWindow ToWire(CoreWindow window, string formulaAsStored, string chemicalSystem)
+    public static WireWindow ToWire(CoreWindow window, string formulaAsStored, string chemicalSystem, WindowGasMapping.Display? gas = null)
     {
         var wire = new WireWindow
         {
@@ -25,7 +25,7 @@ public static class WindowWireMapping
         wire.Elements.AddRange(window.Elements);
         if (window.LoweredByEvPerAtom is double lowered) wire.LoweredByEvPerAtom = lowered;
         wire.CoexistingPhaseIds.AddRange(window.CoexistingPhases.Select(p => p.Id));
-        wire.Vertices.AddRange(window.Vertices.Select(v => ToWire(v, window.Elements)));
+        wire.Vertices.AddRange(window.Vertices.Select(v => ToWire(v, window.Elements, gas)));
         if (window.Size is { } size)
         {
             wire.Size = new Protos.V1.WindowSize
@@ -48,7 +48,7 @@ public static class WindowWireMapping
         return wire;
     }
 
-    public static WireVertex ToWire(CoreVertex vertex, IReadOnlyList<string> elements)
+    public static WireVertex ToWire(CoreVertex vertex, IReadOnlyList<string> elements, WindowGasMapping.Display? gas = null)
     {
         var wire = new WireVertex();
         wire.ChemicalPotentialsEv.AddRange(vertex.ChemicalPotentialsEv);
@@ -67,10 +67,11 @@ public static class WindowWireMapping
             }
         }
 
+        if (gas is not null) wire.GasConditions.AddRange(WindowGasMapping.ToWire(elements, vertex.ChemicalPotentialsEv, gas));
         return wire;
     }
 
-    public static Protos.V1.DopantLimit ToWire(Core.Windows.DopantLimit limit)
+    public static Protos.V1.DopantLimit ToWire(Core.Windows.DopantLimit limit, WindowGasMapping.Display? gas = null)
     {
         var wire = new Protos.V1.DopantLimit { Dopant = limit.Dopant, DopantPhaseCount = limit.DopantPhaseCount };
         wire.ExtendedElements.AddRange(limit.ExtendedElements);
@@ -92,7 +93,7 @@ public static class WindowWireMapping
             wire.PerHostVertex.Add(row);
         }
 
-        wire.ExtendedVertices.AddRange(limit.ExtendedVertices.Select(v => ToWire(v, limit.ExtendedElements)));
+        wire.ExtendedVertices.AddRange(limit.ExtendedVertices.Select(v => ToWire(v, limit.ExtendedElements, gas)));
         return wire;
     }
 

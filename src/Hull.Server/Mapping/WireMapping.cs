@@ -59,6 +59,7 @@ public static class WireMapping
             CorrelationGroup = row.CorrelationGroup ?? string.Empty,
         };
         if (row.SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
+        if (row.TemperatureModel is { } model) entry.TemperatureModel = TemperatureModelMapping.ToWire(model);
         return entry;
     }
 

@@ -11,7 +11,7 @@ namespace Hull.Server.Services;
 
 /// <summary>The dataset service: checks each request, then delegates to the store.</summary>
 public sealed class DatasetGrpcService(
-    DatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
+    IDatasetStore store, VersionResolver versions, ServiceLimits limits, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
     : DatasetService.DatasetServiceBase
 {
     private const string DatasetsList = "datasets";
@@ -70,19 +70,19 @@ public sealed class DatasetGrpcService(
         return Task.FromResult(new DeleteDatasetResponse());
     }
 
+    /// <summary>How often an import is checked again when other servers keep moving its dataset on before it is written.</summary>
+    private const int MaxCheckAttempts = 5;
+
     public override async Task<ImportEntriesResponse> ImportEntries(ImportEntriesRequest request, ServerCallContext context)
     {
         (IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy) = BatchValidation.Validate(request, limits);
         context.CancellationToken.ThrowIfCancellationRequested();
         ImportResult result;
+        var provenance = new BatchProvenance(request.SourceLabel, request.Note);
         using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
         {
-            ReferenceLedger next = await CheckReferencesAsync(
-                request.Dataset, rows, policy, "entries", "the batch was refused; nothing was written", context.CancellationToken);
-            // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
-            result = await Task.Run(
-                () => store.ImportBatch(request.Dataset, rows, policy, new BatchProvenance(request.SourceLabel, request.Note)));
-            imports.Remember(request.Dataset, result.NewVersion, next);
+            result = await WriteOnCheckedBaseAsync(request.Dataset, rows, policy, "entries", "the batch was refused; nothing was written",
+                rowIndexes: null, basedOn => store.ImportBatch(request.Dataset, rows, policy, provenance, basedOn), context.CancellationToken);
         }
 
         return new ImportEntriesResponse
@@ -94,16 +94,43 @@ public sealed class DatasetGrpcService(
     }
 
     /// <summary>
-    /// Runs <see cref="ImportReferenceCheck"/> on <paramref name="rows"/> over the dataset's latest version (call it under
-    /// the dataset's import lock) and returns the ledger of the version they would make; refuses with every violation.
+    /// Checks <paramref name="rows"/> against the dataset's latest version (call it under the dataset's import lock) and
+    /// writes them on exactly that version. Another server on the same store may commit or delete a version between
+    /// the check and the write: the store then refuses (nothing written) and the check runs again on the new latest
+    /// version, up to <see cref="MaxCheckAttempts"/> times. Remembers the ledger of the version written.
     /// </summary>
-    private async Task<ReferenceLedger> CheckReferencesAsync(string dataset, IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy,
-        string rowsField, string refusal, CancellationToken cancellation, IReadOnlyList<int>? rowIndexes = null)
+    private async Task<ImportResult> WriteOnCheckedBaseAsync(string dataset, IReadOnlyList<EntryRow> rows, Store.DuplicatePolicy policy,
+        string rowsField, string refusal, IReadOnlyList<int>? rowIndexes, Func<long, ImportResult> write, CancellationToken cancellation)
     {
-        long latest = store.GetLatestVersion(dataset);
+        for (int attempt = 1; ; attempt++)
+        {
+            DatasetLatest latest = store.GetLatest(dataset);
+            ReferenceLedger next = await CheckReferencesAsync(dataset, latest, rows, policy, rowsField, refusal, cancellation, rowIndexes);
+            try
+            {
+                // The write runs off the request thread; once begun it commits or rolls back whole, whatever the caller does.
+                ImportResult result = await Task.Run(() => write(latest.Version));
+                imports.Remember(dataset, latest with { Version = result.NewVersion }, next);
+                return result;
+            }
+            catch (BaseVersionChangedException) when (attempt < MaxCheckAttempts)
+            {
+                // Another server moved the dataset on; check again.
+            }
+        }
+    }
+
+    /// <summary>
+    /// Runs <see cref="ImportReferenceCheck"/> on <paramref name="rows"/> over <paramref name="latest"/> and returns the
+    /// ledger of the version they would make; refuses with every violation.
+    /// </summary>
+    private async Task<ReferenceLedger> CheckReferencesAsync(string dataset, DatasetLatest latest, IReadOnlyList<EntryRow> rows,
+        Store.DuplicatePolicy policy, string rowsField, string refusal, CancellationToken cancellation, IReadOnlyList<int>? rowIndexes)
+    {
         ReferenceLedger ledger = await LedgerAsync(dataset, latest, cancellation);
         (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
-            rows, policy, ledger, async () => latest == DatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest, cancellation)).Entries,
+            rows, policy, ledger,
+            async () => latest.Version == IDatasetStore.NoVersion ? [] : (await SnapshotAsync(dataset, latest.Version, cancellation)).Entries,
             rowsField, rowIndexes);
         if (violations.Count > 0)
         {
@@ -114,11 +141,11 @@ public sealed class DatasetGrpcService(
     }
 
     /// <summary>The reference ledger of <paramref name="version"/> (empty for none), remembered or read once.</summary>
-    private async Task<ReferenceLedger> LedgerAsync(string dataset, long version, CancellationToken cancellation)
+    private async Task<ReferenceLedger> LedgerAsync(string dataset, DatasetLatest version, CancellationToken cancellation)
     {
-        if (version == DatasetStore.NoVersion) return ReferenceLedger.Empty;
+        if (version.Version == IDatasetStore.NoVersion) return ReferenceLedger.Empty;
         if (imports.TryGetLedger(dataset, version, out ReferenceLedger known)) return known;
-        ReferenceLedger ledger = ReferenceLedger.Of((await SnapshotAsync(dataset, version, cancellation)).Entries);
+        ReferenceLedger ledger = ReferenceLedger.Of((await SnapshotAsync(dataset, version.Version, cancellation)).Entries);
         imports.Remember(dataset, version, ledger);
         return ledger;
     }
@@ -155,12 +182,11 @@ public sealed class DatasetGrpcService(
         // The same reference check as ImportEntries, under the same lock, over the whole session as one batch.
         using (await imports.EnterAsync(dataset, context.CancellationToken))
         {
-            ReferenceLedger next = await CheckReferencesAsync(dataset, staged.Rows.Select(r => r.Row).ToArray(), staged.Session.Policy,
-                "staged", "the commit was refused; nothing was written and the session is still open", context.CancellationToken,
-                staged.Rows.Select(r => r.Index).ToArray());
             try
             {
-                result = await Task.Run(() => store.CommitImport(request.SessionId, staged.Session.StagedCount));
+                result = await WriteOnCheckedBaseAsync(dataset, staged.Rows.Select(r => r.Row).ToArray(), staged.Session.Policy,
+                    "staged", "the commit was refused; nothing was written and the session is still open", staged.Rows.Select(r => r.Index).ToArray(),
+                    basedOn => store.CommitImport(request.SessionId, staged.Session.StagedCount, basedOn), context.CancellationToken);
             }
             catch (DuplicateEntryException e)
             {
@@ -170,8 +196,6 @@ public sealed class DatasetGrpcService(
                     ? RpcErrors.InvalidArgument(e.Message, [new FieldViolation(field, e.Message)], ErrorReasons.InvalidEntry)
                     : RpcErrors.EntryIdExists(e.EntryId ?? string.Empty, e.Message + "; choose the replace duplicate policy to supersede it", field, e.Message);
             }
-
-            imports.Remember(dataset, result.NewVersion, next);
         }
 
         return new ImportEntriesResponse
@@ -269,9 +293,9 @@ public sealed class DatasetGrpcService(
     internal static int PageSize(int requested, string field)
     {
         if (requested == 0) return DefaultPageSize;
-        if (requested < 0 || requested > DatasetStore.MaxPageSize)
+        if (requested < 0 || requested > IDatasetStore.MaxPageSize)
         {
-            throw RpcErrors.InvalidArgument(field, $"page size {requested} is outside 1..{DatasetStore.MaxPageSize} (0 = {DefaultPageSize})");
+            throw RpcErrors.InvalidArgument(field, $"page size {requested} is outside 1..{IDatasetStore.MaxPageSize} (0 = {DefaultPageSize})");
         }
 
         return requested;

@@ -18,7 +18,7 @@ namespace Hull.Server.Services;
 /// The defect service: stores study files beside a dataset, and evaluates a study version against a dataset
 /// version (references, the host's window, the dopants' limits) through Core's defect module.
 /// </summary>
-public sealed class DefectGrpcService(DatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
+public sealed class DefectGrpcService(IDatasetStore store, VersionResolver versions, HullCache cache, DefectStudyCache studies) : DefectService.DefectServiceBase
 {
     /// <summary>Points along a Δμ path of the carrier figure when the caller gives none, and the most it draws.</summary>
     private const int DefaultPathPoints = 41, MaxPathPoints = 1001;
@@ -398,7 +398,7 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
                 solutions.Add(SolveAt(point with { Point = at, VertexNumber = 0 }, temperatures[0]));
             }
 
-            title = string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} from {where} to {endName} at {temperatures[0]:0.##} K, {how}");
+            title = string.Create(CultureInfo.InvariantCulture, $" from {where} to {endName} at {temperatures[0]:0.##} K, {how}");
             axis = CarrierFigureAxis.Path(point.VertexNumber > 0 ? $"vertex {point.VertexNumber}" : point.Label, end.VertexNumber > 0 ? $"vertex {end.VertexNumber}" : end.Label);
         }
         else
@@ -410,15 +410,15 @@ public sealed class DefectGrpcService(DatasetStore store, VersionResolver versio
             }
 
             title = operating is { } op2
-                ? string.Create(CultureInfo.InvariantCulture, $"{ev.Study.Host.Formula} at {where}, grown at each temperature and quenched to {op2:0.##} K")
-                : $"{ev.Study.Host.Formula} at {where}, in equilibrium";
+                ? string.Create(CultureInfo.InvariantCulture, $" at {where}, grown at each temperature and quenched to {op2:0.##} K")
+                : $" at {where}, in equilibrium";
             axis = operating is null ? CarrierFigureAxis.Temperature : new CarrierFigureAxis("Growth temperature", "K");
         }
 
         string svg;
         try
         {
-            svg = CarrierFigure.Render(title, axis, x, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
+            svg = CarrierFigure.Render([(ev.Study.Host.Formula, true), (title, false)], axis, x, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
         }
         catch (FigureInputException e)
         {

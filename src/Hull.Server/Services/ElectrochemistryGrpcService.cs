@@ -158,16 +158,5 @@ public sealed class ElectrochemistryGrpcService(CompoundResolution compounds) : 
             return at >= 0 ? $"{field}[{at}]" : field;
         });
 
-    /// <summary>Runs the science layer's call and turns its input errors into INVALID_ARGUMENT naming the field.</summary>
-    private static T Answer<T>(Func<T> call, Func<ThermoInputException, string> fieldOf)
-    {
-        try
-        {
-            return call();
-        }
-        catch (ThermoInputException e)
-        {
-            throw RpcErrors.InvalidArgument(fieldOf(e), e.Message);
-        }
-    }
+    private static T Answer<T>(Func<T> call, Func<ThermoInputException, string> fieldOf) => ScienceAnswer.Of(call, fieldOf);
 }

@@ -1,5 +1,7 @@
 using Grpc.Core;
 using Hull.Core.Chemistry;
+using Hull.Core.Figures;
+using Hull.Core.Thermo.Gases;
 using Hull.Core.Thermo;
 using Hull.Core.Windows;
 using Hull.Protos.V1;
@@ -20,20 +22,22 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
     {
         WindowOptions options = Options(request.Settings);
         (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
         CoreWindow window = Answer(() => StabilityWindows.Of(hull.Hull, id, options));
         return new GetStabilityWindowResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
-            Window = WindowWireMapping.ToWire(window, snapshot.FormulasAsStored[row], hull.Hull.SystemName),
+            Window = WindowWireMapping.ToWire(window, snapshot.FormulasAsStored[row], hull.Hull.SystemName, gas),
         };
     }
 
     public override async Task<SliceStabilityWindowResponse> SliceStabilityWindow(SliceStabilityWindowRequest request, ServerCallContext context)
     {
         WindowOptions options = Options(request.Settings);
-        if (request.FixedPotentials.Count == 0)
+        WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
+        if (request.FixedPotentials.Count == 0 && request.FixedGases.Count == 0)
         {
-            throw RpcErrors.InvalidArgument("fixed_potentials", "no fixed potential given; a slice fixes the Δμ of at least one element");
+            throw RpcErrors.InvalidArgument("fixed_potentials", "no fixed potential given; a slice fixes the Δμ of at least one element (or a gas's T and p)");
         }
 
         var fixedPotentials = new Dictionary<string, double>(StringComparer.Ordinal);
@@ -51,18 +55,21 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
             }
         }
 
+        WindowGasMapping.AddFixed(request.FixedGases, "fixed_gases", fixedPotentials);
+
         (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
         WindowSlice slice = Answer(
             () => StabilityWindows.Slice(hull.Hull, id, fixedPotentials, request.AllowAboveReference, options),
-            element => $"fixed_potentials[{request.FixedPotentials.Select(p => p.Element).ToList().IndexOf(element ?? string.Empty)}]");
+            element => FixedField(request.FixedPotentials, request.FixedGases, "fixed_potentials", "fixed_gases", element));
         string formula = snapshot.FormulasAsStored[row];
         var response = new SliceStabilityWindowResponse
         {
             Used = WireMapping.ToWire(snapshot.Version),
-            Whole = WindowWireMapping.ToWire(slice.Whole, formula, hull.Hull.SystemName),
-            Slice = WindowWireMapping.ToWire(slice.Slice, formula, hull.Hull.SystemName),
+            Whole = WindowWireMapping.ToWire(slice.Whole, formula, hull.Hull.SystemName, gas),
+            Slice = WindowWireMapping.ToWire(slice.Slice, formula, hull.Hull.SystemName, gas),
             Misses = slice.Misses,
         };
+        response.FixedPotentialsUsed.AddRange(slice.FixedElements.Select((e, k) => new FixedPotential { Element = e, ChemicalPotentialEv = slice.FixedPotentialsEv[k] }));
         if (slice.NearestPointEv is { } nearest) response.NearestPointEv.AddRange(nearest);
         if (slice.DistanceEv is double distance) response.DistanceEv = distance;
         return response;
@@ -71,6 +78,7 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
     public override async Task<GetDopantLimitsResponse> GetDopantLimits(GetDopantLimitsRequest request, ServerCallContext context)
     {
         WindowOptions options = Options(request.Settings);
+        WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
         if (request.Dopants.Count == 0) throw RpcErrors.InvalidArgument("dopants", "no dopant given; name at least one element");
         for (int i = 0; i < request.Dopants.Count; i++)
         {
@@ -94,11 +102,79 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
             string[] extendedSystem = [.. hull.Hull.Components.Append(dopant).Order(StringComparer.Ordinal)];
             CachedHull extended = await HullAsync(snapshot, extendedSystem, context);
             Core.Windows.DopantLimit limit = Answer(() => DopantLimits.Of(hull.Hull, extended.Hull, id, dopant, options), _ => field);
-            if (i == 0) response.Host = WindowWireMapping.ToWire(limit.Host, snapshot.FormulasAsStored[row], hull.Hull.SystemName);
-            response.Limits.Add(WindowWireMapping.ToWire(limit));
+            if (i == 0) response.Host = WindowWireMapping.ToWire(limit.Host, snapshot.FormulasAsStored[row], hull.Hull.SystemName, gas);
+            response.Limits.Add(WindowWireMapping.ToWire(limit, gas));
         }
 
         return response;
+    }
+
+    public override async Task<DrawWindowFigureResponse> DrawWindowFigure(DrawWindowFigureRequest request, ServerCallContext context)
+    {
+        WindowOptions options = Options(request.Settings);
+        if (request.XElement.Length > 0 != request.YElement.Length > 0)
+        {
+            throw RpcErrors.InvalidArgument(request.XElement.Length == 0 ? "x_element" : "y_element", "name both axes' elements, or neither for the default pair");
+        }
+
+        foreach ((string field, string element) in new[] { ("x_element", request.XElement), ("y_element", request.YElement) })
+        {
+            if (element.Length > 0 && !ElementTable.IsSymbol(element)) throw RpcErrors.InvalidArgument(field, $"'{element}' is not an element symbol");
+        }
+
+        if (request.XElement.Length > 0 && request.XElement == request.YElement)
+        {
+            throw RpcErrors.InvalidArgument("y_element", $"both axes are Δμ({request.XElement}); choose two different elements");
+        }
+
+        var section = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < request.Section.Count; i++)
+        {
+            FixedPotential p = request.Section[i];
+            if (!ElementTable.IsSymbol(p.Element)) throw RpcErrors.InvalidArgument($"section[{i}].element", $"'{p.Element}' is not an element symbol");
+            if (!section.TryAdd(p.Element, p.ChemicalPotentialEv)) throw RpcErrors.InvalidArgument($"section[{i}].element", $"{p.Element} is fixed twice");
+        }
+
+        WindowGasMapping.AddFixed(request.SectionGases, "section_gases", section);
+        WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
+
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        (string x, string y) = request.XElement.Length > 0 ? (request.XElement, request.YElement) : Answer(() => WindowMaps.DefaultAxes(hull.Hull, id));
+        string SectionField(string? element)
+        {
+            string field = FixedField(request.Section, request.SectionGases, "section", "section_gases", element);
+            return field != "section" ? field : element == x ? "x_element" : element == y ? "y_element" : field;
+        }
+
+        WindowMap map = Answer(() => WindowMaps.Of(hull.Hull, id, x, y, section, options), SectionField);
+        WindowFigureResult figure = WindowFigure.Render(map, new FigureMetadata(snapshot.Version.Dataset, snapshot.Version.Version, snapshot.Version.Fingerprint));
+        string formula = snapshot.FormulasAsStored[row];
+        var response = new DrawWindowFigureResponse
+        {
+            Used = WireMapping.ToWire(snapshot.Version),
+            Window = WindowWireMapping.ToWire(map.Window, formula, hull.Hull.SystemName, gas),
+            Svg = figure.Svg,
+            DrawnDimension = figure.Dimension,
+            XElement = map.XElement,
+            YElement = map.YElement,
+            DependentElement = map.DependentElement ?? string.Empty,
+            SectionChosenByDefault = map.SectionChosenByDefault,
+            SectionMisses = map.SectionMisses,
+            LinesLeftOut = figure.LinesLeftOut,
+        };
+        response.DrawnVertices.AddRange(map.Vertices.Select(v => WindowWireMapping.ToWire(v.Vertex, map.Window.Elements, gas)));
+        response.Section.AddRange(map.FixedPotentialsEv.OrderBy(p => p.Key, StringComparer.Ordinal).Select(p => new FixedPotential { Element = p.Key, ChemicalPotentialEv = p.Value }));
+        response.DrawnLineIds.AddRange(figure.DrawnLineIds);
+        return response;
+    }
+
+    /// <summary>The request field that fixed an element: a potential by index, else a gas by index, else the list.</summary>
+    private static string FixedField(IReadOnlyList<FixedPotential> potentials, IReadOnlyList<GasPotential> gases, string potentialsField, string gasesField, string? element)
+    {
+        int at = potentials.Select(p => p.Element).ToList().IndexOf(element ?? string.Empty);
+        if (at >= 0) return $"{potentialsField}[{at}]";
+        int gas = gases.Select(g => GasTables.TryGet(g.Gas, out var s) ? s.Element : string.Empty).ToList().IndexOf(element ?? string.Empty);
+        return gas >= 0 ? $"{gasesField}[{gas}]" : potentialsField;
     }
 
     private static WindowOptions Options(WindowSettings? settings)

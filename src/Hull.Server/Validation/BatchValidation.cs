@@ -124,9 +124,16 @@ public static class BatchValidation
                 violations.Add(new($"{at}.correlation_group", groupProblem));
             }
 
+            StoredTemperatureModel? model = null;
+            if (entry.TemperatureModel is not null && composition is not null && EntryRules.CheckId(entry.Id) is null &&
+                !TemperatureModelMapping.TryFromWire(entry.TemperatureModel, entry.Id, composition, out model, out var fault))
+            {
+                violations.Add(new(fault.Field.Length == 0 ? $"{at}.temperature_model" : $"{at}.temperature_model.{fault.Field}", fault.Problem));
+            }
+
             if (violations.Count == before && violations.Count < RpcErrors.MaxViolationsReported)
             {
-                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note,
+                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note, model,
                     entry.HasEnergySigmaEvPerAtom ? entry.EnergySigmaEvPerAtom : null,
                     entry.CorrelationGroup.Length > 0 ? entry.CorrelationGroup : null));
             }

@@ -103,7 +103,25 @@ internal static class Schema
                 PRIMARY KEY (dataset_id, study_name, study_version)
             ) WITHOUT ROWID;
             """),
-        new(5, "energy uncertainty per entry: sigma (eV/atom) and correlation group, versioned with the entry row", """
+        new(5, "temperature models of entries: a standard entropy or a G(T) table, versioned with their entry row", """
+            -- A model belongs to one entry row and shares its visibility range: a replace closes the old row with its
+            -- model and the new row brings its own (or none); rows deleted with a version take their models along.
+            -- Exactly one kind per row: S° (J/(mol K) per formula unit), or a G(T) − H(anchor) table (eV per formula unit) with
+            -- the anchor it is counted on, as 16-byte points (temperature K, free energy eV; binary64 little-endian).
+            -- formula is the formula unit the values refer to as given ('' for the entry's own).
+            CREATE TABLE entry_temperature_models (
+                row_id                       INTEGER PRIMARY KEY REFERENCES entries (row_id) ON DELETE CASCADE,
+                formula                      TEXT NOT NULL,
+                standard_entropy_j_per_mol_k REAL NULL
+                    CHECK (standard_entropy_j_per_mol_k >= 0 AND standard_entropy_j_per_mol_k <= 1.7976931348623157e308),
+                free_energy_anchor           TEXT NULL CHECK (free_energy_anchor IN ('computed_0k', 'fitted_298k')),
+                free_energy_points           BLOB NULL
+                    CHECK (length(free_energy_points) >= 32 AND length(free_energy_points) % 16 = 0),
+                CHECK ((standard_entropy_j_per_mol_k IS NULL) = (free_energy_anchor IS NOT NULL)),
+                CHECK ((free_energy_anchor IS NULL) = (free_energy_points IS NULL))
+            );
+            """),
+        new(6, "energy uncertainty per entry: sigma (eV/atom) and correlation group, versioned with the entry row", """
             -- NULL for entries without an error bar; rows keep their visibility ranges, so each version keeps its own.
             ALTER TABLE entries ADD COLUMN energy_sigma_ev_per_atom REAL NULL
                 CHECK (energy_sigma_ev_per_atom IS NULL OR energy_sigma_ev_per_atom >= 0);

@@ -51,6 +51,26 @@ public sealed class CarrierFigureTests
     }
 
     [Fact]
+    public void A_line_that_ends_below_the_floor_keeps_its_label_at_the_floor()
+    {
+        // The most abundant defect's total falls 30 decades over the second half of the sweep, far below the 16 decades shown.
+        var (x, solutions) = Sweep();
+        int half = x.Length / 2, top = solutions[half].Defects.Select((d, k) => (d.PerCubicCentimetre, k)).Max().k;
+        FermiLevelSolution[] falling = [.. solutions.Select((s, i) => i <= half ? s : s with
+        {
+            Defects = [.. s.Defects.Select((d, k) => k != top ? d : d with { PerCubicCentimetre = d.PerCubicCentimetre * Math.Pow(10, -30.0 * (i - half) / (x.Length - 1 - half)) })],
+        })];
+        var svg = new SvgFigure(CarrierFigure.Render("falling", CarrierFigureAxis.Temperature, x, falling));
+        string first = falling[0].Defects[top].Defect;
+        var labels = svg.Document.Descendants().Where(e => e.Name.LocalName == "text" && e.Attribute("data-label-for") is not null).ToArray();
+        string[] expected = [.. falling[0].Defects.Select(d => d.Defect), "n", "p"];
+        Assert.Equal(expected.Order(), labels.Select(e => (string)e.Attribute("data-label-for")!).Order());
+        var marked = Assert.Single(labels, e => e.Attribute("data-below-floor") is not null);
+        Assert.Equal(first, (string)marked.Attribute("data-label-for")!);
+        Assert.EndsWith("\u2193", marked.Value);
+    }
+
+    [Fact]
     public void Bad_sweeps_are_refused()
     {
         var (x, solutions) = Sweep();

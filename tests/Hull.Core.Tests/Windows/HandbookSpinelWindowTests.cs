@@ -19,15 +19,15 @@ public sealed class HandbookSpinelWindowTests
 
     // CRC Handbook of Chemistry and Physics, 97th ed. (2016), section 5, "Standard Thermodynamic Properties of
     // Chemical Substances", ΔfH°(298.15 K) in kJ/mol — from memory.
-    private const double Spinel = -2299.9;   // MgAl2O4
-    private const double Periclase = -601.6;  // MgO
-    private const double Corundum = -1675.7;  // Al2O3
+    internal const double Spinel = -2299.9;   // MgAl2O4
+    internal const double Periclase = -601.6;  // MgO
+    internal const double Corundum = -1675.7;  // Al2O3
     private const double Lime = -634.9;       // CaO
 
-    private static PhaseEntry Fu(string id, string formula, double kilojoulesPerMole) =>
+    internal static PhaseEntry Fu(string id, string formula, double kilojoulesPerMole) =>
         Entry(id, formula, kilojoulesPerMole / KilojoulesPerMolePerEv, EnergyBasis.FormationPerFormulaUnit);
 
-    private static List<PhaseEntry> Oxides() =>
+    internal static List<PhaseEntry> Oxides() =>
     [
         Fu("spinel", "MgAl2O4", Spinel), Fu("periclase", "MgO", Periclase), Fu("corundum", "Al2O3", Corundum),
         Fu("Mg", "Mg", 0), Fu("Al", "Al", 0), Fu("O2", "O2", 0),
@@ -41,7 +41,7 @@ public sealed class HandbookSpinelWindowTests
     //  MgO and Δμ_O = 0: Δμ_Mg = h_M = −6.235166087993, Δμ_Al = (h_S − h_M)/2 = −8.800849873037
     //  Al2O3 and Δμ_O = 0: Δμ_Al = h_A/2 = −8.683733222781, Δμ_Mg = h_S − h_A = −6.469399388506
     // Element order Al, Mg, O (the hull's).
-    private static readonly double[][] ExpectedVertices =
+    internal static readonly double[][] ExpectedVertices =
     [
         [0.0, -0.367932839301, -5.867233248692],
         [0.0, -0.680243906651, -5.789155481854],

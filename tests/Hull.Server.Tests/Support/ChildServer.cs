@@ -19,7 +19,10 @@ public sealed class ChildServer : IDisposable
 
     public bool HasExited => _process.HasExited;
 
-    private static ProcessStartInfo StartInfo(string dataDirectory, string[] extraArguments)
+    private static ProcessStartInfo StartInfo(string dataDirectory, string[] extraArguments) =>
+        StartInfo(["--data-dir", dataDirectory, .. extraArguments]);
+
+    private static ProcessStartInfo StartInfo(string[] arguments)
     {
         string serverDll = typeof(HullServer).Assembly.Location;
         var start = new ProcessStartInfo("dotnet")
@@ -28,7 +31,7 @@ public sealed class ChildServer : IDisposable
             RedirectStandardError = true,
             UseShellExecute = false,
         };
-        foreach (string arg in new[] { serverDll, "--data-dir", dataDirectory, "--port", "0", "--log-level", "Warning" }.Concat(extraArguments))
+        foreach (string arg in new[] { serverDll, "--port", "0", "--log-level", "Warning" }.Concat(arguments))
         {
             start.ArgumentList.Add(arg);
         }
@@ -56,9 +59,16 @@ public sealed class ChildServer : IDisposable
         return (process.ExitCode, await output, await error);
     }
 
-    public static async Task<ChildServer> StartAsync(string dataDirectory, params string[] extraArguments)
+    public static Task<ChildServer> StartAsync(string dataDirectory, params string[] extraArguments) =>
+        StartAsync(StartInfo(dataDirectory, extraArguments));
+
+    /// <summary>A server on a PostgreSQL store (one replica of several, when they share the connection).</summary>
+    public static Task<ChildServer> StartOnPostgresAsync(string connectionString, params string[] extraArguments) =>
+        StartAsync(StartInfo(["--postgres", connectionString, .. extraArguments]));
+
+    private static async Task<ChildServer> StartAsync(ProcessStartInfo start)
     {
-        var process = Process.Start(StartInfo(dataDirectory, extraArguments)) ?? throw new InvalidOperationException("could not start the server process");
+        var process = Process.Start(start) ?? throw new InvalidOperationException("could not start the server process");
         process.ErrorDataReceived += (_, _) => { };
         process.BeginErrorReadLine();
         using var timeout = new CancellationTokenSource(StartTimeout);

@@ -12,7 +12,7 @@ carrying the server's reason code and field violations.
 
 from hullclient.client import CoverageWarning, HullClient, SystemProblemWarning
 from hullclient.defects import DefectWarning
-from hullclient.entries import read_entries, write_entries
+from hullclient.entries import read_entries, write_entries, write_free_energy_tables
 from hullclient.errors import (
     AlreadyExistsError,
     DeadlineExceededError,
@@ -52,4 +52,5 @@ __all__ = [
     "decomposition_products",
     "read_entries",
     "write_entries",
+    "write_free_energy_tables",
 ]

@@ -5,13 +5,14 @@ test holds that list against the services declared in protos/hull/v1, so a call 
 Python method fails the tests.
 """
 
+import copy
 import os
 import re
 import ssl
 import urllib.parse
 import warnings
 from pathlib import Path
-from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Union
+from typing import Callable, Dict, Iterable, Mapping, Optional, Sequence, Tuple, Union
 
 import grpc
 import pandas as pd
@@ -20,6 +21,7 @@ from hullclient import defects as d
 from hullclient import electrochemistry as ec
 from hullclient import entries as entry_input
 from hullclient import results as r
+from hullclient import thermo as th
 from hullclient import _stubs as wire
 from hullclient.errors import EntryInputError, HullError, NotFoundError, from_rpc_error
 
@@ -94,13 +96,24 @@ def _compound(compound: str):
     return wire.windows_pb2.CompoundRef(formula=compound)
 
 
-def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits):
+def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                     gas_at_temperature_k=None, gas_at_pressure_bar=None):
     settings = wire.windows_pb2.WindowSettings(projection_omits=projection_omits or "")
+    if gas_at_temperature_k is not None:
+        settings.gas_at_temperature_k = gas_at_temperature_k
+    if gas_at_pressure_bar is not None:
+        settings.gas_at_pressure_bar = gas_at_pressure_bar
     if above_hull_tolerance_ev_per_atom is not None:
         settings.above_hull_tolerance_ev_per_atom = above_hull_tolerance_ev_per_atom
     if lowering_ev_per_atom is not None:
         settings.lowering_ev_per_atom = lowering_ev_per_atom
     return settings
+
+
+def _gas_potentials(gases):
+    """{"O2": (temperature_k, pressure_bar)} as the wire's gas potentials."""
+    return [wire.windows_pb2.GasPotential(gas=g, temperature_k=float(tp[0]), pressure_bar=float(tp[1]))
+            for g, tp in dict(gases or {}).items()]
 
 
 def _system_roots() -> bytes:
@@ -138,7 +151,8 @@ class HullClient:
     token:    bearer token sent with every call (write calls need it when the server has one); default $HULL_TOKEN.
     ca_file:  PEM certificates trusted for an https:// server besides the system's (a private authority or the
               server's self-signed certificate); the server's name is still checked; default $HULL_CA_FILE.
-    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls.
+    timeout:  deadline of each call, seconds (default 120); the `timeout` attribute may be changed between calls,
+              and `with_timeout(seconds)` gives a view with its own deadline for one call or a few.
     warn_coverage: emit CoverageWarning / SystemProblemWarning where the CLI prints its warnings.
 
     Use as a context manager, or call close().
@@ -179,12 +193,27 @@ class HullClient:
         self._windows = wire.windows_pb2_grpc.WindowServiceStub(self._channel)
         self._defects = wire.defects_pb2_grpc.DefectServiceStub(self._channel)
         self._electrochemistry = wire.electrochemistry_pb2_grpc.ElectrochemistryServiceStub(self._channel)
+        self._thermo = wire.thermo_pb2_grpc.ThermoServiceStub(self._channel)
         self._uncertainty = wire.uncertainty_pb2_grpc.UncertaintyServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
     def close(self):
-        self._channel.close()
+        # A view made by with_timeout shares its parent's connection: only the parent closes it.
+        if not getattr(self, "_shares_channel", False):
+            self._channel.close()
+
+    def with_timeout(self, seconds: float) -> "HullClient":
+        """This client with another deadline (seconds), sharing the connection: `hull.with_timeout(5).stable_phases(...)`.
+
+        The original keeps its own `timeout`; closing the view leaves the connection open.
+        """
+        if not (isinstance(seconds, (int, float)) and not isinstance(seconds, bool) and seconds > 0):
+            raise ValueError(f"timeout must be a positive number of seconds, not {seconds!r}")
+        view = copy.copy(self)
+        view.timeout = float(seconds)
+        view._shares_channel = True
+        return view
 
     def __enter__(self):
         return self
@@ -283,10 +312,12 @@ class HullClient:
 
     @_calls("DatasetService", "ImportEntries")
     def import_entries(self, dataset: str, entries, *, on_duplicate: str = "reject", source_label: str = "",
-                       note: str = "") -> r.ImportResult:
+                       note: str = "", free_energy_tables=None) -> r.ImportResult:
         """One batch (a DataFrame or an entry file) in one call, as one new version. For large tables use
-        import_table, which sends many batches and still makes one version."""
-        prepared = entry_input.prepare(entries)
+        import_table, which sends many batches and still makes one version. Temperature models come in the entry
+        columns (standard_entropy_j_per_mol_k, temperature_model_formula, free_energy_table) or, for G(T) tables,
+        as `free_energy_tables` (a frame or table CSV: entry_id, anchor, temperature_k, thermal_free_energy_ev)."""
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         request = wire.datasets_pb2.ImportEntriesRequest(dataset=dataset, entries=prepared.entries,
                                                     duplicate_policy=self._policy(on_duplicate),
                                                     source_label=source_label or self._label(entries), note=note)
@@ -306,9 +337,9 @@ class HullClient:
         return r.import_session(reply)
 
     @_calls("DatasetService", "StageEntries")
-    def stage_entries(self, session_id: str, entries) -> r.ImportSession:
-        """Adds one batch to an open session, all or nothing."""
-        prepared = entry_input.prepare(entries)
+    def stage_entries(self, session_id: str, entries, *, free_energy_tables=None) -> r.ImportSession:
+        """Adds one batch to an open session, all or nothing (temperature models as for import_entries)."""
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         try:
             reply = self._call(self._datasets.StageEntries, self.stage_entries.hull_rpc,
                                wire.datasets_pb2.StageEntriesRequest(session_id=session_id, entries=prepared.entries))
@@ -330,8 +361,9 @@ class HullClient:
 
     @_calls("DatasetService", "ExportEntries")
     def export_entries(self, dataset: str, version: int = 0, page_size: int = 0) -> pd.DataFrame:
-        """Every entry of a version in id order, with the file columns (id, formula, energy_ev, basis, note); the
-        frame imports again unchanged. attrs['version'] is the version read."""
+        """Every entry of a version in id order, with the file columns (id, formula, energy_ev, basis, note, and
+        standard_entropy_j_per_mol_k, temperature_model_formula, free_energy_table when some entry has a temperature
+        model); the frame imports again unchanged. attrs['version'] is the version read."""
         rows, version_read = [], 0
         for message in self._stream(self._datasets.ExportEntries, self.export_entries.hull_rpc,
                                     wire.datasets_pb2.ExportEntriesRequest(dataset=dataset, version=version, page_size=page_size)):
@@ -360,15 +392,15 @@ class HullClient:
 
     def import_table(self, dataset: str, entries, *, on_duplicate: str = "reject", create: bool = False,
                      batch_size: int = DEFAULT_BATCH_SIZE, source_label: str = "", note: str = "",
-                     progress: Optional[Callable[[int, int], None]] = None) -> r.ImportResult:
+                     progress: Optional[Callable[[int, int], None]] = None, free_energy_tables=None) -> r.ImportResult:
         """Imports a DataFrame or an entry file (CSV/JSON) as ONE new version, in batches of `batch_size` rows
         through an import session: every row is checked here first, then each batch by the server; a refused row,
         an exception or Ctrl+C cancels the session and nothing is written. `progress(staged, total)` is called
         after each batch. A refused row is named by its DataFrame index label or file line (HullError.rows).
-        With create=True a missing dataset is created first."""
+        With create=True a missing dataset is created first. Temperature models as for import_entries."""
         if not (isinstance(batch_size, int) and batch_size > 0):
             raise ValueError(f"batch_size must be a positive integer, not {batch_size!r}")
-        prepared = entry_input.prepare(entries)
+        prepared = entry_input.prepare(entries, free_energy_tables=free_energy_tables)
         if len(prepared) == 0:
             raise EntryInputError(self._label(entries) or "entries", "no entries to import")
         first_row = {}
@@ -636,29 +668,41 @@ class HullClient:
     @_calls("WindowService", "GetStabilityWindow")
     def get_stability_window(self, dataset: str, compound: str, *, version: int = 0,
                              above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                             lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowAnswer:
-        """The chemical-potential window of a compound (a formula, or 'entry:ID')."""
+                             lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                             gas_at_temperature_k: Optional[float] = None,
+                             gas_at_pressure_bar: Optional[float] = None) -> r.WindowAnswer:
+        """The chemical-potential window of a compound (a formula, or 'entry:ID'). With gas_at_temperature_k (or
+        gas_at_pressure_bar) each gas element's Δμ is also given as its gas's pressure at that temperature (or the
+        temperature at that pressure): columns log10_p_O2_bar, p_O2_bar, T_O2_k."""
         reply = self._call(self._windows.GetStabilityWindow, self.get_stability_window.hull_rpc,
                            wire.windows_pb2.GetStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits)))
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar)))
         return r.WindowAnswer(r.version_used(reply.used), r.stability_window(reply.window, wire.windows_pb2))
 
     @_calls("WindowService", "SliceStabilityWindow")
-    def slice_stability_window(self, dataset: str, compound: str, fixed_potentials: Mapping[str, float], *,
+    def slice_stability_window(self, dataset: str, compound: str, fixed_potentials: Optional[Mapping[str, float]] = None, *,
+                               fixed_gases: Optional[Mapping[str, Tuple[float, float]]] = None,
                                version: int = 0, allow_above_reference: bool = False,
                                above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                               lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.WindowSlice:
-        """The window with some Δμ held fixed ({'O': -1.0}, eV); when it misses, the nearest window point."""
-        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials).items()]
+                               lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                               gas_at_temperature_k: Optional[float] = None,
+                               gas_at_pressure_bar: Optional[float] = None) -> r.WindowSlice:
+        """The window with some Δμ held fixed ({'O': -1.0}, eV), or gas elements by their gas at (T, p)
+        (fixed_gases={'O2': (1273, 0.21)}, K and bar); when it misses, the nearest window point."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials or {}).items()]
         reply = self._call(self._windows.SliceStabilityWindow, self.slice_stability_window.hull_rpc,
                            wire.windows_pb2.SliceStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits),
-                               fixed_potentials=fixed, allow_above_reference=allow_above_reference))
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar),
+                               fixed_potentials=fixed, allow_above_reference=allow_above_reference,
+                               fixed_gases=_gas_potentials(fixed_gases)))
         return r.WindowSlice(r.version_used(reply.used), r.stability_window(reply.whole, wire.windows_pb2),
                              r.stability_window(reply.slice, wire.windows_pb2), reply.misses, tuple(reply.nearest_point_ev),
-                             reply.distance_ev if reply.HasField("distance_ev") else None)
+                             reply.distance_ev if reply.HasField("distance_ev") else None,
+                             {p.element: p.chemical_potential_ev for p in reply.fixed_potentials_used})
 
     @_calls("WindowService", "GetDopantLimits")
     def get_dopant_limits(self, dataset: str, compound: str, dopants: Union[str, Iterable[str]], *, version: int = 0,
@@ -673,6 +717,29 @@ class HullClient:
                                dopants=dopants))
         return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
                               tuple(r.dopant_limit(m) for m in reply.limits))
+
+    @_calls("WindowService", "DrawWindowFigure")
+    def draw_window_figure(self, dataset: str, compound: str, *, x_element: str = "", y_element: str = "",
+                           section: Optional[Mapping[str, float]] = None,
+                           section_gases: Optional[Mapping[str, Tuple[float, float]]] = None, version: int = 0,
+                           above_hull_tolerance_ev_per_atom: Optional[float] = None,
+                           lowering_ev_per_atom: Optional[float] = None) -> r.WindowFigure:
+        """The window of a compound (a formula, or 'entry:ID') drawn on Δμ of x_element and y_element (both or
+        neither: the default pair); for four or more elements a section at `section` ({'Mn': -1.2}, eV; all but one
+        of the other elements; default the vertices' mean). WindowFigure.save(path) writes the SVG."""
+        fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(section or {}).items()]
+        reply = self._call(self._windows.DrawWindowFigure, self.draw_window_figure.hull_rpc,
+                           wire.windows_pb2.DrawWindowFigureRequest(
+                               dataset=dataset, version=version, compound=_compound(compound),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, ""),
+                               x_element=x_element, y_element=y_element, section=fixed,
+                               section_gases=_gas_potentials(section_gases)))
+        window = r.stability_window(reply.window, wire.windows_pb2)
+        return r.WindowFigure(r.version_used(reply.used), window, reply.svg, reply.drawn_dimension,
+                              r.vertices_frame(reply.drawn_vertices, window.elements), reply.x_element, reply.y_element,
+                              reply.dependent_element, {p.element: p.chemical_potential_ev for p in reply.section},
+                              reply.section_chosen_by_default, reply.section_misses, tuple(reply.drawn_line_ids),
+                              reply.lines_left_out)
 
     # --- DefectService ------------------------------------------------------------------------------------------
 
@@ -898,3 +965,74 @@ class HullClient:
                                dataset=dataset, version=version, phase=_compound(phase), ion=ion,
                                **ec.charge_number(charge_number)))
         return ec.electrochemical_window(reply)
+
+    # --- ThermoService ------------------------------------------------------------------------------------------
+    # Released oxygen and hot oxides or cathodes are a fire hazard: these are estimates, and real thermal and
+    # thermal-runaway safety work follows local rules and licensed practice.
+
+    @_calls("ThermoService", "GetGasPotential")
+    def get_gas_potential(self, gas: Union[str, th.Gas], temperature_k: float, *, pressure_bar: Optional[float] = None,
+                          dataset: str = "", version: int = 0, treatment: str = "tabulated",
+                          reference_ev_per_atom: float = 0.0,
+                          delta_mu_ev_per_atom: Optional[float] = None) -> th.GasPotential:
+        """μ(T, p) of `gas` ("O2", or th.Gas(...) for a computed reference) per molecule and per atom with its parts,
+        and Δμ against `dataset`'s reference for the element (without a dataset: reference_ev_per_atom). With
+        delta_mu_ev_per_atom: the pressure at temperature_k and the temperature at pressure_bar that give it.
+        treatment: "tabulated" (the gas's tabulated H(T), S(T)) or "ellingham" (H, S at 298.15 K)."""
+        request = wire.thermo_pb2.GetGasPotentialRequest(
+            dataset=dataset, version=version, gas=th.gas_conditions(gas, pressure_bar), temperature_k=temperature_k,
+            treatment=th.treatment(treatment), reference_ev_per_atom=reference_ev_per_atom)
+        if delta_mu_ev_per_atom is not None:
+            request.delta_mu_ev_per_atom = delta_mu_ev_per_atom
+        return th.gas_potential(self._call(self._thermo.GetGasPotential, self.get_gas_potential.hull_rpc, request))
+
+    @_calls("ThermoService", "GetHullAtConditions")
+    def get_hull_at_conditions(self, dataset: str, chemical_system: str, temperature_k: float, *,
+                               gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                               models=None, treatment: str = "tabulated", version: int = 0) -> pd.DataFrame:
+        """The hull of `chemical_system` ("Li-Co-O") at temperature_k with the gas's element open at Δμ(T, p) (gas=None:
+        none open), the solids' free energies from `models` (see hullclient.thermo; default: the stored ones). One
+        row per modelled entry (HULL_COLUMNS), energies per closed-element atom. attrs: used, chemical_system,
+        components, energy_axis, energy_unit, temperature_k, treatment, gas (GasPoint), references ({element: entry
+        id at T}), changed_references, stable_phase_ids, reservoir_entry_ids, unmodelled_entry_ids, models_from, caution."""
+        request = wire.thermo_pb2.GetHullAtConditionsRequest(
+            dataset=dataset, version=version, chemical_system=chemical_system, temperature_k=temperature_k,
+            treatment=th.treatment(treatment), models=th.models(models))
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.hull_frame(self._call(self._thermo.GetHullAtConditions, self.get_hull_at_conditions.hull_rpc, request))
+
+    @_calls("ThermoService", "FindDecompositionTemperatures")
+    def find_decomposition_temperatures(self, dataset: str, phase: str, from_k: float, to_k: float, *,
+                                        gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                                        models=None, treatment: str = "tabulated", scan_intervals: int = 0,
+                                        chemical_system: str = "", version: int = 0) -> th.DecompositionTemperatures:
+        """Every temperature in [from_k, to_k] where `phase` (a formula, or 'entry:ID') decomposes or forms at the gas's
+        pressure: sign changes of its signed decomposition energy (the phase minus the hull without its composition),
+        exact under treatment="ellingham", root-solved on a scan (scan_intervals, default 256) otherwise; with what it
+        turns into and the gas it gives off."""
+        request = wire.thermo_pb2.FindDecompositionTemperaturesRequest(
+            dataset=dataset, version=version, phase=_compound(phase), from_k=from_k, to_k=to_k,
+            treatment=th.treatment(treatment), models=th.models(models), scan_intervals=scan_intervals,
+            chemical_system=chemical_system)
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.decomposition_temperatures(
+            self._call(self._thermo.FindDecompositionTemperatures, self.find_decomposition_temperatures.hull_rpc, request))
+
+    @_calls("ThermoService", "DrawTemperatureFigure")
+    def draw_temperature_figure(self, dataset: str, phases: Sequence[str], from_k: float, to_k: float, *,
+                                gas: Union[str, th.Gas, None] = "O2", pressure_bar: Optional[float] = None,
+                                models=None, treatment: str = "tabulated", samples: int = 0,
+                                chemical_system: str = "", version: int = 0) -> th.TemperatureFigure:
+        """The signed decomposition energies of one to eight `phases` (formulas or 'entry:ID') against temperature at
+        the gas's pressure, as SVG (TemperatureFigure.svg, .save(path)), with each phase's crossings."""
+        request = wire.thermo_pb2.DrawTemperatureFigureRequest(
+            dataset=dataset, version=version, phases=[_compound(p) for p in phases], from_k=from_k, to_k=to_k,
+            treatment=th.treatment(treatment), models=th.models(models), samples=samples, chemical_system=chemical_system)
+        conditions = th.gas_conditions(gas, pressure_bar)
+        if conditions is not None:
+            request.gas.CopyFrom(conditions)
+        return th.temperature_figure(self._call(self._thermo.DrawTemperatureFigure, self.draw_temperature_figure.hull_rpc, request))

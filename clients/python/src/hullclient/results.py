@@ -10,7 +10,7 @@ import math
 from dataclasses import dataclass, field
 from datetime import datetime, timezone
 from pathlib import Path
-from typing import Optional, Tuple
+from typing import Dict, Optional, Tuple
 
 import pandas as pd
 
@@ -230,6 +230,31 @@ class WindowSlice:
     # When it misses: the window's point nearest to the slice, in `whole.elements` order, eV.
     nearest_point_ev: Tuple[float, ...]
     distance_ev: Optional[float]
+    # The fixed potentials as used, gases' Δμ included, eV.
+    fixed_potentials_used: Dict[str, float] = field(default_factory=dict)
+
+
+@dataclass(frozen=True)
+class WindowFigure(SvgText):
+    """A window (or a section of it) drawn in the plane of two potentials: SVG text and what it shows."""
+
+    used: VersionUsed
+    window: StabilityWindow
+    svg: str = field(repr=False)
+    # 2 a polygon, 1 a segment, 0 a point, -1 nothing (no window, or a section that misses it).
+    drawn_dimension: int
+    # The drawn vertices (every element's Δμ, eV, in `window.elements` order), in drawing order.
+    drawn_vertices: pd.DataFrame = field(repr=False)
+    x_element: str
+    y_element: str
+    # Follows from the compound's formation energy; "" for a two-element compound.
+    dependent_element: str
+    # The section's fixed Δμ (eV), as given or chosen at the vertices' mean.
+    section: Dict[str, float]
+    section_chosen_by_default: bool
+    section_misses: bool
+    drawn_line_ids: Tuple[str, ...]
+    lines_left_out: int
 
 
 @dataclass(frozen=True)
@@ -451,6 +476,12 @@ def vertices_frame(vertices, elements) -> pd.DataFrame:
         row["elements_at_reference"] = tuple(v.elements_at_reference)
         for volt in v.voltages:
             row[f"volts_against_{volt.element}_metal"] = volt.volts_against_metal
+        for gas in v.gas_conditions:
+            if gas.HasField("log10_pressure_bar"):
+                row[f"log10_p_{gas.gas}_bar"] = gas.log10_pressure_bar
+                row[f"p_{gas.gas}_bar"] = gas.pressure_bar
+            if gas.temperature_status:
+                row[f"T_{gas.gas}_k"] = gas.temperature_k if gas.HasField("temperature_k") else math.nan
         rows.append(row)
     columns = [f"delta_mu_{e}_ev" for e in elements] + ["limiting_phase_ids", "elements_at_reference"]
     extra = sorted({k for r in rows for k in r if k not in columns})

@@ -33,17 +33,86 @@ public sealed class GasReservoir
             enthalpyKjPerMol += Species.EnthalpyStandardAboveZeroKjPerMol;
         }
 
-        double entropyKjPerMolK = Species.EntropyJPerMolK(temperatureK) / 1000.0;
-        return new GasChemicalPotential(
-            Species.Formula,
-            Reference.Mode,
-            temperatureK,
-            pressureBar,
-            Species.AtomsPerMolecule,
-            Reference.EnergyEvPerMolecule,
-            enthalpyKjPerMol / PhysicalConstants.KilojoulesPerMolPerEv,
-            temperatureK * entropyKjPerMolK / PhysicalConstants.KilojoulesPerMolPerEv,
-            PhysicalConstants.BoltzmannEvPerK * temperatureK * Math.Log(pressureBar / PhysicalConstants.StandardPressureBar));
+        return Potential(temperatureK, pressureBar, enthalpyKjPerMol, Species.EntropyJPerMolK(temperatureK));
+    }
+
+    /// <summary>
+    /// μ(T, p) in the Ellingham approximation: H and S held at their 298.15 K values, so
+    /// μ = E_ref + [H°(298.15 K) − H°(T_anchor)] − T S°(298.15 K) + k_B T ln(p/p°), a straight line in T at fixed p.
+    /// S°(298.15 K) is the table's unless <paramref name="standardEntropyJPerMolK"/> gives the value of the handbook
+    /// the solids' data come from (so that every species of a reaction comes from one table).
+    /// </summary>
+    /// <exception cref="ThermoInputException">A temperature that is not positive and finite; a bad pressure or entropy.</exception>
+    public GasChemicalPotential StandardStateChemicalPotential(double temperatureK, double pressureBar, double? standardEntropyJPerMolK = null)
+    {
+        RequirePressure(pressureBar);
+        if (!double.IsFinite(temperatureK) || temperatureK <= 0)
+        {
+            throw new ThermoInputException(string.Create(CultureInfo.InvariantCulture,
+                $"Temperature must be positive and finite; got {temperatureK} K."), element: Species.Element);
+        }
+
+        double entropyJPerMolK = standardEntropyJPerMolK ?? Species.EntropyJPerMolK(PhysicalConstants.StandardTemperatureK);
+        if (!double.IsFinite(entropyJPerMolK) || entropyJPerMolK <= 0)
+        {
+            throw new ThermoInputException(string.Create(CultureInfo.InvariantCulture,
+                $"The standard entropy of {Species.Formula} must be positive and finite; got {entropyJPerMolK} J/(mol K)."), element: Species.Element);
+        }
+
+        double enthalpyKjPerMol = Reference.Mode == GasReferenceMode.ComputedMoleculeEnergy ? Species.EnthalpyStandardAboveZeroKjPerMol : 0.0;
+        return Potential(temperatureK, pressureBar, enthalpyKjPerMol, entropyJPerMolK);
+    }
+
+    /// <summary>μ's parts from H(T) − H(T_anchor) (kJ/mol) and S (J/(mol K)), both per mol of molecules.</summary>
+    private GasChemicalPotential Potential(double temperatureK, double pressureBar, double enthalpyKjPerMol, double entropyJPerMolK) => new(
+        Species.Formula,
+        Reference.Mode,
+        temperatureK,
+        pressureBar,
+        Species.AtomsPerMolecule,
+        Reference.EnergyEvPerMolecule,
+        enthalpyKjPerMol / PhysicalConstants.KilojoulesPerMolPerEv,
+        temperatureK * entropyJPerMolK / 1000.0 / PhysicalConstants.KilojoulesPerMolPerEv,
+        PhysicalConstants.BoltzmannEvPerK * temperatureK * Math.Log(pressureBar / PhysicalConstants.StandardPressureBar));
+
+    /// <summary>Δμ in the Ellingham approximation (<see cref="StandardStateChemicalPotential"/>) against the dataset's reference, eV/atom.</summary>
+    /// <exception cref="ThermoInputException">Bad temperature, pressure, entropy or reference.</exception>
+    public ChemicalPotentialShift StandardStateShift(double temperatureK, double pressureBar, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteReference(datasetReferenceEvPerAtom);
+        return new ChemicalPotentialShift(Species.Element, StandardStateChemicalPotential(temperatureK, pressureBar, standardEntropyJPerMolK),
+            datasetReferenceEvPerAtom, Reference.ZeroPointEnergyEvPerMolecule / Species.AtomsPerMolecule);
+    }
+
+    /// <summary>
+    /// The pressure at which the element has Δμ = <paramref name="deltaMuEvPerAtom"/> at T in the Ellingham
+    /// approximation: the same ideal-gas inversion as <see cref="PressureAt"/>, from the standard-state μ at p°.
+    /// </summary>
+    /// <exception cref="ThermoInputException">A bad temperature, entropy, Δμ or reference.</exception>
+    public PressureForShift StandardStatePressureAt(double deltaMuEvPerAtom, double temperatureK, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteShift(deltaMuEvPerAtom);
+        ChemicalPotentialShift standard = StandardStateShift(temperatureK, PhysicalConstants.StandardPressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK);
+        return PressureFrom(deltaMuEvPerAtom, temperatureK, standard.DeltaMuEvPerAtom);
+    }
+
+    /// <summary>
+    /// The temperature at which the element has Δμ = <paramref name="deltaMuEvPerAtom"/> at p in the Ellingham
+    /// approximation, where Δμ is a straight line in T: solved in closed form; not converged (NaN) when the line
+    /// never reaches it at a positive temperature.
+    /// </summary>
+    /// <exception cref="ThermoInputException">A bad pressure, entropy, Δμ or reference.</exception>
+    public TemperatureSolveResult StandardStateTemperatureAt(double deltaMuEvPerAtom, double pressureBar, double datasetReferenceEvPerAtom, double? standardEntropyJPerMolK = null)
+    {
+        RequireFiniteShift(deltaMuEvPerAtom);
+        const double low = 1.0, high = 1001.0;
+        double atLow = StandardStateShift(low, pressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK).DeltaMuEvPerAtom;
+        double atHigh = StandardStateShift(high, pressureBar, datasetReferenceEvPerAtom, standardEntropyJPerMolK).DeltaMuEvPerAtom;
+        double slope = (atHigh - atLow) / (high - low);
+        double t = low + ((deltaMuEvPerAtom - atLow) / slope);
+        return double.IsFinite(t) && t > 0
+            ? new TemperatureSolveResult(TemperatureSolveStatus.Converged, t, t, t, 0, 1, 0, double.PositiveInfinity)
+            : new TemperatureSolveResult(TemperatureSolveStatus.NoSignChangeInRange, double.NaN, 0, double.PositiveInfinity, 0, 0, 0, double.PositiveInfinity);
     }
 
     /// <summary>Δμ of the gas's element at (T, p) against the dataset's reference for it, eV/atom.</summary>
@@ -79,7 +148,12 @@ public sealed class GasReservoir
     {
         RequireFiniteShift(deltaMuEvPerAtom);
         ChemicalPotentialShift standard = Shift(temperatureK, PhysicalConstants.StandardPressureBar, datasetReferenceEvPerAtom);
-        double lnRatio = Species.AtomsPerMolecule * (deltaMuEvPerAtom - standard.DeltaMuEvPerAtom)
+        return PressureFrom(deltaMuEvPerAtom, temperatureK, standard.DeltaMuEvPerAtom);
+    }
+
+    private PressureForShift PressureFrom(double deltaMuEvPerAtom, double temperatureK, double standardDeltaMuEvPerAtom)
+    {
+        double lnRatio = Species.AtomsPerMolecule * (deltaMuEvPerAtom - standardDeltaMuEvPerAtom)
             / (PhysicalConstants.BoltzmannEvPerK * temperatureK);
         double log10Bar = Math.Log10(PhysicalConstants.StandardPressureBar) + lnRatio / Math.Log(10.0);
         return new PressureForShift(Species.Formula, temperatureK, deltaMuEvPerAtom, log10Bar);

@@ -1,0 +1,97 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.Text;
+using Grpc.Net.Client;
+using Hull.Protos.V1;
+
+namespace Hull.ServiceBench;
+
+/// <summary>
+/// A freshly started server's first second against its warm rate. The warm dataset is imported once by a first
+/// server, which is then stopped; every measured server is a new process on that data folder, loaded from the
+/// moment it says it listens: the first second's rate, then (after <see cref="BenchOptions.JitWarmUp"/> of
+/// unrecorded load) a warm window. Each (query kind, client count) gets its own fresh servers, the combinations
+/// taken in turn so that outside load does not hit one only; medians over the repetitions.
+/// </summary>
+public static class ColdStart
+{
+    private static readonly TimeSpan FirstSecond = TimeSpan.FromSeconds(1);
+
+    /// <summary>Answers within the first second, per second.</summary>
+    private static double FirstRate(LoadSample first) => first.AnsweredInWindow / FirstSecond.TotalSeconds;
+
+    public static async Task<string> RunAsync(string serverDll, BenchOptions options)
+    {
+        string dataDirectory = Path.Combine(Path.GetTempPath(), $"hull-servicebench-cold-{Environment.ProcessId}-{Guid.NewGuid():N}");
+        Directory.CreateDirectory(dataDirectory);
+        try
+        {
+            WarmData warm;
+            using (ServerProcess first = await ServerProcess.StartAsync(serverDll, dataDirectory, options.ServerArgs))
+            using (GrpcChannel channel = WarmDataset.Channel(first.Address))
+            {
+                // Also lets this load generator's own code settle: only the server is meant to be cold.
+                warm = await WarmDataset.PrepareAsync(channel, options, first);
+                var load = new QueryLoad([new StabilityService.StabilityServiceClient(channel)], WarmDataset.Name, warm.Entries.Select(e => e.Id).ToArray(), warm.Candidates);
+                foreach (QueryKind kind in Enum.GetValues<QueryKind>()) await load.RunAsync(kind, 8, 0, TimeSpan.Zero, TimeSpan.FromSeconds(2), seed: 0, first);
+                first.Stop();
+            }
+
+            // The server as configured, and the same without its startup warming of the hull cache.
+            (string Name, string[] Args)[] variants = [("as configured", options.ServerArgs), ("--warm-hulls 0", [.. options.ServerArgs, "--warm-hulls", "0"])];
+            var combinations = variants.SelectMany(v => Enum.GetValues<QueryKind>().SelectMany(k => options.ClientCounts.Where(c => c > 1).Select(c => (Variant: v.Name, Kind: k, Clients: c)))).ToArray();
+            var rows = combinations.ToDictionary(c => c, _ => new List<(double Start, LoadSample Cold, LoadSample Warm, long Builds)>());
+            for (int r = 0; r < options.Repetitions; r++)
+            {
+                foreach ((string variant, QueryKind kind, int clients) in combinations)
+                {
+                    long t0 = Stopwatch.GetTimestamp();
+                    using ServerProcess server = await ServerProcess.StartAsync(serverDll, dataDirectory, variants.First(v => v.Name == variant).Args);
+                    double startSeconds = Stopwatch.GetElapsedTime(t0).TotalSeconds;
+                    using GrpcChannel channel = WarmDataset.Channel(server.Address);
+                    var load = new QueryLoad([new StabilityService.StabilityServiceClient(channel)], WarmDataset.Name, warm.Entries.Select(e => e.Id).ToArray(), warm.Candidates);
+                    LoadSample cold = await load.RunAsync(kind, clients, 0, TimeSpan.Zero, FirstSecond, seed: r + 1, server);
+                    await load.RunAsync(kind, clients, 0, TimeSpan.Zero, options.JitWarmUp, seed: r + 101, server);
+                    LoadSample hot = await load.RunAsync(kind, clients, 0, TimeSpan.Zero, options.Window, seed: r + 201, server);
+                    CacheStatistics stats = await new DiagnosticsService.DiagnosticsServiceClient(channel).GetCacheStatisticsAsync(new GetCacheStatisticsRequest());
+                    server.Stop();
+                    rows[(variant, kind, clients)].Add((startSeconds, cold, hot, stats.HullBuilds));
+                    Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                        $"rep {r + 1} {variant,-14} {kind,-9} {clients,3} clients: started in {startSeconds:F2} s, first second {FirstRate(cold):N0}/s " +
+                        $"(p99 {cold.P99Ms:F1} ms, errors {cold.Errors}), warm {hot.QueriesPerSecond:N0}/s, ratio {FirstRate(cold) / hot.QueriesPerSecond:F2}, " +
+                        $"hulls built {stats.HullBuilds}, load {ProcFiles.LoadAverage1Minute():F2}"));
+                }
+            }
+
+            var text = new StringBuilder();
+            text.AppendLine(CultureInfo.InvariantCulture,
+                $"### A fresh server's first second against its warm rate ({options.Repetitions} fresh servers per row, medians; warm = {options.Window.TotalSeconds:F0} s after {options.JitWarmUp.TotalSeconds:F0} s of load)");
+            text.AppendLine();
+            text.AppendLine("| server | query | clients | start to listening, s | first second, queries/s | (min–max) | p99 of the first second's calls, ms | warm, queries/s | first / warm | (min–max) | hulls built |");
+            text.AppendLine("| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |");
+            foreach (((string variant, QueryKind kind, int clients), var s) in rows)
+            {
+                double[] ratios = s.Select(x => FirstRate(x.Cold) / x.Warm.QueriesPerSecond).ToArray();
+                text.AppendLine(CultureInfo.InvariantCulture,
+                    $"| {variant} | {(kind == QueryKind.EntryById ? "entry by id" : "ad-hoc composition")} | {clients} | {Medians.Of(s.Select(x => x.Start)):F2} | " +
+                    $"{Medians.Cells(s.Select(x => FirstRate(x.Cold)), "N0")} | {Medians.Of(s.Select(x => x.Cold.P99Ms)):F1} | " +
+                    $"{Medians.Of(s.Select(x => x.Warm.QueriesPerSecond)):N0} | {Medians.Cells(ratios, "F2")} | {Medians.Of(s.Select(x => (double)x.Builds)):F0} |");
+            }
+
+            text.AppendLine();
+            text.AppendLine(CultureInfo.InvariantCulture, $"Target: first / warm ≥ 0.5. Load average at the end {ProcFiles.LoadAverages()}.");
+            return text.ToString();
+        }
+        finally
+        {
+            try
+            {
+                Directory.Delete(dataDirectory, recursive: true);
+            }
+            catch (IOException e)
+            {
+                Console.Error.WriteLine($"servicebench: could not remove {dataDirectory}: {e.Message}");
+            }
+        }
+    }
+}

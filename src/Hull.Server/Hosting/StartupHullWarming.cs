@@ -1,0 +1,78 @@
+using System.Diagnostics;
+using Grpc.Core;
+using Hull.Core.Thermo;
+using Hull.Server.Caching;
+using Hull.Store;
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Logging;
+
+namespace Hull.Server.Hosting;
+
+/// <summary>
+/// Once the server listens, builds in the background the hulls that queries of the latest versions will ask for:
+/// for each dataset (by name), the chemical system of every entry, the systems with the most entries first, until
+/// <see cref="StartupWarmingSettings.MaxHulls"/> are built. A fresh server otherwise answers its first queries only
+/// after building each hull they touch, on the cores those queries need. A query that arrives while its hull is
+/// being built waits for that one build (the cache builds each key once); a system past the service limits is
+/// skipped (its queries are refused anyway); any failure only ends the warming early.
+/// </summary>
+public sealed class StartupHullWarming(
+    IDatasetStore store, VersionResolver versions, HullCache cache, StartupWarmingSettings settings, IHostApplicationLifetime lifetime,
+    ILogger<StartupHullWarming> log) : BackgroundService
+{
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        if (settings.MaxHulls == 0) return;
+        try
+        {
+            // Not before the port is bound: the warming must not delay the server's readiness.
+            var listening = new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously);
+            using (lifetime.ApplicationStarted.Register(() => listening.TrySetResult()))
+            using (stoppingToken.Register(() => listening.TrySetCanceled(stoppingToken)))
+            {
+                await listening.Task;
+            }
+
+            long start = Stopwatch.GetTimestamp();
+            int built = 0, datasets = 0;
+            foreach (DatasetSummary dataset in store.ListDatasets())
+            {
+                if (built >= settings.MaxHulls) break;
+                if (dataset.LatestVersion == IDatasetStore.NoVersion) continue;
+                VersionSnapshot snapshot = await cache.GetSnapshotAsync(versions.Resolve(dataset.Name, 0), stoppingToken);
+                datasets++;
+                foreach (IReadOnlyList<string> system in SystemsByEntryCount(snapshot.Entries))
+                {
+                    if (built >= settings.MaxHulls) break;
+                    stoppingToken.ThrowIfCancellationRequested();
+                    try
+                    {
+                        await cache.GetHullAsync(snapshot, system, stoppingToken);
+                        built++;
+                    }
+                    catch (RpcException e) when (e.StatusCode == StatusCode.ResourceExhausted)
+                    {
+                        // Past a service limit: queries of this system are refused, so there is nothing to warm.
+                    }
+                }
+            }
+
+            log.LogInformation("startup warming: {Hulls} hulls of the latest versions of {Datasets} datasets ready in {Seconds:F2} s",
+                built, datasets, Stopwatch.GetElapsedTime(start).TotalSeconds);
+        }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+        }
+        catch (Exception e) when (e is RpcException or StoreException or System.Data.Common.DbException or ObjectDisposedException)
+        {
+            log.LogWarning(e, "startup warming stopped early; queries build the remaining hulls as they come");
+        }
+    }
+
+    /// <summary>The distinct element sets of the entries, those shared by the most entries first (ties by name).</summary>
+    private static IEnumerable<IReadOnlyList<string>> SystemsByEntryCount(IReadOnlyList<PhaseEntry> entries) =>
+        entries.GroupBy(e => e.Composition.ChemicalSystem, StringComparer.Ordinal)
+            .OrderByDescending(g => g.Count())
+            .ThenBy(g => g.Key, StringComparer.Ordinal)
+            .Select(g => g.First().Composition.Elements);
+}

@@ -1,0 +1,38 @@
+namespace Hull.Store;
+
+/// <summary>
+/// Remembers each dataset's latest live version (and its key, see <see cref="DatasetLatest"/>) for as
+/// long as nothing has been committed to the store, by anyone.
+/// The backend's <see cref="ICommitSignal"/> gives a number that differs after any commit (of this process or any
+/// other); a remembered answer is kept with the signal it was read under and given again only while the signal
+/// still reads the same. Repeated "latest" questions about an unchanged store thus cost one signal read, not a
+/// read of the tables.
+/// </summary>
+internal sealed class LatestVersionMemory(ICommitSignal signal) : IDisposable
+{
+    private readonly object _gate = new();
+    private readonly Dictionary<string, (long Signal, DatasetLatest Latest)> _latest = new(StringComparer.Ordinal);
+
+    /// <summary>
+    /// The latest version of <paramref name="dataset"/>: remembered when no commit happened since it was read,
+    /// otherwise read by <paramref name="read"/> (outside any lock, so reads still run side by side) and remembered.
+    /// A failing read (no such dataset) is not remembered.
+    /// </summary>
+    public DatasetLatest Get(string dataset, Func<DatasetLatest> read)
+    {
+        long now = signal.Read();
+        lock (_gate)
+        {
+            if (_latest.TryGetValue(dataset, out var remembered) && remembered.Signal == now) return remembered.Latest;
+        }
+        // Read after the signal was taken: the answer is at least as new as the state the signal stands for, and a
+        // commit after that changes the signal, which the next question sees.
+        DatasetLatest latest = read();
+        // Kept with the signal it was read under: an answer from before a commit can only be given again while the
+        // signal reads as it did then, i.e. never once anyone has committed since.
+        lock (_gate) _latest[dataset] = (now, latest);
+        return latest;
+    }
+
+    public void Dispose() => signal.Dispose();
+}

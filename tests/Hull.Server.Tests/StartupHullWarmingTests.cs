@@ -1,0 +1,65 @@
+using Hull.Protos.V1;
+using Hull.Server.Hosting;
+using Hull.Server.Tests.Support;
+using Microsoft.Extensions.Logging;
+
+namespace Hull.Server.Tests;
+
+/// <summary>A server started on a store with data builds the latest versions' hulls in the background, so that the
+/// first queries find them cached; with warming off (the in-process default) it builds none until asked.</summary>
+public sealed class StartupHullWarmingTests
+{
+    [Fact]
+    public async Task A_restarted_server_builds_every_system_of_the_latest_version_before_any_query()
+    {
+        using var folder = new TempFolder();
+        await using (HullServer first = await HullServer.StartAsync(Options(folder, warmHulls: 0)))
+        {
+            using var c = new Clients(first.Address, token: null);
+            // Li-Co-O, Li-O, Co-O and the elements: each entry's own chemical system is one hull.
+            await Data.CreateWithAsync(c, "d", Data.LiCoO());
+            await c.Datasets.ImportEntriesAsync(Data.Batch("d", DuplicatePolicy.Reject, Data.Formation("Fe2O3", "Fe2O3", -1.7), Data.Formation("Fe", "Fe", 0.0)), c.Call());
+            Assert.Equal(0, first.Cache.Counters.HullBuilds);
+        }
+
+        int systems = Data.LiCoO().Append(Data.Formation("Fe2O3", "Fe2O3", -1.7)).Append(Data.Formation("Fe", "Fe", 0.0))
+            .Select(e => string.Join('-', Hull.Core.Chemistry.Composition.Parse(e.Formula).Elements)).Distinct().Count();
+        await using HullServer second = await HullServer.StartAsync(Options(folder, warmHulls: 64));
+        var deadline = DateTime.UtcNow.AddSeconds(60);
+        while (second.Cache.Counters.HullBuilds < systems && DateTime.UtcNow < deadline) await Task.Delay(20);
+        Assert.Equal(systems, second.Cache.Counters.HullBuilds);
+        Assert.Equal(1, second.Cache.Counters.VersionLoads);
+
+        using var client = new Clients(second.Address, token: null);
+        var answer = await client.Stability.GetEntryStabilityAsync(new GetEntryStabilityRequest { Dataset = "d", EntryIds = { "LiCoO2", "Fe2O3" } }, client.Call());
+        Assert.Equal(2, answer.Used.Version);
+        Assert.Equal(systems, second.Cache.Counters.HullBuilds);
+        Assert.Equal(2, second.Cache.Counters.HullHits);
+    }
+
+    [Fact]
+    public async Task Warming_stops_at_its_budget_and_is_off_by_default_in_process()
+    {
+        using var folder = new TempFolder();
+        await using (HullServer first = await HullServer.StartAsync(Options(folder, warmHulls: 0)))
+        {
+            using var c = new Clients(first.Address, token: null);
+            await Data.CreateWithAsync(c, "d", Data.LiCoO());
+        }
+
+        await using (HullServer budget = await HullServer.StartAsync(Options(folder, warmHulls: 2)))
+        {
+            var deadline = DateTime.UtcNow.AddSeconds(60);
+            while (budget.Cache.Counters.HullBuilds < 2 && DateTime.UtcNow < deadline) await Task.Delay(20);
+            await Task.Delay(300);
+            Assert.Equal(2, budget.Cache.Counters.HullBuilds);
+        }
+
+        await using HullServer off = await HullServer.StartAsync(new HullServerOptions { DataDirectory = folder.Path, Port = 0, MinimumLogLevel = LogLevel.Warning });
+        await Task.Delay(300);
+        Assert.Equal(0, off.Cache.Counters.HullBuilds);
+    }
+
+    private static HullServerOptions Options(TempFolder folder, int warmHulls) =>
+        new() { DataDirectory = folder.Path, Port = 0, MinimumLogLevel = LogLevel.Warning, WarmHullsOnStart = warmHulls };
+}
