@@ -8,7 +8,7 @@ using Hull.Bench.Suites;
 //                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
-    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep|uncertainty> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     return 2;
 }
@@ -72,6 +72,7 @@ try
         EngineChoiceSuite.Name => EngineChoiceSuite.Run(options),
         FamiliesSuite.Name => FamiliesSuite.Run(options, work, repoRoot),
         FermiSweepSuite.Name => FermiSweepSuite.Run(options, repoRoot),
+        UncertaintySuite.Name => UncertaintySuite.Run(options),
         _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, families, engine-choice, dataset60, figures, windows, defect-ewald, electrochemistry, fermi-sweep)"),
     };
     report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";

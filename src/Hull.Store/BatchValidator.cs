@@ -42,6 +42,20 @@ internal static class BatchValidator
             }
             if (row.Metadata is not null) CheckText(i, row.Id, nameof(EntryRow.Metadata), row.Metadata);
             if (row.TemperatureModel is { } model) CheckModel(i, row.Id, model);
+            if (row.SigmaEvPerAtom is { } sigma && !(double.IsFinite(sigma) && sigma >= 0))
+            {
+                throw new InvalidBatchException(
+                    $"row {i} (id '{row.Id}'): SigmaEvPerAtom is {sigma}; an energy uncertainty must be a finite, non-negative number of eV/atom",
+                    i, row.Id, nameof(EntryRow.SigmaEvPerAtom));
+            }
+            if (row.CorrelationGroup is not null)
+            {
+                if (string.IsNullOrWhiteSpace(row.CorrelationGroup))
+                {
+                    throw new InvalidBatchException($"row {i} (id '{row.Id}'): CorrelationGroup is blank; leave it out or name the group", i, row.Id, nameof(EntryRow.CorrelationGroup));
+                }
+                CheckText(i, row.Id, nameof(EntryRow.CorrelationGroup), row.CorrelationGroup);
+            }
 
             if (!firstIndexById.TryAdd(row.Id, i))
             {

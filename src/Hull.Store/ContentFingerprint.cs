@@ -12,10 +12,12 @@ namespace Hull.Store;
 /// energy is its IEEE 754 binary64 bits, little-endian, with -0 written as +0. A row with a temperature model then
 /// adds the marker FF FF FF FF (no text length is negative, so it cannot be read as the next row's id), a kind byte
 /// (1: standard entropy, 2: G(T) table), the model's formula text, and either the entropy's bits or the anchor token,
-/// a 4-byte little-endian point count and each point's temperature and free-energy bits. A row without a model adds
-/// nothing, so every version without models keeps the fingerprint it had before models existed (and the prefix
-/// stays). Persisted fingerprints depend on this layout: change it only together with the prefix and a schema
-/// migration that clears stored fingerprints.
+/// a 4-byte little-endian point count and each point's temperature and free-energy bits. A row with an energy
+/// uncertainty or a correlation group then (after the model, when it has both) adds the byte 'u', the σ's bits (NaN
+/// bits when none) and the group's text (empty when none). A row with neither adds nothing, so every version without
+/// models and uncertainties keeps the fingerprint it had before they existed (and the prefix stays), and a row with
+/// only one of them keeps the layout it had before the other existed. Persisted fingerprints depend on this layout:
+/// change it only together with the prefix and a schema migration that clears stored fingerprints.
 /// </summary>
 public static class ContentFingerprint
 {
@@ -61,6 +63,14 @@ public static class ContentFingerprint
             WriteText(row.Basis, ref length);
             WriteText(row.Metadata ?? string.Empty, ref length);
             if (row.TemperatureModel is { } model) WriteModel(model, ref length);
+            if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
+            {
+                Ensure(length + 9);
+                _buffer[length++] = (byte)'u';
+                BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits((row.SigmaEvPerAtom ?? double.NaN) + 0.0));
+                length += 8;
+                WriteText(row.CorrelationGroup ?? string.Empty, ref length);
+            }
             _hash.AppendData(_buffer, 0, length);
         }
 

@@ -50,7 +50,8 @@ public sealed partial class DatasetStore
                     energy_ev    REAL NOT NULL,
                     energy_basis TEXT NOT NULL,
                     metadata     TEXT NOT NULL,
-                    {TemperatureModelColumns.StagingDefinitions}
+                    {TemperatureModelColumns.StagingDefinitions},
+                    {UncertaintyColumns.StagingDefinitions}
                 )
                 """);
             create.ExecuteNonQuery();
@@ -76,9 +77,10 @@ public sealed partial class DatasetStore
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             TemperatureModelColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
+            UncertaintyColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
             using SqliteCommand insert = connection.Command(transaction, $"""
-                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames})
-                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points)
+                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {UncertaintyColumns.Names})
+                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points, $sigma, $group)
                 """);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
             SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
@@ -86,6 +88,7 @@ public sealed partial class DatasetStore
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
             var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insert);
+            var (sigma, group) = UncertaintyColumns.AddParameters(insert);
             insert.Prepare();
             foreach (EntryRow row in batch)
             {
@@ -96,6 +99,7 @@ public sealed partial class DatasetStore
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
                 TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
+                UncertaintyColumns.Bind(row, sigma, group);
                 insert.ExecuteNonQuery();
             }
 
@@ -133,16 +137,19 @@ public sealed partial class DatasetStore
             string models = TemperatureModelColumns.StagingHasModelColumns(connection, transaction, staging)
                 ? TemperatureModelColumns.StagingNames
                 : "NULL, NULL, NULL, NULL";
+            // One begun before migration 6 has no uncertainty columns: its rows have none.
+            string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models} FROM {staging} {filter} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties} FROM {staging} {filter} ORDER BY rowid");
             for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 // Staging tables are appended to only, so rowid k+1 is the session's row k.
+                var (sigma, group) = UncertaintyColumns.Read(reader, 10);
                 var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
-                    TemperatureModelColumns.Read(reader, 6));
+                    TemperatureModelColumns.Read(reader, 6), sigma, group);
                 rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
             }
             return new StagedImport(
@@ -179,6 +186,7 @@ public sealed partial class DatasetStore
             StoreArguments.CheckBase(session.DatasetName, basedOn, previous?.Version);
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
+            string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
 
             int replaced = 0;
             if (session.Policy == DuplicatePolicy.Replace)
@@ -192,8 +200,8 @@ public sealed partial class DatasetStore
 
             // The open-row index refuses a second open row of an id: a repeat inside the session, or (Reject) a stored id.
             using (SqliteCommand move = connection.Command(transaction, $"""
-                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version)
-                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, $v FROM {staging} ORDER BY rowid
+                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {UncertaintyColumns.Names}, first_version)
+                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, {uncertainties}, $v FROM {staging} ORDER BY rowid
                        """))
             {
                 try

@@ -45,8 +45,8 @@ public sealed partial class DatasetStore
             close.Prepare();
 
             using SqliteCommand insert = connection.Command(transaction, """
-                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version)
-                VALUES ($d, $id, $formula, $energy, $basis, $metadata, $v)
+                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version)
+                VALUES ($d, $id, $formula, $energy, $basis, $metadata, $sigma, $group, $v)
                 """);
             insert.With("$d", dataset.DatasetId).With("$v", newVersion);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
@@ -54,6 +54,7 @@ public sealed partial class DatasetStore
             SqliteParameter energy = insert.Parameters.Add("$energy", SqliteType.Real);
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
+            var (sigma, group) = UncertaintyColumns.AddParameters(insert);
             insert.Prepare();
 
             using SqliteCommand insertModel = TemperatureModelColumns.InsertForLastEntry(connection, transaction);
@@ -80,6 +81,7 @@ public sealed partial class DatasetStore
                 energy.Value = row.EnergyEv + 0.0;
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
+                UncertaintyColumns.Bind(row, sigma, group);
                 try
                 {
                     insert.ExecuteNonQuery();

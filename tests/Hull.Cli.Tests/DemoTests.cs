@@ -21,13 +21,14 @@ public sealed class DemoTests
         Assert.Contains("Version 3 answers exactly as before the replacement: yes", run.Out);
         Assert.Contains("Exported 237 entries", run.Out);
         Assert.Contains("Highest dmu_Al anywhere in the window", run.Out);
-        foreach (string section in new[] { "7d. The Li-Co-O hull with oxygen open", "7e. Voltage profile", "7f. The coating question", "7g. Electrochemical windows" })
+        foreach (string section in new[] { "7d. The Li-Co-O hull with oxygen open", "7e. Voltage profile", "7f. The coating question", "7g. Electrochemical windows", "7h. Stability with error bars" })
         {
             Assert.Contains(section, run.Out);
         }
 
         // LiCoO2's theoretical capacity at Δx = 1: 294.7 mAh/g of CoO2, 273.8 of LiCoO2 (common practice, from the molar masses).
         Assert.Contains("294.7 mAh/g of CoO2, 273.8 mAh/g of LiCoO2", run.Out);
+        Assert.Contains("dataset cathodes-ml, version 1, system Co-Li-O: 4000 samples, seed 2026", run.Out);
         foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "7b. The layered-oxide triangle", "7c. Chemical-potential window", "8. Versions", "9. Export", "10. Phase diagrams" })
         {
             Assert.Contains(section, run.Out);
@@ -53,7 +54,7 @@ public sealed class DemoTests
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();
             Assert.Equal(
-                ["binary-Li-O.svg", "pseudo-ternary-layered-oxides.svg", "quaternary-Li-Co-Ni-O.svg",
+                ["binary-Li-O.svg", "odds-Li-Co-O.svg", "pseudo-ternary-layered-oxides.svg", "quaternary-Li-Co-Ni-O.svg",
                  "reaction-coat-Al2O3-corundum-ter-LiMn2O4-spinel.svg", "ternary-Li-Co-O.svg", "thermo-Li-Co-O-in-air.svg", "voltage-Li-into-CoO2.svg",
                  "window-ter-LiCoO2-r3m.svg"],
                 files.Select(Path.GetFileName));

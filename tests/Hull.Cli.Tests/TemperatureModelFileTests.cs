@@ -203,4 +203,26 @@ public sealed class TemperatureModelFileTests : ServerBackedTests
         var json = await CliRun.RunAsync("export", "plain", "--json", "--server", Server);
         Assert.DoesNotContain("standard_entropy", json.Out);
     }
+
+    [Fact]
+    public async Task An_export_with_models_and_uncertainties_has_both_column_pairs_in_the_documented_order_and_imports_again()
+    {
+        string file = File("both.csv", """
+            id,formula,energy_ev,basis,correlation_group,sigma_ev_per_atom,standard_entropy_j_per_mol_k
+            ag,Ag,0,formation_per_atom,,,42.55
+            ag2o,Ag2O,-0.3218,formation_per_formula_unit,ml,0.02,
+            """);
+        Assert.Equal(0, (await CliRun.RunAsync("import", "both", file, "--create", "--server", Server)).ExitCode);
+        var csv = await CliRun.RunAsync("export", "both", "--csv", "--server", Server);
+        Assert.Equal("""
+            id,formula,energy_ev,basis,note,standard_entropy_j_per_mol_k,temperature_model_formula,sigma_ev_per_atom,correlation_group
+            ag,Ag,0,formation_per_atom,,42.55,,,
+            ag2o,Ag2O,-0.3218,formation_per_formula_unit,,,,0.02,ml
+
+            """.ReplaceLineEndings("\n"), csv.Out.ReplaceLineEndings("\n"));
+        string again = File("again.csv", csv.Out);
+        Assert.Equal(0, (await CliRun.RunAsync("import", "again", again, "--create", "--server", Server)).ExitCode);
+        var second = await CliRun.RunAsync("export", "again", "--csv", "--server", Server);
+        Assert.Equal(csv.Out, second.Out);
+    }
 }

@@ -78,9 +78,12 @@ public static class FiguresSuite
         return text;
     }
 
-    private static string LoadAverage() =>
+    internal static string LoadAverage() =>
         File.Exists("/proc/loadavg") ? string.Join(' ', File.ReadAllText("/proc/loadavg").Split(' ').Take(3)) : "unknown";
 
-    private static Composition Formula(long[] amounts) =>
-        Composition.Parse(string.Concat(Elements.Select((e, k) => amounts[k] == 0 ? string.Empty : $"{e}{amounts[k]}")));
+    private static Composition Formula(long[] amounts) => Formula(Elements, amounts);
+
+    /// <summary>The formula of integer amounts of <paramref name="elements"/> (zero amounts left out).</summary>
+    internal static Composition Formula(string[] elements, long[] amounts) =>
+        Composition.Parse(string.Concat(elements.Select((e, k) => amounts[k] == 0 ? string.Empty : $"{e}{amounts[k]}")));
 }

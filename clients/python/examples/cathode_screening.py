@@ -115,6 +115,27 @@ reaction = hull.get_reaction_profile(dataset, "entry:coat-Al2O3-corundum", "entr
 display(reaction.most_negative)
 
 # %% [markdown]
+# ## Stability with error bars: Li-Co-O from DFT and an ML model
+# A second dataset whose entries carry an energy uncertainty (`sigma_ev_per_atom`) and, for the ML predictions, a
+# correlation group sharing the model's systematic error; each phase's probability of being stable over 2,000
+# seeded samples, and the ternary of those probabilities.
+
+# %%
+odds_dataset = f"{dataset}-ml"
+try:
+    hull.delete_dataset(odds_dataset)
+except NotFoundError:
+    pass
+hull.import_table(odds_dataset, demo / "uncertainty" / "ml-li-co-o.csv", create=True)
+odds = hull.sample_stability(odds_dataset, "Li-Co-O", samples=2000, seed=2026, group_sigmas={"ml-model": 0.02})
+display(odds[["entry_id", "formula", "vertex_probability", "vertex_probability_standard_error",
+              "energy_above_hull_p95_ev_per_atom", "most_probable_products"]])
+print("probable stable set:", ", ".join(odds.attrs["probable_stable_set"]))
+figures.mkdir(parents=True, exist_ok=True)
+hull.draw_stability_odds_figure(odds_dataset, "Li-Co-O", samples=2000, seed=2026,
+                                group_sigmas={"ml-model": 0.02}).save(figures / "odds-Li-Co-O.svg")
+
+# %% [markdown]
 # ## When does the delithiated cathode give off oxygen?
 # Invented standard entropies (data-demo/thermo) make each entry's free energy at T; oxygen is open at its μ(T, p).
 # Released oxygen and hot cathodes are a fire hazard: these are estimates, and real thermal-runaway safety work

@@ -41,6 +41,7 @@ def test_a_dataframe_import_in_batches_is_one_version_with_the_files_fingerprint
 def test_export_imports_again_unchanged(client, demo):
     exported = client.export_entries(DEMO_DATASET, page_size=7)
     assert exported.attrs["version"] == 4
+    # No entry of the demo dataset has a model or an uncertainty: the plain columns only.
     assert list(exported.columns) == ["id", "formula", "energy_ev", "basis", "note"]
     assert list(exported.id) == sorted(exported.id)
     client.create_dataset("round-trip")

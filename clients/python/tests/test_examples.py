@@ -14,7 +14,7 @@ from conftest import CLIENT_DIR
 
 EXAMPLES = CLIENT_DIR / "examples"
 FIGURES = ("ternary-Li-Co-O.svg", "pseudo-ternary-layered.svg", "quaternary-Co-Li-Ni-O.svg", "voltage-Li-into-CoO2.svg",
-           "thermo-Li-Co-O-in-air.svg", "defects-Al2O3-O-rich.svg")
+           "odds-Li-Co-O.svg", "thermo-Li-Co-O-in-air.svg", "defects-Al2O3-O-rich.svg")
 
 
 def example_environment(server, dataset, figures):

@@ -38,6 +38,7 @@ public sealed class HullConnection : IDisposable
         Stability = new StabilityService.StabilityServiceClient(_channel);
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(_channel);
         Windows = new WindowService.WindowServiceClient(_channel);
+        Uncertainty = new UncertaintyService.UncertaintyServiceClient(_channel);
         Electrochemistry = new ElectrochemistryService.ElectrochemistryServiceClient(_channel);
         Thermo = new ThermoService.ThermoServiceClient(_channel);
         Health = new Health.HealthClient(_channel);
@@ -54,6 +55,8 @@ public sealed class HullConnection : IDisposable
     public DiagnosticsService.DiagnosticsServiceClient Diagnostics { get; }
 
     public WindowService.WindowServiceClient Windows { get; }
+
+    public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
 
     public ElectrochemistryService.ElectrochemistryServiceClient Electrochemistry { get; }
 

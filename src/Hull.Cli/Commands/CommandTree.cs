@@ -32,6 +32,7 @@ public static class CommandTree
         foreach (Command electrochemistryCommand in ElectrochemistryCommands.Build(wrap)) root.Subcommands.Add(electrochemistryCommand);
         root.Subcommands.Add(AnalyzeCommand(wrap));
         root.Subcommands.Add(FigureCommand.Build(wrap));
+        root.Subcommands.Add(OddsCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
         root.Subcommands.Add(ThermoCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
@@ -246,14 +247,17 @@ public static class CommandTree
     }
 
     /// <summary>
-    /// The entries in the import layout; the temperature-model columns only when some entry has a model, so an export of
-    /// a dataset without models reads as before. The table view sums up a G(T) table in one cell.
+    /// The entries in the import layout (<see cref="EntryFileLayout.Columns"/>' order); the temperature-model columns only
+    /// when some entry has a model and the uncertainty columns only when some entry has a σ or a correlation group, so an
+    /// export of a dataset without either reads as before. The table view sums up a G(T) table in one cell.
     /// </summary>
     private static Table ExportTable(IReadOnlyList<Entry> entries, OutputFormat format)
     {
         bool models = entries.Any(e => e.TemperatureModel is not null);
+        bool uncertainties = entries.Any(e => e.HasEnergySigmaEvPerAtom || e.CorrelationGroup.Length > 0);
         bool summary = models && format == OutputFormat.Table && entries.Any(e => e.TemperatureModel?.FreeEnergyTable is not null);
-        string[] columns = models ? [.. EntryFileLayout.Columns] : [.. EntryFileLayout.PlainColumns];
+        string[] columns = [.. EntryFileLayout.PlainColumns, .. models ? EntryFileLayout.ModelColumns : [],
+            .. uncertainties ? EntryFileLayout.UncertaintyColumns : []];
         var table = new Table(summary ? [.. columns, "g_of_t_table"] : columns);
         foreach (Entry e in entries)
         {
@@ -263,6 +267,12 @@ public static class CommandTree
                 EntryTemperatureModel? model = e.TemperatureModel;
                 object? entropy = model?.KindCase == EntryTemperatureModel.KindOneofCase.StandardEntropyJPerMolK ? model.StandardEntropyJPerMolK : null;
                 cells = [.. cells, entropy, model?.Formula ?? string.Empty];
+            }
+
+            if (uncertainties)
+            {
+                string sigma = e.HasEnergySigmaEvPerAtom ? e.EnergySigmaEvPerAtom.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
+                cells = [.. cells, sigma, e.CorrelationGroup];
             }
 
             if (summary)

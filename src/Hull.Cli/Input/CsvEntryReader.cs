@@ -49,8 +49,9 @@ public static class CsvEntryReader
                     : throw new InputFileException(path, line, $"column '{EntryFileLayout.StandardEntropy}': '{entropyText}' is not a finite number of J/(mol K)");
             }
 
+            double? sigma = EntryFileLayout.ParseSigma(Field(EntryFileLayout.Sigma), problem => new InputFileException(path, line, $"column '{EntryFileLayout.Sigma}': {problem}"));
             records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line,
-                TemperatureModelText.FromEntropy(entropy, Field(EntryFileLayout.ModelFormula))));
+                TemperatureModelText.FromEntropy(entropy, Field(EntryFileLayout.ModelFormula)), sigma, Field(EntryFileLayout.CorrelationGroup).Trim()));
         }
 
         if (columns is null) throw new InputFileException(path, null, $"no header line; the first line must name the columns, e.g. {string.Join(",", EntryFileLayout.PlainColumns)}");

@@ -8,7 +8,8 @@ namespace Hull.Cli.Input;
 /// <remarks>
 /// Fields: <c>id</c> (text, unique), <c>formula</c> (e.g. LiCoO2), <c>energy_ev</c> (a finite number: eV per formula
 /// unit or eV/atom as the basis says), <c>basis</c> (one of the <see cref="BasisTokens"/>), <c>note</c> (optional
-/// free text). CSV: a header line naming the columns (any order; <c>note</c> may be left out), then one entry per
+/// free text), <c>sigma_ev_per_atom</c> (optional: the energy's standard error, eV/atom, finite and ≥ 0; empty for
+/// none), <c>correlation_group</c> (optional: entries computed the same way that share a systematic error). CSV: a header line naming the columns (any order; <c>note</c> may be left out), then one entry per
 /// line; fields may be quoted with double quotes ("" inside quotes is a quote); blank lines and lines starting with
 /// '#' are skipped. JSON: an array of objects with these fields, or an object whose "entries" member is one.
 /// Temperature models, optional: <c>standard_entropy_j_per_mol_k</c> (S° per formula unit; an empty cell is none)
@@ -26,6 +27,8 @@ public static class EntryFileLayout
     public const string Note = "note";
     public const string StandardEntropy = "standard_entropy_j_per_mol_k";
     public const string ModelFormula = "temperature_model_formula";
+    public const string Sigma = "sigma_ev_per_atom";
+    public const string CorrelationGroup = "correlation_group";
 
     /// <summary>JSON only: an entry's G(T) table, an object with <see cref="Anchor"/> and <see cref="Rows"/>.</summary>
     public const string FreeEnergyTable = "free_energy_table";
@@ -34,11 +37,17 @@ public static class EntryFileLayout
     public const string TemperatureK = "temperature_k";
     public const string FreeEnergyAboveAnchorEv = "free_energy_above_anchor_ev";
 
-    /// <summary>The columns of entries without temperature models, in the order files are written.</summary>
+    /// <summary>The columns of entries without temperature models or uncertainties, in the order files are written.</summary>
     public static IReadOnlyList<string> PlainColumns { get; } = [Id, Formula, EnergyEv, Basis, Note];
 
-    /// <summary>Every column an entry file may have, in the order files are written.</summary>
-    public static IReadOnlyList<string> Columns { get; } = [Id, Formula, EnergyEv, Basis, Note, StandardEntropy, ModelFormula];
+    /// <summary>The temperature-model columns, written after <see cref="PlainColumns"/> when some entry has a model.</summary>
+    public static IReadOnlyList<string> ModelColumns { get; } = [StandardEntropy, ModelFormula];
+
+    /// <summary>The uncertainty columns, written last when some entry has a σ or a correlation group.</summary>
+    public static IReadOnlyList<string> UncertaintyColumns { get; } = [Sigma, CorrelationGroup];
+
+    /// <summary>Every column an entry file may have, in the order files are written: plain, model, uncertainty.</summary>
+    public static IReadOnlyList<string> Columns { get; } = [.. PlainColumns, .. ModelColumns, .. UncertaintyColumns];
 
     /// <summary>The columns a file must have.</summary>
     public static IReadOnlyList<string> RequiredColumns { get; } = [Id, Formula, EnergyEv, Basis];
@@ -52,6 +61,20 @@ public static class EntryFileLayout
         .Single(e => e.Name == nameof(EnergyBasis)).Values
         .Where(v => v.Number != (int)EnergyBasis.Unspecified)
         .ToDictionary(v => v.Name["ENERGY_BASIS_".Length..].ToLowerInvariant(), v => (EnergyBasis)v.Number, StringComparer.Ordinal);
+
+    /// <summary>An energy uncertainty as written in a file: empty for none, else a finite number ≥ 0 (eV/atom).</summary>
+    public static double? ParseSigma(string text, Func<string, Exception> fail)
+    {
+        string trimmed = text.Trim();
+        if (trimmed.Length == 0) return null;
+        if (!double.TryParse(trimmed, System.Globalization.NumberStyles.Float, System.Globalization.CultureInfo.InvariantCulture, out double sigma)
+            || !double.IsFinite(sigma) || sigma < 0)
+        {
+            throw fail($"'{trimmed}' is not an energy uncertainty: give a finite number >= 0 of eV/atom, or leave it empty");
+        }
+
+        return sigma;
+    }
 
     /// <summary>The file token of a wire basis.</summary>
     public static string TokenOf(EnergyBasis basis) =>

@@ -100,8 +100,17 @@ public static class JsonEntryReader
             model.FreeEnergyTable = ReadTable(tableElement, Fail);
         }
 
+        double? sigma = null;
+        if (item.TryGetProperty(EntryFileLayout.Sigma, out JsonElement sigmaElement) && sigmaElement.ValueKind != JsonValueKind.Null)
+        {
+            sigma = sigmaElement.ValueKind == JsonValueKind.Number && sigmaElement.TryGetDouble(out double s)
+                ? EntryFileLayout.ParseSigma(s.ToString("R", System.Globalization.CultureInfo.InvariantCulture), problem => Fail($"field \"{EntryFileLayout.Sigma}\": {problem}"))
+                : throw Fail($"field \"{EntryFileLayout.Sigma}\" must be a number of eV/atom, not {sigmaElement.GetRawText()}");
+        }
+
         // JSON has no line per entry that a reader can report cheaply; the entry's index stands in (0-based).
-        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1), model);
+        return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1), model,
+            sigma, Text(EntryFileLayout.CorrelationGroup, required: false).Trim());
     }
 
     private static EntryFreeEnergyTable ReadTable(JsonElement table, Func<string, InputFileException> fail)

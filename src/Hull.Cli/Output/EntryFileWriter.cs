@@ -26,6 +26,8 @@ public static class EntryFileWriter
                 json.WriteString(EntryFileLayout.Basis, EntryFileLayout.TokenOf(e.Basis));
                 json.WriteString(EntryFileLayout.Note, e.Note);
                 if (e.TemperatureModel is { } model) WriteModel(json, model);
+                if (e.HasEnergySigmaEvPerAtom) json.WriteNumber(EntryFileLayout.Sigma, e.EnergySigmaEvPerAtom);
+                if (e.CorrelationGroup.Length > 0) json.WriteString(EntryFileLayout.CorrelationGroup, e.CorrelationGroup);
                 json.WriteEndObject();
             }
 

@@ -15,25 +15,56 @@ internal static class SimplexFigure
     // The tetrahedron: its circumscribed sphere, radius 220 px, centred at (300, 350).
     public const double TetrahedronCenterX = 300, TetrahedronCenterY = 350, TetrahedronRadius = 220;
 
-    private const double LegendLeft = 610, LegendTop = 80;
+    internal const double LegendLeft = 610, LegendTop = 80;
 
     /// <summary>Far edges fade to this opacity, so that depth reads in a still picture.</summary>
     private const double FarthestEdgeOpacity = 0.4;
 
     public static FigureResult DrawTernary(FigurePlan plan)
     {
-        double height = TriangleSide * Math.Sqrt(3) / 2;
-        (double X, double Y)[] corners =
-        [
-            (TriangleLeft, TriangleBottom),
-            (TriangleLeft + TriangleSide, TriangleBottom),
-            (TriangleLeft + TriangleSide / 2, TriangleBottom - height),
-        ];
-        (double X, double Y, double Depth) Map(IReadOnlyList<double> f) =>
-            (f[0] * corners[0].X + f[1] * corners[1].X + f[2] * corners[2].X,
-             f[0] * corners[0].Y + f[1] * corners[1].Y + f[2] * corners[2].Y, 0.0);
-        var centre = (X: TriangleLeft + TriangleSide / 2, Y: TriangleBottom - height / 3);
-        return Draw(plan, FigureKind.Ternary, Map, corners, centre, [(0, 1), (1, 2), (2, 0)], string.Empty);
+        (double X, double Y)[] corners = TernaryCorners;
+        (double X, double Y, double Depth) Map(IReadOnlyList<double> f)
+        {
+            (double x, double y) = TernaryPosition(f);
+            return (x, y, 0.0);
+        }
+
+        return Draw(plan, FigureKind.Ternary, Map, corners, TernaryCentre, [(0, 1), (1, 2), (2, 0)], string.Empty);
+    }
+
+    /// <summary>The triangle's corners: first component bottom-left, second bottom-right, third at the top.</summary>
+    internal static (double X, double Y)[] TernaryCorners { get; } =
+    [
+        (TriangleLeft, TriangleBottom),
+        (TriangleLeft + TriangleSide, TriangleBottom),
+        (TriangleLeft + TriangleSide / 2, TriangleBottom - TriangleSide * Math.Sqrt(3) / 2),
+    ];
+
+    /// <summary>The triangle's centroid.</summary>
+    internal static (double X, double Y) TernaryCentre => (TriangleLeft + TriangleSide / 2, TriangleBottom - TriangleSide * Math.Sqrt(3) / 6);
+
+    /// <summary>Where composition fractions fall in the triangle.</summary>
+    internal static (double X, double Y) TernaryPosition(IReadOnlyList<double> f)
+    {
+        (double X, double Y)[] c = TernaryCorners;
+        return (f[0] * c[0].X + f[1] * c[1].X + f[2] * c[2].X, f[0] * c[0].Y + f[1] * c[1].Y + f[2] * c[2].Y);
+    }
+
+    /// <summary>The corner names, just outside the figure and away from its centre, blocked for other labels.</summary>
+    internal static void CornerLabels(SvgCanvas canvas, LabelPlacer placer, IReadOnlyList<string> components, (double X, double Y)[] corners,
+        (double X, double Y) centre, Func<int, string?> idOfCorner)
+    {
+        for (int k = 0; k < components.Count; k++)
+        {
+            (double w, double h) = LabelMetrics.Of(components[k], FigurePalette.LabelFontSize);
+            double dx = corners[k].X - centre.X, dy = corners[k].Y - centre.Y;
+            double length = Math.Max(1e-9, Math.Sqrt(dx * dx + dy * dy));
+            double reach = 12 + Math.Abs(dx / length) * w / 2 + Math.Abs(dy / length) * h / 2;
+            double cx = corners[k].X + dx / length * reach, cy = corners[k].Y + dy / length * reach;
+            var box = new LabelBox(cx - w / 2, cy - h / 2, w, h);
+            placer.Block(box);
+            canvas.FormulaLabel(components[k], box, FigurePalette.LabelFontSize, idOfCorner(k));
+        }
     }
 
     public static FigureResult DrawQuaternary(FigurePlan plan, double azimuthDegrees, double elevationDegrees)
@@ -111,19 +142,7 @@ internal static class SimplexFigure
         canvas.EndGroup();
 
         canvas.BeginLabels();
-        // Corners are named just outside the figure, away from its centre.
-        for (int k = 0; k < n; k++)
-        {
-            (double w, double h) = LabelMetrics.Of(input.Components[k], FigurePalette.LabelFontSize);
-            double dx = corners[k].X - centre.X, dy = corners[k].Y - centre.Y;
-            double length = Math.Max(1e-9, Math.Sqrt(dx * dx + dy * dy));
-            double reach = 12 + Math.Abs(dx / length) * w / 2 + Math.Abs(dy / length) * h / 2;
-            double cx = corners[k].X + dx / length * reach, cy = corners[k].Y + dy / length * reach;
-            var box = new LabelBox(cx - w / 2, cy - h / 2, w, h);
-            placer.Block(box);
-            string? id = plan.Stable.FirstOrDefault(p => FigurePlan.CornerOf(p) == k)?.Id;
-            canvas.FormulaLabel(input.Components[k], box, FigurePalette.LabelFontSize, id);
-        }
+        CornerLabels(canvas, placer, input.Components, corners, centre, k => plan.Stable.FirstOrDefault(p => FigurePlan.CornerOf(p) == k)?.Id);
 
         // Crowded regions first: a phase with close neighbours has the fewest free places.
         var order = markers.Where(m => FigurePlan.CornerOf(m.Point) < 0)

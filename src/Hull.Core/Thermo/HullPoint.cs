@@ -57,6 +57,25 @@ internal sealed class HullPoint
         PureComponent = columns.Length == 1 ? columns[0] : -1;
     }
 
+    private HullPoint(HullPoint other, HullPhase phase)
+    {
+        Phase = phase;
+        Entry = other.Entry;
+        RowIndex = other.RowIndex;
+        SortRank = other.SortRank;
+        _componentAtoms = other._componentAtoms;
+        _fractions = other._fractions;
+        _prepared = other._prepared;
+        _columns = other._columns;
+        AtomsPerFormulaUnit = other.AtomsPerFormulaUnit;
+        Amounts = other.Amounts;
+        PureComponent = other.PureComponent;
+    }
+
+    /// <summary>The same point (composition, entry, row, rank) at another energy on another axis; coordinates are shared.</summary>
+    public HullPoint WithAxisEnergy(double axisEnergyEvPerAtom) =>
+        new(this, new HullPhase(Phase.Id, Phase.IsSynthetic, Phase.Composition, axisEnergyEvPerAtom, Phase.FormationEnergyEvPerAtom));
+
     public HullPhase Phase { get; }
 
     /// <summary>The entry, or null for a synthetic elemental reference.</summary>

@@ -2,6 +2,7 @@ using System.Collections.Concurrent;
 using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
 using Hull.Core.Thermo.Solids;
+using Hull.Core.Thermo.Uncertainty;
 using Hull.Server.Errors;
 using Hull.Server.Mapping;
 using Hull.Store;
@@ -20,9 +21,11 @@ public sealed class VersionSnapshot
     private readonly ConcurrentDictionary<string, int> _countWithin = new(StringComparer.Ordinal);
     private readonly Lazy<TemperatureModelSet> _storedModelSet;
 
-    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, AnchoredSolidModel?[] temperatureModels)
+    private VersionSnapshot(VersionRef version, PhaseEntry[] entries, string[] formulasAsStored, AnchoredSolidModel?[] temperatureModels,
+        EnergyUncertainty[] uncertainties)
     {
         Version = version;
+        Uncertainties = uncertainties;
         Entries = entries;
         FormulasAsStored = formulasAsStored;
         TemperatureModels = temperatureModels;
@@ -47,6 +50,9 @@ public sealed class VersionSnapshot
     /// <summary>Every entry of the version, in id order.</summary>
     public IReadOnlyList<PhaseEntry> Entries { get; }
 
+    /// <summary>The energy uncertainty of every entry that has a σ or a correlation group, in id order.</summary>
+    public IReadOnlyList<EnergyUncertainty> Uncertainties { get; }
+
     /// <summary>Each entry's formula exactly as imported (parallel to <see cref="Entries"/>).</summary>
     public IReadOnlyList<string> FormulasAsStored { get; }
 
@@ -67,6 +73,7 @@ public sealed class VersionSnapshot
         var entries = new PhaseEntry[rows.Count];
         var formulas = new string[rows.Count];
         var models = new AnchoredSolidModel?[rows.Count];
+        var uncertainties = new List<EnergyUncertainty>();
         for (int i = 0; i < rows.Count; i++)
         {
             EntryRow row = rows[i];
@@ -91,9 +98,13 @@ public sealed class VersionSnapshot
                         ErrorReasons.DatasetNotAnalysable, $"entry:{row.Id}");
                 }
             }
+            if (row.SigmaEvPerAtom is not null || row.CorrelationGroup is not null)
+            {
+                uncertainties.Add(new EnergyUncertainty(row.Id, row.SigmaEvPerAtom ?? 0.0, row.CorrelationGroup));
+            }
         }
 
-        return new VersionSnapshot(version, entries, formulas, models);
+        return new VersionSnapshot(version, entries, formulas, models, [.. uncertainties]);
     }
 
     /// <summary>The temperature model of the entry with <paramref name="id"/>; null when it has none or the version has no such entry.</summary>

@@ -166,6 +166,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<StabilityGrpcService>();
         app.MapGrpcService<DiagnosticsGrpcService>();
         app.MapGrpcService<FigureGrpcService>();
+        app.MapGrpcService<UncertaintyGrpcService>();
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();

@@ -56,7 +56,9 @@ public static class WireMapping
             EnergyEv = row.EnergyEv,
             Basis = ToWire(BasisOf(row)),
             Note = row.Metadata ?? string.Empty,
+            CorrelationGroup = row.CorrelationGroup ?? string.Empty,
         };
+        if (row.SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
         if (row.TemperatureModel is { } model) entry.TemperatureModel = TemperatureModelMapping.ToWire(model);
         return entry;
     }

@@ -113,6 +113,17 @@ public static class BatchValidation
                 violations.Add(new($"{at}.note", entryNoteProblem));
             }
 
+            if (entry.HasEnergySigmaEvPerAtom && !(double.IsFinite(entry.EnergySigmaEvPerAtom) && entry.EnergySigmaEvPerAtom >= 0))
+            {
+                violations.Add(new($"{at}.energy_sigma_ev_per_atom",
+                    $"the energy uncertainty is {Describe(entry.EnergySigmaEvPerAtom)}; it must be a finite, non-negative number of eV/atom"));
+            }
+
+            if (entry.CorrelationGroup.Length > 0 && EntryRules.CheckText(entry.CorrelationGroup, "correlation group") is { } groupProblem)
+            {
+                violations.Add(new($"{at}.correlation_group", groupProblem));
+            }
+
             StoredTemperatureModel? model = null;
             if (entry.TemperatureModel is not null && composition is not null && EntryRules.CheckId(entry.Id) is null &&
                 !TemperatureModelMapping.TryFromWire(entry.TemperatureModel, entry.Id, composition, out model, out var fault))
@@ -122,7 +133,9 @@ public static class BatchValidation
 
             if (violations.Count == before && violations.Count < RpcErrors.MaxViolationsReported)
             {
-                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note, model));
+                rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note, model,
+                    entry.HasEnergySigmaEvPerAtom ? entry.EnergySigmaEvPerAtom : null,
+                    entry.CorrelationGroup.Length > 0 ? entry.CorrelationGroup : null));
             }
         }
 

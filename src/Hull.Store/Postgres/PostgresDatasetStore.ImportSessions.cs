@@ -40,7 +40,8 @@ public sealed partial class PostgresDatasetStore
                     energy_ev    double precision NOT NULL,
                     energy_basis text NOT NULL,
                     metadata     text NOT NULL,
-                    {StagingModelDefinitions}
+                    {StagingModelDefinitions},
+                    {StagingUncertaintyDefinitions}
                 )
                 """);
             return new ImportSessionInfo(sessionId, datasetName, policy, 0, expires);
@@ -60,13 +61,13 @@ public sealed partial class PostgresDatasetStore
         return Write((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
-            // A session begun before schema step 5 staged into a table without the model columns.
-            foreach (string definition in StagingModelDefinitions.Split(',', StringSplitOptions.TrimEntries))
+            // A session begun before schema step 5 (6) staged into a table without the model (uncertainty) columns.
+            foreach (string definition in (StagingModelDefinitions + ", " + StagingUncertaintyDefinitions).Split(',', StringSplitOptions.TrimEntries))
             {
                 connection.Execute(transaction, $"ALTER TABLE {StagingTable(session.Key)} ADD COLUMN IF NOT EXISTS {definition}");
             }
             using (NpgsqlBinaryImporter copy = connection.BeginBinaryImport(
-                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}) FROM STDIN (FORMAT BINARY)"))
+                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {StagingUncertaintyNames}) FROM STDIN (FORMAT BINARY)"))
             {
                 long seq = session.StagedCount;
                 foreach (EntryRow row in batch)
@@ -80,6 +81,7 @@ public sealed partial class PostgresDatasetStore
                     copy.Write(row.Basis, NpgsqlDbType.Text);
                     copy.Write(row.Metadata ?? string.Empty, NpgsqlDbType.Text);
                     WriteModel(copy, row.TemperatureModel);
+                    WriteUncertainty(copy, row);
                 }
                 copy.Complete();
             }
@@ -103,15 +105,16 @@ public sealed partial class PostgresDatasetStore
             string filter = tokens is null ? string.Empty : "WHERE energy_basis = ANY(@bases)";
             string staging = StagingTable(session.Key);
             string models = StagingHasModelColumns(connection, transaction, staging) ? TemperatureModelColumns.StagingNames : "NULL, NULL, NULL, NULL";
+            string uncertainties = StagingUncertaintySelect(connection, transaction, staging);
             using NpgsqlCommand select = connection.Command(transaction,
-                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata, {models} FROM {staging} {filter} ORDER BY seq");
+                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties} FROM {staging} {filter} ORDER BY seq");
             if (tokens is not null) select.With("@bases", tokens);
             using NpgsqlDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
-                    TemperatureModelColumns.Read(reader, 6));
+                    TemperatureModelColumns.Read(reader, 6), reader.IsDBNull(10) ? null : reader.GetDouble(10), reader.IsDBNull(11) ? null : reader.GetString(11));
                 rows.Add(new StagedRow(checked((int)reader.GetInt64(0)), row));
             }
             return new StagedImport(
@@ -152,8 +155,8 @@ public sealed partial class PostgresDatasetStore
             try
             {
                 connection.Execute(transaction, $"""
-                    INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version)
-                    SELECT @d, entry_id, formula, energy_ev, energy_basis, metadata, @v FROM {staging} ORDER BY seq
+                    INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintyNames}, first_version)
+                    SELECT @d, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintySelect(connection, transaction, staging)}, @v FROM {staging} ORDER BY seq
                     """, ("@d", session.DatasetId), ("@v", newVersion));
             }
             catch (PostgresException e) when (e.SqlState == PostgresErrorCodes.UniqueViolation)
@@ -257,6 +260,21 @@ public sealed partial class PostgresDatasetStore
     // The model columns of a staging table, as TemperatureModelColumns.StagingNames names them (all NULL for none).
     private const string StagingModelDefinitions =
         "model_formula text NULL, standard_entropy_j_per_mol_k double precision NULL, free_energy_anchor text NULL, free_energy_points bytea NULL";
+
+    // The uncertainty columns of a staging table, named as in entries (both NULL for none).
+    private const string StagingUncertaintyDefinitions = "energy_sigma_ev_per_atom double precision NULL, correlation_group text NULL";
+
+    private const string StagingUncertaintyNames = "energy_sigma_ev_per_atom, correlation_group";
+
+    // The staging table's uncertainty columns, or two NULLs for one made before schema step 6.
+    private static string StagingUncertaintySelect(NpgsqlConnection connection, NpgsqlTransaction transaction, string staging)
+    {
+        using NpgsqlCommand command = connection.Command(transaction, """
+            SELECT count(*) FROM information_schema.columns
+            WHERE table_schema = current_schema() AND table_name = @t AND column_name = 'correlation_group'
+            """).With("@t", staging);
+        return (long)command.ExecuteScalar()! == 1 ? StagingUncertaintyNames : "NULL, NULL";
+    }
 
     private static bool StagingHasModelColumns(NpgsqlConnection connection, NpgsqlTransaction transaction, string staging)
     {

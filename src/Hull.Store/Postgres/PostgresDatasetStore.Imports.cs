@@ -65,7 +65,7 @@ public sealed partial class PostgresDatasetStore
     private static void CopyEntries(NpgsqlConnection connection, long datasetId, long version, IEnumerable<EntryRow> rows)
     {
         using NpgsqlBinaryImporter copy = connection.BeginBinaryImport(
-            "COPY entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, first_version) FROM STDIN (FORMAT BINARY)");
+            "COPY entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version) FROM STDIN (FORMAT BINARY)");
         foreach (EntryRow row in rows)
         {
             copy.StartRow();
@@ -76,9 +76,19 @@ public sealed partial class PostgresDatasetStore
             copy.Write(row.EnergyEv + 0.0, NpgsqlDbType.Double);
             copy.Write(row.Basis, NpgsqlDbType.Text);
             copy.Write(row.Metadata ?? string.Empty, NpgsqlDbType.Text);
+            WriteUncertainty(copy, row);
             copy.Write(version, NpgsqlDbType.Bigint);
         }
         copy.Complete();
+    }
+
+    /// <summary>Writes a row's σ and correlation group to a COPY (NULL where it has none; +0 for -0, as SQLite reads it back).</summary>
+    private static void WriteUncertainty(NpgsqlBinaryImporter copy, EntryRow row)
+    {
+        if (row.SigmaEvPerAtom is double sigma) copy.Write(sigma + 0.0, NpgsqlDbType.Double);
+        else copy.WriteNull();
+        if (row.CorrelationGroup is string group) copy.Write(group, NpgsqlDbType.Text);
+        else copy.WriteNull();
     }
 
     /// <summary>The temperature models of rows just written at <paramref name="version"/> (ids are unique in a batch, so (id, version) finds each row).</summary>

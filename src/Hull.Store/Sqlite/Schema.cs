@@ -121,6 +121,13 @@ internal static class Schema
                 CHECK ((free_energy_anchor IS NULL) = (free_energy_points IS NULL))
             );
             """),
+        new(6, "energy uncertainty per entry: sigma (eV/atom) and correlation group, versioned with the entry row", """
+            -- NULL for entries without an error bar; rows keep their visibility ranges, so each version keeps its own.
+            ALTER TABLE entries ADD COLUMN energy_sigma_ev_per_atom REAL NULL
+                CHECK (energy_sigma_ev_per_atom IS NULL OR energy_sigma_ev_per_atom >= 0);
+            ALTER TABLE entries ADD COLUMN correlation_group TEXT NULL
+                CHECK (correlation_group IS NULL OR length(correlation_group) > 0);
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>

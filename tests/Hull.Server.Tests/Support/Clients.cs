@@ -23,6 +23,7 @@ public sealed class Clients : IDisposable
         Diagnostics = new DiagnosticsService.DiagnosticsServiceClient(Channel);
         Windows = new WindowService.WindowServiceClient(Channel);
         Defects = new DefectService.DefectServiceClient(Channel);
+        Uncertainty = new UncertaintyService.UncertaintyServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -38,6 +39,8 @@ public sealed class Clients : IDisposable
     public WindowService.WindowServiceClient Windows { get; }
 
     public DefectService.DefectServiceClient Defects { get; }
+
+    public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>

@@ -18,6 +18,8 @@ try:
         stability_pb2_grpc,
         thermo_pb2,
         thermo_pb2_grpc,
+        uncertainty_pb2,
+        uncertainty_pb2_grpc,
         windows_pb2,
         windows_pb2_grpc,
     )
@@ -29,7 +31,7 @@ except ImportError as error:  # pragma: no cover - only without a generation
 
 # Every generated module that declares services: the client-coverage test reads their descriptors.
 SERVICE_MODULES = (datasets_pb2, defects_pb2, diagnostics_pb2, electrochemistry_pb2, figures_pb2, stability_pb2,
-                   thermo_pb2, windows_pb2)
+                   thermo_pb2, uncertainty_pb2, windows_pb2)
 
 __all__ = [
     "SERVICE_MODULES",
@@ -50,6 +52,8 @@ __all__ = [
     "status_pb2",
     "thermo_pb2",
     "thermo_pb2_grpc",
+    "uncertainty_pb2",
+    "uncertainty_pb2_grpc",
     "windows_pb2",
     "windows_pb2_grpc",
 ]

@@ -194,6 +194,7 @@ class HullClient:
         self._defects = wire.defects_pb2_grpc.DefectServiceStub(self._channel)
         self._electrochemistry = wire.electrochemistry_pb2_grpc.ElectrochemistryServiceStub(self._channel)
         self._thermo = wire.thermo_pb2_grpc.ThermoServiceStub(self._channel)
+        self._uncertainty = wire.uncertainty_pb2_grpc.UncertaintyServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -597,6 +598,56 @@ class HullClient:
                         r.enum_token(wire.figures_pb2.FigureKind, reply.kind, "FIGURE_KIND_"), reply.svg,
                         reply.stable_phase_count, reply.edge_count, reply.unstable_shown_count,
                         reply.hidden_above_cutoff_count, reply.max_above_hull_ev_per_atom)
+
+    # --- UncertaintyService ------------------------------------------------------------------------------------
+
+    @staticmethod
+    def _sampling_request(dataset, chemical_system, version, samples, target_standard_error, seed, group_sigmas, references):
+        request = wire.uncertainty_pb2.SampleStabilityRequest(
+            dataset=dataset, version=version, chemical_system=chemical_system, samples=int(samples or 0), seed=int(seed),
+            elemental_references=_references(references),
+            group_sigmas=[wire.uncertainty_pb2.GroupSigma(group=g, sigma_ev_per_atom=float(s)) for g, s in dict(group_sigmas or {}).items()])
+        if target_standard_error is not None:
+            request.target_standard_error = float(target_standard_error)
+        return request
+
+    @_calls("UncertaintyService", "SampleStability")
+    def sample_stability(self, dataset: str, chemical_system: str, *, version: int = 0, samples: Optional[int] = None,
+                         target_standard_error: Optional[float] = None, seed: int = 0,
+                         group_sigmas: Optional[Mapping[str, float]] = None,
+                         references: Optional[Mapping[str, float]] = None) -> pd.DataFrame:
+        """Stability under the entries' stored energy uncertainty (sigma, correlation group): one row per entry with
+        its probability of being a hull vertex and standard error, energy above hull (mean, 5th/95th percentile),
+        likeliest decomposition and its probability, and the plain hull's answer. `samples` (default 1000) or
+        `target_standard_error`; `group_sigmas` {'ml-model': 0.02} gives each correlation group's shared sigma
+        (eV/atom). attrs: used, coverage, references, probable_stable_set, most_frequent_stable_set(_probability),
+        sample_count, seed, stop, largest_vertex_standard_error, groups, mean_points_rebuilt."""
+        request = self._sampling_request(dataset, chemical_system, version, samples, target_standard_error, seed, group_sigmas, references)
+        reply = self._call(self._uncertainty.SampleStability, self.sample_stability.hull_rpc, request)
+        table = r.odds_frame(reply.entries)
+        table.attrs.update(
+            used=r.version_used(reply.used), coverage=(r.system_coverage(reply.coverage),),
+            references=tuple(r.element_reference(x) for x in reply.references), chemical_system=reply.chemical_system,
+            probable_stable_set=tuple(reply.probable_stable_set), most_frequent_stable_set=tuple(reply.most_frequent_stable_set),
+            most_frequent_stable_set_probability=reply.most_frequent_stable_set_probability, sample_count=reply.sample_count,
+            seed=reply.seed, stop=r.enum_token(wire.uncertainty_pb2.SamplingStop, reply.stop, "SAMPLING_STOP_"),
+            target_standard_error=reply.target_standard_error if reply.HasField("target_standard_error") else None,
+            largest_vertex_standard_error=reply.largest_vertex_standard_error,
+            groups={g.group: g.sigma_ev_per_atom for g in reply.groups}, mean_points_rebuilt=reply.mean_points_rebuilt)
+        self._warn(table.attrs["coverage"])
+        return table
+
+    @_calls("UncertaintyService", "DrawStabilityOddsFigure")
+    def draw_stability_odds_figure(self, dataset: str, chemical_system: str, *, version: int = 0, samples: Optional[int] = None,
+                                   target_standard_error: Optional[float] = None, seed: int = 0,
+                                   group_sigmas: Optional[Mapping[str, float]] = None,
+                                   references: Optional[Mapping[str, float]] = None) -> r.OddsFigure:
+        """The ternary ("Li-Co-O") with each phase's probability of being a hull vertex, drawn by the server from the
+        same sampling as sample_stability with the same arguments; OddsFigure.save(path) writes the SVG."""
+        request = self._sampling_request(dataset, chemical_system, version, samples, target_standard_error, seed, group_sigmas, references)
+        reply = self._call(self._uncertainty.DrawStabilityOddsFigure, self.draw_stability_odds_figure.hull_rpc,
+                           wire.uncertainty_pb2.DrawStabilityOddsFigureRequest(sampling=request))
+        return r.OddsFigure(r.version_used(reply.used), reply.chemical_system, reply.svg, reply.sample_count, reply.seed)
 
     # --- DiagnosticsService -------------------------------------------------------------------------------------
 

@@ -1,7 +1,7 @@
 """Entries as the user holds them (a DataFrame, a CSV or JSON file) turned into wire entries, row by row.
 
 The file layouts are the CLI's (src/Hull.Cli/README.md, "Entry files"): columns `id, formula, energy_ev, basis,
-note` (`note` optional); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
+note, sigma_ev_per_atom, correlation_group` (the last three optional; sigma empty or NaN for none); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
 skipped; JSON as `{"entries": [...]}` or a bare array of objects. Basis tokens come from the contract's enum names
 (`ENERGY_BASIS_TOTAL_PER_ATOM` is `total_per_atom`), as the CLI derives them.
 
@@ -29,8 +29,13 @@ PLAIN_COLUMNS = ("id", "formula", "energy_ev", "basis", "note")
 ENTROPY = "standard_entropy_j_per_mol_k"
 MODEL_FORMULA = "temperature_model_formula"
 TABLE = "free_energy_table"
-# Every column an entry file or frame may have; an export has the model columns only when some entry has a model.
-COLUMNS = PLAIN_COLUMNS + (ENTROPY, MODEL_FORMULA, TABLE)
+SIGMA = "sigma_ev_per_atom"
+GROUP = "correlation_group"
+MODEL_COLUMNS = (ENTROPY, MODEL_FORMULA, TABLE)
+UNCERTAINTY_COLUMNS = (SIGMA, GROUP)
+# Every column an entry file or frame may have, in this order: an export has the model columns only when some entry
+# has a model, and the uncertainty columns (last) only when some entry has a sigma or a correlation group.
+COLUMNS = PLAIN_COLUMNS + MODEL_COLUMNS + UNCERTAINTY_COLUMNS
 REQUIRED_COLUMNS = ("id", "formula", "energy_ev", "basis")
 TABLE_FILE_COLUMNS = ("entry_id", "anchor", "temperature_k", "free_energy_above_anchor_ev")
 _ENUM_PREFIX = "ENERGY_BASIS_"
@@ -158,11 +163,29 @@ def _entry(where, record):
     if token not in tokens:
         raise EntryInputError(where, f"column 'basis': '{token}' is not one of {', '.join(tokens)}")
     note = _text(record, "note")
-    entry = entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note)
+    entry = entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note,
+                              correlation_group=_text(record, GROUP).strip())
+    sigma = _sigma(where, record.get(SIGMA))
+    if sigma is not None:
+        entry.energy_sigma_ev_per_atom = sigma
     model = _model(where, record)
     if model is not None:
         entry.temperature_model.CopyFrom(model)
     return entry
+
+
+def _sigma(where, cell):
+    """An energy uncertainty cell: None (also empty text or NaN) for none, else a finite number >= 0 of eV/atom."""
+    if cell is None or (isinstance(cell, str) and not cell.strip()) or (isinstance(cell, float) and math.isnan(cell)):
+        return None
+    try:
+        value = float(cell.strip()) if isinstance(cell, str) else float(cell)
+    except (TypeError, ValueError):
+        value = math.nan
+    if isinstance(cell, bool) or not math.isfinite(value) or value < 0:
+        raise EntryInputError(where, f"column 'sigma_ev_per_atom': '{cell}' is not an energy uncertainty: "
+                                     "give a finite number >= 0 of eV/atom, or leave it empty")
+    return value
 
 
 def from_frame(frame: pd.DataFrame, name: str = "DataFrame") -> PreparedEntries:
@@ -254,8 +277,9 @@ def from_file(path) -> PreparedEntries:
 
 
 def read_entries(path) -> pd.DataFrame:
-    """An entry file as a DataFrame with the columns id, formula, energy_ev, basis, note, and the temperature-model
-    columns when an entry has a model (checked row by row)."""
+    """An entry file as a DataFrame with the columns id, formula, energy_ev, basis, note, the temperature-model
+    columns when an entry has a model, and the uncertainty columns when an entry has a sigma or a correlation group
+    (checked row by row)."""
     prepared = from_file(path)
     return to_frame(prepared.entries)
 
@@ -267,7 +291,8 @@ def _table_dict(table):
 
 def to_frame(entries) -> pd.DataFrame:
     """Wire entries as a DataFrame with the file columns (basis as its token); with the temperature-model columns
-    (S° or NaN, the model's formula, the G(T) table as a dict or None) only when some entry has a model."""
+    (S° or NaN, the model's formula, the G(T) table as a dict or None) only when some entry has a model, then the
+    uncertainty columns (sigma_ev_per_atom or NaN, correlation_group or "") only when some entry has either."""
     frame = pd.DataFrame({
         "id": [e.id for e in entries],
         "formula": [e.formula for e in entries],
@@ -282,6 +307,10 @@ def to_frame(entries) -> pd.DataFrame:
         frame[MODEL_FORMULA] = [m.formula if m is not None else "" for m in models]
         frame[TABLE] = pd.Series([_table_dict(m.free_energy_table) if m is not None and m.WhichOneof("kind") == TABLE
                                   else None for m in models], dtype="object")
+    if any(e.HasField("energy_sigma_ev_per_atom") or e.correlation_group for e in entries):
+        frame[SIGMA] = pd.Series([e.energy_sigma_ev_per_atom if e.HasField("energy_sigma_ev_per_atom") else math.nan
+                                  for e in entries], dtype="float64")
+        frame[GROUP] = [e.correlation_group for e in entries]
     return frame
 
 
@@ -357,10 +386,11 @@ def write_entries(frame: pd.DataFrame, path) -> Path:
     checked = to_frame(_require_kinds(from_frame(frame)).entries)
     records = checked.to_dict("records")
     models = ENTROPY in checked.columns
+    uncertainties = SIGMA in checked.columns
     if suffix == ".json":
-        # The CLI's JSON layout: a model's fields only on the entries that have them.
+        # The CLI's JSON layout: a model's and an uncertainty's fields only on the entries that have them.
         for r in records:
-            for column in (ENTROPY, MODEL_FORMULA):
+            for column in (ENTROPY, MODEL_FORMULA, SIGMA, GROUP):
                 if column in r and _missing(r[column]):
                     del r[column]
             if TABLE in r and r[TABLE] is None:
@@ -372,11 +402,13 @@ def write_entries(frame: pd.DataFrame, path) -> Path:
                                            "with write_free_energy_tables and the entries without them")
     with target.open("w", newline="", encoding="utf-8") as handle:
         writer = csv.writer(handle, lineterminator="\n")
-        writer.writerow(PLAIN_COLUMNS + ((ENTROPY, MODEL_FORMULA) if models else ()))
+        writer.writerow(PLAIN_COLUMNS + ((ENTROPY, MODEL_FORMULA) if models else ()) + (UNCERTAINTY_COLUMNS if uncertainties else ()))
         for r in records:
             row = [r["id"], r["formula"], repr(float(r["energy_ev"])), r["basis"], r["note"]]
             if models:
                 row += ["" if math.isnan(r[ENTROPY]) else repr(float(r[ENTROPY])), r[MODEL_FORMULA]]
+            if uncertainties:
+                row += ["" if math.isnan(r[SIGMA]) else repr(float(r[SIGMA])), r[GROUP]]
             writer.writerow(row)
     return target
 

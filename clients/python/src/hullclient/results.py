@@ -157,6 +157,17 @@ class Figure(SvgText):
 
 
 @dataclass(frozen=True)
+class OddsFigure(SvgText):
+    """The ternary of vertex probabilities drawn by the server: SVG text, and the sampling behind it."""
+
+    used: VersionUsed
+    chemical_system: str
+    svg: str = field(repr=False)
+    sample_count: int
+    seed: int
+
+
+@dataclass(frozen=True)
 class HullFacets:
     used: VersionUsed
     chemical_system: str
@@ -398,6 +409,20 @@ def stable_phases_frame(messages) -> pd.DataFrame:
     rows = [{"phase_id": p.phase_id, "formula": p.formula, "formation_energy_ev_per_atom": p.formation_energy_ev_per_atom,
              "is_elemental_reference": p.is_elemental_reference} for p in messages]
     return pd.DataFrame(rows, columns=list(STABLE_PHASE_COLUMNS))
+
+
+ODDS_COLUMNS = ("entry_id", "formula", "sigma_ev_per_atom", "correlation_group", "vertex_probability",
+                "vertex_probability_standard_error", "mean_energy_above_hull_ev_per_atom",
+                "mean_energy_above_hull_standard_error_ev_per_atom", "energy_above_hull_p05_ev_per_atom",
+                "energy_above_hull_p95_ev_per_atom", "most_probable_products", "most_probable_products_probability",
+                "plain_is_hull_vertex", "plain_energy_above_hull_ev_per_atom")
+
+
+def odds_frame(messages) -> pd.DataFrame:
+    """One row per entry of a SampleStability answer; most_probable_products as a tuple of phase ids."""
+    rows = [{c: (tuple(m.most_probable_products) if c == "most_probable_products" else getattr(m, c)) for c in ODDS_COLUMNS}
+            for m in messages]
+    return pd.DataFrame(rows, columns=list(ODDS_COLUMNS))
 
 
 def frame(rows, columns, **attrs) -> pd.DataFrame:

@@ -1,0 +1,352 @@
+using System.Globalization;
+using Hull.Core.Geometry;
+
+namespace Hull.Core.Thermo.Uncertainty;
+
+/// <summary>
+/// Stability of a chemical system's entries when their formation energies carry errors, by Monte Carlo sampling:
+/// each sample draws every entry's error (its own Gaussian σ plus its correlation group's shared draw), places the
+/// entries at the sampled energies on a sampled-energy axis (<see cref="HullAxis.SampledEnergy"/>) and rebuilds
+/// the hull there; the tallies over the samples give each entry's vertex probability, energy above hull and most
+/// frequent decomposition.
+/// </summary>
+/// <remarks>
+/// <para>Work reused between samples: the plain hull's decomposition of every entry bounds its sampled hull energy
+/// from above (the same mixture of the same phases at their sampled energies), so an entry whose sampled energy
+/// stays above that bound by more than <see cref="CandidateMarginEvPerAtom"/> cannot be a vertex of the sample and
+/// is left out of the rebuild; it is placed on the sampled hull afterwards. The hull of the entries kept is the hull
+/// of all, since every vertex is kept, so only the hull near the perturbed entries is rebuilt.</para>
+/// <para>Samples run in parallel; each one's draws follow from the seed and its index alone, and every tally is
+/// summed in sample order afterwards, so the answer does not depend on the number of threads.</para>
+/// </remarks>
+public static class StabilitySampling
+{
+    /// <summary>
+    /// An entry is rebuilt with its sample's hull unless its sampled energy lies more than this above the bound
+    /// from its plain decomposition (eV/atom). Ten times the hull's energy tolerance: the bound is a sum of a few
+    /// products of rounded weights and energies, whose rounding stays near 1e-15 eV/atom.
+    /// </summary>
+    public const double CandidateMarginEvPerAtom = 10 * HullTolerances.EnergyEvPerAtom;
+
+    /// <summary>Samples the stability of every entry of <paramref name="plain"/>.</summary>
+    /// <param name="plain">The formation-energy hull of the system (the energies without error).</param>
+    /// <param name="uncertainties">Per entry σ and group; entries of the hull without one have no error. Entries of other systems are ignored.</param>
+    /// <param name="groups">σ of every correlation group an entry names.</param>
+    /// <param name="plan">Seed and number of samples.</param>
+    /// <param name="maxThreads">Threads to use; 0 for every core.</param>
+    /// <exception cref="ThermoInputException">A hull on another axis, an entry's uncertainty given twice, a group
+    /// without σ, or a request past the work limits (<see cref="SamplingLimits"/>).</exception>
+    public static StabilitySamplingResult Run(
+        SystemHull plain,
+        IReadOnlyList<EnergyUncertainty> uncertainties,
+        IReadOnlyList<CorrelationGroup> groups,
+        SamplingPlan plan,
+        int maxThreads = 0) =>
+        Run(plain, uncertainties, groups, plan, maxThreads, rebuildAll: false);
+
+    /// <summary>As the public overload; <paramref name="rebuildAll"/> rebuilds every sample's hull over every entry
+    /// (no reuse of the plain hull), the check on the reuse.</summary>
+    internal static StabilitySamplingResult Run(
+        SystemHull plain,
+        IReadOnlyList<EnergyUncertainty> uncertainties,
+        IReadOnlyList<CorrelationGroup> groups,
+        SamplingPlan plan,
+        int maxThreads,
+        bool rebuildAll)
+    {
+        ArgumentNullException.ThrowIfNull(plain);
+        ArgumentNullException.ThrowIfNull(uncertainties);
+        ArgumentNullException.ThrowIfNull(groups);
+        ArgumentNullException.ThrowIfNull(plan);
+        if (plain.Axis.Quantity != HullAxisQuantity.FormationEnergy)
+        {
+            throw new ThermoInputException(
+                $"Stability sampling draws formation energies; the hull of {plain.SystemName} is over {plain.Axis.DisplayName}.");
+        }
+
+        var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll);
+        int entryCount = setup.EntryPoints.Length;
+        long perSample = Math.Max(1, entryCount);
+        int limit = (int)Math.Min(SamplingLimits.MaxSamples, SamplingLimits.MaxSampledValues / perSample);
+        if (plan.SampleCount is { } fixedCount && fixedCount > limit)
+        {
+            throw new ThermoInputException(
+                string.Create(CultureInfo.InvariantCulture,
+                    $"samples: {fixedCount} samples of the {entryCount} entries of {plain.SystemName} pass the work limit of "
+                    + $"{SamplingLimits.MaxSampledValues:N0} sampled values ({limit} samples here, at most {SamplingLimits.MaxSamples:N0} in any system)."));
+        }
+
+        var tally = new SampleTally(entryCount);
+        int threads = maxThreads > 0 ? maxThreads : Environment.ProcessorCount;
+        SamplingStopReason reason;
+        if (plan.SampleCount is { } count)
+        {
+            tally.Run(setup, plan.Seed, 0, count, threads);
+            reason = SamplingStopReason.SampleCountReached;
+        }
+        else
+        {
+            double target = plan.TargetStandardError!.Value;
+            reason = SamplingStopReason.WorkLimitReached;
+            while (tally.Count < limit)
+            {
+                int batch = Math.Min(SamplingPlan.BatchSize, limit - tally.Count);
+                tally.Run(setup, plan.Seed, tally.Count, batch, threads);
+                if (tally.Count >= 2 && tally.LargestVertexStandardError() <= target)
+                {
+                    reason = SamplingStopReason.TargetReached;
+                    break;
+                }
+            }
+        }
+
+        return tally.Summarise(setup, plan, reason);
+    }
+
+    /// <summary>The per-sample work: draw, keep the entries that may be vertices, rebuild, read every entry.</summary>
+    internal static void SampleOne(SamplingSetup setup, ulong seed, int sample, SampleTally tally, int slot)
+    {
+        SystemHull plain = setup.Plain;
+        int n = plain.PointCount;
+        var random = new SampleRandom(seed, sample);
+        var groupShift = new double[setup.Groups.Count];
+        for (int g = 0; g < groupShift.Length; g++)
+        {
+            groupShift[g] = setup.Groups[g].SigmaEvPerAtom * random.NextGaussian();
+        }
+
+        var shift = new double[n];
+        var energy = new double[n];
+        for (int i = 0; i < n; i++)
+        {
+            if (setup.IsEntry[i])
+            {
+                // One draw per entry whatever its σ, so an entry's σ never moves another entry's stream.
+                double z = random.NextGaussian();
+                shift[i] = setup.Sigma[i] * z + (setup.GroupOf[i] >= 0 ? groupShift[setup.GroupOf[i]] : 0.0);
+            }
+
+            energy[i] = setup.PlainEnergy[i] + shift[i];
+        }
+
+        if (Array.TrueForAll(shift, d => d == 0.0))
+        {
+            // No energy moved: the sample is the plain hull itself, read as it reads.
+            RecordPlain(setup, tally, slot);
+            return;
+        }
+
+        var kept = new List<int>(n);
+        var sampleIndex = new int[n];
+        for (int i = 0; i < n; i++)
+        {
+            sampleIndex[i] = -1;
+            if (setup.RebuildAll || setup.AlwaysKept[i] || LowerBoundAboveHull(setup, i, shift) <= CandidateMarginEvPerAtom)
+            {
+                sampleIndex[i] = kept.Count;
+                kept.Add(i);
+            }
+        }
+
+        int[] keptPoints = kept.ToArray();
+        SystemHull hull = plain.Resampled(HullAxis.SampledEnergy(sample), keptPoints, energy);
+        var vertexSet = new int[hull.VertexPointIndices.Count];
+        for (int k = 0; k < vertexSet.Length; k++)
+        {
+            vertexSet[k] = keptPoints[hull.VertexPointIndices[k]];
+        }
+
+        tally.RecordStableSet(slot, vertexSet, keptPoints.Length);
+        for (int e = 0; e < setup.EntryPoints.Length; e++)
+        {
+            int i = setup.EntryPoints[e];
+            int k = sampleIndex[i];
+            bool isVertex = k >= 0 && hull.IsVertexPoint(k);
+            HullPosition position = k >= 0 ? hull.PositionOfPoint(k) : hull.PositionAt(setup.Fractions[i]);
+            double above = energy[i] - position.HullEnergyEvPerAtom;
+            if (!(above > HullTolerances.EnergyEvPerAtom))
+            {
+                above = 0.0;
+            }
+
+            int[] products;
+            if (isVertex)
+            {
+                products = [i];
+            }
+            else
+            {
+                products = new int[position.VertexPoints.Count];
+                for (int p = 0; p < products.Length; p++)
+                {
+                    products[p] = keptPoints[position.VertexPoints[p]];
+                }
+
+                Array.Sort(products);
+            }
+
+            tally.Record(e, slot, isVertex, above, products);
+        }
+    }
+
+    private static void RecordPlain(SamplingSetup setup, SampleTally tally, int slot)
+    {
+        SystemHull plain = setup.Plain;
+        tally.RecordStableSet(slot, [.. plain.VertexPointIndices], 0);
+        for (int e = 0; e < setup.EntryPoints.Length; e++)
+        {
+            int i = setup.EntryPoints[e];
+            bool isVertex = plain.IsVertexPoint(i);
+            int[] products = isVertex ? [i] : [.. setup.PlainProducts[i].Order()];
+            tally.Record(e, slot, isVertex, setup.PlainAbove[i], products);
+        }
+    }
+
+    // above_s ≥ (E_i − H(x_i)) + δ_i − Σ_j w_ij δ_j: the plain decomposition at sampled energies is a mixture at x_i,
+    // so the sampled hull lies at or below it.
+    private static double LowerBoundAboveHull(SamplingSetup setup, int i, double[] shift)
+    {
+        double bound = setup.PlainAboveRaw[i] + shift[i];
+        int[] phases = setup.PlainProducts[i];
+        double[] weights = setup.PlainWeights[i];
+        for (int p = 0; p < phases.Length; p++)
+        {
+            bound -= weights[p] * shift[phases[p]];
+        }
+
+        return bound;
+    }
+}
+
+/// <summary>What every sample shares: the plain hull's energies, decompositions, σ and groups per canonical point.</summary>
+internal sealed class SamplingSetup
+{
+    private SamplingSetup(SystemHull plain) => Plain = plain;
+
+    public SystemHull Plain { get; }
+    public bool RebuildAll { get; private init; }
+    public int[] EntryPoints { get; private init; } = [];
+    public bool[] IsEntry { get; private init; } = [];
+    public bool[] AlwaysKept { get; private init; } = [];
+    public double[] Sigma { get; private init; } = [];
+    public int[] GroupOf { get; private init; } = [];
+    public IReadOnlyList<CorrelationGroup> Groups { get; private init; } = [];
+    public double[] PlainEnergy { get; private init; } = [];
+    public double[] PlainAboveRaw { get; private init; } = [];
+    public double[] PlainAbove { get; private init; } = [];
+    public int[][] PlainProducts { get; private init; } = [];
+    public double[][] PlainWeights { get; private init; } = [];
+    public double[][] Fractions { get; private init; } = [];
+
+    public static SamplingSetup Prepare(
+        SystemHull plain, IReadOnlyList<EnergyUncertainty> uncertainties, IReadOnlyList<CorrelationGroup> groups, bool rebuildAll)
+    {
+        var byId = new Dictionary<string, EnergyUncertainty>(StringComparer.Ordinal);
+        for (int row = 0; row < uncertainties.Count; row++)
+        {
+            EnergyUncertainty u = uncertainties[row] ?? throw new ThermoInputException($"Uncertainty row {row} is empty.", rowIndex: row);
+            if (!byId.TryAdd(u.EntryId, u))
+            {
+                throw new ThermoInputException($"Entry '{u.EntryId}' has its uncertainty given twice.", entryId: u.EntryId, rowIndex: row);
+            }
+        }
+
+        var groupByName = new Dictionary<string, CorrelationGroup>(StringComparer.Ordinal);
+        foreach (CorrelationGroup g in groups)
+        {
+            if (!groupByName.TryAdd(g.Name, g))
+            {
+                throw new ThermoInputException($"Correlation group '{g.Name}' is given twice.");
+            }
+        }
+
+        int n = plain.PointCount;
+        var entries = new List<int>(n);
+        var isEntry = new bool[n];
+        var alwaysKept = new bool[n];
+        var sigma = new double[n];
+        var groupOf = new int[n];
+        var energy = new double[n];
+        var aboveRaw = new double[n];
+        var above = new double[n];
+        var products = new int[n][];
+        var weights = new double[n][];
+        var fractions = new double[n][];
+        var members = new SortedDictionary<string, List<string>>(StringComparer.Ordinal);
+        for (int i = 0; i < n; i++)
+        {
+            HullPoint point = plain.PointAt(i);
+            energy[i] = point.AxisEnergyEvPerAtom;
+            fractions[i] = point.Fractions;
+            groupOf[i] = -1;
+            alwaysKept[i] = point.Entry is null || point.IsPureComponent;
+            if (point.Entry is null)
+            {
+                products[i] = [];
+                weights[i] = [];
+                continue;
+            }
+
+            isEntry[i] = true;
+            entries.Add(i);
+            HullPosition position = plain.PositionOfPoint(i);
+            aboveRaw[i] = energy[i] - position.HullEnergyEvPerAtom;
+            above[i] = plain.GetEntry(point.Phase.Id).EnergyAboveHullEvPerAtom;
+            products[i] = [.. position.VertexPoints];
+            weights[i] = [.. position.AtomFractions];
+            if (byId.TryGetValue(point.Phase.Id, out EnergyUncertainty? u))
+            {
+                sigma[i] = u.SigmaEvPerAtom;
+                if (u.Group is { } name)
+                {
+                    if (!members.TryGetValue(name, out List<string>? list))
+                    {
+                        members[name] = list = [];
+                    }
+
+                    list.Add(point.Phase.Id);
+                }
+            }
+        }
+
+        var used = new List<CorrelationGroup>(members.Count);
+        foreach ((string name, List<string> ids) in members)
+        {
+            if (!groupByName.TryGetValue(name, out CorrelationGroup? group))
+            {
+                string who = ids.Count == 1 ? $"its one member, entry '{ids[0]}'," : $"its {ids.Count} members (first '{ids[0]}')";
+                throw new ThermoInputException(
+                    $"Correlation group '{name}' has no shared uncertainty (σ_group): {who} cannot be sampled; give the group's σ or drop the group.",
+                    entryId: ids[0]);
+            }
+
+            used.Add(group);
+        }
+
+        var groupIndex = used.Select((g, k) => (g.Name, k)).ToDictionary(p => p.Name, p => p.k, StringComparer.Ordinal);
+        foreach (int i in entries)
+        {
+            if (byId.TryGetValue(plain.PointAt(i).Phase.Id, out EnergyUncertainty? u) && u.Group is { } name)
+            {
+                groupOf[i] = groupIndex[name];
+            }
+        }
+
+        return new SamplingSetup(plain)
+        {
+            RebuildAll = rebuildAll,
+            EntryPoints = entries.ToArray(),
+            IsEntry = isEntry,
+            AlwaysKept = alwaysKept,
+            Sigma = sigma,
+            GroupOf = groupOf,
+            Groups = used,
+            PlainEnergy = energy,
+            PlainAboveRaw = aboveRaw,
+            PlainAbove = above,
+            PlainProducts = products,
+            PlainWeights = weights,
+            Fractions = fractions,
+        };
+    }
+}
