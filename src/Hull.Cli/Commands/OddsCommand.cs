@@ -18,9 +18,9 @@ public static class OddsCommand
         var system = new Argument<string>("system") { Description = "the chemical system, e.g. Li-Co-O: every entry within it is sampled" };
         var version = CommandTree.VersionOption();
         var references = ReferenceOption.Create();
-        var samples = new Option<int>("--samples") { Description = "number of samples (default 1000; at most 100000, and samples x entries at most 2e7)" };
+        var samples = ValueOptions.WholeNumber("--samples", "number of samples (default 1000; at most 100000, and samples x entries at most 2e7)", 2, int.MaxValue, 0, "a sample count");
         var target = ValueOptions.OptionalNumber("--target-se", "sample in batches of 250 until every vertex probability's standard error is at most this", "a probability's standard error");
-        var seed = new Option<ulong>("--seed") { Description = "seed of every draw: the same seed and version give the same answer (default 0)" };
+        var seed = ValueOptions.WholeNumber("--seed", "seed of every draw: the same seed and version give the same answer (default 0)", 0, long.MaxValue, 0, "a seed");
         var groups = new Option<string[]>("--group-sigma")
         {
             Description = "shared error of a correlation group, GROUP=EV_PER_ATOM (repeatable), e.g. --group-sigma ml-model=0.03",
@@ -33,7 +33,7 @@ public static class OddsCommand
         };
         command.SetAction(wrap(async (c, t) =>
         {
-            var request = new SampleStabilityRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)!, Samples = c.Get(samples), Seed = c.Get(seed) };
+            var request = new SampleStabilityRequest { Dataset = c.Get(dataset)!, Version = c.Get(version), ChemicalSystem = c.Get(system)!, Samples = checked((int)c.Get(samples)), Seed = (ulong)c.Get(seed) };
             if (c.Get(target) is double se) request.TargetStandardError = se;
             ReferenceOption.AddTo(request.ElementalReferences, c.Get(references));
             foreach (string text in c.Get(groups) ?? [])
