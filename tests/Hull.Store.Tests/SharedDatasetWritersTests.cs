@@ -74,7 +74,9 @@ public abstract class SharedDatasetWritersTests(StoreBackend backend, ITestOutpu
         }
         await Task.WhenAll(readers);
         output.WriteLine($"{looks} reads alongside the writers, {clock.Elapsed.TotalSeconds:F1} s");
-        Assert.True(looks > 3, $"the reader looked only {looks} times while the writers ran");
+        // How many looks fit in depends on the machine (on a quiet one the writers are done in about a second): at
+        // least one whole read must have happened while a writer was still running.
+        Assert.True(looks >= 1, $"the reader never looked while the writers ran");
 
         int total = Writers.Length * BatchesPerWriter;
         IReadOnlyList<DatasetVersionInfo> versions = reader.ListVersions(SharedWriter.DatasetName);
