@@ -71,7 +71,13 @@ public sealed class DatasetGrpcService(
     }
 
     /// <summary>How often an import is checked again when other servers keep moving its dataset on before it is written.</summary>
-    private const int MaxCheckAttempts = 5;
+    private const int MaxCheckAttempts = 20;
+
+    /// <summary>
+    /// The longest pause before the n-th check, n times this: a random pause lets servers importing into one dataset
+    /// at once take turns instead of each refusing the other in lockstep.
+    /// </summary>
+    private static readonly TimeSpan RecheckPauseStep = TimeSpan.FromMilliseconds(5);
 
     public override async Task<ImportEntriesResponse> ImportEntries(ImportEntriesRequest request, ServerCallContext context)
     {
@@ -115,7 +121,8 @@ public sealed class DatasetGrpcService(
             }
             catch (BaseVersionChangedException) when (attempt < MaxCheckAttempts)
             {
-                // Another server moved the dataset on; check again.
+                // Another server moved the dataset on; check again, after a random pause.
+                await Task.Delay(RecheckPauseStep * (Random.Shared.NextDouble() * attempt), cancellation);
             }
         }
     }
