@@ -65,23 +65,12 @@ internal static class TemperatureModelColumns
     /// Whether a staging table has the model columns: a session begun before migration 5 staged into a table
     /// without them, and its rows have no models.
     /// </summary>
-    public static bool StagingHasModelColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable)
-    {
-        using SqliteCommand command = connection.Command(transaction,
-            "SELECT count(*) FROM pragma_table_info($t) WHERE name = 'free_energy_points'").With("$t", stagingTable);
-        return (long)command.ExecuteScalar()! == 1;
-    }
+    public static bool StagingHasModelColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable) =>
+        StagingColumns.Has(connection, transaction, stagingTable, "free_energy_points");
 
     /// <summary>Gives a staging table of a session begun before migration 5 the model columns (its rows get NULLs).</summary>
-    public static void EnsureStagingColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable)
-    {
-        if (StagingHasModelColumns(connection, transaction, stagingTable)) return;
-        foreach (string definition in StagingDefinitions.Split('\n', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries))
-        {
-            using SqliteCommand alter = connection.Command(transaction, $"ALTER TABLE {stagingTable} ADD COLUMN {definition.TrimEnd(',')}");
-            alter.ExecuteNonQuery();
-        }
-    }
+    public static void EnsureStagingColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable) =>
+        StagingColumns.Ensure(connection, transaction, stagingTable, StagingDefinitions, "free_energy_points");
 
     public static byte[] Encode(IReadOnlyList<StoredFreeEnergyPoint> points)
     {

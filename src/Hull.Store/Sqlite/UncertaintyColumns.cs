@@ -35,21 +35,10 @@ internal static class UncertaintyColumns
     }
 
     /// <summary>The staging table's two columns, or two NULLs for a table made before migration 6.</summary>
-    public static string StagingSelect(SqliteConnection connection, SqliteTransaction transaction, string stagingTable)
-    {
-        using SqliteCommand command = connection.Command(transaction,
-            "SELECT count(*) FROM pragma_table_info($t) WHERE name = 'correlation_group'").With("$t", stagingTable);
-        return (long)command.ExecuteScalar()! == 1 ? Names : "NULL, NULL";
-    }
+    public static string StagingSelect(SqliteConnection connection, SqliteTransaction transaction, string stagingTable) =>
+        StagingColumns.Has(connection, transaction, stagingTable, "correlation_group") ? Names : "NULL, NULL";
 
     /// <summary>Gives a staging table of a session begun before migration 6 the two columns (its rows get NULLs).</summary>
-    public static void EnsureStagingColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable)
-    {
-        if (StagingSelect(connection, transaction, stagingTable) == Names) return;
-        foreach (string definition in StagingDefinitions.Split('\n', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries))
-        {
-            using SqliteCommand alter = connection.Command(transaction, $"ALTER TABLE {stagingTable} ADD COLUMN {definition.TrimEnd(',')}");
-            alter.ExecuteNonQuery();
-        }
-    }
+    public static void EnsureStagingColumns(SqliteConnection connection, SqliteTransaction transaction, string stagingTable) =>
+        StagingColumns.Ensure(connection, transaction, stagingTable, StagingDefinitions, "correlation_group");
 }
