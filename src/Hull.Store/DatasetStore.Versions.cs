@@ -6,6 +6,8 @@ namespace Hull.Store;
 // Reading versions, deleting them, and their fingerprints.
 public sealed partial class DatasetStore
 {
+    // One delegate for every question (a method group would allocate one each time).
+    private Func<string, DatasetLatest>? _readLatest;
     // The rows visible at version $k (see Schema).
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
     // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join},
@@ -25,12 +27,15 @@ public sealed partial class DatasetStore
     {
         DatasetName.Validate(datasetName);
         ObjectDisposedException.ThrowIf(Volatile.Read(ref _disposed) != 0, this);
-        return _latest.Get(datasetName, () => Read((connection, transaction) =>
-        {
-            DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
-            return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion);
-        }));
+        return _latest.Get(datasetName, _readLatest ??= ReadLatest);
     }
+
+    // What the latest-version memory reads when it has no answer for the current commit signal.
+    private DatasetLatest ReadLatest(string datasetName) => Read((connection, transaction) =>
+    {
+        DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
+        return new DatasetLatest(dataset.DatasetId, FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion);
+    });
 
     /// <summary>Every live version with its provenance, oldest first.</summary>
     public IReadOnlyList<DatasetVersionInfo> ListVersions(string datasetName)

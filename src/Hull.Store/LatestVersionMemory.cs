@@ -1,3 +1,5 @@
+using System.Collections.Concurrent;
+
 namespace Hull.Store;
 
 /// <summary>
@@ -10,27 +12,26 @@ namespace Hull.Store;
 /// </summary>
 internal sealed class LatestVersionMemory(ICommitSignal signal) : IDisposable
 {
-    private readonly object _gate = new();
-    private readonly Dictionary<string, (long Signal, DatasetLatest Latest)> _latest = new(StringComparer.Ordinal);
+    // Lock-free: every question of a busy server passes here (pinned ones too, for the dataset's key).
+    private readonly ConcurrentDictionary<string, (long Signal, DatasetLatest Latest)> _latest = new(StringComparer.Ordinal);
 
     /// <summary>
     /// The latest version of <paramref name="dataset"/>: remembered when no commit happened since it was read,
-    /// otherwise read by <paramref name="read"/> (outside any lock, so reads still run side by side) and remembered.
-    /// A failing read (no such dataset) is not remembered.
+    /// otherwise read by <paramref name="read"/> (given the dataset's name, so that callers can pass one cached
+    /// delegate instead of a new closure per question) and remembered. A failing read (no such dataset) is not
+    /// remembered.
     /// </summary>
-    public DatasetLatest Get(string dataset, Func<DatasetLatest> read)
+    public DatasetLatest Get(string dataset, Func<string, DatasetLatest> read)
     {
         long now = signal.Read();
-        lock (_gate)
-        {
-            if (_latest.TryGetValue(dataset, out var remembered) && remembered.Signal == now) return remembered.Latest;
-        }
+        if (_latest.TryGetValue(dataset, out var remembered) && remembered.Signal == now) return remembered.Latest;
         // Read after the signal was taken: the answer is at least as new as the state the signal stands for, and a
         // commit after that changes the signal, which the next question sees.
-        DatasetLatest latest = read();
+        DatasetLatest latest = read(dataset);
         // Kept with the signal it was read under: an answer from before a commit can only be given again while the
-        // signal reads as it did then, i.e. never once anyone has committed since.
-        lock (_gate) _latest[dataset] = (now, latest);
+        // signal reads as it did then, i.e. never once anyone has committed since. Two threads storing at once
+        // leave one of their answers, each right for the signal kept with it.
+        _latest[dataset] = (now, latest);
         return latest;
     }
 

@@ -61,8 +61,8 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             PhaseEntry entry = snapshot.Entries[row];
             CachedHull hull = await cache.GetHullAsync(snapshot, entry.Composition.Elements, context.CancellationToken, references);
-            used.Add(hull.Hull);
-            response.Results.Add(WireMapping.ToWire(hull.StabilityOf(entry.Id), snapshot.FormulasAsStored[row]));
+            used.Add(hull);
+            response.Results.Add(hull.WireStabilityOf(entry.Id, snapshot.FormulasAsStored[row]));
         }
 
         response.Coverage.AddRange(used.Coverage);
@@ -110,7 +110,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         for (int i = 0; i < compositions.Length; i++)
         {
             hulls[i] = await cache.GetHullAsync(snapshot, compositions[i].Elements, context.CancellationToken, references);
-            used.Add(hulls[i].Hull);
+            used.Add(hulls[i]);
             formations[i] = FormationEnergyOf(request.Candidates[i], compositions[i], bases[i], hulls[i].Hull, references, i, used);
             if (!FormationEnergyRange.Contains(formations[i]))
             {
@@ -157,7 +157,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             Composition composition = compositions[i]!;
             CachedHull hull = await cache.GetHullAsync(snapshot, composition.Elements, context.CancellationToken, references);
-            used.Add(hull.Hull);
+            used.Add(hull);
             Core.Thermo.Decomposition decomposition = hull.Hull.DecompositionAt(composition);
             response.Results.Add(new HullEnergyResult
             {
@@ -371,22 +371,53 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         }
     }
 
-    /// <summary>The hull systems and references an answer used, for its coverage and reference lists.</summary>
+    /// <summary>
+    /// The hull systems and references an answer used, for its coverage and reference lists (each sorted by name,
+    /// the first reference of a symbol kept). Most answers use one hull and no reference of their own: those take the
+    /// hull's ready wire lists without building anything.
+    /// </summary>
     private sealed class HullsUsed
     {
-        private readonly SortedDictionary<string, Core.Thermo.SystemCoverage> _coverage = new(StringComparer.Ordinal);
-        private readonly SortedDictionary<string, Core.Thermo.ElementReference> _references = new(StringComparer.Ordinal);
+        private CachedHull? _only;
+        private SortedDictionary<string, Protos.V1.SystemCoverage>? _coverage;
+        private SortedDictionary<string, Protos.V1.ElementReference>? _references;
 
-        public void Add(SystemHull hull)
+        public void Add(CachedHull hull)
         {
-            _coverage.TryAdd(hull.SystemName, hull.Coverage);
-            foreach (Core.Thermo.ElementReference reference in hull.References) _references.TryAdd(reference.Symbol, reference);
+            if (_only is null && _coverage is null)
+            {
+                _only = hull;
+                return;
+            }
+
+            if (ReferenceEquals(hull, _only)) return;
+            Spread();
+            _coverage!.TryAdd(hull.Hull.SystemName, hull.WireCoverage);
+            foreach ((string symbol, Protos.V1.ElementReference reference) in hull.WireReferences) _references!.TryAdd(symbol, reference);
         }
 
-        public void AddReference(Core.Thermo.ElementReference reference) => _references.TryAdd(reference.Symbol, reference);
+        public void AddReference(Core.Thermo.ElementReference reference)
+        {
+            Spread();
+            if (!_references!.ContainsKey(reference.Symbol)) _references.Add(reference.Symbol, WireMapping.ToWire(reference));
+        }
 
-        public IEnumerable<Protos.V1.SystemCoverage> Coverage => _coverage.Values.Select(WireMapping.ToWire);
+        public IEnumerable<Protos.V1.SystemCoverage> Coverage =>
+            _coverage is not null ? _coverage.Values : _only is null ? [] : [_only.WireCoverage];
 
-        public IEnumerable<Protos.V1.ElementReference> References => _references.Values.Select(WireMapping.ToWire);
+        public IEnumerable<Protos.V1.ElementReference> References =>
+            _references is not null ? _references.Values : _only is null ? [] : _only.WireReferences.Select(r => r.Value);
+
+        // From one hull's ready lists to the general, keyed form.
+        private void Spread()
+        {
+            if (_coverage is not null) return;
+            _coverage = new SortedDictionary<string, Protos.V1.SystemCoverage>(StringComparer.Ordinal);
+            _references = new SortedDictionary<string, Protos.V1.ElementReference>(StringComparer.Ordinal);
+            if (_only is null) return;
+            _coverage.Add(_only.Hull.SystemName, _only.WireCoverage);
+            foreach ((string symbol, Protos.V1.ElementReference reference) in _only.WireReferences) _references.Add(symbol, reference);
+            _only = null;
+        }
     }
 }

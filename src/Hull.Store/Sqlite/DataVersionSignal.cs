@@ -30,15 +30,19 @@ internal sealed class DataVersionSignal : ICommitSignal
     // Commits made through any store of this process, per database file.
     private static readonly ConcurrentDictionary<string, LocalCounter> LocalCommits = new(StringComparer.Ordinal);
 
+    // Bits of the number read that carry this process's commit count; the count of data_version changes sits above
+    // them. 2^40 local commits between two reads would be needed for two different states to read the same.
+    private const int LocalBits = 40;
+    private const long LocalMask = (1L << LocalBits) - 1;
+
     private readonly object _gate = new();
     private readonly SqliteConnection _watch;
     private readonly SqliteCommand _dataVersion;
     private readonly LocalCounter _localCommits;
     private readonly long _windowTicks;
-    private long _seenDataVersion = long.MinValue;
-    private long _seenLocalCommits = long.MinValue;
-    private long _checkedAt;
-    private long _generation;
+    // The last data_version answer, replaced whole (never changed in place) so that questions inside the window
+    // read it without a lock; null until the first question.
+    private Check? _lastCheck;
 
     public DataVersionSignal(ConnectionFactory connections, TimeSpan crossProcessWindow)
     {
@@ -56,32 +60,34 @@ internal sealed class DataVersionSignal : ICommitSignal
     /// <summary>Called by a store of this process after each of its commits to the file.</summary>
     public void CommittedHere() => Interlocked.Increment(ref _localCommits.Value);
 
+    /// <summary>
+    /// Lock-free inside the window (two memory reads and a clock read): every concurrent question of a busy server
+    /// asks this, pinned ones too, so a lock here made them queue behind each other.
+    /// </summary>
     public long Read()
+    {
+        // The local count is read first: a commit of this process that the number does not show yet happened after
+        // this question began, so the caller's read of the tables may or may not see it, and the next question will.
+        long local = Volatile.Read(ref _localCommits.Value);
+        Check? check = Volatile.Read(ref _lastCheck);
+        if (check is null || Stopwatch.GetTimestamp() - check.CheckedAt >= _windowTicks) check = Recheck();
+        return (check.Changes << LocalBits) | (local & LocalMask);
+    }
+
+    // Asks data_version again, one thread at a time; a thread that waited finds the answer another has just given.
+    private Check Recheck()
     {
         lock (_gate)
         {
-            long local = Volatile.Read(ref _localCommits.Value);
-            if (local != _seenLocalCommits)
-            {
-                _seenLocalCommits = local;
-                _generation++;
-            }
-
+            Check? last = _lastCheck;
             long now = Stopwatch.GetTimestamp();
-            if (now - _checkedAt >= _windowTicks || _seenDataVersion == long.MinValue)
-            {
-                // The time is taken before asking: the answer stands for the state at that moment or later.
-                long dataVersion = (long)_dataVersion.ExecuteScalar()!;
-                if (dataVersion != _seenDataVersion)
-                {
-                    _seenDataVersion = dataVersion;
-                    _generation++;
-                }
-
-                _checkedAt = now;
-            }
-
-            return _generation;
+            if (last is not null && now - last.CheckedAt < _windowTicks) return last;
+            // The time is taken before asking: the answer stands for the state at that moment or later.
+            long dataVersion = (long)_dataVersion.ExecuteScalar()!;
+            long changes = last is null ? 0 : last.Changes + (dataVersion == last.DataVersion ? 0 : 1);
+            var check = new Check(dataVersion, now, changes);
+            Volatile.Write(ref _lastCheck, check);
+            return check;
         }
     }
 
@@ -93,6 +99,9 @@ internal sealed class DataVersionSignal : ICommitSignal
             _watch.Dispose();
         }
     }
+
+    /// <summary>One data_version answer, when it was asked (stopwatch ticks) and how many changes have been seen.</summary>
+    private sealed record Check(long DataVersion, long CheckedAt, long Changes);
 
     /// <summary>A counter shared by the stores of this process on one file.</summary>
     private sealed class LocalCounter
