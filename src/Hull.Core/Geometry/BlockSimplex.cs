@@ -245,6 +245,22 @@ internal sealed class BlockSimplex
     /// </summary>
     public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded) => FirstBelow(block, mu, excluded, null) >= 0;
 
+    /// <summary>Whether some column in [<paramref name="from"/>, <paramref name="to"/>) lies below the plane by more than the entering threshold.</summary>
+    public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int from, int to)
+    {
+        int k = mu.Length;
+        int stride = block.Stride;
+        double[] rows = block.Rows;
+        double[] energies = block.Energies;
+        for (int j = from; j < to; j++)
+        {
+            double cost = energies[j];
+            for (int r = 0; r < k; r++) cost -= mu[r] * rows[r * stride + j];
+            if (cost < -EnteringReducedCost) return true;
+        }
+        return false;
+    }
+
     /// <summary>
     /// The entering column, -1 when the plane is optimal over the whole block. Small blocks are priced in full at
     /// every step (Dantzig's rule: most negative reduced cost). Large ones price the candidate list first and the
