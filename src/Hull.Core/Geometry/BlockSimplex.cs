@@ -124,16 +124,24 @@ internal sealed class BlockSimplex
         int k = block.Components.Length;
         if (k > _maxRows) throw new ArgumentException($"The block has {k} rows; this solver was sized for {_maxRows}.");
         _rows = k;
+        bool seed = warm;
         if (warm && !(TryFactor(block, basis, k) && PrimalFeasible(x, k) && !Contains(basis, k, excluded)
             && (excludedColumns is null || !ContainsFlagged(basis, k, excludedColumns))))
         {
             warm = false;
         }
+        // A starting basis that does not hold x still names the columns a nearby optimum is made of: they become
+        // the candidate list, so that the first steps bring them in before the block is priced.
+        if (seed && !warm) SeedCandidates(block, basis, k);
         if (!warm)
         {
             block.CornerColumns.AsSpan().CopyTo(basis);
-            // The pure corners form the identity matrix: always a feasible basis, with the fractions as weights.
-            if (!TryFactor(block, basis, k) || !PrimalFeasible(x, k))
+            // The pure corners form the identity matrix, its own inverse: always a feasible basis, with the
+            // fractions as weights.
+            var inverse = _inverse.AsSpan(0, k * k);
+            inverse.Clear();
+            for (int i = 0; i < k; i++) inverse[i * k + i] = 1.0;
+            if (!PrimalFeasible(x, k))
             {
                 throw new InvalidOperationException("The pure corner points do not form a feasible basis.");
             }
@@ -238,6 +246,24 @@ internal sealed class BlockSimplex
     /// lower-hull facet holding the composition solved for.
     /// </summary>
     public ReadOnlySpan<double> Plane => _plane.AsSpan(0, _rows);
+
+    private void SeedCandidates(ColumnBlock block, ReadOnlySpan<int> columns, int k)
+    {
+        if (block.Count < CandidateListFromColumns) return;
+        if (!ReferenceEquals(_candidatesOf, block)) _priceFrom = 0;
+        _candidatesOf = block;
+        _candidateCount = 0;
+        int listStride = 2 * CandidateCount;
+        for (int i = 0; i < k && _candidateCount < listStride; i++)
+        {
+            int column = columns[i];
+            if ((uint)column >= (uint)block.Count) continue;
+            int slot = _candidateCount++;
+            _candidates[slot] = column;
+            _candidateEnergies[slot] = block.Energies[column];
+            for (int r = 0; r < k; r++) _candidateRows[r * listStride + slot] = block.Rows[r * block.Stride + column];
+        }
+    }
 
     private static bool Contains(Span<int> basis, int k, int column)
     {
