@@ -5,9 +5,11 @@ namespace Hull.Core.Geometry;
 /// <summary>
 /// The hull energy at one composition as a linear program over the columns of a <see cref="ColumnBlock"/>:
 /// minimise Σ w_j E_j subject to Σ w_j x_j = x, w ≥ 0 (Σ w_j = 1 follows, since every column's fractions sum to
-/// 1). Solved by the primal simplex method on the k × k basis, refactorised from scratch at every step (k is the
-/// number of components, at most a few dozen, so this costs far less than pricing the columns and never lets
-/// rounding accumulate). One instance per thread: it owns its scratch space.
+/// 1). Solved by the primal simplex method on the k × k basis (k is the number of components, at most a few dozen).
+/// The basis inverse is kept explicitly and updated at each step by one elimination (k² operations instead of a
+/// fresh k³ factorisation); it is computed afresh every <see cref="StepsBetweenFactorisations"/> steps and before
+/// optimality is accepted, so rounding cannot accumulate into the answer. One instance per thread: it owns its
+/// scratch space.
 /// </summary>
 internal sealed class BlockSimplex
 {
@@ -64,7 +66,24 @@ internal sealed class BlockSimplex
     /// </summary>
     private const int StallStepsBeforeBlandOverBlock = 32 * StallStepsBeforeBland;
 
+    /// <summary>
+    /// Steps between fresh factorisations of the basis. Each update divides by a pivot entry above
+    /// <see cref="PivotEntry"/> of a well-conditioned basis of fractions, so a few dozen updates lose a few digits at
+    /// most; the final check below catches any drift that matters.
+    /// </summary>
+    private const int StepsBetweenFactorisations = 32;
+
+    /// <summary>
+    /// Optimality found with an updated inverse is accepted when the plane from a fresh factorisation differs from
+    /// the updated one by at most this (eV/atom) per row: a column's reduced cost then moves by less than this
+    /// (fractions sum to 1), a hundredth of <see cref="EnteringReducedCost"/>. Otherwise the block is priced again
+    /// with the fresh plane.
+    /// </summary>
+    private const double PlaneDrift = 1e-14;
+
     private readonly int _maxRows;
+    private readonly double[] _inverse;
+    private readonly double[] _updatedPlane;
     private readonly double[] _lu;
     private readonly int[] _pivots;
     private readonly double[] _weights;
@@ -83,6 +102,8 @@ internal sealed class BlockSimplex
     {
         _maxRows = maxRows;
         _lu = new double[maxRows * maxRows];
+        _inverse = new double[maxRows * maxRows];
+        _updatedPlane = new double[maxRows];
         _pivots = new int[maxRows];
         _weights = new double[maxRows];
         _plane = new double[maxRows];
@@ -103,16 +124,24 @@ internal sealed class BlockSimplex
         int k = block.Components.Length;
         if (k > _maxRows) throw new ArgumentException($"The block has {k} rows; this solver was sized for {_maxRows}.");
         _rows = k;
+        bool seed = warm;
         if (warm && !(TryFactor(block, basis, k) && PrimalFeasible(x, k) && !Contains(basis, k, excluded)
             && (excludedColumns is null || !ContainsFlagged(basis, k, excludedColumns))))
         {
             warm = false;
         }
+        // A starting basis that does not hold x still names the columns a nearby optimum is made of: they become
+        // the candidate list, so that the first steps bring them in before the block is priced.
+        if (seed && !warm) SeedCandidates(block, basis, k);
         if (!warm)
         {
             block.CornerColumns.AsSpan().CopyTo(basis);
-            // The pure corners form the identity matrix: always a feasible basis, with the fractions as weights.
-            if (!TryFactor(block, basis, k) || !PrimalFeasible(x, k))
+            // The pure corners form the identity matrix, its own inverse: always a feasible basis, with the
+            // fractions as weights.
+            var inverse = _inverse.AsSpan(0, k * k);
+            inverse.Clear();
+            for (int i = 0; i < k; i++) inverse[i * k + i] = 1.0;
+            if (!PrimalFeasible(x, k))
             {
                 throw new InvalidOperationException("The pure corner points do not form a feasible basis.");
             }
@@ -130,22 +159,42 @@ internal sealed class BlockSimplex
         // A safety net against a loop, not a budget: Bland's rule terminates, but a long degenerate stretch on a
         // fine lattice can take thousands of steps.
         int limit = 1000 + 100 * k + 10 * block.Count;
+        int sinceFactorisation = 0;
         for (int step = 0; ; step++)
         {
             if (step > limit) throw new InvalidOperationException($"The hull program did not converge in {limit} simplex steps.");
-            // Plane through the basis columns: solve B^T mu = E_B.
+            // Plane through the basis columns: mu = B^-T E_B.
             var mu = _plane.AsSpan(0, k);
-            for (int i = 0; i < k; i++) mu[i] = block.Energies[basis[i]];
-            SmallLinearSolver.SolveTransposed(_lu.AsSpan(0, k * k), k, _pivots.AsSpan(0, k), mu);
+            PlaneOfBasis(block, basis, k, mu);
 
             bool bland = stall >= StallStepsBeforeBland;
             int entering = Entering(block, mu, excluded, excludedColumns, bland, stall >= StallStepsBeforeBlandOverBlock);
-            if (entering < 0) break;
+            if (entering < 0)
+            {
+                if (sinceFactorisation == 0) break;
+                // Optimal with an updated inverse: confirm with a fresh factorisation (weights and plane from it).
+                var updated = _updatedPlane.AsSpan(0, k);
+                mu.CopyTo(updated);
+                if (!TryFactor(block, basis, k)) throw new InvalidOperationException("The hull program reached a singular basis.");
+                sinceFactorisation = 0;
+                PrimalFeasible(x, k);
+                PlaneOfBasis(block, basis, k, mu);
+                double drift = 0;
+                for (int r = 0; r < k; r++) drift = Math.Max(drift, Math.Abs(mu[r] - updated[r]));
+                if (drift <= PlaneDrift) break;
+                continue;
+            }
 
-            // Direction: B d = a_entering; the leaving column is the first weight to reach 0 along it.
+            // Direction: d = B^-1 a_entering; the leaving column is the first weight to reach 0 along it.
             var d = _direction.AsSpan(0, k);
-            for (int r = 0; r < k; r++) d[r] = block.Rows[r * block.Stride + entering];
-            SmallLinearSolver.Solve(_lu.AsSpan(0, k * k), k, _pivots.AsSpan(0, k), d);
+            var inverse = _inverse.AsSpan(0, k * k);
+            for (int i = 0; i < k; i++)
+            {
+                double sum = 0;
+                var row = inverse.Slice(i * k, k);
+                for (int r = 0; r < k; r++) sum += row[r] * block.Rows[r * block.Stride + entering];
+                d[i] = sum;
+            }
             int leaving = -1;
             double ratio = double.PositiveInfinity;
             for (int i = 0; i < k; i++)
@@ -161,11 +210,19 @@ internal sealed class BlockSimplex
             if (leaving < 0) throw new InvalidOperationException("The hull program found no leaving column.");
             int previous = basis[leaving];
             basis[leaving] = entering;
-            if (!TryFactor(block, basis, k))
+            if (++sinceFactorisation >= StepsBetweenFactorisations)
             {
-                basis[leaving] = previous;
-                TryFactor(block, basis, k);
-                throw new InvalidOperationException("The hull program reached a singular basis.");
+                if (!TryFactor(block, basis, k))
+                {
+                    basis[leaving] = previous;
+                    TryFactor(block, basis, k);
+                    throw new InvalidOperationException("The hull program reached a singular basis.");
+                }
+                sinceFactorisation = 0;
+            }
+            else
+            {
+                UpdateInverse(k, leaving, d);
             }
             PrimalFeasible(x, k);
             double objective = Objective(block, basis, k);
@@ -190,6 +247,24 @@ internal sealed class BlockSimplex
     /// </summary>
     public ReadOnlySpan<double> Plane => _plane.AsSpan(0, _rows);
 
+    private void SeedCandidates(ColumnBlock block, ReadOnlySpan<int> columns, int k)
+    {
+        if (block.Count < CandidateListFromColumns) return;
+        if (!ReferenceEquals(_candidatesOf, block)) _priceFrom = 0;
+        _candidatesOf = block;
+        _candidateCount = 0;
+        int listStride = 2 * CandidateCount;
+        for (int i = 0; i < k && _candidateCount < listStride; i++)
+        {
+            int column = columns[i];
+            if ((uint)column >= (uint)block.Count) continue;
+            int slot = _candidateCount++;
+            _candidates[slot] = column;
+            _candidateEnergies[slot] = block.Energies[column];
+            for (int r = 0; r < k; r++) _candidateRows[r * listStride + slot] = block.Rows[r * block.Stride + column];
+        }
+    }
+
     private static bool Contains(Span<int> basis, int k, int column)
     {
         for (int i = 0; i < k; i++) if (basis[i] == column) return true;
@@ -202,7 +277,10 @@ internal sealed class BlockSimplex
         return false;
     }
 
-    /// <summary>Factorises the basis matrix (row r, column i = fraction r of basis column i); false if singular.</summary>
+    /// <summary>
+    /// Factorises the basis matrix (row r, column i = fraction r of basis column i) and forms its inverse from the
+    /// factors; false if singular.
+    /// </summary>
     private bool TryFactor(ColumnBlock block, Span<int> basis, int k)
     {
         var lu = _lu.AsSpan(0, k * k);
@@ -210,9 +288,53 @@ internal sealed class BlockSimplex
         {
             for (int i = 0; i < k; i++) lu[r * k + i] = block.Rows[r * block.Stride + basis[i]];
         }
-        double det = SmallLinearSolver.Factorize(lu, k, _pivots.AsSpan(0, k));
+        var pivots = _pivots.AsSpan(0, k);
+        double det = SmallLinearSolver.Factorize(lu, k, pivots);
         // Fractions in [0, 1]: a determinant this small means a basis of dependent columns.
-        return Math.Abs(det) > 1e-300 && double.IsFinite(det) && MinPivot(lu, k) > 1e-13;
+        if (!(Math.Abs(det) > 1e-300 && double.IsFinite(det) && MinPivot(lu, k) > 1e-13)) return false;
+        var inverse = _inverse.AsSpan(0, k * k);
+        var unit = _direction.AsSpan(0, k);
+        for (int c = 0; c < k; c++)
+        {
+            unit.Clear();
+            unit[c] = 1.0;
+            SmallLinearSolver.Solve(lu, k, pivots, unit);
+            for (int i = 0; i < k; i++) inverse[i * k + c] = unit[i];
+        }
+        return true;
+    }
+
+    /// <summary>
+    /// The inverse after basis position <paramref name="leaving"/> takes the column whose direction is
+    /// <paramref name="d"/> (= old B^-1 times that column): the pivot row is divided by d[leaving] and eliminated
+    /// from the others.
+    /// </summary>
+    private void UpdateInverse(int k, int leaving, ReadOnlySpan<double> d)
+    {
+        var inverse = _inverse.AsSpan(0, k * k);
+        var pivotRow = inverse.Slice(leaving * k, k);
+        double scale = 1.0 / d[leaving];
+        for (int r = 0; r < k; r++) pivotRow[r] *= scale;
+        for (int i = 0; i < k; i++)
+        {
+            double factor = d[i];
+            if (i == leaving || factor == 0.0) continue;
+            var row = inverse.Slice(i * k, k);
+            for (int r = 0; r < k; r++) row[r] -= factor * pivotRow[r];
+        }
+    }
+
+    /// <summary>The plane through the basis columns, mu = B^-T E_B, from the current inverse.</summary>
+    private void PlaneOfBasis(ColumnBlock block, Span<int> basis, int k, Span<double> mu)
+    {
+        var inverse = _inverse.AsSpan(0, k * k);
+        mu.Clear();
+        for (int i = 0; i < k; i++)
+        {
+            double energy = block.Energies[basis[i]];
+            var row = inverse.Slice(i * k, k);
+            for (int r = 0; r < k; r++) mu[r] += energy * row[r];
+        }
     }
 
     private static double MinPivot(Span<double> lu, int k)
@@ -226,8 +348,14 @@ internal sealed class BlockSimplex
     private bool PrimalFeasible(ReadOnlySpan<double> x, int k)
     {
         var w = _weights.AsSpan(0, k);
-        x.Slice(0, k).CopyTo(w);
-        SmallLinearSolver.Solve(_lu.AsSpan(0, k * k), k, _pivots.AsSpan(0, k), w);
+        var inverse = _inverse.AsSpan(0, k * k);
+        for (int i = 0; i < k; i++)
+        {
+            double sum = 0;
+            var row = inverse.Slice(i * k, k);
+            for (int r = 0; r < k; r++) sum += row[r] * x[r];
+            w[i] = sum;
+        }
         for (int i = 0; i < k; i++) if (w[i] < -HullTolerances.BarycentricWeight) return false;
         return true;
     }
@@ -244,6 +372,22 @@ internal sealed class BlockSimplex
     /// block's rows) by more than the entering threshold: false means the plane is optimal over the whole block.
     /// </summary>
     public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int excluded) => FirstBelow(block, mu, excluded, null) >= 0;
+
+    /// <summary>Whether some column in [<paramref name="from"/>, <paramref name="to"/>) lies below the plane by more than the entering threshold.</summary>
+    public static bool AnyColumnBelow(ColumnBlock block, ReadOnlySpan<double> mu, int from, int to)
+    {
+        int k = mu.Length;
+        int stride = block.Stride;
+        double[] rows = block.Rows;
+        double[] energies = block.Energies;
+        for (int j = from; j < to; j++)
+        {
+            double cost = energies[j];
+            for (int r = 0; r < k; r++) cost -= mu[r] * rows[r * stride + j];
+            if (cost < -EnteringReducedCost) return true;
+        }
+        return false;
+    }
 
     /// <summary>
     /// The entering column, -1 when the plane is optimal over the whole block. Small blocks are priced in full at

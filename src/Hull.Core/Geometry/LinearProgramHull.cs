@@ -252,20 +252,44 @@ public sealed class LinearProgramHull : IHullStability
         return groups;
     }
 
+    /// <summary>
+    /// Solves every group, fewest components first. A group's programs read the vertex status of its subset groups
+    /// only, which have fewer components, so the groups of one component count are independent of each other and
+    /// run side by side when together they are worth the cores; each writes its own points only.
+    /// </summary>
     private void SolveAll()
     {
-        foreach (var (mask, points) in _groups)
+        var levels = new List<(ulong Mask, int[] Points)>[ComponentCount + 1];
+        foreach (var group in _groups) (levels[BitOperations.PopCount(group.Mask)] ??= []).Add(group);
+        for (int size = 1; size <= ComponentCount; size++)
         {
-            if (BitOperations.PopCount(mask) == 1)
+            var level = levels[size];
+            if (level is null) continue;
+            if (size == 1)
             {
-                int p = points[0];
-                SetVertex(p);
-                _hullEnergyWithout[_input.CompositionOf[p]] = double.NaN;
+                foreach (var (_, points) in level)
+                {
+                    int p = points[0];
+                    SetVertex(p);
+                    _hullEnergyWithout[_input.CompositionOf[p]] = double.NaN;
+                }
                 continue;
             }
-            var block = ColumnBlock.Gather(mask, _groups, _input);
-            if (!TrySolveGroupOverCandidates(block, points)) SolveGroup(block, points);
+            var blocks = new ColumnBlock[level.Count];
+            long work = 0;
+            for (int g = 0; g < level.Count; g++)
+            {
+                blocks[g] = ColumnBlock.Gather(level[g].Mask, _groups, _input);
+                work += (long)level[g].Points.Length * blocks[g].Count * size;
+            }
+            if (level.Count > 1 && work >= ParallelWork) Parallel.For(0, level.Count, g => SolveGroupOf(blocks[g], level[g].Points));
+            else for (int g = 0; g < level.Count; g++) SolveGroupOf(blocks[g], level[g].Points);
         }
+    }
+
+    private void SolveGroupOf(ColumnBlock block, int[] points)
+    {
+        if (!TrySolveGroupOverCandidates(block, points)) SolveGroup(block, points);
     }
 
     /// <summary>Runs <paramref name="work"/> for every chunk of a group, on all cores when the group is large.</summary>
@@ -346,8 +370,10 @@ public sealed class LinearProgramHull : IHullStability
     /// hull energy without itself is then checked against the plane of the small program's optimum: the answer
     /// stands when no column of the block lies below that plane (the optimality condition over the whole block),
     /// and is solved over the whole block otherwise. A composition that is no vertex has the hull of all vertices
-    /// above it, which the small program holds in full. Returns false, having done nothing, where most subset
-    /// columns are vertices.
+    /// above it, which the small program holds in full. A composition that is no candidate keeps its answer over
+    /// the subset vertices when no candidate lies below that answer's plane (the optimality condition over the
+    /// small block), and is solved again over the small block otherwise. Returns false, having done nothing, where
+    /// most subset columns are vertices.
     /// </summary>
     private bool TrySolveGroupOverCandidates(ColumnBlock block, int[] points)
     {
@@ -357,10 +383,19 @@ public sealed class LinearProgramHull : IHullStability
         if (subsetVertices.Count > CandidatesUpToVertexShare * own) return false;
 
         var bound = ColumnBlock.FromPoints(block.Components, subsetVertices, _input);
+        int rows = block.Components.Length;
         var candidate = new bool[points.Length];
-        SolveEach(points, bound, _ => -1, (q, p, _, _, _, _, above) =>
+        // The optimal plane of each composition that is no candidate: its answer over the subset vertices stands
+        // over the small block too unless a candidate lies below that plane.
+        var planes = new double[points.Length * rows];
+        SolveEach(points, bound, _ => -1, (q, p, _, solver, basis, weights, above) =>
         {
             candidate[q] = _input.Energies[p] < above - HullTolerances.EnergyEvPerAtom;
+            if (!candidate[q])
+            {
+                Record(p, bound, basis, weights, above);
+                solver.Plane.CopyTo(planes.AsSpan(q * rows, rows));
+            }
             return true;
         });
 
@@ -372,9 +407,16 @@ public sealed class LinearProgramHull : IHullStability
             if (candidate[q]) kept.Add(points[q]);
         }
         var small = ColumnBlock.FromPoints(block.Components, kept, _input);
-        int rows = block.Components.Length;
-        SolveEach(points, small, q => columnOf[q], (q, p, x, solver, basis, weights, without) =>
+        var again = new List<int>();
+        for (int q = 0; q < points.Length; q++)
         {
+            if (candidate[q] || BlockSimplex.AnyColumnBelow(small, planes.AsSpan(q * rows, rows), subsetVertices.Count, small.Count)) again.Add(q);
+        }
+        var againPoints = new int[again.Count];
+        for (int i = 0; i < againPoints.Length; i++) againPoints[i] = points[again[i]];
+        SolveEach(againPoints, small, i => columnOf[again[i]], (i, p, x, solver, basis, weights, without) =>
+        {
+            int q = again[i];
             if (!(_input.Energies[p] < without - HullTolerances.EnergyEvPerAtom && BlockSimplex.AnyColumnBelow(block, solver.Plane, own + q)))
             {
                 Record(p, small, basis, weights, without);
