@@ -15,11 +15,17 @@ internal sealed class DoubleDescription
     private readonly List<List<int>> _adjacent = new();
     private readonly List<bool> _alive = new();
     private List<int> _live = new();
+    private List<int> _spareLive = new();
+    private readonly List<int> _negative = new();
+    private readonly List<int> _zero = new();
     private double[] _slack = [];
+
+    private readonly Predicate<int> _isDead;
 
     public DoubleDescription(int d, double[] lower, double[] upper, int[] boxIds, List<double[]> rows, List<double> rhs, List<int> ids)
     {
         _d = d;
+        _isDead = v => !_alive[v];
         _rows = rows;
         _rhs = rhs;
         _ids = ids;
@@ -76,8 +82,10 @@ internal sealed class DoubleDescription
         int id = _ids[k];
         if (_slack.Length < _coords.Count) _slack = new double[Math.Max(_coords.Count * 2, 64)];
         double[] slack = _slack;
-        var negative = new List<int>();
-        var zero = new List<int>();
+        // Scratch lists kept across cuts: most cuts of a window are redundant and should allocate nothing.
+        List<int> negative = _negative, zero = _zero;
+        negative.Clear();
+        zero.Clear();
         bool anyPositive = false;
         foreach (int v in _live)
         {
@@ -118,12 +126,14 @@ internal sealed class DoubleDescription
         }
 
         foreach (int u in negative) _alive[u] = false;
-        foreach (int z in zero) _adjacent[z].RemoveAll(v => !_alive[v]);
+        foreach (int z in zero) _adjacent[z].RemoveAll(_isDead);
         JoinFace(face);
 
-        var live = new List<int>(_live.Count + face.Count);
+        List<int> live = _spareLive;
+        live.Clear();
         foreach (int v in _live) if (_alive[v]) live.Add(v);
         for (int i = zero.Count; i < face.Count; i++) live.Add(face[i]);
+        _spareLive = _live;
         _live = live;
         return true;
     }
