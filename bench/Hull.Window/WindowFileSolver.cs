@@ -19,23 +19,35 @@ public static class WindowFileSolver
 {
     public static WindowLimits Read(string path)
     {
-        using var reader = new StreamReader(path);
-        int line = 0;
+        // One read of the whole file and numbers parsed from spans: no string per line or per field.
+        string text = File.ReadAllText(path);
+        int at = 0, line = 0;
         double[] Numbers(int expected)
         {
             line++;
-            string text = reader.ReadLine() ?? throw new FormatException($"line {line}: the file ends early");
-            string[] fields = text.Split(' ', StringSplitOptions.RemoveEmptyEntries);
-            if (fields.Length != expected) throw new FormatException($"line {line}: {fields.Length} numbers, expected {expected}");
+            if (at >= text.Length) throw new FormatException($"line {line}: the file ends early");
+            int end = text.IndexOf('\n', at);
+            if (end < 0) end = text.Length;
+            ReadOnlySpan<char> rest = text.AsSpan(at, end - at).TrimEnd('\r');
+            at = end + 1;
             var values = new double[expected];
-            for (int i = 0; i < expected; i++)
+            int count = 0;
+            while (true)
             {
-                if (!double.TryParse(fields[i], NumberStyles.Float, CultureInfo.InvariantCulture, out values[i]) || !double.IsFinite(values[i]))
+                rest = rest.TrimStart(' ');
+                if (rest.IsEmpty) break;
+                int space = rest.IndexOf(' ');
+                ReadOnlySpan<char> field = space < 0 ? rest : rest[..space];
+                rest = space < 0 ? [] : rest[space..];
+                if (count < expected && (!double.TryParse(field, NumberStyles.Float, CultureInfo.InvariantCulture, out values[count]) || !double.IsFinite(values[count])))
                 {
-                    throw new FormatException($"line {line}, field {i + 1}: '{fields[i]}' is not a finite number");
+                    throw new FormatException($"line {line}, field {count + 1}: '{field}' is not a finite number");
                 }
+
+                count++;
             }
 
+            if (count != expected) throw new FormatException($"line {line}: {count} numbers, expected {expected}");
             return values;
         }
 
@@ -93,7 +105,7 @@ public static class WindowFileSolver
             for (int i = 0; i < v.Coordinates.Count; i++)
             {
                 if (i > 0) b.Append(' ');
-                b.Append(v.Coordinates[i].ToString("R", CultureInfo.InvariantCulture));
+                b.Append(CultureInfo.InvariantCulture, $"{v.Coordinates[i]:R}");
             }
 
             b.Append('\n');

@@ -2,7 +2,7 @@ namespace Hull.Core.Windows;
 
 /// <summary>
 /// The working state of <see cref="VertexEnumeration"/>: vertices with sorted tight-constraint ids, the edge graph,
-/// and the constraint rows (unit normals) by id. Mutable, for one enumeration only.
+/// and the constraint rows (unit normals). Mutable, for one enumeration only.
 /// </summary>
 internal sealed class DoubleDescription
 {
@@ -10,32 +10,25 @@ internal sealed class DoubleDescription
     private readonly List<double[]> _rows;
     private readonly List<double> _rhs;
     private readonly List<int> _ids;
-    private readonly Dictionary<int, double[]> _rowById = new();
     private readonly List<double[]> _coords = new();
     private readonly List<int[]> _tight = new();
     private readonly List<List<int>> _adjacent = new();
     private readonly List<bool> _alive = new();
     private List<int> _live = new();
-    private double[] _rankBuffer = [];
+    private List<int> _spareLive = new();
+    private readonly List<int> _negative = new();
+    private readonly List<int> _zero = new();
     private double[] _slack = [];
+
+    private readonly Predicate<int> _isDead;
 
     public DoubleDescription(int d, double[] lower, double[] upper, int[] boxIds, List<double[]> rows, List<double> rhs, List<int> ids)
     {
         _d = d;
+        _isDead = v => !_alive[v];
         _rows = rows;
         _rhs = rhs;
         _ids = ids;
-        for (int k = 0; k < rows.Count; k++) _rowById[ids[k]] = rows[k];
-        for (int f = 0; f < d; f++)
-        {
-            var down = new double[d];
-            down[f] = -1;
-            var up = new double[d];
-            up[f] = 1;
-            _rowById[boxIds[2 * f]] = down;
-            _rowById[boxIds[2 * f + 1]] = up;
-        }
-
         // The box: vertex b has coordinate f at its upper bound when bit f of b is set; edges flip one bit.
         int count = 1 << d;
         for (int b = 0; b < count; b++)
@@ -89,8 +82,10 @@ internal sealed class DoubleDescription
         int id = _ids[k];
         if (_slack.Length < _coords.Count) _slack = new double[Math.Max(_coords.Count * 2, 64)];
         double[] slack = _slack;
-        var negative = new List<int>();
-        var zero = new List<int>();
+        // Scratch lists kept across cuts: most cuts of a window are redundant and should allocate nothing.
+        List<int> negative = _negative, zero = _zero;
+        negative.Clear();
+        zero.Clear();
         bool anyPositive = false;
         foreach (int v in _live)
         {
@@ -131,66 +126,64 @@ internal sealed class DoubleDescription
         }
 
         foreach (int u in negative) _alive[u] = false;
-        foreach (int z in zero) _adjacent[z].RemoveAll(v => !_alive[v]);
-        for (int i = 0; i < face.Count; i++)
-        {
-            for (int j = i + 1; j < face.Count; j++)
-            {
-                int p = face[i], q = face[j];
-                if (_adjacent[p].Contains(q) || !AreAdjacent(_tight[p], _tight[q])) continue;
-                _adjacent[p].Add(q);
-                _adjacent[q].Add(p);
-            }
-        }
+        foreach (int z in zero) _adjacent[z].RemoveAll(_isDead);
+        JoinFace(face);
 
-        var live = new List<int>(_live.Count + face.Count);
+        List<int> live = _spareLive;
+        live.Clear();
         foreach (int v in _live) if (_alive[v]) live.Add(v);
         for (int i = zero.Count; i < face.Count; i++) live.Add(face[i]);
+        _spareLive = _live;
         _live = live;
         return true;
     }
 
     /// <summary>
-    /// The algebraic adjacency test: the constraints tight at both vertices have rank d − 1. Rows are taken into an
-    /// orthonormal basis one at a time and the test stops as soon as d − 1 independent ones are found (rank d would
-    /// mean the two vertices coincide, which distinct vertices cannot).
+    /// Joins the vertices of the new face by the combinatorial adjacency test: two vertices are adjacent exactly when
+    /// no third vertex is tight on every constraint tight at both (the smallest face holding both then has no other
+    /// vertex, so it is an edge). Only vertices of the new face can hold that set, as it contains the cut. Tight sets
+    /// are decided combinatorially (see <see cref="VertexEnumeration"/>), so this needs no floating-point rank.
     /// </summary>
-    private bool AreAdjacent(int[] a, int[] b)
+    private void JoinFace(List<int> face)
     {
         int need = _d - 1;
-        if (need == 0) return true;
-        int count = IntersectInto(a, b, ref _common);
-        if (count < need) return false;
-        if (_rankBuffer.Length < need * _d) _rankBuffer = new double[need * _d];
-        Span<double> basis = _rankBuffer.AsSpan(0, need * _d);
-        Span<double> v = stackalloc double[_d];
-        int rank = 0;
-        for (int r = 0; r < count && rank < need; r++)
+        for (int i = 0; i < face.Count; i++)
         {
-            // Not enough rows left to reach d − 1: stop early.
-            if (count - r < need - rank) return false;
-            _rowById[_common[r]].CopyTo(v);
-            for (int pass = 0; pass < 2; pass++)
+            int p = face[i];
+            int[] tp = _tight[p];
+            for (int j = i + 1; j < face.Count; j++)
             {
-                for (int e = 0; e < rank; e++)
+                int q = face[j];
+                int count = IntersectInto(tp, _tight[q], ref _common);
+                if (count < need || _adjacent[p].Contains(q)) continue;
+                bool edge = true;
+                for (int k = 0; k < face.Count && edge; k++)
                 {
-                    Span<double> be = basis.Slice(e * _d, _d);
-                    double dot = 0;
-                    for (int f = 0; f < _d; f++) dot += v[f] * be[f];
-                    for (int f = 0; f < _d; f++) v[f] -= dot * be[f];
+                    if (k == i || k == j) continue;
+                    int[] tr = _tight[face[k]];
+                    if (tr.Length >= count && Contains(tr, _common, count)) edge = false;
                 }
-            }
 
-            double norm = 0;
-            for (int f = 0; f < _d; f++) norm += v[f] * v[f];
-            norm = Math.Sqrt(norm);
-            if (norm <= PolytopeTolerances.RankPivot) continue;
-            Span<double> target = basis.Slice(rank * _d, _d);
-            for (int f = 0; f < _d; f++) target[f] = v[f] / norm;
-            rank++;
+                if (!edge) continue;
+                _adjacent[p].Add(q);
+                _adjacent[q].Add(p);
+            }
+        }
+    }
+
+    /// <summary>Whether the sorted set <paramref name="outer"/> holds the first <paramref name="count"/> ids of the sorted <paramref name="inner"/>.</summary>
+    private static bool Contains(int[] outer, int[] inner, int count)
+    {
+        int i = 0;
+        for (int c = 0; c < count; c++)
+        {
+            int id = inner[c];
+            while (i < outer.Length && outer[i] < id) i++;
+            if (i == outer.Length || outer[i] != id) return false;
+            i++;
         }
 
-        return rank == need;
+        return true;
     }
 
     private int[] _common = new int[16];

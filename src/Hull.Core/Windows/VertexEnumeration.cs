@@ -4,8 +4,8 @@ namespace Hull.Core.Windows;
 /// Vertex enumeration of a bounded polytope by the double description method: start from the box of the free
 /// coordinates and cut it by one half-space at a time, keeping every vertex with the set of constraints tight
 /// there and the edge graph. A cut keeps the vertices on its side, adds one vertex on every edge it crosses, and
-/// joins the vertices of the new face by the algebraic adjacency test (two vertices are adjacent exactly when the
-/// constraints tight at both have rank one less than the dimension).
+/// joins the vertices of the new face by the combinatorial adjacency test (two vertices are adjacent exactly when no
+/// third vertex is tight on every constraint tight at both).
 /// </summary>
 /// <remarks>
 /// Degenerate input — many constraints through one vertex — is the normal case and needs no perturbation: a vertex
