@@ -152,5 +152,17 @@ public sealed class HullAxis
             sampleIndex);
     }
 
+    /// <summary>Formation energy per atom of entries corrected by the set <paramref name="setLabel"/> names ("name v2").</summary>
+    /// <exception cref="ThermoInputException">When the label is blank.</exception>
+    public static HullAxis CorrectedFormationEnergy(string setLabel)
+    {
+        if (string.IsNullOrWhiteSpace(setLabel))
+        {
+            throw new ThermoInputException("A corrected-energy axis needs the correction set's name.");
+        }
+
+        return new HullAxis(HullAxisQuantity.CorrectedFormationEnergy, $"formation energy (corrections: {setLabel})", AtomNormalisation.PerAtom, [], null, null);
+    }
+
     public override string ToString() => $"{DisplayName} [{Unit}]";
 }

@@ -14,4 +14,7 @@ public enum HullAxisQuantity
 
     /// <summary>One sample of an energy drawn from its uncertainty (one member of an ensemble).</summary>
     SampledEnergy,
+
+    /// <summary>Formation energy of entries after a named correction set (fitted references, shifts, method rules).</summary>
+    CorrectedFormationEnergy,
 }
