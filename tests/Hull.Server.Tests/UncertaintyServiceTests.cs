@@ -77,6 +77,47 @@ public sealed class UncertaintyServiceTests
     }
 
     [Fact]
+    public async Task A_long_sampling_call_ends_at_its_deadline_or_cancel_and_the_server_answers_the_next_call()
+    {
+        await using var s = await RunningServer.StartAsync();
+        // 300 invented Li–Co–O entries with σ: 60,000 samples are minutes of work, far past the short deadline.
+        var random = new Random(5);
+        var entries = new List<Entry>(Data.LiCoO());
+        for (int i = 0; i < 300; i++)
+        {
+            entries.Add(WithSigma(Data.Formation($"r{i}", $"Li{random.Next(1, 9)}Co{random.Next(1, 9)}O{random.Next(1, 9)}", -1.8 + random.NextDouble()), 0.02));
+        }
+
+        await Data.CreateWithAsync(s.Clients, "big", [.. entries]);
+        var large = new SampleStabilityRequest { Dataset = "big", ChemicalSystem = "Co-Li-O", Samples = 60_000, Seed = 3 };
+        var late = await Assert.ThrowsAsync<RpcException>(() =>
+            s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call(TimeSpan.FromMilliseconds(300))).ResponseAsync);
+        Assert.Equal(StatusCode.DeadlineExceeded, late.StatusCode);
+
+        using var cancel = new CancellationTokenSource(TimeSpan.FromMilliseconds(300));
+        var cancelled = await Assert.ThrowsAsync<RpcException>(() =>
+            s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call().WithCancellationToken(cancel.Token)).ResponseAsync);
+        Assert.Equal(StatusCode.Cancelled, cancelled.StatusCode);
+
+        // Both stopped their sampling (not merely their reply): no call is sampling, neither ran to its end.
+        for (int wait = 0; wait < 1200 && s.Server.Sampling.Running > 0; wait++)
+        {
+            await Task.Delay(100);
+        }
+
+        Assert.Equal(0, s.Server.Sampling.Running);
+        Assert.Equal(2, s.Server.Sampling.Stopped);
+        Assert.Equal(0, s.Server.Sampling.Finished);
+
+        // The same system, a short request: answered in full.
+        var small = new SampleStabilityRequest { Dataset = "big", ChemicalSystem = "Co-Li-O", Samples = 50, Seed = 3 };
+        SampleStabilityResponse answer = await s.Clients.Uncertainty.SampleStabilityAsync(small, s.Clients.Call());
+        Assert.Equal(50, answer.SampleCount);
+        Assert.Equal(entries.Count, answer.Entries.Count);
+        Assert.Equal(1, s.Server.Sampling.Finished);
+    }
+
+    [Fact]
     public async Task Bad_uncertainty_and_sampling_requests_are_refused_naming_the_field()
     {
         await using var s = await RunningServer.StartAsync();

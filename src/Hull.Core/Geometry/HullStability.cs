@@ -54,6 +54,16 @@ public static class HullStability
     public static IHullStability Build(long[] amountsRowMajor, int componentCount, IReadOnlyList<double> energiesEvPerAtom) =>
         Build(HullInput.Check(amountsRowMajor, componentCount, energiesEvPerAtom), onDemand: false);
 
+    /// <summary>
+    /// As <see cref="Build(HullInput, bool)"/> (not on demand) for a point set like the one <paramref name="like"/>
+    /// was built from (the same compositions at other energies, such as one sample of uncertain energies): where
+    /// that one's facets exploded, straight to the program engine, without trying the incremental hull again.
+    /// </summary>
+    internal static IHullStability BuildLike(HullInput input, IHullStability like) =>
+        like is LinearProgramHull && input.ComponentCount <= LinearProgramHull.MaxComponents
+            ? LinearProgramHull.Prepare(input, onDemand: false)
+            : Build(input, onDemand: false);
+
     /// <summary>As the public overload; on demand, the program engine solves compositions when asked (one thread only).</summary>
     internal static IHullStability Build(HullInput input, bool onDemand)
     {

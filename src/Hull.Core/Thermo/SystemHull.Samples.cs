@@ -13,7 +13,8 @@ public sealed partial class SystemHull
     /// The hull over the points <paramref name="keptPoints"/> (canonical indices, ascending, every pure-component
     /// point among them) at the energies <paramref name="axisEnergyByPoint"/> (indexed as this hull's points), on
     /// <paramref name="axis"/>. The kept points stay in canonical order, so the new hull's point k is this hull's
-    /// point keptPoints[k].
+    /// point keptPoints[k]. The engine is the one this hull ended up with (a sample moves energies by error bars,
+    /// so where this hull's facets exploded a sample's would too).
     /// </summary>
     internal SystemHull Resampled(HullAxis axis, int[] keptPoints, double[] axisEnergyByPoint)
     {
@@ -24,7 +25,7 @@ public sealed partial class SystemHull
             points[k] = _points[i].WithAxisEnergy(axisEnergyByPoint[i]);
         }
 
-        return new SystemHull(axis, _space, points, References);
+        return new SystemHull(axis, _space, points, References, onDemand: false, engineLike: _hull);
     }
 
     /// <summary>Whether the point at canonical index <paramref name="i"/> is a hull vertex.</summary>

@@ -165,7 +165,11 @@ public sealed partial class SystemHull
     /// <param name="references">The elemental references used.</param>
     /// <param name="onDemand">Work out each point's stability when first asked (a dataset's hull reports only some of
     /// its points); such a hull is for one thread only.</param>
-    internal SystemHull(HullAxis axis, ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references, bool onDemand = false)
+    /// <param name="engineLike">The engine of a hull over the same compositions at other energies (a sample's
+    /// plain hull), whose choice of engine this one follows; null to choose afresh.</param>
+    internal SystemHull(
+        HullAxis axis, ComponentSpace space, HullPoint[] points, IReadOnlyList<ElementReference> references, bool onDemand = false,
+        IHullStability? engineLike = null)
     {
         _axis = axis;
         _space = space;
@@ -184,7 +188,7 @@ public sealed partial class SystemHull
         }
 
         var input = HullInput.Check(amounts, energies);
-        _hull = HullStability.Build(input, onDemand);
+        _hull = engineLike is null ? HullStability.Build(input, onDemand) : HullStability.BuildLike(input, engineLike);
         // Facets are built on first use only: in many components they outnumber the points by far, and stability
         // does not need them.
         _facetHull = new Lazy<LowerHull>(() => _hull as LowerHull ?? LowerHull.Build(input));

@@ -57,6 +57,9 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>The hull cache (for in-process callers such as tests).</summary>
     public HullCache Cache => _app.Services.GetRequiredService<HullCache>();
 
+    /// <summary>Stability-sampling calls under way and how past ones ended (for in-process callers such as tests).</summary>
+    public Services.SamplingActivity Sampling => _app.Services.GetRequiredService<Services.SamplingActivity>();
+
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
     /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
@@ -144,6 +147,7 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton<CompoundResolution>();
         builder.Services.AddSingleton<ImportGate>();
         builder.Services.AddSingleton<Defects.DefectStudyCache>();
+        builder.Services.AddSingleton<Services.SamplingActivity>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
         builder.Services.AddHostedService<ImportSessionSweeper>();
         // Never more than half the cache, so that warming cannot evict what queries need.

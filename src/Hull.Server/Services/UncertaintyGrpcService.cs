@@ -12,9 +12,11 @@ namespace Hull.Server.Services;
 
 /// <summary>
 /// Stability under energy uncertainty: the system's hull from the cache (the same one the stability calls answer
-/// from), the stored σ and groups of the version, the group σ of the request, and Core's sampling.
+/// from), the stored σ and groups of the version, the group σ of the request, and Core's sampling. The call's
+/// cancellation (the caller's cancel or deadline) stops the sampling between samples, answered CANCELLED or
+/// DEADLINE_EXCEEDED.
 /// </summary>
-public sealed class UncertaintyGrpcService(VersionResolver versions, HullCache cache) : UncertaintyService.UncertaintyServiceBase
+public sealed class UncertaintyGrpcService(VersionResolver versions, HullCache cache, SamplingActivity activity) : UncertaintyService.UncertaintyServiceBase
 {
     /// <summary>Samples when the request gives neither a count nor a target.</summary>
     public const int DefaultSamples = 1_000;
@@ -81,8 +83,9 @@ public sealed class UncertaintyGrpcService(VersionResolver versions, HullCache c
         CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
         try
         {
-            StabilitySamplingResult result = await Task.Run(
-                () => StabilitySampling.Run(hull.Hull, snapshot.Uncertainties, groups, plan), context.CancellationToken);
+            StabilitySamplingResult result = await activity.RunAsync(
+                token => StabilitySampling.Run(hull.Hull, snapshot.Uncertainties, groups, plan, cancellation: token),
+                context.CancellationToken);
             return (result, hull, resolved);
         }
         catch (ThermoInputException e)

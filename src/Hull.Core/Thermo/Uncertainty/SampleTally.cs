@@ -39,11 +39,15 @@ internal sealed class SampleTally
     /// <summary>Samples recorded so far (0 .. Count − 1).</summary>
     public int Count { get; private set; }
 
-    /// <summary>Draws samples <paramref name="first"/> .. first + count − 1 on up to <paramref name="threads"/> threads.</summary>
-    public void Run(SamplingSetup setup, ulong seed, int first, int count, int threads)
+    /// <summary>
+    /// Draws samples <paramref name="first"/> .. first + count − 1 on up to <paramref name="threads"/> threads. The
+    /// loop checks <paramref name="cancellation"/> before each sample and, once cancelled, throws after the samples
+    /// under way have finished (none is left running).
+    /// </summary>
+    public void Run(SamplingSetup setup, ulong seed, int first, int count, int threads, CancellationToken cancellation)
     {
         Grow(first + count);
-        Parallel.For(first, first + count, new ParallelOptions { MaxDegreeOfParallelism = threads },
+        Parallel.For(first, first + count, new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = cancellation },
             s => StabilitySampling.SampleOne(setup, seed, s, this, s));
         for (int e = 0; e < _entries; e++)
         {

@@ -34,15 +34,20 @@ public static class StabilitySampling
     /// <param name="groups">σ of every correlation group an entry names.</param>
     /// <param name="plan">Seed and number of samples.</param>
     /// <param name="maxThreads">Threads to use; 0 for every core.</param>
+    /// <param name="cancellation">Checked before every sample: once it is cancelled no new sample starts, the
+    /// samples under way finish, and the call throws.</param>
     /// <exception cref="ThermoInputException">A hull on another axis, an entry's uncertainty given twice, a group
     /// without σ, or a request past the work limits (<see cref="SamplingLimits"/>).</exception>
+    /// <exception cref="OperationCanceledException"><paramref name="cancellation"/> was cancelled; no thread of the
+    /// call is still sampling when this is thrown.</exception>
     public static StabilitySamplingResult Run(
         SystemHull plain,
         IReadOnlyList<EnergyUncertainty> uncertainties,
         IReadOnlyList<CorrelationGroup> groups,
         SamplingPlan plan,
-        int maxThreads = 0) =>
-        Run(plain, uncertainties, groups, plan, maxThreads, rebuildAll: false);
+        int maxThreads = 0,
+        CancellationToken cancellation = default) =>
+        Run(plain, uncertainties, groups, plan, maxThreads, rebuildAll: false, cancellation);
 
     /// <summary>As the public overload; <paramref name="rebuildAll"/> rebuilds every sample's hull over every entry
     /// (no reuse of the plain hull), the check on the reuse.</summary>
@@ -52,7 +57,8 @@ public static class StabilitySampling
         IReadOnlyList<CorrelationGroup> groups,
         SamplingPlan plan,
         int maxThreads,
-        bool rebuildAll)
+        bool rebuildAll,
+        CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(plain);
         ArgumentNullException.ThrowIfNull(uncertainties);
@@ -64,6 +70,7 @@ public static class StabilitySampling
                 $"Stability sampling draws formation energies; the hull of {plain.SystemName} is over {plain.Axis.DisplayName}.");
         }
 
+        cancellation.ThrowIfCancellationRequested();
         var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll);
         int entryCount = setup.EntryPoints.Length;
         long perSample = Math.Max(1, entryCount);
@@ -81,7 +88,7 @@ public static class StabilitySampling
         SamplingStopReason reason;
         if (plan.SampleCount is { } count)
         {
-            tally.Run(setup, plan.Seed, 0, count, threads);
+            tally.Run(setup, plan.Seed, 0, count, threads, cancellation);
             reason = SamplingStopReason.SampleCountReached;
         }
         else
@@ -91,7 +98,7 @@ public static class StabilitySampling
             while (tally.Count < limit)
             {
                 int batch = Math.Min(SamplingPlan.BatchSize, limit - tally.Count);
-                tally.Run(setup, plan.Seed, tally.Count, batch, threads);
+                tally.Run(setup, plan.Seed, tally.Count, batch, threads, cancellation);
                 if (tally.Count >= 2 && tally.LargestVertexStandardError() <= target)
                 {
                     reason = SamplingStopReason.TargetReached;

@@ -199,6 +199,37 @@ public sealed class StabilitySamplingTests
     }
 
     [Fact]
+    public void A_cancelled_run_stops_between_samples_and_throws()
+    {
+        SystemHull plain = Ternary();
+        var uncertainties = plain.Entries.Select(e => new EnergyUncertainty(e.Id, 0.03)).ToArray();
+        using var before = new CancellationTokenSource();
+        before.Cancel();
+        Assert.ThrowsAny<OperationCanceledException>(() =>
+            StabilitySampling.Run(plain, uncertainties, [], SamplingPlan.Fixed(1000, 1), 2, before.Token));
+
+        // A run of minutes (5e4 samples of 300 entries, invented energies) cancelled while it samples; fixed and
+        // target plans alike. The call returns only once its threads are done.
+        var random = new Random(11);
+        PhaseEntry[] many = [.. TernaryEntries(), .. Enumerable.Range(0, 288).Select(k =>
+            Formation($"r{k}", $"Li{random.Next(1, 9)}Co{random.Next(1, 9)}O{random.Next(1, 9)}", -1.8 + random.NextDouble()))];
+        SystemHull big = SystemHull.OverElements(many);
+        var sigmas = big.Entries.Select(e => new EnergyUncertainty(e.Id, 0.02)).ToArray();
+        foreach (SamplingPlan plan in new[] { SamplingPlan.Fixed(50_000, 2), SamplingPlan.ToTarget(1e-4, 2) })
+        {
+            using var during = new CancellationTokenSource(TimeSpan.FromMilliseconds(50));
+            Assert.ThrowsAny<OperationCanceledException>(() => StabilitySampling.Run(big, sigmas, [], plan, 2, during.Token));
+        }
+
+        // An uncancelled token changes nothing.
+        var plainRun = StabilitySampling.Run(plain, uncertainties, [], SamplingPlan.Fixed(200, 4), 2);
+        var withToken = StabilitySampling.Run(plain, uncertainties, [], SamplingPlan.Fixed(200, 4), 2, CancellationToken.None);
+        Assert.Equal(
+            plainRun.Entries.Select(e => (e.VertexProbability, e.MeanEnergyAboveHullEvPerAtom, e.EnergyAboveHullP95EvPerAtom)),
+            withToken.Entries.Select(e => (e.VertexProbability, e.MeanEnergyAboveHullEvPerAtom, e.EnergyAboveHullP95EvPerAtom)));
+    }
+
+    [Fact]
     public void Bad_input_is_refused_naming_what_and_where()
     {
         var e1 = Assert.Throws<ThermoInputException>(() => new EnergyUncertainty("AB", -0.1));
