@@ -1,4 +1,5 @@
 using Hull.Server.Curation;
+using Hull.Server.Tests.Support;
 using Hull.Store;
 
 namespace Hull.Server.Tests;
@@ -76,6 +77,32 @@ public sealed class CurationRecipeTests
         CurationRun again = CurationRun.Apply(CurationRecipe.Parse(written), Rows);
         Assert.Equal(ContentFingerprint.Compute(first.Rows), ContentFingerprint.Compute(again.Rows));
         Assert.Equal(written, CurationRecipe.Parse(written).ToJson());
+    }
+
+    [Fact]
+    public void A_derived_version_written_twice_from_its_recipe_has_one_fingerprint()
+    {
+        // Both derivations read the stored source version back (not the rows above), as a re-run from a record would.
+        using var folder = new TempFolder();
+        using var store = DatasetStore.Open(folder.Path);
+        store.CreateDataset("raw");
+        store.ImportBatch("raw", Rows, DuplicatePolicy.Reject, BatchProvenance.None);
+        CurationRecipe recipe = CurationRecipe.Parse("""
+            {"recipe_schema": 1, "steps": [{"kind": "drop_source", "source": "lab-a"}, {"kind": "drop_above_hull", "max_ev_per_atom": 0.05}]}
+            """);
+        string[] fingerprints = new string[2];
+        for (int i = 0; i < 2; i++)
+        {
+            string name = $"curated-{i}";
+            store.CreateDataset(name);
+            CurationRun run = CurationRun.Apply(CurationRecipe.Parse(recipe.ToJson()), store.GetEntries("raw", 1));
+            store.ImportBatch(name, run.Rows, DuplicatePolicy.Reject, new BatchProvenance("raw@1", recipe.ToString()));
+            fingerprints[i] = store.GetFingerprint(name, 1);
+        }
+        Assert.Equal(fingerprints[0], fingerprints[1]);
+        Assert.NotEqual(store.GetFingerprint("raw", 1), fingerprints[0]);
+        // Without lab-a, Li4O2 (-1.9) is the Li-O hull's only compound, so Li2O2 (-1.2 against -1.425) goes.
+        Assert.Equal(["fe", "li", "li2o-b", "o"], store.GetEntries("curated-0", 1).Select(r => r.Id).Order(StringComparer.Ordinal));
     }
 
     [Theory]
