@@ -13,7 +13,7 @@ namespace Hull.Server.Cluster;
 internal static class ClusteredHullEnergies
 {
     public static async Task<GetHullEnergiesResponse> AnswerAsync(
-        IGrainFactory grains, GetHullEnergiesRequest request, IReadOnlyList<Composition> compositions, VersionSnapshot snapshot,
+        IGrainFactory grains, HullCache cache, GetHullEnergiesRequest request, IReadOnlyList<Composition> compositions, VersionSnapshot snapshot,
         ElementalReferenceList references)
     {
         var bySystem = new SortedDictionary<string, List<int>>(StringComparer.Ordinal);
@@ -27,6 +27,8 @@ internal static class ClusteredHullEnergies
         var calls = new List<(List<int> Rows, Task<byte[]> Answer)>();
         foreach ((string system, List<int> rows) in bySystem)
         {
+            // Refused here, as a lone server refuses it, rather than as a peer's failure.
+            cache.CheckSystemLimits(snapshot, compositions[rows[0]].Elements, system);
             var part = new GetHullEnergiesRequest { Dataset = snapshot.Version.Dataset, Version = snapshot.Version.Version };
             part.ElementalReferences.AddRange(request.ElementalReferences);
             part.Formulas.AddRange(rows.Select(i => request.Formulas[i]));

@@ -156,7 +156,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             return (await HullEnergies.AnswerAsync(request, snapshot, cache, null, context.CancellationToken)).Response;
         }
 
-        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, request, compositions!, snapshot, references);
+        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references);
     }
 
     public override async Task<GetStablePhasesResponse> GetStablePhases(GetStablePhasesRequest request, ServerCallContext context)
