@@ -116,7 +116,8 @@ public sealed class HullCache
         }, hit: null, cancellation);
     }
 
-    private void CheckSystemLimits(VersionSnapshot snapshot, IReadOnlyList<string> elements, string system)
+    /// <summary>RESOURCE_EXHAUSTED when the system is past the component or entry limit (a cluster checks before it asks a peer).</summary>
+    internal void CheckSystemLimits(VersionSnapshot snapshot, IReadOnlyList<string> elements, string system)
     {
         if (elements.Count > _limits.MaxComponentsPerSystem)
         {

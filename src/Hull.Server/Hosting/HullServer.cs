@@ -60,6 +60,9 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>Stability-sampling calls under way and how past ones ended (for in-process callers such as tests).</summary>
     public Services.SamplingActivity Sampling => _app.Services.GetRequiredService<Services.SamplingActivity>();
 
+    /// <summary>This server's counters as a cluster member (for in-process callers such as tests).</summary>
+    public Cluster.ClusterCounters ClusterCounters => _app.Services.GetRequiredService<Cluster.ClusterCounters>();
+
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
     /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
@@ -144,6 +147,12 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddSingleton(new CacheSettings(options.MaxCachedHulls));
         builder.Services.AddSingleton<VersionResolver>();
         builder.Services.AddSingleton<HullCache>();
+        builder.Services.AddSingleton<Cluster.ClusterCounters>();
+        if (options.Cluster is { } cluster)
+        {
+            Cluster.ClusterHosting.Join(builder, cluster);
+        }
+
         builder.Services.AddSingleton<CompoundResolution>();
         builder.Services.AddSingleton<ImportGate>();
         builder.Services.AddSingleton<Defects.DefectStudyCache>();

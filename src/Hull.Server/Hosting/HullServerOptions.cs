@@ -54,6 +54,10 @@ public sealed record HullServerOptions
     /// <summary>How long an import session waits for its next call before it lapses (see <see cref="ImportSessionSettings"/>).</summary>
     public TimeSpan ImportIdleExpiry { get; init; } = ImportSessionSettings.DefaultIdleExpiry;
 
+    /// <summary>Join a cluster of servers that share hull work (see README, "Running a cluster"); null, the default:
+    /// the server works alone.</summary>
+    public Cluster.ClusterSettings? Cluster { get; init; }
+
     /// <summary>Least severe log level written (JSON lines on stderr).</summary>
     public LogLevel MinimumLogLevel { get; init; } = LogLevel.Information;
 }

@@ -15,7 +15,7 @@ namespace Hull.Server.Services;
 /// The stability service: checks each request, resolves the dataset version, takes the needed hulls from the
 /// cache and translates the science layer's results. Every answer names the version it used.
 /// </summary>
-public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits)
+public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits, Orleans.IGrainFactory? grains = null)
     : StabilityService.StabilityServiceBase
 {
     public override async Task<GetEntryStabilityResponse> GetEntryStability(GetEntryStabilityRequest request, ServerCallContext context)
@@ -151,26 +151,12 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         ThrowIfAny(violations);
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        var response = new GetHullEnergiesResponse { Used = WireMapping.ToWire(snapshot.Version) };
-        var used = new HullsUsed();
-        for (int i = 0; i < compositions.Length; i++)
+        if (grains is null)
         {
-            Composition composition = compositions[i]!;
-            CachedHull hull = await cache.GetHullAsync(snapshot, composition.Elements, context.CancellationToken, references);
-            used.Add(hull);
-            Core.Thermo.Decomposition decomposition = hull.Hull.DecompositionAt(composition);
-            response.Results.Add(new HullEnergyResult
-            {
-                Formula = request.Formulas[i],
-                ChemicalSystem = hull.Hull.SystemName,
-                HullEnergyEvPerAtom = decomposition.HullEnergyEvPerAtom,
-                Decomposition = WireMapping.ToWire(decomposition),
-            });
+            return (await HullEnergies.AnswerAsync(request, snapshot, cache, null, context.CancellationToken)).Response;
         }
 
-        response.Coverage.AddRange(used.Coverage);
-        response.References.AddRange(used.References);
-        return response;
+        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references);
     }
 
     public override async Task<GetStablePhasesResponse> GetStablePhases(GetStablePhasesRequest request, ServerCallContext context)
@@ -376,7 +362,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
     /// the first reference of a symbol kept). Most answers use one hull and no reference of their own: those take the
     /// hull's ready wire lists without building anything.
     /// </summary>
-    private sealed class HullsUsed
+    internal sealed class HullsUsed
     {
         private CachedHull? _only;
         private SortedDictionary<string, Protos.V1.SystemCoverage>? _coverage;
