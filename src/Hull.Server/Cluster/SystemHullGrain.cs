@@ -2,6 +2,7 @@ using Google.Protobuf;
 using Hull.Protos.V1;
 using Hull.Server.Caching;
 using Hull.Server.Services;
+using Hull.Server.Validation;
 
 namespace Hull.Server.Cluster;
 
@@ -23,7 +24,8 @@ public sealed class SystemHullGrain(HullCache cache, ClusterCounters counters) :
             counters.CountGrainHullBuild();
         }
 
-        (GetHullEnergiesResponse response, _hull) = await HullEnergies.AnswerAsync(parsed, snapshot, cache, _hull, CancellationToken.None);
+        (GetHullEnergiesResponse response, _hull) = await HullEnergies.AnswerAsync(
+            parsed, HullEnergies.ParseChecked(parsed), ElementalReferenceList.Parse(parsed.ElementalReferences), snapshot, cache, _hull, CancellationToken.None);
         return response.ToByteArray();
     }
 }

@@ -153,7 +153,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
         if (grains is null)
         {
-            return (await HullEnergies.AnswerAsync(request, snapshot, cache, null, context.CancellationToken)).Response;
+            return (await HullEnergies.AnswerAsync(request, compositions!, references, snapshot, cache, null, context.CancellationToken)).Response;
         }
 
         return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references);
