@@ -56,6 +56,14 @@ internal static class BatchValidator
                 }
                 CheckText(i, row.Id, nameof(EntryRow.CorrelationGroup), row.CorrelationGroup);
             }
+            if (row.Method is not null)
+            {
+                if (string.IsNullOrWhiteSpace(row.Method))
+                {
+                    throw new InvalidBatchException($"row {i} (id '{row.Id}'): Method is blank; leave it out or name the method", i, row.Id, nameof(EntryRow.Method));
+                }
+                CheckText(i, row.Id, nameof(EntryRow.Method), row.Method);
+            }
 
             if (!firstIndexById.TryAdd(row.Id, i))
             {

@@ -14,9 +14,10 @@ namespace Hull.Store;
 /// (1: standard entropy, 2: G(T) table), the model's formula text, and either the entropy's bits or the anchor token,
 /// a 4-byte little-endian point count and each point's temperature and free-energy bits. A row with an energy
 /// uncertainty or a correlation group then (after the model, when it has both) adds the byte 'u', the σ's bits (NaN
-/// bits when none) and the group's text (empty when none). A row with neither adds nothing, so every version without
-/// models and uncertainties keeps the fingerprint it had before they existed (and the prefix stays), and a row with
-/// only one of them keeps the layout it had before the other existed. Persisted fingerprints depend on this layout:
+/// bits when none) and the group's text (empty when none). A row with a method tag then adds the marker FE FF FF FF
+/// (-2, again no text length) and the tag's text. A row with none of these adds nothing, so every version without
+/// models, uncertainties and method tags keeps the fingerprint it had before they existed (and the prefix stays), and a
+/// row without a later addition keeps the layout it had before that addition existed. Persisted fingerprints depend on this layout:
 /// change it only together with the prefix and a schema migration that clears stored fingerprints.
 /// </summary>
 public static class ContentFingerprint
@@ -40,6 +41,8 @@ public static class ContentFingerprint
     {
         // Where a row's temperature model begins: -1 where a text length would stand, which no text can have.
         private const int ModelMarker = -1;
+        // Where a row's method tag begins, likewise.
+        private const int MethodMarker = -2;
         private const byte StandardEntropyKind = 1;
         private const byte FreeEnergyTableKind = 2;
 
@@ -70,6 +73,13 @@ public static class ContentFingerprint
                 BinaryPrimitives.WriteInt64LittleEndian(_buffer.AsSpan(length), BitConverter.DoubleToInt64Bits((row.SigmaEvPerAtom ?? double.NaN) + 0.0));
                 length += 8;
                 WriteText(row.CorrelationGroup ?? string.Empty, ref length);
+            }
+            if (row.Method is { } method)
+            {
+                Ensure(length + 4);
+                BinaryPrimitives.WriteInt32LittleEndian(_buffer.AsSpan(length), MethodMarker);
+                length += 4;
+                WriteText(method, ref length);
             }
             _hash.AppendData(_buffer, 0, length);
         }

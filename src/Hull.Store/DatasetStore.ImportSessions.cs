@@ -51,7 +51,8 @@ public sealed partial class DatasetStore
                     energy_basis TEXT NOT NULL,
                     metadata     TEXT NOT NULL,
                     {TemperatureModelColumns.StagingDefinitions},
-                    {UncertaintyColumns.StagingDefinitions}
+                    {UncertaintyColumns.StagingDefinitions},
+                    {MethodColumn.StagingDefinition}
                 )
                 """);
             create.ExecuteNonQuery();
@@ -78,9 +79,10 @@ public sealed partial class DatasetStore
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
             TemperatureModelColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
             UncertaintyColumns.EnsureStagingColumns(connection, transaction, StagingTable(session.Key));
+            MethodColumn.EnsureStagingColumn(connection, transaction, StagingTable(session.Key));
             using SqliteCommand insert = connection.Command(transaction, $"""
-                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {UncertaintyColumns.Names})
-                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points, $sigma, $group)
+                INSERT INTO {StagingTable(session.Key)} (entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {UncertaintyColumns.Names}, {MethodColumn.Name})
+                VALUES ($id, $formula, $energy, $basis, $metadata, $model_formula, $entropy, $anchor, $points, $sigma, $group, $method)
                 """);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
             SqliteParameter formula = insert.Parameters.Add("$formula", SqliteType.Text);
@@ -89,6 +91,7 @@ public sealed partial class DatasetStore
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
             var (modelFormula, entropy, anchor, points) = TemperatureModelColumns.AddParameters(insert);
             var (sigma, group) = UncertaintyColumns.AddParameters(insert);
+            SqliteParameter method = MethodColumn.AddParameter(insert);
             insert.Prepare();
             foreach (EntryRow row in batch)
             {
@@ -100,6 +103,7 @@ public sealed partial class DatasetStore
                 metadata.Value = row.Metadata ?? string.Empty;
                 TemperatureModelColumns.Bind(row.TemperatureModel, modelFormula, entropy, anchor, points);
                 UncertaintyColumns.Bind(row, sigma, group);
+                MethodColumn.Bind(row, method);
                 insert.ExecuteNonQuery();
             }
 
@@ -139,8 +143,10 @@ public sealed partial class DatasetStore
                 : "NULL, NULL, NULL, NULL";
             // One begun before migration 6 has no uncertainty columns: its rows have none.
             string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
+            // And one begun before migration 7 has no method column: its rows are untagged.
+            string method = MethodColumn.StagingSelect(connection, transaction, staging);
             using SqliteCommand select = connection.Command(transaction,
-                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties} FROM {staging} {filter} ORDER BY rowid");
+                $"SELECT rowid, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties}, {method} FROM {staging} {filter} ORDER BY rowid");
             for (int i = 0; i < (tokens?.Length ?? 0); i++) select.With($"$b{i}", tokens![i]);
             using SqliteDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
@@ -149,7 +155,7 @@ public sealed partial class DatasetStore
                 // Staging tables are appended to only, so rowid k+1 is the session's row k.
                 var (sigma, group) = UncertaintyColumns.Read(reader, 10);
                 var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
-                    TemperatureModelColumns.Read(reader, 6), sigma, group);
+                    TemperatureModelColumns.Read(reader, 6), sigma, group, MethodColumn.Read(reader, 12));
                 rows.Add(new StagedRow(checked((int)(reader.GetInt64(0) - 1)), row));
             }
             return new StagedImport(
@@ -187,6 +193,7 @@ public sealed partial class DatasetStore
             long newVersion = session.LastVersionIssued + 1;
             string staging = StagingTable(session.Key);
             string uncertainties = UncertaintyColumns.StagingSelect(connection, transaction, staging);
+            string method = MethodColumn.StagingSelect(connection, transaction, staging);
 
             int replaced = 0;
             if (session.Policy == DuplicatePolicy.Replace)
@@ -200,8 +207,8 @@ public sealed partial class DatasetStore
 
             // The open-row index refuses a second open row of an id: a repeat inside the session, or (Reject) a stored id.
             using (SqliteCommand move = connection.Command(transaction, $"""
-                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {UncertaintyColumns.Names}, first_version)
-                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, {uncertainties}, $v FROM {staging} ORDER BY rowid
+                       INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {UncertaintyColumns.Names}, {MethodColumn.Name}, first_version)
+                       SELECT $d, entry_id, formula, energy_ev, energy_basis, metadata, {uncertainties}, {method}, $v FROM {staging} ORDER BY rowid
                        """))
             {
                 try
@@ -232,6 +239,7 @@ public sealed partial class DatasetStore
             int inserted = count - replaced;
             IssueVersion(connection, transaction, session.DatasetId, newVersion, now, session.Provenance, count, inserted, replaced,
                 (previous?.EntryCount ?? 0) + inserted);
+            RecordSessionCorrections(connection, transaction, session.Key, session.DatasetId, newVersion);
             DropSession(connection, transaction, session.Key);
             return new ImportResult(newVersion, inserted, replaced);
         });

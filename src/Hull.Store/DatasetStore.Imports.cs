@@ -45,8 +45,8 @@ public sealed partial class DatasetStore
             close.Prepare();
 
             using SqliteCommand insert = connection.Command(transaction, """
-                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version)
-                VALUES ($d, $id, $formula, $energy, $basis, $metadata, $sigma, $group, $v)
+                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, method, first_version)
+                VALUES ($d, $id, $formula, $energy, $basis, $metadata, $sigma, $group, $method, $v)
                 """);
             insert.With("$d", dataset.DatasetId).With("$v", newVersion);
             SqliteParameter id = insert.Parameters.Add("$id", SqliteType.Text);
@@ -55,6 +55,7 @@ public sealed partial class DatasetStore
             SqliteParameter basis = insert.Parameters.Add("$basis", SqliteType.Text);
             SqliteParameter metadata = insert.Parameters.Add("$metadata", SqliteType.Text);
             var (sigma, group) = UncertaintyColumns.AddParameters(insert);
+            SqliteParameter method = MethodColumn.AddParameter(insert);
             insert.Prepare();
 
             using SqliteCommand insertModel = TemperatureModelColumns.InsertForLastEntry(connection, transaction);
@@ -82,6 +83,7 @@ public sealed partial class DatasetStore
                 basis.Value = row.Basis;
                 metadata.Value = row.Metadata ?? string.Empty;
                 UncertaintyColumns.Bind(row, sigma, group);
+                MethodColumn.Bind(row, method);
                 try
                 {
                     insert.ExecuteNonQuery();

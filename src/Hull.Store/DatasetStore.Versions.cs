@@ -11,10 +11,10 @@ public sealed partial class DatasetStore
     // The rows visible at version $k (see Schema).
     private const string VisibleAtK = "first_version <= $k AND (last_version_exclusive IS NULL OR last_version_exclusive > $k)";
     // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join},
-    // then its energy uncertainty's.
+    // then its energy uncertainty's and its method tag.
     private const string EntryColumns =
         "entries.entry_id, entries.formula, entries.energy_ev, entries.energy_basis, entries.metadata, " + TemperatureModelColumns.Select
-        + ", entries.energy_sigma_ev_per_atom, entries.correlation_group";
+        + ", entries.energy_sigma_ev_per_atom, entries.correlation_group, entries.method";
 
     /// <summary>
     /// The latest live version, or <see cref="NoVersion"/> when the dataset has none. Kept in memory until the next
@@ -225,7 +225,7 @@ public sealed partial class DatasetStore
     {
         var (sigma, group) = UncertaintyColumns.Read(reader, 9);
         return new EntryRow(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
-            TemperatureModelColumns.Read(reader, 5), sigma, group);
+            TemperatureModelColumns.Read(reader, 5), sigma, group, MethodColumn.Read(reader, 11));
     }
 
     // Keeps a computed fingerprint with its version when no write is in progress; otherwise the next request computes

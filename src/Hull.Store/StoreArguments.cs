@@ -34,6 +34,23 @@ internal static class StoreArguments
         if (studyName.Any(char.IsControl)) throw new InvalidBatchException("a study name may not hold control characters", field: "study_name");
     }
 
+    public static void CheckCorrectionSetName(string setName, long setVersion)
+    {
+        if (string.IsNullOrWhiteSpace(setName)) throw new InvalidBatchException("a correction set needs a name", field: "name");
+        if (setName.Length > IDatasetStore.MaxCorrectionSetNameLength)
+        {
+            throw new InvalidBatchException($"a correction set name has at most {IDatasetStore.MaxCorrectionSetNameLength} characters", field: "name");
+        }
+        if (setName.Any(char.IsControl)) throw new InvalidBatchException("a correction set name may not hold control characters", field: "name");
+        if (setVersion < 1) throw new InvalidBatchException($"correction set '{setName}': versions count from 1, got {setVersion}", field: "version");
+    }
+
+    public static void CheckCorrectionSetBody(string setJson)
+    {
+        if (string.IsNullOrEmpty(setJson)) throw new InvalidBatchException("the correction set's body is empty", field: "set_json");
+        CheckStoredText(setJson, "set_json");
+    }
+
     public static void CheckStudyTexts(string studyJson, string chargeStatesCsv)
     {
         if (string.IsNullOrEmpty(studyJson)) throw new InvalidBatchException("the study document is empty", field: "study_json");

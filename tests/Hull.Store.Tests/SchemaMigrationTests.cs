@@ -110,6 +110,58 @@ public sealed class SchemaMigrationTests : IDisposable
     }
 
     [Fact]
+    public void AStepSixDatabaseGainsMethodTagsAndCorrectionTablesAndKeepsItsFingerprints()
+    {
+        // A store as step 6 left it, with a version and a session begun then (its staging table has no method column).
+        string sessionId;
+        EntryRow a = new("a", "Cu2O", -10.5, "total_per_formula_unit", "", SigmaEvPerAtom: 0.01);
+        string fingerprint;
+        using (SqliteConnection connection = Raw(create: true))
+        {
+            SchemaMigrator.Migrate(connection, _directory.DatabasePath, TimeProvider.System, targetVersion: 6);
+        }
+        SqliteConnection.ClearAllPools();
+        using (SqliteConnection connection = Raw())
+        {
+            Execute(connection, """
+                INSERT INTO datasets (dataset_id, name, description, created_at_utc, last_version_issued)
+                VALUES (1, 'old', 'made by schema 6', '2026-01-01T08:00:00.0000000Z', 1);
+                INSERT INTO dataset_versions (dataset_id, version, committed_at_utc, source_label, note, batch_entry_count, inserted, replaced, entry_count)
+                VALUES (1, 1, '2026-01-01T08:01:00.0000000Z', 'a.csv', '', 1, 1, 0, 1);
+                INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, first_version)
+                VALUES (1, 'a', 'Cu2O', -10.5, 'total_per_formula_unit', '', 0.01, 1);
+                INSERT INTO import_sessions (session_key, session_id, dataset_id, duplicate_policy, source_label, note, started_at_utc, expires_at_ms)
+                VALUES (7, 's6', 1, 'replace', '', '', '2026-01-01T08:02:00.0000000Z', 99999999999999);
+                CREATE TABLE staged_7 (entry_id TEXT NOT NULL, formula TEXT NOT NULL, energy_ev REAL NOT NULL, energy_basis TEXT NOT NULL,
+                    metadata TEXT NOT NULL, model_formula TEXT NULL, standard_entropy_j_per_mol_k REAL NULL, free_energy_anchor TEXT NULL,
+                    free_energy_points BLOB NULL, energy_sigma_ev_per_atom REAL NULL, correlation_group TEXT NULL);
+                INSERT INTO staged_7 (entry_id, formula, energy_ev, energy_basis, metadata) VALUES ('b', 'Cu', -4.0, 'total_per_atom', '');
+                UPDATE import_sessions SET staged_count = 1 WHERE session_key = 7;
+                """);
+            sessionId = "s6";
+            fingerprint = ContentFingerprint.Compute([a]);
+        }
+        SqliteConnection.ClearAllPools();
+
+        using (DatasetStore store = DatasetStore.Open(_directory.Path))
+        {
+            Rows.AssertSame([a], store.GetEntries("old", 1));
+            Assert.Equal(fingerprint, store.GetFingerprint("old", 1));
+            Assert.Null(store.GetVersionCorrections("old", 1));
+            // The old session's rows come in untagged; a batch staged now brings its tag.
+            store.StageBatch(sessionId, [new EntryRow("c", "O2", -9.8, "total_per_formula_unit", Method: "gga")], TimeSpan.FromMinutes(5));
+            store.CommitImport(sessionId);
+            Assert.Null(store.GetEntry("old", "b", 2)!.Method);
+            Assert.Equal("gga", store.GetEntry("old", "c", 2)!.Method);
+        }
+
+        using SqliteConnection after = Raw();
+        Assert.Contains("method", Column<string>(after, "SELECT name FROM pragma_table_info('entries')"));
+        Assert.Equal(["correction_sets", "version_corrections"],
+            Column<string>(after, "SELECT name FROM sqlite_master WHERE type = 'table' AND name LIKE '%correction%' ORDER BY name"));
+    }
+
+    [Fact]
     public void SchemaStepsAreNumberedWithoutGaps()
     {
         Assert.Equal(Enumerable.Range(1, Schema.Migrations.Count), Schema.Migrations.Select(m => m.Version));

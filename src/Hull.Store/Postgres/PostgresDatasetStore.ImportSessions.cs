@@ -41,7 +41,8 @@ public sealed partial class PostgresDatasetStore
                     energy_basis text NOT NULL,
                     metadata     text NOT NULL,
                     {StagingModelDefinitions},
-                    {StagingUncertaintyDefinitions}
+                    {StagingUncertaintyDefinitions},
+                    {StagingMethodDefinition}
                 )
                 """);
             return new ImportSessionInfo(sessionId, datasetName, policy, 0, expires);
@@ -61,13 +62,14 @@ public sealed partial class PostgresDatasetStore
         return Write((connection, transaction) =>
         {
             OpenSession session = FindOpenSession(connection, transaction, sessionId, now);
-            // A session begun before schema step 5 (6) staged into a table without the model (uncertainty) columns.
-            foreach (string definition in (StagingModelDefinitions + ", " + StagingUncertaintyDefinitions).Split(',', StringSplitOptions.TrimEntries))
+            // A session begun before schema step 5 (6, 7) staged into a table without the model (uncertainty, method) columns.
+            foreach (string definition in (StagingModelDefinitions + ", " + StagingUncertaintyDefinitions + ", " + StagingMethodDefinition)
+                         .Split(',', StringSplitOptions.TrimEntries))
             {
                 connection.Execute(transaction, $"ALTER TABLE {StagingTable(session.Key)} ADD COLUMN IF NOT EXISTS {definition}");
             }
             using (NpgsqlBinaryImporter copy = connection.BeginBinaryImport(
-                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {StagingUncertaintyNames}) FROM STDIN (FORMAT BINARY)"))
+                       $"COPY {StagingTable(session.Key)} (seq, entry_id, formula, energy_ev, energy_basis, metadata, {TemperatureModelColumns.StagingNames}, {StagingUncertaintyNames}, method) FROM STDIN (FORMAT BINARY)"))
             {
                 long seq = session.StagedCount;
                 foreach (EntryRow row in batch)
@@ -82,6 +84,7 @@ public sealed partial class PostgresDatasetStore
                     copy.Write(row.Metadata ?? string.Empty, NpgsqlDbType.Text);
                     WriteModel(copy, row.TemperatureModel);
                     WriteUncertainty(copy, row);
+                    WriteMethod(copy, row);
                 }
                 copy.Complete();
             }
@@ -106,15 +109,17 @@ public sealed partial class PostgresDatasetStore
             string staging = StagingTable(session.Key);
             string models = StagingHasModelColumns(connection, transaction, staging) ? TemperatureModelColumns.StagingNames : "NULL, NULL, NULL, NULL";
             string uncertainties = StagingUncertaintySelect(connection, transaction, staging);
+            string method = StagingMethodSelect(connection, transaction, staging);
             using NpgsqlCommand select = connection.Command(transaction,
-                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties} FROM {staging} {filter} ORDER BY seq");
+                $"SELECT seq, entry_id, formula, energy_ev, energy_basis, metadata, {models}, {uncertainties}, {method} FROM {staging} {filter} ORDER BY seq");
             if (tokens is not null) select.With("@bases", tokens);
             using NpgsqlDataReader reader = select.ExecuteReader();
             var rows = new List<StagedRow>();
             while (reader.Read())
             {
                 var row = new EntryRow(reader.GetString(1), reader.GetString(2), reader.GetDouble(3), reader.GetString(4), reader.GetString(5),
-                    TemperatureModelColumns.Read(reader, 6), reader.IsDBNull(10) ? null : reader.GetDouble(10), reader.IsDBNull(11) ? null : reader.GetString(11));
+                    TemperatureModelColumns.Read(reader, 6), reader.IsDBNull(10) ? null : reader.GetDouble(10), reader.IsDBNull(11) ? null : reader.GetString(11),
+                    reader.IsDBNull(12) ? null : reader.GetString(12));
                 rows.Add(new StagedRow(checked((int)reader.GetInt64(0)), row));
             }
             return new StagedImport(
@@ -155,8 +160,9 @@ public sealed partial class PostgresDatasetStore
             try
             {
                 connection.Execute(transaction, $"""
-                    INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintyNames}, first_version)
-                    SELECT @d, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintySelect(connection, transaction, staging)}, @v FROM {staging} ORDER BY seq
+                    INSERT INTO entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintyNames}, method, first_version)
+                    SELECT @d, entry_id, formula, energy_ev, energy_basis, metadata, {StagingUncertaintySelect(connection, transaction, staging)},
+                           {StagingMethodSelect(connection, transaction, staging)}, @v FROM {staging} ORDER BY seq
                     """, ("@d", session.DatasetId), ("@v", newVersion));
             }
             catch (PostgresException e) when (e.SqlState == PostgresErrorCodes.UniqueViolation)
@@ -181,6 +187,7 @@ public sealed partial class PostgresDatasetStore
             int inserted = count - replaced;
             IssueVersion(connection, transaction, session.DatasetId, newVersion, now, session.Provenance, count, inserted, replaced,
                 (previous?.EntryCount ?? 0) + inserted);
+            RecordSessionCorrections(connection, transaction, session.Key, session.DatasetId, newVersion);
             DropSession(connection, transaction, session.Key);
             return new ImportResult(newVersion, inserted, replaced);
         });
@@ -274,6 +281,19 @@ public sealed partial class PostgresDatasetStore
             WHERE table_schema = current_schema() AND table_name = @t AND column_name = 'correlation_group'
             """).With("@t", staging);
         return (long)command.ExecuteScalar()! == 1 ? StagingUncertaintyNames : "NULL, NULL";
+    }
+
+    // The method column of a staging table, named as in entries (NULL for untagged).
+    private const string StagingMethodDefinition = "method text NULL";
+
+    // The staging table's method column, or NULL for one made before schema step 7.
+    private static string StagingMethodSelect(NpgsqlConnection connection, NpgsqlTransaction transaction, string staging)
+    {
+        using NpgsqlCommand command = connection.Command(transaction, """
+            SELECT count(*) FROM information_schema.columns
+            WHERE table_schema = current_schema() AND table_name = @t AND column_name = 'method'
+            """).With("@t", staging);
+        return (long)command.ExecuteScalar()! == 1 ? "method" : "NULL";
     }
 
     private static bool StagingHasModelColumns(NpgsqlConnection connection, NpgsqlTransaction transaction, string staging)

@@ -65,7 +65,7 @@ public sealed partial class PostgresDatasetStore
     private static void CopyEntries(NpgsqlConnection connection, long datasetId, long version, IEnumerable<EntryRow> rows)
     {
         using NpgsqlBinaryImporter copy = connection.BeginBinaryImport(
-            "COPY entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, first_version) FROM STDIN (FORMAT BINARY)");
+            "COPY entries (dataset_id, entry_id, formula, energy_ev, energy_basis, metadata, energy_sigma_ev_per_atom, correlation_group, method, first_version) FROM STDIN (FORMAT BINARY)");
         foreach (EntryRow row in rows)
         {
             copy.StartRow();
@@ -77,6 +77,7 @@ public sealed partial class PostgresDatasetStore
             copy.Write(row.Basis, NpgsqlDbType.Text);
             copy.Write(row.Metadata ?? string.Empty, NpgsqlDbType.Text);
             WriteUncertainty(copy, row);
+            WriteMethod(copy, row);
             copy.Write(version, NpgsqlDbType.Bigint);
         }
         copy.Complete();
@@ -88,6 +89,13 @@ public sealed partial class PostgresDatasetStore
         if (row.SigmaEvPerAtom is double sigma) copy.Write(sigma + 0.0, NpgsqlDbType.Double);
         else copy.WriteNull();
         if (row.CorrelationGroup is string group) copy.Write(group, NpgsqlDbType.Text);
+        else copy.WriteNull();
+    }
+
+    /// <summary>Writes a row's method tag to a COPY (NULL when untagged).</summary>
+    private static void WriteMethod(NpgsqlBinaryImporter copy, EntryRow row)
+    {
+        if (row.Method is string method) copy.Write(method, NpgsqlDbType.Text);
         else copy.WriteNull();
     }
 

@@ -11,10 +11,10 @@ public sealed partial class PostgresDatasetStore
     // The rows visible at version @k (see PostgresSchema and Schema).
     private const string VisibleAtK = "first_version <= @k AND (last_version_exclusive IS NULL OR last_version_exclusive > @k)";
     // An entry's columns with its temperature model's (NULL when it has none), read FROM entries {TemperatureModelColumns.Join},
-    // then its energy uncertainty's.
+    // then its energy uncertainty's and its method tag.
     private const string EntryColumns =
         "entries.entry_id, entries.formula, entries.energy_ev, entries.energy_basis, entries.metadata, " + TemperatureModelColumns.Select
-        + ", entries.energy_sigma_ev_per_atom, entries.correlation_group";
+        + ", entries.energy_sigma_ev_per_atom, entries.correlation_group, entries.method";
 
     /// <inheritdoc />
     public long GetLatestVersion(string datasetName) => GetLatest(datasetName).Version;
@@ -203,7 +203,8 @@ public sealed partial class PostgresDatasetStore
 
     private static EntryRow ReadEntry(NpgsqlDataReader reader) =>
         new(reader.GetString(0), reader.GetString(1), reader.GetDouble(2), reader.GetString(3), reader.GetString(4),
-            TemperatureModelColumns.Read(reader, 5), reader.IsDBNull(9) ? null : reader.GetDouble(9), reader.IsDBNull(10) ? null : reader.GetString(10));
+            TemperatureModelColumns.Read(reader, 5), reader.IsDBNull(9) ? null : reader.GetDouble(9), reader.IsDBNull(10) ? null : reader.GetString(10),
+            reader.IsDBNull(11) ? null : reader.GetString(11));
 
     // Keeps a computed fingerprint with its version, outside the writers' queue: it changes no content, and a
     // version's rows never change. Failing to keep it is only slower (the next request computes it again).

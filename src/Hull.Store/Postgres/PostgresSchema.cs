@@ -125,6 +125,33 @@ internal static class PostgresSchema
             ALTER TABLE entries ADD COLUMN correlation_group text NULL
                 CHECK (correlation_group IS NULL OR length(correlation_group) > 0);
             """),
+        new(7, "energy corrections: an entry's method tag, stored correction sets, and the set each derived version used", """
+            -- As in SQLite's step 7.
+            ALTER TABLE entries ADD COLUMN method text NULL CHECK (method IS NULL OR length(method) > 0);
+
+            CREATE TABLE correction_sets (
+                set_name      text COLLATE "C" NOT NULL CHECK (length(set_name) > 0),
+                set_version   bigint NOT NULL CHECK (set_version >= 1),
+                stored_at_utc text NOT NULL,
+                set_json      text NOT NULL,
+                PRIMARY KEY (set_name, set_version)
+            );
+
+            CREATE TABLE version_corrections (
+                dataset_id     bigint NOT NULL,
+                version        bigint NOT NULL,
+                set_name       text COLLATE "C" NOT NULL,
+                set_version    bigint NOT NULL,
+                source_version bigint NOT NULL CHECK (source_version >= 1),
+                PRIMARY KEY (dataset_id, version),
+                FOREIGN KEY (dataset_id, version) REFERENCES dataset_versions (dataset_id, version) ON DELETE CASCADE,
+                FOREIGN KEY (set_name, set_version) REFERENCES correction_sets (set_name, set_version)
+            );
+
+            ALTER TABLE import_sessions ADD COLUMN correction_set_name text COLLATE "C" NULL;
+            ALTER TABLE import_sessions ADD COLUMN correction_set_version bigint NULL;
+            ALTER TABLE import_sessions ADD COLUMN correction_source_version bigint NULL;
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>

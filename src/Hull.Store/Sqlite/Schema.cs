@@ -128,6 +128,37 @@ internal static class Schema
             ALTER TABLE entries ADD COLUMN correlation_group TEXT NULL
                 CHECK (correlation_group IS NULL OR length(correlation_group) > 0);
             """),
+        new(7, "energy corrections: an entry's method tag, stored correction sets, and the set each derived version used", """
+            -- NULL for an untagged entry (the base method of any set); versioned with the entry row like sigma.
+            ALTER TABLE entries ADD COLUMN method TEXT NULL CHECK (method IS NULL OR length(method) > 0);
+
+            -- A correction set is kept as the JSON body it was given; (name, version) names it once and for all.
+            CREATE TABLE correction_sets (
+                set_name      TEXT NOT NULL CHECK (length(set_name) > 0),
+                set_version   INTEGER NOT NULL CHECK (set_version >= 1),
+                stored_at_utc TEXT NOT NULL,
+                set_json      TEXT NOT NULL,
+                PRIMARY KEY (set_name, set_version)
+            ) WITHOUT ROWID;
+
+            -- Which set a version was derived with, and from which version of the same dataset; written in the
+            -- commit that issues the version, so a version has its record from the start or never.
+            CREATE TABLE version_corrections (
+                dataset_id     INTEGER NOT NULL,
+                version        INTEGER NOT NULL,
+                set_name       TEXT NOT NULL,
+                set_version    INTEGER NOT NULL,
+                source_version INTEGER NOT NULL CHECK (source_version >= 1),
+                PRIMARY KEY (dataset_id, version),
+                FOREIGN KEY (dataset_id, version) REFERENCES dataset_versions (dataset_id, version) ON DELETE CASCADE,
+                FOREIGN KEY (set_name, set_version) REFERENCES correction_sets (set_name, set_version)
+            ) WITHOUT ROWID;
+
+            -- An import session that derives a corrected version carries its record until the commit moves it.
+            ALTER TABLE import_sessions ADD COLUMN correction_set_name TEXT NULL;
+            ALTER TABLE import_sessions ADD COLUMN correction_set_version INTEGER NULL;
+            ALTER TABLE import_sessions ADD COLUMN correction_source_version INTEGER NULL;
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>
