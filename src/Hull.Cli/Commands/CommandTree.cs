@@ -248,16 +248,18 @@ public static class CommandTree
 
     /// <summary>
     /// The entries in the import layout (<see cref="EntryFileLayout.Columns"/>' order); the temperature-model columns only
-    /// when some entry has a model and the uncertainty columns only when some entry has a σ or a correlation group, so an
+    /// when some entry has a model, the uncertainty columns only when some entry has a σ or a correlation group and the
+    /// method column only when some entry has a tag, so an
     /// export of a dataset without either reads as before. The table view sums up a G(T) table in one cell.
     /// </summary>
     private static Table ExportTable(IReadOnlyList<Entry> entries, OutputFormat format)
     {
         bool models = entries.Any(e => e.TemperatureModel is not null);
         bool uncertainties = entries.Any(e => e.HasEnergySigmaEvPerAtom || e.CorrelationGroup.Length > 0);
+        bool methods = entries.Any(e => e.Method.Length > 0);
         bool summary = models && format == OutputFormat.Table && entries.Any(e => e.TemperatureModel?.FreeEnergyTable is not null);
         string[] columns = [.. EntryFileLayout.PlainColumns, .. models ? EntryFileLayout.ModelColumns : [],
-            .. uncertainties ? EntryFileLayout.UncertaintyColumns : []];
+            .. uncertainties ? EntryFileLayout.UncertaintyColumns : [], .. methods ? EntryFileLayout.MethodColumns : []];
         var table = new Table(summary ? [.. columns, "g_of_t_table"] : columns);
         foreach (Entry e in entries)
         {
@@ -274,6 +276,8 @@ public static class CommandTree
                 string sigma = e.HasEnergySigmaEvPerAtom ? e.EnergySigmaEvPerAtom.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
                 cells = [.. cells, sigma, e.CorrelationGroup];
             }
+
+            if (methods) cells = [.. cells, e.Method];
 
             if (summary)
             {

@@ -51,7 +51,8 @@ public static class CsvEntryReader
 
             double? sigma = EntryFileLayout.ParseSigma(Field(EntryFileLayout.Sigma), problem => new InputFileException(path, line, $"column '{EntryFileLayout.Sigma}': {problem}"));
             records.Add(new EntryRecord(id, formula, energy, basis, Field(EntryFileLayout.Note), line,
-                TemperatureModelText.FromEntropy(entropy, Field(EntryFileLayout.ModelFormula)), sigma, Field(EntryFileLayout.CorrelationGroup).Trim()));
+                TemperatureModelText.FromEntropy(entropy, Field(EntryFileLayout.ModelFormula)), sigma, Field(EntryFileLayout.CorrelationGroup).Trim(),
+                Field(EntryFileLayout.Method).Trim()));
         }
 
         if (columns is null) throw new InputFileException(path, null, $"no header line; the first line must name the columns, e.g. {string.Join(",", EntryFileLayout.PlainColumns)}");

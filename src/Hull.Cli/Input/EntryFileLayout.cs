@@ -9,7 +9,8 @@ namespace Hull.Cli.Input;
 /// Fields: <c>id</c> (text, unique), <c>formula</c> (e.g. LiCoO2), <c>energy_ev</c> (a finite number: eV per formula
 /// unit or eV/atom as the basis says), <c>basis</c> (one of the <see cref="BasisTokens"/>), <c>note</c> (optional
 /// free text), <c>sigma_ev_per_atom</c> (optional: the energy's standard error, eV/atom, finite and ≥ 0; empty for
-/// none), <c>correlation_group</c> (optional: entries computed the same way that share a systematic error). CSV: a header line naming the columns (any order; <c>note</c> may be left out), then one entry per
+/// none), <c>correlation_group</c> (optional: entries computed the same way that share a systematic error),
+/// <c>method</c> (optional: the computational method's tag that correction sets name; empty for untagged). CSV: a header line naming the columns (any order; <c>note</c> may be left out), then one entry per
 /// line; fields may be quoted with double quotes ("" inside quotes is a quote); blank lines and lines starting with
 /// '#' are skipped. JSON: an array of objects with these fields, or an object whose "entries" member is one.
 /// Temperature models, optional: <c>standard_entropy_j_per_mol_k</c> (S° per formula unit; an empty cell is none)
@@ -29,6 +30,7 @@ public static class EntryFileLayout
     public const string ModelFormula = "temperature_model_formula";
     public const string Sigma = "sigma_ev_per_atom";
     public const string CorrelationGroup = "correlation_group";
+    public const string Method = "method";
 
     /// <summary>JSON only: an entry's G(T) table, an object with <see cref="Anchor"/> and <see cref="Rows"/>.</summary>
     public const string FreeEnergyTable = "free_energy_table";
@@ -46,8 +48,11 @@ public static class EntryFileLayout
     /// <summary>The uncertainty columns, written last when some entry has a σ or a correlation group.</summary>
     public static IReadOnlyList<string> UncertaintyColumns { get; } = [Sigma, CorrelationGroup];
 
-    /// <summary>Every column an entry file may have, in the order files are written: plain, model, uncertainty.</summary>
-    public static IReadOnlyList<string> Columns { get; } = [.. PlainColumns, .. ModelColumns, .. UncertaintyColumns];
+    /// <summary>The method-tag column, written after the others when some entry has a tag.</summary>
+    public static IReadOnlyList<string> MethodColumns { get; } = [Method];
+
+    /// <summary>Every column an entry file may have, in the order files are written: plain, model, uncertainty, method.</summary>
+    public static IReadOnlyList<string> Columns { get; } = [.. PlainColumns, .. ModelColumns, .. UncertaintyColumns, .. MethodColumns];
 
     /// <summary>The columns a file must have.</summary>
     public static IReadOnlyList<string> RequiredColumns { get; } = [Id, Formula, EnergyEv, Basis];

@@ -110,7 +110,7 @@ public static class JsonEntryReader
 
         // JSON has no line per entry that a reader can report cheaply; the entry's index stands in (0-based).
         return new EntryRecord(id, formula, energy, basis, Text(EntryFileLayout.Note, required: false), -(index + 1), model,
-            sigma, Text(EntryFileLayout.CorrelationGroup, required: false).Trim());
+            sigma, Text(EntryFileLayout.CorrelationGroup, required: false).Trim(), Text(EntryFileLayout.Method, required: false).Trim());
     }
 
     private static EntryFreeEnergyTable ReadTable(JsonElement table, Func<string, InputFileException> fail)

@@ -28,6 +28,7 @@ public static class EntryFileWriter
                 if (e.TemperatureModel is { } model) WriteModel(json, model);
                 if (e.HasEnergySigmaEvPerAtom) json.WriteNumber(EntryFileLayout.Sigma, e.EnergySigmaEvPerAtom);
                 if (e.CorrelationGroup.Length > 0) json.WriteString(EntryFileLayout.CorrelationGroup, e.CorrelationGroup);
+                if (e.Method.Length > 0) json.WriteString(EntryFileLayout.Method, e.Method);
                 json.WriteEndObject();
             }
 

@@ -57,6 +57,7 @@ public static class WireMapping
             Basis = ToWire(BasisOf(row)),
             Note = row.Metadata ?? string.Empty,
             CorrelationGroup = row.CorrelationGroup ?? string.Empty,
+            Method = row.Method ?? string.Empty,
         };
         if (row.SigmaEvPerAtom is { } sigma) entry.EnergySigmaEvPerAtom = sigma;
         if (row.TemperatureModel is { } model) entry.TemperatureModel = TemperatureModelMapping.ToWire(model);

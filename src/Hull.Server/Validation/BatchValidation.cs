@@ -124,6 +124,11 @@ public static class BatchValidation
                 violations.Add(new($"{at}.correlation_group", groupProblem));
             }
 
+            if (EntryRules.CheckMethod(entry.Method) is { } methodProblem)
+            {
+                violations.Add(new($"{at}.method", methodProblem));
+            }
+
             StoredTemperatureModel? model = null;
             if (entry.TemperatureModel is not null && composition is not null && EntryRules.CheckId(entry.Id) is null &&
                 !TemperatureModelMapping.TryFromWire(entry.TemperatureModel, entry.Id, composition, out model, out var fault))
@@ -135,7 +140,8 @@ public static class BatchValidation
             {
                 rows.Add(new EntryRow(entry.Id, entry.Formula, entry.EnergyEv, EnergyBasisTokens.ToToken(basis), entry.Note, model,
                     entry.HasEnergySigmaEvPerAtom ? entry.EnergySigmaEvPerAtom : null,
-                    entry.CorrelationGroup.Length > 0 ? entry.CorrelationGroup : null));
+                    entry.CorrelationGroup.Length > 0 ? entry.CorrelationGroup : null,
+                    entry.Method.Length > 0 ? entry.Method : null));
             }
         }
 

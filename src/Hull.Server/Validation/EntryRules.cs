@@ -14,6 +14,21 @@ public static class EntryRules
         return CheckText(id, "id");
     }
 
+    /// <summary>Longest method tag, in characters: a functional with its settings ("r2scan+u/pbe-pseudos") fits.</summary>
+    public const int MaxMethodLength = 100;
+
+    /// <summary>Null when the method tag is acceptable (empty means untagged), else what is wrong with it.</summary>
+    public static string? CheckMethod(string method)
+    {
+        if (method.Length == 0) return null;
+        if (string.IsNullOrWhiteSpace(method) || method.Trim().Length != method.Length)
+        {
+            return $"the method tag '{method}' begins or ends with spaces; give the tag alone, or leave it empty for none";
+        }
+        if (method.Length > MaxMethodLength) return $"the method tag has {method.Length} characters; at most {MaxMethodLength} are allowed";
+        return CheckText(method, "method tag");
+    }
+
     /// <summary>Null when the text has no control characters or broken UTF-16, else what is wrong and where.</summary>
     public static string? CheckText(string text, string what, bool allowLineBreaks = false)
     {

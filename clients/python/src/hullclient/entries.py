@@ -1,7 +1,8 @@
 """Entries as the user holds them (a DataFrame, a CSV or JSON file) turned into wire entries, row by row.
 
 The file layouts are the CLI's (src/Hull.Cli/README.md, "Entry files"): columns `id, formula, energy_ev, basis,
-note, sigma_ev_per_atom, correlation_group` (the last three optional; sigma empty or NaN for none); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
+note, sigma_ev_per_atom, correlation_group, method` (the last four optional; sigma empty or NaN for none; method the
+computational method's tag that correction sets name, empty for untagged); CSV with a header line, RFC 4180 quotes, blank lines and lines starting with `#`
 skipped; JSON as `{"entries": [...]}` or a bare array of objects. Basis tokens come from the contract's enum names
 (`ENERGY_BASIS_TOTAL_PER_ATOM` is `total_per_atom`), as the CLI derives them.
 
@@ -31,11 +32,14 @@ MODEL_FORMULA = "temperature_model_formula"
 TABLE = "free_energy_table"
 SIGMA = "sigma_ev_per_atom"
 GROUP = "correlation_group"
+METHOD = "method"
 MODEL_COLUMNS = (ENTROPY, MODEL_FORMULA, TABLE)
 UNCERTAINTY_COLUMNS = (SIGMA, GROUP)
+METHOD_COLUMNS = (METHOD,)
 # Every column an entry file or frame may have, in this order: an export has the model columns only when some entry
-# has a model, and the uncertainty columns (last) only when some entry has a sigma or a correlation group.
-COLUMNS = PLAIN_COLUMNS + MODEL_COLUMNS + UNCERTAINTY_COLUMNS
+# has a model, the uncertainty columns only when some entry has a sigma or a correlation group, and the method
+# column (last) only when some entry has a tag.
+COLUMNS = PLAIN_COLUMNS + MODEL_COLUMNS + UNCERTAINTY_COLUMNS + METHOD_COLUMNS
 REQUIRED_COLUMNS = ("id", "formula", "energy_ev", "basis")
 TABLE_FILE_COLUMNS = ("entry_id", "anchor", "temperature_k", "free_energy_above_anchor_ev")
 _ENUM_PREFIX = "ENERGY_BASIS_"
@@ -164,7 +168,7 @@ def _entry(where, record):
         raise EntryInputError(where, f"column 'basis': '{token}' is not one of {', '.join(tokens)}")
     note = _text(record, "note")
     entry = entries_pb2.Entry(id=ident, formula=formula, energy_ev=value, basis=tokens[token], note=note,
-                              correlation_group=_text(record, GROUP).strip())
+                              correlation_group=_text(record, GROUP).strip(), method=_text(record, METHOD).strip())
     sigma = _sigma(where, record.get(SIGMA))
     if sigma is not None:
         entry.energy_sigma_ev_per_atom = sigma
@@ -292,7 +296,8 @@ def _table_dict(table):
 def to_frame(entries) -> pd.DataFrame:
     """Wire entries as a DataFrame with the file columns (basis as its token); with the temperature-model columns
     (S° or NaN, the model's formula, the G(T) table as a dict or None) only when some entry has a model, then the
-    uncertainty columns (sigma_ev_per_atom or NaN, correlation_group or "") only when some entry has either."""
+    uncertainty columns (sigma_ev_per_atom or NaN, correlation_group or "") only when some entry has either, then the
+    method column (the tag or "") only when some entry has one."""
     frame = pd.DataFrame({
         "id": [e.id for e in entries],
         "formula": [e.formula for e in entries],
@@ -311,6 +316,8 @@ def to_frame(entries) -> pd.DataFrame:
         frame[SIGMA] = pd.Series([e.energy_sigma_ev_per_atom if e.HasField("energy_sigma_ev_per_atom") else math.nan
                                   for e in entries], dtype="float64")
         frame[GROUP] = [e.correlation_group for e in entries]
+    if any(e.method for e in entries):
+        frame[METHOD] = [e.method for e in entries]
     return frame
 
 
