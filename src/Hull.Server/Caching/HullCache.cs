@@ -47,12 +47,26 @@ public sealed class HullCache
     public int CachedHullCount => _hulls.Count;
 
     /// <summary>The parsed entries of <paramref name="version"/>.</summary>
-    public Task<VersionSnapshot> GetSnapshotAsync(VersionRef version, CancellationToken cancellation) =>
-        GetOrBuild(_snapshots, (version.Dataset, version.Fingerprint), MaxSnapshots, () =>
+    /// <remarks>
+    /// Snapshots are shared by content, and two versions may hold the same content (a corrected version whose set
+    /// moved nothing, a batch that replaced rows by equal ones): a snapshot loaded under another version is handed out
+    /// under the one asked for, so every answer names its own version and correction set.
+    /// </remarks>
+    public Task<VersionSnapshot> GetSnapshotAsync(VersionRef version, CancellationToken cancellation)
+    {
+        Task<VersionSnapshot> loaded = GetOrBuild(_snapshots, (version.Dataset, version.Fingerprint), MaxSnapshots, () =>
         {
             Counters.CountVersionLoad();
             return VersionSnapshot.Load(_store, version);
         }, hit: null, cancellation);
+        return loaded.IsCompletedSuccessfully && loaded.Result.Version == version ? loaded : Relabelled(loaded, version);
+    }
+
+    private static async Task<VersionSnapshot> Relabelled(Task<VersionSnapshot> loaded, VersionRef version)
+    {
+        VersionSnapshot snapshot = await loaded;
+        return snapshot.Version == version ? snapshot : snapshot.Under(version);
+    }
 
     /// <summary>
     /// The hull of the chemical system <paramref name="elements"/> (ordinal order) over every entry of the snapshot

@@ -5,8 +5,9 @@ using Hull.Store;
 namespace Hull.Server.Caching;
 
 /// <summary>
-/// Turns (dataset, requested version) into a concrete version and its content fingerprint. A version's content
-/// never changes, so its fingerprint is remembered, keyed by the dataset's key as well as its name: a dataset deleted
+/// Turns (dataset, requested version) into a concrete version, its content fingerprint and its correction record. A
+/// version's content and record never change, so both are remembered (one store read of each per version, never per
+/// query), keyed by the dataset's key as well as its name: a dataset deleted
 /// and created again under the same name (through this server or another on the same store) is never confused with
 /// the old one.
 /// </summary>
@@ -15,7 +16,7 @@ public sealed class VersionResolver(IDatasetStore store)
     /// <summary>Fingerprints remembered before the memory is cleared; each is about 200 bytes.</summary>
     private const int MaxRemembered = 100_000;
 
-    private readonly ConcurrentDictionary<(string Dataset, long DatasetKey, long Version), string> _fingerprints = new();
+    private readonly ConcurrentDictionary<(string Dataset, long DatasetKey, long Version), (string Fingerprint, VersionCorrections? Corrections)> _fingerprints = new();
 
     /// <summary>The version to read: <paramref name="requested"/>, or the latest when it is 0.</summary>
     /// <exception cref="Grpc.Core.RpcException">INVALID_ARGUMENT for a negative version; NOT_FOUND for a dataset
@@ -37,14 +38,14 @@ public sealed class VersionResolver(IDatasetStore store)
             }
         }
 
-        if (!_fingerprints.TryGetValue((dataset, latest.DatasetKey, version), out string? fingerprint))
+        if (!_fingerprints.TryGetValue((dataset, latest.DatasetKey, version), out var known))
         {
-            fingerprint = store.GetFingerprint(dataset, version);
+            known = (store.GetFingerprint(dataset, version), store.GetVersionCorrections(dataset, version));
             if (_fingerprints.Count >= MaxRemembered) _fingerprints.Clear();
-            _fingerprints[(dataset, latest.DatasetKey, version)] = fingerprint;
+            _fingerprints[(dataset, latest.DatasetKey, version)] = known;
         }
 
-        return new VersionRef(dataset, version, fingerprint);
+        return new VersionRef(dataset, version, known.Fingerprint, known.Corrections);
     }
 
     /// <summary>Forgets every fingerprint of <paramref name="dataset"/> (after it or one of its versions is deleted).</summary>

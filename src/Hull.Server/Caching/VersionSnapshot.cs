@@ -45,7 +45,25 @@ public sealed class VersionSnapshot
             .ToArray();
     }
 
+    // The same parsed content under another version of equal content (see HullCache.GetSnapshotAsync).
+    private VersionSnapshot(VersionSnapshot content, VersionRef version)
+    {
+        Version = version;
+        Uncertainties = content.Uncertainties;
+        Entries = content.Entries;
+        FormulasAsStored = content.FormulasAsStored;
+        TemperatureModels = content.TemperatureModels;
+        _storedModelSet = content._storedModelSet;
+        _indexById = content._indexById;
+        _systems = content._systems;
+        _countWithin = content._countWithin;
+        MaximalSystems = content.MaximalSystems;
+    }
+
     public VersionRef Version { get; }
+
+    /// <summary>This snapshot's content named as <paramref name="version"/> (equal content, so nothing is parsed again).</summary>
+    public VersionSnapshot Under(VersionRef version) => new(this, version);
 
     /// <summary>Every entry of the version, in id order.</summary>
     public IReadOnlyList<PhaseEntry> Entries { get; }

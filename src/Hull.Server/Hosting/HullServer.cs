@@ -155,6 +155,7 @@ public sealed class HullServer : IAsyncDisposable
 
         builder.Services.AddSingleton<CompoundResolution>();
         builder.Services.AddSingleton<ImportGate>();
+        builder.Services.AddSingleton<Corrections.CorrectedVersionWriter>();
         builder.Services.AddSingleton<Defects.DefectStudyCache>();
         builder.Services.AddSingleton<Services.SamplingActivity>();
         builder.Services.AddSingleton(new ImportSessionSettings(options.ImportIdleExpiry));
@@ -184,6 +185,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();
         app.MapGrpcService<ThermoGrpcService>();
+        app.MapGrpcService<CorrectionGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();
         return app;

@@ -85,12 +85,19 @@ public static class WireMapping
         EntryCount = version.EntryCount,
     };
 
-    public static VersionUsed ToWire(VersionRef version) => new()
+    public static VersionUsed ToWire(VersionRef version)
     {
-        Dataset = version.Dataset,
-        Version = version.Version,
-        ContentSha256 = version.Fingerprint,
-    };
+        var used = new VersionUsed { Dataset = version.Dataset, Version = version.Version, ContentSha256 = version.Fingerprint };
+        if (version.Corrections is { } corrections)
+        {
+            used.Corrections = new CorrectionsUsed
+            {
+                SetName = corrections.SetName, SetVersion = corrections.SetVersion, SourceVersion = corrections.SourceVersion,
+            };
+        }
+
+        return used;
+    }
 
     /// <summary>
     /// A formation energy for the wire. The service builds closed hulls over formation energies only, where every

@@ -24,6 +24,8 @@ public sealed class WriteTokenInterceptor : Interceptor
         "/hull.v1.DatasetService/CancelImport",
         "/hull.v1.DatasetService/DeleteVersion",
         "/hull.v1.DefectService/ImportDefectStudy",
+        "/hull.v1.CorrectionService/PutCorrectionSet",
+        "/hull.v1.CorrectionService/DeriveCorrectedVersion",
     };
 
     private const string Scheme = "Bearer ";
