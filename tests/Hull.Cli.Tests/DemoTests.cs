@@ -29,6 +29,9 @@ public sealed class DemoTests
         // LiCoO2's theoretical capacity at Δx = 1: 294.7 mAh/g of CoO2, 273.8 of LiCoO2 (common practice, from the molar masses).
         Assert.Contains("294.7 mAh/g of CoO2, 273.8 mAh/g of LiCoO2", run.Out);
         Assert.Contains("dataset cathodes-ml, version 1, system Co-Li-O: 4000 samples, seed 2026", run.Out);
+        Assert.Contains("7i. Energy corrections", run.Out);
+        Assert.Contains("dataset cathodes-mixed: version 2 derived from version 1 with correction set demo-mix v1; 7 of 9 entries moved", run.Out);
+        Assert.Contains("Stable phases corrected (version 2, correction set demo-mix v1): Co, Co3O4-u, CoO-u, Li, Li2O, LiCo2O4-u, LiCoO2, O2", run.Out);
         foreach (string section in new[] { "1. Import", "2. Stability", "3. Stable phases", "4. Energy above hull", "5. Ad-hoc", "6. Hull energy", "7. The Li-Co-O hull", "7b. The layered-oxide triangle", "7c. Chemical-potential window", "8. Versions", "9. Export", "10. Phase diagrams" })
         {
             Assert.Contains(section, run.Out);

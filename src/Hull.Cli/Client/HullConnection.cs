@@ -44,6 +44,7 @@ public sealed class HullConnection : IDisposable
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
+        Corrections = new CorrectionService.CorrectionServiceClient(_channel);
     }
 
     public Uri Address { get; }
@@ -57,6 +58,8 @@ public sealed class HullConnection : IDisposable
     public WindowService.WindowServiceClient Windows { get; }
 
     public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
+
+    public CorrectionService.CorrectionServiceClient Corrections { get; }
 
     public ElectrochemistryService.ElectrochemistryServiceClient Electrochemistry { get; }
 

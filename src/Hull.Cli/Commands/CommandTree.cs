@@ -35,6 +35,7 @@ public static class CommandTree
         root.Subcommands.Add(OddsCommand.Build(wrap));
         root.Subcommands.Add(DefectCommands.Build(wrap));
         root.Subcommands.Add(ThermoCommands.Build(wrap));
+        root.Subcommands.Add(CorrectionCommands.Build(wrap));
         root.Subcommands.Add(HealthCommand(wrap));
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
@@ -59,7 +60,8 @@ public static class CommandTree
         "--page-size", "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
         min: 0, max: 1000, fallback: 0, meaning: "a page size");
 
-    private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}";
+    private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}"
+        + (used.Corrections is { } k ? $" (corrected with {k.SetName} v{k.SetVersion} from version {k.SourceVersion})" : string.Empty);
 
     private static Command DatasetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {

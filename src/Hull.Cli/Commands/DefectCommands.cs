@@ -519,7 +519,7 @@ public static class DefectCommands
         foreach (string w in warnings) c.Err.WriteLine($"hull: warning: {w}");
     }
 
-    private static string ReadText(string path)
+    internal static string ReadText(string path)
     {
         try
         {

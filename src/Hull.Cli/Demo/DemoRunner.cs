@@ -173,6 +173,7 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         await WindowDemoStep.RunAsync(hull, output, DatasetName, FiguresFolder, t);
         await ElectrochemistryDemoStep.RunAsync(hull, output, DatasetName, FiguresFolder, t);
         await UncertaintyDemoStep.RunAsync(hull, output, error, data, FiguresFolder, t);
+        await CorrectionDemoStep.RunAsync(hull, output, error, data, t);
 
         // 8. Versioning: a replacement makes a new version; the old one answers exactly as before.
         Heading("8. Versions: round 2 replaces 16 entries; the earlier version is unchanged");

@@ -6,6 +6,7 @@ Python method fails the tests.
 """
 
 import copy
+import json
 import os
 import re
 import ssl
@@ -195,6 +196,7 @@ class HullClient:
         self._electrochemistry = wire.electrochemistry_pb2_grpc.ElectrochemistryServiceStub(self._channel)
         self._thermo = wire.thermo_pb2_grpc.ThermoServiceStub(self._channel)
         self._uncertainty = wire.uncertainty_pb2_grpc.UncertaintyServiceStub(self._channel)
+        self._corrections = wire.corrections_pb2_grpc.CorrectionServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -648,6 +650,60 @@ class HullClient:
         reply = self._call(self._uncertainty.DrawStabilityOddsFigure, self.draw_stability_odds_figure.hull_rpc,
                            wire.uncertainty_pb2.DrawStabilityOddsFigureRequest(sampling=request))
         return r.OddsFigure(r.version_used(reply.used), reply.chemical_system, reply.svg, reply.sample_count, reply.seed)
+
+    # --- CorrectionService --------------------------------------------------------------------------------------
+
+    @staticmethod
+    def _set_text(set_json) -> str:
+        """A set document given as text, a dict, or the path of its file."""
+        if isinstance(set_json, Mapping):
+            return json.dumps(set_json)
+        if isinstance(set_json, Path) or (isinstance(set_json, str) and "{" not in set_json and _is_file(set_json)):
+            with open(set_json, encoding="utf-8", newline="") as f:
+                return f.read()
+        return str(set_json)
+
+    @_calls("CorrectionService", "PutCorrectionSet")
+    def put_correction_set(self, set_json) -> r.CorrectionSet:
+        """Stores a correction set (its JSON document as text, a dict or a file path) under the name and version the
+        document gives; the same document again changes nothing, another one under a stored name and version is refused."""
+        reply = self._call(self._corrections.PutCorrectionSet, self.put_correction_set.hull_rpc,
+                           wire.corrections_pb2.PutCorrectionSetRequest(set_json=self._set_text(set_json)))
+        return r.correction_set(reply)
+
+    @_calls("CorrectionService", "ListCorrectionSets")
+    def list_correction_sets(self) -> pd.DataFrame:
+        """Every stored set, by name and version (the documents in `set_json`)."""
+        reply = self._call(self._corrections.ListCorrectionSets, self.list_correction_sets.hull_rpc,
+                           wire.corrections_pb2.ListCorrectionSetsRequest())
+        columns = ["name", "version", "base_method", "fitted_reference_count", "species_shift_count", "method_rule_count",
+                   "stored_at", "set_json"]
+        return pd.DataFrame([{c: getattr(r.correction_set(m), c) for c in columns} for m in reply.sets], columns=columns)
+
+    @_calls("CorrectionService", "GetCorrectionSet")
+    def get_correction_set(self, name: str, version: int) -> r.CorrectionSet:
+        """One stored set with its document exactly as stored."""
+        reply = self._call(self._corrections.GetCorrectionSet, self.get_correction_set.hull_rpc,
+                           wire.corrections_pb2.GetCorrectionSetRequest(name=name, version=int(version)))
+        return r.correction_set(reply)
+
+    @_calls("CorrectionService", "DeriveCorrectedVersion")
+    def derive_corrected_version(self, dataset: str, *, stored: Optional[Tuple[str, int]] = None, set_json=None,
+                                 source_version: int = 0, note: str = "") -> pd.DataFrame:
+        """Writes the latest version's entries with corrected energies as the dataset's next version, with a stored set
+        (`stored=("name", version)`) or a document (`set_json`, stored with it). One row per moved entry with its
+        shift in three parts (eV/atom); attrs: used (the new version, naming its set), entry_count, changed_count."""
+        if (stored is None) == (set_json is None):
+            raise ValueError("give one of stored=(name, version) and set_json")
+        request = wire.corrections_pb2.DeriveCorrectedVersionRequest(dataset=dataset, source_version=int(source_version), note=note)
+        if stored is not None:
+            request.stored.name, request.stored.version = stored[0], int(stored[1])
+        else:
+            request.inline_set_json = self._set_text(set_json)
+        reply = self._call(self._corrections.DeriveCorrectedVersion, self.derive_corrected_version.hull_rpc, request)
+        table = r.shifts_frame(reply.shifts)
+        table.attrs.update(used=r.version_used(reply.derived), entry_count=reply.entry_count, changed_count=reply.changed_count)
+        return table
 
     # --- DiagnosticsService -------------------------------------------------------------------------------------
 

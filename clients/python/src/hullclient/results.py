@@ -16,10 +16,20 @@ import pandas as pd
 
 
 @dataclass(frozen=True)
+class CorrectionsUsed:
+    """The correction set a version was derived with, and the version of the same dataset it corrected."""
+    set_name: str
+    set_version: int
+    source_version: int
+
+
+@dataclass(frozen=True)
 class VersionUsed:
     dataset: str
     version: int
     content_sha256: str
+    # None for a version imported as given.
+    corrections: Optional[CorrectionsUsed] = None
 
 
 @dataclass(frozen=True)
@@ -287,7 +297,35 @@ def timestamp(message) -> Optional[datetime]:
 
 
 def version_used(m) -> VersionUsed:
-    return VersionUsed(m.dataset, m.version, m.content_sha256)
+    corrections = (CorrectionsUsed(m.corrections.set_name, m.corrections.set_version, m.corrections.source_version)
+                   if m.HasField("corrections") else None)
+    return VersionUsed(m.dataset, m.version, m.content_sha256, corrections)
+
+
+@dataclass(frozen=True)
+class CorrectionSet:
+    """A stored correction set: its document exactly as stored (`set_json`) and what it holds."""
+    name: str
+    version: int
+    set_json: str
+    stored_at: Optional[datetime]
+    base_method: str
+    fitted_reference_count: int
+    species_shift_count: int
+    method_rule_count: int
+
+
+def correction_set(m) -> CorrectionSet:
+    return CorrectionSet(m.name, m.version, m.set_json, timestamp(m.stored_at), m.base_method, m.fitted_reference_count,
+                         m.species_shift_count, m.method_rule_count)
+
+
+SHIFT_COLUMNS = ["entry_id", "method", "method_shift_ev_per_atom", "species_shift_ev_per_atom",
+                 "reference_shift_ev_per_atom", "total_shift_ev_per_atom"]
+
+
+def shifts_frame(shifts) -> pd.DataFrame:
+    return pd.DataFrame([{c: getattr(s, c) for c in SHIFT_COLUMNS} for s in shifts], columns=SHIFT_COLUMNS)
 
 
 def element_reference(m) -> ElementReference:
