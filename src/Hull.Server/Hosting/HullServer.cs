@@ -183,6 +183,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();
+        app.MapGrpcService<CurationGrpcService>();
         app.MapGrpcService<ThermoGrpcService>();
         app.MapGrpcHealthChecksService();
         app.MapGrpcReflectionService();

@@ -24,6 +24,7 @@ public sealed class WriteTokenInterceptor : Interceptor
         "/hull.v1.DatasetService/CancelImport",
         "/hull.v1.DatasetService/DeleteVersion",
         "/hull.v1.DefectService/ImportDefectStudy",
+        "/hull.v1.CurationService/CurateVersion",
     };
 
     private const string Scheme = "Bearer ";

@@ -24,6 +24,7 @@ public sealed class Clients : IDisposable
         Windows = new WindowService.WindowServiceClient(Channel);
         Defects = new DefectService.DefectServiceClient(Channel);
         Uncertainty = new UncertaintyService.UncertaintyServiceClient(Channel);
+        Curation = new CurationService.CurationServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -41,6 +42,8 @@ public sealed class Clients : IDisposable
     public DefectService.DefectServiceClient Defects { get; }
 
     public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
+
+    public CurationService.CurationServiceClient Curation { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>
