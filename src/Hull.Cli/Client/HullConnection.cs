@@ -44,6 +44,7 @@ public sealed class HullConnection : IDisposable
         Health = new Health.HealthClient(_channel);
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
+        Curation = new CurationService.CurationServiceClient(_channel);
     }
 
     public Uri Address { get; }
@@ -67,6 +68,8 @@ public sealed class HullConnection : IDisposable
     public FigureService.FigureServiceClient Figures { get; }
 
     public DefectService.DefectServiceClient Defects { get; }
+
+    public CurationService.CurationServiceClient Curation { get; }
 
     /// <summary>Options for one call: the bearer token when given, the deadline, and cancellation.</summary>
     public CallOptions Call(CancellationToken cancellation)
