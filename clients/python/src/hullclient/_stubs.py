@@ -3,6 +3,8 @@
 try:
     from hullclient._wire.google.rpc import error_details_pb2, status_pb2
     from hullclient._wire.hull.v1 import (
+        curation_pb2,
+        curation_pb2_grpc,
         datasets_pb2,
         datasets_pb2_grpc,
         defects_pb2,
@@ -31,10 +33,12 @@ except ImportError as error:  # pragma: no cover - only without a generation
 
 # Every generated module that declares services: the client-coverage test reads their descriptors.
 SERVICE_MODULES = (datasets_pb2, defects_pb2, diagnostics_pb2, electrochemistry_pb2, figures_pb2, stability_pb2,
-                   thermo_pb2, uncertainty_pb2, windows_pb2)
+                   thermo_pb2, uncertainty_pb2, windows_pb2, curation_pb2)
 
 __all__ = [
     "SERVICE_MODULES",
+    "curation_pb2",
+    "curation_pb2_grpc",
     "datasets_pb2",
     "datasets_pb2_grpc",
     "defects_pb2",
