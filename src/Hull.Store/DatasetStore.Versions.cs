@@ -146,6 +146,8 @@ public sealed partial class DatasetStore
             Execute(connection, transaction,
                 "UPDATE dataset_versions SET deleted_at_utc = $t WHERE dataset_id = $d AND version = $v",
                 ("$t", UtcText.Write(now)), ("$d", dataset.DatasetId), ("$v", version));
+            Execute(connection, transaction, "DELETE FROM curation_records WHERE dataset_id = $d AND version = $v",
+                ("$d", dataset.DatasetId), ("$v", version));
 
             long latest = FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? NoVersion;
             if (version > latest)

@@ -53,6 +53,11 @@ public sealed class DemoTests
         Assert.Contains("12. Temperature and oxygen pressure: when does the delithiated cathode give off oxygen?", run.Out);
         Assert.Contains("decomposes above  LiCo2O4 -> 1/3 Co3O4 + LiCoO2", run.Out);
         Assert.Contains("released oxygen and hot cathodes are a fire hazard", run.Out);
+        Assert.Contains("13. Curated versions", run.Out);
+        Assert.Contains("version 2: curated from li-co-o-raw@1", run.Out);
+        Assert.Contains("  1. drop_flagged {\"flag\":\"flagged\"}: 14 entries, 1 removed, 0 changed", run.Out);
+        Assert.Contains("makes version 3 with the same content fingerprint: yes", run.Out);
+        Assert.Contains("A misspelt field is refused: InvalidArgument, recipe step 2, field 'max_ev_per_atm'", run.Out);
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();

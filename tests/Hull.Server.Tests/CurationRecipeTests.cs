@@ -61,6 +61,29 @@ public sealed class CurationRecipeTests
     }
 
     [Fact]
+    public void Above_hull_step_measures_total_energies_from_the_source_versions_references()
+    {
+        // Total energies per formula unit; hand-worked in CurationServiceTests (common practice): with mu_Li = -1.9
+        // and mu_O = -4.9 eV/atom, Li2O2 lies 0.3 eV/atom above the Li2O-O tie-line.
+        EntryRow[] source =
+        [
+            new("li-a", "Li", -1.9, "total_per_formula_unit", "flagged"),
+            new("o2", "O2", -9.8, "total_per_formula_unit"),
+            new("li2o", "Li2O", -15.0, "total_per_formula_unit"),
+            new("li2o2", "Li2O2", -18.7, "total_per_formula_unit"),
+        ];
+        CurationRecipe recipe = CurationRecipe.Parse("""
+            {"recipe_schema": 1, "steps": [{"kind": "drop_flagged"}, {"kind": "drop_above_hull", "max_ev_per_atom": 0.1}]}
+            """);
+        Assert.Equal(["o2", "li2o"], CurationRun.Apply(recipe, source).Rows.Select(r => r.Id));
+
+        // A source without any pure-Li total energy gives Li no reference: nothing of Li can be placed, so nothing is dropped.
+        CurationRun unplaced = CurationRun.Apply(recipe, source[1..]);
+        Assert.Equal(["o2", "li2o", "li2o2"], unplaced.Rows.Select(r => r.Id));
+        Assert.Equal(0, unplaced.Records[1].Removed);
+    }
+
+    [Fact]
     public void Records_count_each_step_and_a_rerun_gives_the_same_fingerprint()
     {
         const string steps = """
@@ -114,6 +137,8 @@ public sealed class CurationRecipeTests
     [InlineData("""{"kind": "drop_above_hull", "max_ev_per_atom": "0.1"}""", 1, "max_ev_per_atom")]
     [InlineData("""{"kind": "keep_elements", "elements": ["Li", "Xx"]}""", 1, "elements[1]")]
     [InlineData("""{"kind": "drop_source"}""", 1, "source")]
+    [InlineData("""{"kind": "drop_above_hull", "max_ev_per_atm": 0.1}""", 1, "max_ev_per_atm")]
+    [InlineData("""{"kind": "keep_lowest_duplicate", "by": "formula"}""", 1, "by")]
     public void A_faulty_step_names_its_number_and_field(string steps, int number, string field)
     {
         var e = Assert.Throws<CurationRecipeException>(() => Run(steps));

@@ -18,7 +18,7 @@ public sealed class SchemaMigrationTests : IDisposable
         {
         }
         using SqliteConnection connection = Raw();
-        Assert.Equal(Enumerable.Range(1, Schema.LatestVersion).Select(v => (long)v), Column<long>(connection, "SELECT version FROM schema_version ORDER BY version"));
+        Assert.Equal(Schema.Migrations.Select(m => (long)m.Version), Column<long>(connection, "SELECT version FROM schema_version ORDER BY version"));
         Assert.Equal("wal", Column<string>(connection, "PRAGMA journal_mode").Single());
     }
 
@@ -61,7 +61,7 @@ public sealed class SchemaMigrationTests : IDisposable
         }
 
         using SqliteConnection after = Raw();
-        Assert.Equal(Enumerable.Range(1, Schema.LatestVersion).Select(v => (long)v), Column<long>(after, "SELECT version FROM schema_version ORDER BY version"));
+        Assert.Equal(Schema.Migrations.Select(m => (long)m.Version), Column<long>(after, "SELECT version FROM schema_version ORDER BY version"));
         Assert.Contains("content_sha256", Column<string>(after, "SELECT name FROM pragma_table_info('dataset_versions')"));
     }
 
@@ -162,9 +162,34 @@ public sealed class SchemaMigrationTests : IDisposable
     }
 
     [Fact]
-    public void SchemaStepsAreNumberedWithoutGaps()
+    public void SchemaStepsAreNumberedInIncreasingOrderAndTheNextIsFoundByNumber()
     {
-        Assert.Equal(Enumerable.Range(1, Schema.Migrations.Count), Schema.Migrations.Select(m => m.Version));
+        var versions = Schema.Migrations.Select(m => m.Version).ToList();
+        Assert.Equal(1, versions[0]);
+        Assert.Equal(versions.Order(), versions);
+        Assert.Equal(versions.Count, versions.Distinct().Count());
+        Assert.Equal(versions, versions.Prepend(0).SkipLast(1).Select(v => Migration.NextAfter(Schema.Migrations, v).Version));
+
+        Migration[] outOfOrder = [new(1, "a", ""), new(3, "c", ""), new(2, "b", "")];
+        var e = Assert.Throws<InvalidOperationException>(() => Migration.NextAfter(outOfOrder, 1));
+        Assert.Contains("step 2 is listed after step 3", e.Message);
+        Assert.Throws<InvalidOperationException>(() => Migration.NextAfter(Schema.Migrations, Schema.LatestVersion));
+    }
+
+    [Fact]
+    public void CurationRecordsGoWithTheirVersion()
+    {
+        using (DatasetStore store = DatasetStore.Open(_directory.Path))
+        {
+            store.CreateDataset("d", "");
+        }
+        using SqliteConnection connection = Raw();
+        Execute(connection, "PRAGMA foreign_keys = ON");
+        Execute(connection, "INSERT INTO dataset_versions VALUES (1, 1, 't', 's', '', 1, 1, 0, 1, NULL, NULL)");
+        Execute(connection, "INSERT INTO curation_records VALUES (1, 1, 'raw', 3, 'ab', '{}', '[]')");
+        Assert.Throws<SqliteException>(() => Execute(connection, "INSERT INTO curation_records VALUES (1, 2, 'raw', 3, 'ab', '{}', '[]')"));
+        Execute(connection, "DELETE FROM dataset_versions WHERE version = 1");
+        Assert.Equal([0L], Column<long>(connection, "SELECT count(*) FROM curation_records"));
     }
 
     private SqliteConnection Raw(bool create = false) => RawDatabase.Open(_directory.DatabasePath, create);

@@ -45,6 +45,7 @@ public sealed class HullConnection : IDisposable
         Figures = new FigureService.FigureServiceClient(_channel);
         Defects = new DefectService.DefectServiceClient(_channel);
         Corrections = new CorrectionService.CorrectionServiceClient(_channel);
+        Curation = new CurationService.CurationServiceClient(_channel);
     }
 
     public Uri Address { get; }
@@ -70,6 +71,8 @@ public sealed class HullConnection : IDisposable
     public FigureService.FigureServiceClient Figures { get; }
 
     public DefectService.DefectServiceClient Defects { get; }
+
+    public CurationService.CurationServiceClient Curation { get; }
 
     /// <summary>Options for one call: the bearer token when given, the deadline, and cancellation.</summary>
     public CallOptions Call(CancellationToken cancellation)

@@ -40,6 +40,7 @@ public static class CommandTree
         root.Subcommands.Add(ServerInfoCommand(wrap));
         root.Subcommands.Add(ServeCommand.Build());
         root.Subcommands.Add(DemoCommand(wrap));
+        root.Subcommands.Add(CurateCommand.Build(wrap));
         return root;
     }
 
@@ -112,6 +113,10 @@ public static class CommandTree
             string caption = $"dataset {response.Dataset.Name}: {response.Dataset.EntryCount} entries at version {response.Dataset.LatestVersion}" +
                              (response.Dataset.Description.Length > 0 ? $" ({response.Dataset.Description})" : string.Empty);
             c.Emit(response, () => VersionsTable(response.Versions), caption);
+            if (c.Format == OutputFormat.Table)
+            {
+                foreach (string line in response.Versions.Where(v => v.Curation is not null).SelectMany(v => CurationText.Lines(v.Curation))) c.Out.WriteLine(line);
+            }
             return ExitCodes.Ok;
         }));
 
@@ -196,7 +201,8 @@ public static class CommandTree
         {
             Description = "with --csv: write the entries' G(T) tables to this file, in the layout `hull import --free-energy-tables` reads",
         };
-        var export = new Command("export", "export a version's entries (with --csv or --json in the import layout)") { dataset, version, output, tables };
+        var recipe = new Option<string?>("--recipe") { Description = "also write the recipe the version was curated by to this file (`hull curate` runs it)" };
+        var export = new Command("export", "export a version's entries (with --csv or --json in the import layout)") { dataset, version, output, tables, recipe };
         export.SetAction(wrap(async (c, t) =>
         {
             var entries = new List<Entry>();
@@ -218,6 +224,7 @@ public static class CommandTree
             }
 
             if (tablePath is not null && c.Format != OutputFormat.Csv) throw new UsageException("--free-energy-tables goes with --csv; a JSON export holds the tables itself");
+            if (c.Get(recipe) is { } recipePath) await CurateCommand.SaveAsync(c, recipePath, await CurateCommand.RecordAsync(c, c.Get(dataset)!, usedVersion, t), t);
             string? path = c.Get(output);
             TextWriter writer = path is null ? c.Out : new StreamWriter(path);
             try

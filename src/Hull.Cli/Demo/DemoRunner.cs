@@ -219,6 +219,7 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         await new DemoFigures(output).RunFiguresAsync(hull, DatasetName, FiguresFolder, t);
         await DefectDemoStep.RunAsync(hull, output, error, DatasetName, data, FiguresFolder, t);
         await ThermoDemoStep.RunAsync(hull, output, DatasetName, data, FiguresFolder, t);
+        await CurationDemoStep.RunAsync(hull, output, error, data, FiguresFolder, t);
         output.WriteLine();
         // Results like these are read as "this compound can be made"; say plainly that they are not a safety assessment.
         output.WriteLine("Caution: these are computed energies for screening only. A phase marked stable says nothing about how to");

@@ -5,16 +5,17 @@ namespace Hull.Server.Curation;
 /// <summary>The entries a recipe left from a version's rows, with one record per step.</summary>
 public sealed record CurationRun(IReadOnlyList<EntryRow> Rows, IReadOnlyList<CurationStepRecord> Records)
 {
-    /// <summary>Runs every step in order over the rows (the rows are read once; nothing is written).</summary>
+    /// <summary>Runs every step in order over the rows of one source version (read once; nothing is written).</summary>
     /// <exception cref="CurationRecipeException">A row whose formula or basis cannot be read (its id named).</exception>
     public static CurationRun Apply(CurationRecipe recipe, IReadOnlyList<EntryRow> rows)
     {
         IReadOnlyList<CurationEntry> entries = rows.Select(CurationEntry.Read).ToList();
+        CurationContext context = CurationContext.Of(entries);
         var records = new List<CurationStepRecord>(recipe.Steps.Count);
         for (int i = 0; i < recipe.Steps.Count; i++)
         {
             ICurationStep step = recipe.Steps[i];
-            CurationStepOutcome outcome = step.Apply(entries);
+            CurationStepOutcome outcome = step.Apply(entries, context);
             records.Add(new CurationStepRecord(i + 1, step.Kind, step.Parameters(), entries.Count, entries.Count - outcome.Entries.Count, outcome.Changed));
             entries = outcome.Entries;
         }

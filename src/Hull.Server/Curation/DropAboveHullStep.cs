@@ -5,8 +5,10 @@ namespace Hull.Server.Curation;
 
 /// <summary>
 /// Drops entries more than <see cref="MaxEvPerAtom"/> above the hull of the entries before this step (formation
-/// energy axis, as the stability call computes it). Entries the hull cannot place (a system with a missing elemental
-/// reference) are kept: the step removes only what it has shown to be far above the hull.
+/// energy axis, as the stability call computes it). Total energies are measured from the source version's elemental
+/// references (<see cref="CurationContext.SourceReferences"/>), the ones that version's own hulls use, so an earlier
+/// step that drops an element's lowest entry does not move the scale. Entries the hull cannot place (an element with
+/// no reference in the source either) are kept: the step removes only what it has shown to be far above the hull.
 /// </summary>
 public sealed class DropAboveHullStep(double maxEvPerAtom) : ICurationStep
 {
@@ -25,10 +27,10 @@ public sealed class DropAboveHullStep(double maxEvPerAtom) : ICurationStep
 
     public JsonObject Parameters() => new() { ["max_ev_per_atom"] = MaxEvPerAtom };
 
-    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries)
+    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context)
     {
         if (entries.Count == 0) return new(entries);
-        DatasetStabilityResult result = DatasetStability.Analyze(entries.Select(e => e.Phase).ToList());
+        DatasetStabilityResult result = DatasetStability.Analyze(entries.Select(e => e.Phase).ToList(), context.SourceReferences);
         var far = new HashSet<int>(result.Entries.Where(s => s.EnergyAboveHullEvPerAtom > MaxEvPerAtom).Select(s => s.RowIndex));
         return new(entries.Where((_, i) => !far.Contains(i)).ToList());
     }

@@ -9,6 +9,6 @@ public abstract class DropByMetadataWordStep(string parameterName, string parame
 
     public JsonObject Parameters() => new() { [parameterName] = parameterValue };
 
-    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries) =>
+    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context) =>
         new(entries.Where(e => !e.MetadataWords.Contains(word, StringComparer.Ordinal)).ToList());
 }

@@ -39,6 +39,6 @@ public sealed class EnergyRangeStep : ICurationStep
         return o;
     }
 
-    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries) =>
+    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context) =>
         new(entries.Where(e => !(e.EnergyEvPerAtom < MinEvPerAtom) && !(e.EnergyEvPerAtom > MaxEvPerAtom)).ToList());
 }

@@ -14,8 +14,8 @@ public interface ICurationStep
     /// <summary>The step's parameters as a recipe writes them (every default filled in).</summary>
     JsonObject Parameters();
 
-    /// <summary>The entries that remain after the step, in the order given.</summary>
-    CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries);
+    /// <summary>The entries that remain after the step, in the order given; <paramref name="context"/> describes the source version.</summary>
+    CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context);
 }
 
 /// <summary>What one step left, and how many entries it changed in place (0 for steps that only drop).</summary>

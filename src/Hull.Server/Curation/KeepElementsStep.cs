@@ -24,7 +24,7 @@ public sealed class KeepElementsStep(IReadOnlyList<string> elements) : ICuration
 
     public JsonObject Parameters() => new() { ["elements"] = new JsonArray(Elements.Select(e => (JsonNode)e).ToArray()) };
 
-    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries)
+    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context)
     {
         var allowed = new HashSet<string>(Elements, StringComparer.Ordinal);
         return new(entries.Where(e => e.Phase.Composition.Elements.All(allowed.Contains)).ToList());

@@ -18,7 +18,7 @@ public sealed class KeepLowestDuplicateStep : ICurationStep
 
     public JsonObject Parameters() => [];
 
-    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries)
+    public CurationStepOutcome Apply(IReadOnlyList<CurationEntry> entries, CurationContext context)
     {
         var best = new Dictionary<(string, string), CurationEntry>();
         foreach (CurationEntry e in entries)

@@ -79,6 +79,19 @@ public sealed class StepParameters
         return texts;
     }
 
+    /// <exception cref="CurationRecipeException">A field that is not one of <paramref name="fields"/>: names it and lists them.</exception>
+    public void RequireOnly(string kind, IReadOnlyCollection<string> fields)
+    {
+        foreach ((string name, JsonNode? _) in _fields)
+        {
+            if (!fields.Contains(name, StringComparer.Ordinal))
+            {
+                string known = fields.Count == 0 ? "it takes none" : "its parameters: " + string.Join(", ", fields);
+                throw Error(name, $"is not a parameter of {kind} ({known})");
+            }
+        }
+    }
+
     /// <exception cref="CurationRecipeException">A field no read asked for: names it.</exception>
     public void RequireAllRead()
     {

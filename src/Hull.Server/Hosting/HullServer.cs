@@ -184,6 +184,7 @@ public sealed class HullServer : IAsyncDisposable
         app.MapGrpcService<WindowGrpcService>();
         app.MapGrpcService<DefectGrpcService>();
         app.MapGrpcService<ElectrochemistryGrpcService>();
+        app.MapGrpcService<CurationGrpcService>();
         app.MapGrpcService<ThermoGrpcService>();
         app.MapGrpcService<CorrectionGrpcService>();
         app.MapGrpcHealthChecksService();

@@ -26,6 +26,7 @@ public sealed class WriteTokenInterceptor : Interceptor
         "/hull.v1.DefectService/ImportDefectStudy",
         "/hull.v1.CorrectionService/PutCorrectionSet",
         "/hull.v1.CorrectionService/DeriveCorrectedVersion",
+        "/hull.v1.CurationService/CurateVersion",
     };
 
     private const string Scheme = "Bearer ";

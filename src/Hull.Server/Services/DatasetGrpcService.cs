@@ -50,7 +50,7 @@ public sealed class DatasetGrpcService(
         RequireName(request.Name, "name");
         DatasetDescription description = store.DescribeDataset(request.Name);
         var response = new DescribeDatasetResponse { Dataset = WireMapping.ToWire(description.Summary) };
-        response.Versions.AddRange(description.Versions.Select(WireMapping.ToWire));
+        response.Versions.AddRange(WithCuration(request.Name, description.Versions));
         return Task.FromResult(response);
     }
 
@@ -270,7 +270,7 @@ public sealed class DatasetGrpcService(
 
         var rest = store.ListVersions(request.Dataset).Where(v => v.Version > after).ToList();
         var response = new ListVersionsResponse();
-        response.Versions.AddRange(rest.Take(pageSize).Select(WireMapping.ToWire));
+        response.Versions.AddRange(WithCuration(request.Dataset, rest.Take(pageSize).ToList()));
         if (rest.Count > pageSize)
         {
             response.NextPageToken = PageToken.Encode(list, rest[pageSize - 1].Version.ToString(System.Globalization.CultureInfo.InvariantCulture));
@@ -294,6 +294,18 @@ public sealed class DatasetGrpcService(
         }
 
         return Task.FromResult(new DeleteVersionResponse());
+    }
+
+    /// <summary>The versions for the wire, each derived one with its curation record.</summary>
+    private IEnumerable<DatasetVersion> WithCuration(string dataset, IReadOnlyList<DatasetVersionInfo> listed)
+    {
+        IReadOnlyDictionary<long, Store.CurationRecord> records = listed.Count == 0 ? new Dictionary<long, Store.CurationRecord>() : store.ListCurationRecords(dataset);
+        foreach (DatasetVersionInfo version in listed)
+        {
+            DatasetVersion wire = WireMapping.ToWire(version);
+            if (records.TryGetValue(version.Version, out Store.CurationRecord? record)) wire.Curation = CurationWireMapping.ToWire(dataset, version.Version, record);
+            yield return wire;
+        }
     }
 
     /// <summary>A page size of 1 to the store's maximum; 0 means the default.</summary>

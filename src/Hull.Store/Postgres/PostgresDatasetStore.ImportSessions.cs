@@ -12,7 +12,11 @@ namespace Hull.Store.Postgres;
 public sealed partial class PostgresDatasetStore
 {
     /// <inheritdoc />
-    public ImportSessionInfo BeginImport(string datasetName, DuplicatePolicy policy, BatchProvenance provenance, TimeSpan idleExpiry)
+    public ImportSessionInfo BeginImport(string datasetName, DuplicatePolicy policy, BatchProvenance provenance, TimeSpan idleExpiry) =>
+        BeginSession(datasetName, policy, provenance, idleExpiry, curationRecord: null);
+
+    /// <summary>Opens a session; one with a curation record (its text) commits as a derived version.</summary>
+    private ImportSessionInfo BeginSession(string datasetName, DuplicatePolicy policy, BatchProvenance provenance, TimeSpan idleExpiry, string? curationRecord)
     {
         DatasetName.Validate(datasetName);
         StoreArguments.CheckProvenance(provenance);
@@ -25,12 +29,13 @@ public sealed partial class PostgresDatasetStore
         {
             DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
             using NpgsqlCommand insert = connection.Command(transaction, """
-                INSERT INTO import_sessions (session_id, dataset_id, duplicate_policy, source_label, note, started_at_utc, expires_at_ms)
-                VALUES (@s, @d, @p, @source, @note, @t, @e)
+                INSERT INTO import_sessions (session_id, dataset_id, duplicate_policy, source_label, note, started_at_utc, expires_at_ms, curation_record)
+                VALUES (@s, @d, @p, @source, @note, @t, @e, @curation)
                 RETURNING session_key
                 """).With("@s", sessionId).With("@d", dataset.DatasetId).With("@p", StoreArguments.PolicyToken(policy))
                 .With("@source", provenance.SourceLabel ?? string.Empty).With("@note", provenance.Note ?? string.Empty)
                 .With("@t", UtcText.Write(now)).With("@e", expires.ToUnixTimeMilliseconds());
+            insert.Parameters.Add(new NpgsqlParameter("@curation", NpgsqlDbType.Text) { Value = (object?)curationRecord ?? DBNull.Value });
             long key = (long)insert.ExecuteScalar()!;
             connection.Execute(transaction, $"""
                 CREATE TABLE {StagingTable(key)} (
@@ -153,6 +158,7 @@ public sealed partial class PostgresDatasetStore
                     WHERE dataset_id = @d AND last_version_exclusive IS NULL AND entry_id IN (SELECT entry_id FROM {staging})
                     """, ("@v", newVersion), ("@d", session.DatasetId));
             }
+            if (session.CurationRecord is not null) CloseUnstagedRows(connection, transaction, session.DatasetId, newVersion);
 
             // The open-row index refuses a second open row of an id: a repeat inside the session, or (Reject) a stored
             // id. A failed statement spoils the transaction, so the move runs under a savepoint to ask which row it was.
@@ -185,9 +191,11 @@ public sealed partial class PostgresDatasetStore
 
             int count = checked((int)session.StagedCount);
             int inserted = count - replaced;
+            // A derived version holds the staged rows only.
             IssueVersion(connection, transaction, session.DatasetId, newVersion, now, session.Provenance, count, inserted, replaced,
-                (previous?.EntryCount ?? 0) + inserted);
+                session.CurationRecord is null ? (previous?.EntryCount ?? 0) + inserted : count);
             RecordSessionCorrections(connection, transaction, session.Key, session.DatasetId, newVersion);
+            if (session.CurationRecord is not null) InsertCurationRecord(connection, transaction, session.DatasetId, newVersion, session.CurationRecord);
             DropSession(connection, transaction, session.Key);
             return new ImportResult(newVersion, inserted, replaced);
         });
@@ -260,7 +268,7 @@ public sealed partial class PostgresDatasetStore
 
     private sealed record OpenSession(
         long Key, long DatasetId, string DatasetName, long LastVersionIssued, DuplicatePolicy Policy, BatchProvenance Provenance, long StagedCount,
-        DateTimeOffset ExpiresAtUtc);
+        DateTimeOffset ExpiresAtUtc, string? CurationRecord = null);
 
     private const string StagingPrefix = "staged_";
 
@@ -327,7 +335,8 @@ public sealed partial class PostgresDatasetStore
     private static OpenSession FindOpenSession(NpgsqlConnection connection, NpgsqlTransaction transaction, string sessionId, DateTimeOffset now)
     {
         using NpgsqlCommand command = connection.Command(transaction, """
-            SELECT s.session_key, s.dataset_id, d.name, d.last_version_issued, s.duplicate_policy, s.source_label, s.note, s.staged_count, s.expires_at_ms
+            SELECT s.session_key, s.dataset_id, d.name, d.last_version_issued, s.duplicate_policy, s.source_label, s.note, s.staged_count, s.expires_at_ms,
+                   s.curation_record
             FROM import_sessions s JOIN datasets d ON d.dataset_id = s.dataset_id
             WHERE s.session_id = @s
             """).With("@s", sessionId);
@@ -336,7 +345,7 @@ public sealed partial class PostgresDatasetStore
         if (reader.GetInt64(8) <= now.ToUnixTimeMilliseconds()) throw new ImportSessionNotFoundException(sessionId, expired: true);
         return new OpenSession(reader.GetInt64(0), reader.GetInt64(1), reader.GetString(2), reader.GetInt64(3),
             StoreArguments.ParsePolicy(reader.GetString(4)), new BatchProvenance(reader.GetString(5), reader.GetString(6)), reader.GetInt64(7),
-            DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)));
+            DateTimeOffset.FromUnixTimeMilliseconds(reader.GetInt64(8)), reader.IsDBNull(9) ? null : reader.GetString(9));
     }
 
     /// <summary>Which staged row broke the open-row index: the first repeat inside the session, else the first stored id.</summary>

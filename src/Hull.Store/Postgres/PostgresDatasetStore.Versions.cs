@@ -132,6 +132,8 @@ public sealed partial class PostgresDatasetStore
             connection.Execute(transaction,
                 "UPDATE dataset_versions SET deleted_at_utc = @t WHERE dataset_id = @d AND version = @v",
                 ("@t", UtcText.Write(now)), ("@d", dataset.DatasetId), ("@v", version));
+            connection.Execute(transaction, "DELETE FROM curation_records WHERE dataset_id = @d AND version = @v",
+                ("@d", dataset.DatasetId), ("@v", version));
 
             long latest = FindLatestLive(connection, transaction, dataset.DatasetId)?.Version ?? IDatasetStore.NoVersion;
             if (version > latest)

@@ -152,6 +152,21 @@ internal static class PostgresSchema
             ALTER TABLE import_sessions ADD COLUMN correction_set_version bigint NULL;
             ALTER TABLE import_sessions ADD COLUMN correction_source_version bigint NULL;
             """),
+        new(8, "curation records: the recipe a derived version was made by, its source version and per-step counts", """
+            -- As in SQLite's step 8: one row per derived version, carried by its import session until the commit.
+            CREATE TABLE curation_records (
+                dataset_id     bigint NOT NULL,
+                version        bigint NOT NULL,
+                source_dataset text NOT NULL,
+                source_version bigint NOT NULL CHECK (source_version >= 1),
+                source_sha256  text NOT NULL,
+                recipe_json    text NOT NULL,
+                steps_json     text NOT NULL,
+                PRIMARY KEY (dataset_id, version),
+                FOREIGN KEY (dataset_id, version) REFERENCES dataset_versions (dataset_id, version) ON DELETE CASCADE
+            );
+            ALTER TABLE import_sessions ADD COLUMN curation_record text NULL;
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>

@@ -34,7 +34,7 @@ internal static class PostgresSchemaMigrator
                 return;
             }
 
-            Migration step = PostgresSchema.Migrations[(int)current];
+            Migration step = Migration.NextAfter(PostgresSchema.Migrations, current);
             connection.Execute(transaction, step.Sql);
             connection.Execute(transaction, "INSERT INTO schema_version (version, description, applied_at_utc) VALUES (@v, @d, @t)",
                 ("@v", step.Version), ("@d", step.Description), ("@t", UtcText.Write(clock.GetUtcNow())));

@@ -159,6 +159,23 @@ internal static class Schema
             ALTER TABLE import_sessions ADD COLUMN correction_set_version INTEGER NULL;
             ALTER TABLE import_sessions ADD COLUMN correction_source_version INTEGER NULL;
             """),
+        new(8, "curation records: the recipe a derived version was made by, its source version and per-step counts", """
+            -- One row per derived version, written in the transaction that commits it: the session carries the record
+            -- until then (curation_record), so a failed or cancelled derivation leaves neither version nor record.
+            -- recipe_json is the recipe file's text; steps_json the per-step kinds, parameters and counts.
+            CREATE TABLE curation_records (
+                dataset_id     INTEGER NOT NULL,
+                version        INTEGER NOT NULL,
+                source_dataset TEXT NOT NULL,
+                source_version INTEGER NOT NULL CHECK (source_version >= 1),
+                source_sha256  TEXT NOT NULL,
+                recipe_json    TEXT NOT NULL,
+                steps_json     TEXT NOT NULL,
+                PRIMARY KEY (dataset_id, version),
+                FOREIGN KEY (dataset_id, version) REFERENCES dataset_versions (dataset_id, version) ON DELETE CASCADE
+            ) WITHOUT ROWID;
+            ALTER TABLE import_sessions ADD COLUMN curation_record TEXT NULL;
+            """),
     ];
 
     /// <summary>The newest schema version this build knows.</summary>

@@ -42,7 +42,12 @@ internal static class SchemaMigrator
                     return;
                 }
 
-                Migration step = Schema.Migrations[(int)current];
+                Migration step = Migration.NextAfter(Schema.Migrations, current);
+                if (step.Version > targetVersion)
+                {
+                    transaction.Commit();
+                    return;
+                }
                 using (var command = connection.CreateCommand())
                 {
                     command.Transaction = transaction;

@@ -25,6 +25,7 @@ public sealed class Clients : IDisposable
         Defects = new DefectService.DefectServiceClient(Channel);
         Uncertainty = new UncertaintyService.UncertaintyServiceClient(Channel);
         Corrections = new CorrectionService.CorrectionServiceClient(Channel);
+        Curation = new CurationService.CurationServiceClient(Channel);
     }
 
     public GrpcChannel Channel { get; }
@@ -44,6 +45,7 @@ public sealed class Clients : IDisposable
     public UncertaintyService.UncertaintyServiceClient Uncertainty { get; }
 
     public CorrectionService.CorrectionServiceClient Corrections { get; }
+    public CurationService.CurationServiceClient Curation { get; }
 
     /// <summary>Call options with the token (when set) and a deadline generous for a loaded CI machine.</summary>
     public CallOptions Call(TimeSpan? timeout = null) =>

@@ -5,6 +5,8 @@ try:
     from hullclient._wire.hull.v1 import (
         corrections_pb2,
         corrections_pb2_grpc,
+        curation_pb2,
+        curation_pb2_grpc,
         datasets_pb2,
         datasets_pb2_grpc,
         defects_pb2,
@@ -32,13 +34,15 @@ except ImportError as error:  # pragma: no cover - only without a generation
     ) from error
 
 # Every generated module that declares services: the client-coverage test reads their descriptors.
-SERVICE_MODULES = (corrections_pb2, datasets_pb2, defects_pb2, diagnostics_pb2, electrochemistry_pb2, figures_pb2, stability_pb2,
-                   thermo_pb2, uncertainty_pb2, windows_pb2)
+SERVICE_MODULES = (corrections_pb2, curation_pb2, datasets_pb2, defects_pb2, diagnostics_pb2, electrochemistry_pb2,
+                   figures_pb2, stability_pb2, thermo_pb2, uncertainty_pb2, windows_pb2)
 
 __all__ = [
     "SERVICE_MODULES",
     "corrections_pb2",
     "corrections_pb2_grpc",
+    "curation_pb2",
+    "curation_pb2_grpc",
     "datasets_pb2",
     "datasets_pb2_grpc",
     "defects_pb2",

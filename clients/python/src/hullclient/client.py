@@ -197,6 +197,7 @@ class HullClient:
         self._thermo = wire.thermo_pb2_grpc.ThermoServiceStub(self._channel)
         self._uncertainty = wire.uncertainty_pb2_grpc.UncertaintyServiceStub(self._channel)
         self._corrections = wire.corrections_pb2_grpc.CorrectionServiceStub(self._channel)
+        self._curation = wire.curation_pb2_grpc.CurationServiceStub(self._channel)
 
     # --- plumbing -----------------------------------------------------------------------------------------------
 
@@ -1092,3 +1093,28 @@ class HullClient:
         if conditions is not None:
             request.gas.CopyFrom(conditions)
         return th.temperature_figure(self._call(self._thermo.DrawTemperatureFigure, self.draw_temperature_figure.hull_rpc, request))
+
+    # --- CurationService ----------------------------------------------------------------------------------------
+
+    @_calls("CurationService", "CurateVersion")
+    def curate_version(self, dataset: str, recipe, *, source_version: int = 0, note: str = "") -> r.CuratedVersion:
+        """Runs a recipe (a recipe file's path, its JSON text, or the same as a dict) on a version (0 = the latest) and
+        writes what is left as the dataset's next version, with its curation record; all or nothing."""
+        if isinstance(recipe, Mapping):
+            text = json.dumps(recipe)
+        elif isinstance(recipe, Path) or (isinstance(recipe, str) and "\n" not in recipe and _is_file(recipe)):
+            text = Path(recipe).read_text(encoding="utf-8")
+        else:
+            text = recipe
+        reply = self._call(self._curation.CurateVersion, self.curate_version.hull_rpc,
+                           wire.curation_pb2.CurateVersionRequest(dataset=dataset, source_version=source_version,
+                                                                  recipe_json=text, note=note))
+        return r.CuratedVersion(reply.dataset_version, reply.entry_count, reply.content_sha256, r.curation_record(reply.record))
+
+    @_calls("CurationService", "GetCurationRecord")
+    def get_curation_record(self, dataset: str, version: int) -> r.CurationRecord:
+        """How a version was derived: source version and fingerprint, the recipe (CurationRecord.recipe_json, which
+        curate_version takes again; .save_recipe(path)) and one row per step with its counts."""
+        reply = self._call(self._curation.GetCurationRecord, self.get_curation_record.hull_rpc,
+                           wire.curation_pb2.GetCurationRecordRequest(dataset=dataset, version=version))
+        return r.curation_record(reply)

@@ -6,6 +6,7 @@ Tabular answers are DataFrames whose `attrs` carry what the answer was computed 
 `reaction` the balanced reaction text; `decomposition_products(frame)` unfolds them into one row per product.
 """
 
+import json
 import math
 from dataclasses import dataclass, field
 from datetime import datetime, timezone
@@ -557,3 +558,39 @@ def dopant_limit(m) -> DopantLimit:
         overall_limiting_phase_ids=tuple(m.overall_limiting_phase_ids), per_host_vertex=per_vertex,
         extended_vertices=vertices_frame(m.extended_vertices, tuple(m.extended_elements)),
         dopant_phase_count=m.dopant_phase_count)
+
+
+CURATION_STEP_COLUMNS = ("number", "kind", "parameters", "entries_before", "removed_count", "changed_count")
+
+
+@dataclass(frozen=True)
+class CurationRecord:
+    dataset: str
+    version: int
+    source_dataset: str
+    source_version: int
+    source_sha256: str
+    # The recipe file's text: curate_version runs it again (on this source, to the same content; or elsewhere).
+    recipe_json: str
+    # One row per step: number, kind, parameters (a dict), entries_before, removed_count, changed_count.
+    steps: pd.DataFrame = field(compare=False)
+
+    def save_recipe(self, path) -> None:
+        with open(path, "w", encoding="utf-8") as f:
+            f.write(self.recipe_json + "\n")
+
+
+@dataclass(frozen=True)
+class CuratedVersion:
+    dataset_version: int
+    entry_count: int
+    # The new version's content fingerprint: equal for equal content.
+    content_sha256: str
+    record: CurationRecord
+
+
+def curation_record(m) -> CurationRecord:
+    rows = [{"number": s.number, "kind": s.kind, "parameters": json.loads(s.parameters_json), "entries_before": s.entries_before,
+             "removed_count": s.removed_count, "changed_count": s.changed_count} for s in m.steps]
+    return CurationRecord(m.dataset, m.version, m.source_dataset, m.source_version, m.source_sha256, m.recipe_json,
+                          pd.DataFrame(rows, columns=list(CURATION_STEP_COLUMNS)))

@@ -1,0 +1,57 @@
+using Grpc.Core;
+using Hull.Cli.Client;
+using Hull.Cli.Commands;
+using Hull.Cli.Input;
+using Hull.Cli.Output;
+using Hull.Protos.V1;
+
+namespace Hull.Cli.Demo;
+
+/// <summary>
+/// The demo's curation step: a raw Li-Co-O collection (data-demo/curation) cleaned by a recipe file into a new
+/// version with its record; the recorded recipe saved, run again to the same content fingerprint; a misspelt
+/// recipe field refused with nothing written.
+/// </summary>
+internal static class CurationDemoStep
+{
+    public const string Dataset = "li-co-o-raw";
+
+    private const string Title = "13. Curated versions: a raw Li-Co-O collection cleaned by a recipe of named steps (data-demo/curation)";
+
+    public static async Task RunAsync(HullConnection hull, TextWriter output, TextWriter error, string data, string figuresFolder, CancellationToken t)
+    {
+        string folder = Path.Combine(data, "curation");
+        output.WriteLine($"\n{Title}\n{new string('=', Title.Length)}");
+        string raw = Path.Combine(folder, "raw-li-co-o.csv");
+        string recipe = await File.ReadAllTextAsync(Path.Combine(folder, "clean.recipe.json"), t);
+        await hull.Datasets.CreateDatasetAsync(new CreateDatasetRequest { Name = Dataset, Description = "Li-Co-O from two groups and a legacy set (invented)" }, hull.Call(t));
+        await new ImportRunner(hull, error, showProgress: false).ImportAsync(Dataset, raw, EntryFileReader.Read(raw), DuplicatePolicy.Reject, ImportRunner.DefaultBatchSize, "raw", t);
+
+        CurateVersionResponse curated = await hull.Curation.CurateVersionAsync(
+            new CurateVersionRequest { Dataset = Dataset, SourceVersion = 1, RecipeJson = recipe, Note = "clean.recipe.json" }, hull.Call(t));
+        output.WriteLine($"  Version {curated.DatasetVersion} holds {curated.EntryCount} entries (content sha256 {curated.ContentSha256[..16]}...).");
+        foreach (string line in CurationText.Lines(curated.Record)) output.WriteLine("  " + line);
+
+        // The record's recipe, saved as a file and run again on the same source, makes the same content.
+        CurationRecord record = await hull.Curation.GetCurationRecordAsync(new GetCurationRecordRequest { Dataset = Dataset, Version = curated.DatasetVersion }, hull.Call(t));
+        Directory.CreateDirectory(figuresFolder);
+        string saved = Path.Combine(figuresFolder, "curation-recipe.json");
+        await File.WriteAllTextAsync(saved, record.RecipeJson + "\n", t);
+        CurateVersionResponse again = await hull.Curation.CurateVersionAsync(
+            new CurateVersionRequest { Dataset = Dataset, SourceVersion = 1, RecipeJson = await File.ReadAllTextAsync(saved, t) }, hull.Call(t));
+        output.WriteLine($"  Recipe saved to {Path.GetFullPath(saved)}; run again on version 1 it makes version {again.DatasetVersion} "
+                         + $"with the same content fingerprint: {(again.ContentSha256 == curated.ContentSha256 ? "yes" : "NO")}");
+
+        const string misspelt = """{"recipe_schema": 1, "steps": [{"kind": "drop_flagged"}, {"kind": "drop_above_hull", "max_ev_per_atm": 0.1}]}""";
+        try
+        {
+            await hull.Curation.CurateVersionAsync(new CurateVersionRequest { Dataset = Dataset, SourceVersion = 1, RecipeJson = misspelt }, hull.Call(t));
+            output.WriteLine("  A misspelt recipe field was NOT refused");
+        }
+        catch (RpcException e)
+        {
+            int versions = (await hull.Datasets.DescribeDatasetAsync(new DescribeDatasetRequest { Name = Dataset }, hull.Call(t))).Versions.Count;
+            output.WriteLine($"  A misspelt field is refused: {e.StatusCode}, {e.Status.Detail} ({versions} versions, as before)");
+        }
+    }
+}

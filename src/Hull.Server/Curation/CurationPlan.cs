@@ -1,0 +1,59 @@
+using Hull.Store;
+
+namespace Hull.Server.Curation;
+
+/// <summary>
+/// A recipe run on one stored version, not yet written: the rows the derived version will hold and the record that
+/// goes with it. Reading and running change nothing, so a faulty recipe or a failing step stores nothing.
+/// </summary>
+/// <param name="Rows">The rows left by the last step, as stored in the source version.</param>
+/// <param name="Record">The record to write beside the derived version.</param>
+/// <param name="Steps">What each step did (the same counts as the record's steps text).</param>
+public sealed record CurationPlan(IReadOnlyList<EntryRow> Rows, CurationRecord Record, IReadOnlyList<CurationStepRecord> Steps)
+{
+    /// <summary>Reads the source version and runs the recipe on it.</summary>
+    /// <param name="store">The store.</param>
+    /// <param name="dataset">The dataset of the source version.</param>
+    /// <param name="sourceVersion">The version to run on; null for the latest.</param>
+    /// <param name="recipe">The recipe, already read.</param>
+    /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
+    /// <exception cref="VersionNotFoundException">No such version, a deleted one, or (null) none at all.</exception>
+    /// <exception cref="CurationRecipeException">A step that cannot run on these rows.</exception>
+    public static CurationPlan Make(IDatasetStore store, string dataset, long? sourceVersion, CurationRecipe recipe)
+    {
+        long version = sourceVersion ?? store.GetLatestVersion(dataset);
+        // A version is never changed once written, so its rows and its fingerprint read apart still belong together.
+        IReadOnlyList<EntryRow> rows = store.GetEntries(dataset, version == IDatasetStore.NoVersion ? null : version);
+        string fingerprint = store.GetFingerprint(dataset, version);
+        CurationRun run = CurationRun.Apply(recipe, rows);
+        var record = new CurationRecord(dataset, version, fingerprint, recipe.ToJson(), CurationStepsJson.Write(run.Records));
+        return new CurationPlan(run.Rows, record, run.Records);
+    }
+
+    /// <summary>
+    /// Writes the rows as the dataset's next version with the record, through one curated import session, in
+    /// batches of at most <paramref name="batchSize"/>. A failure on the way cancels the session, so nothing stays
+    /// staged; a server that dies on the way leaves a session that lapses, never a version.
+    /// </summary>
+    public ImportResult Write(IDatasetStore store, BatchProvenance provenance, TimeSpan idleExpiry, int batchSize)
+    {
+        ImportSessionInfo session = store.BeginCuratedImport(Record.SourceDataset, Record, provenance, idleExpiry);
+        try
+        {
+            foreach (EntryRow[] batch in Rows.Chunk(batchSize)) store.StageBatch(session.SessionId, batch, idleExpiry);
+            return store.CommitImport(session.SessionId, Rows.Count);
+        }
+        catch
+        {
+            try
+            {
+                store.CancelImport(session.SessionId);
+            }
+            catch (ImportSessionNotFoundException)
+            {
+                // Already gone (lapsed and swept): nothing is left to remove.
+            }
+            throw;
+        }
+    }
+}
