@@ -8,7 +8,7 @@ namespace Hull.Server.Tests;
 /// <summary>
 /// CurateVersion with the server process SIGKILLed at random moments: after every restart each version past the
 /// source is a whole curated version with its record (never one without the other, never part of the rows), and
-/// once the killed sessions lapse nothing is left staged.
+/// once the killed sessions lapse (the default 10 minutes, read with a clock moved on) nothing is left staged.
 /// </summary>
 public sealed class CurationCrashTests
 {
@@ -28,7 +28,7 @@ public sealed class CurationCrashTests
         int interrupted = 0;
         for (int round = 0; round <= Kills; round++)
         {
-            using ChildServer server = await ChildServer.StartAsync(folder.Path, "--import-expiry-seconds", "1");
+            using ChildServer server = await ChildServer.StartAsync(folder.Path);
             using var c = new Clients(server.Address);
             if (round == 0)
             {
@@ -67,9 +67,9 @@ public sealed class CurationCrashTests
         }
 
         Assert.True(interrupted >= 1, "no kill interrupted a curation");
-        // The killed sessions have lapsed (1 s): the sweep removes them with their rows, and every record has its version.
-        await Task.Delay(TimeSpan.FromSeconds(1.5));
-        using DatasetStore store = DatasetStore.Open(folder.Path);
+        // Once the killed sessions lapse (read with a clock past the default expiry), the sweep removes them with their
+        // rows, and every record has its version.
+        using DatasetStore store = DatasetStore.Open(folder.Path, new LaterClock(TimeSpan.FromMinutes(11)));
         store.RemoveExpiredImports();
         Assert.Equal(0, store.CountStagedRows());
         Assert.Equal(store.ListVersions("big").Select(v => v.Version).Where(v => v > Batches), store.ListCurationRecords("big").Keys.Order());
@@ -107,5 +107,11 @@ public sealed class CurationCrashTests
         }
 
         return request;
+    }
+
+    /// <summary>The system clock moved on by a fixed span.</summary>
+    private sealed class LaterClock(TimeSpan ahead) : TimeProvider
+    {
+        public override DateTimeOffset GetUtcNow() => base.GetUtcNow() + ahead;
     }
 }
