@@ -102,7 +102,7 @@ public sealed class ClusterTests
         }
     }
 
-    private static int FreePort()
+    internal static int FreePort()
     {
         using var listener = new TcpListener(IPAddress.Loopback, 0);
         listener.Start();

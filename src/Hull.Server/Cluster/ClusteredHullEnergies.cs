@@ -5,6 +5,7 @@ using Hull.Protos.V1;
 using Hull.Server.Caching;
 using Hull.Server.Services;
 using Hull.Server.Validation;
+using Microsoft.Extensions.Logging;
 using Orleans.Runtime.Messaging;
 
 namespace Hull.Server.Cluster;
@@ -18,7 +19,7 @@ internal static class ClusteredHullEnergies
 {
     public static async Task<GetHullEnergiesResponse> AnswerAsync(
         IGrainFactory grains, HullCache cache, GetHullEnergiesRequest request, IReadOnlyList<Composition> compositions, VersionSnapshot snapshot,
-        ElementalReferenceList references, CancellationToken cancellation)
+        ElementalReferenceList references, ILogger? logger, CancellationToken cancellation)
     {
         // Systems in the order of their first formula, so that the first refusal is the one a lone server, which
         // answers formula by formula, would give.
@@ -56,7 +57,7 @@ internal static class ClusteredHullEnergies
             part.ElementalReferences.AddRange(request.ElementalReferences);
             part.Formulas.AddRange(rows.Select(i => request.Formulas[i]));
             string key = SystemHullKey.Of(snapshot.Version, system, references.KeyFor(compositions[rows[0]].Elements));
-            calls.Add((rows, PartAsync(grains.GetGrain<ISystemHullGrain>(key), part,
+            calls.Add((rows, PartAsync(grains.GetGrain<ISystemHullGrain>(key), system, part, logger,
                 () => HullEnergies.AnswerAsync(part, [.. rows.Select(i => compositions[i])], references, snapshot, cache, null, cancellation))));
         }
 
@@ -83,7 +84,7 @@ internal static class ClusteredHullEnergies
     /// itself, with the same code and data, so that a member's loss costs time, not answers.
     /// </summary>
     private static async Task<GetHullEnergiesResponse> PartAsync(
-        ISystemHullGrain grain, GetHullEnergiesRequest part, Func<Task<(GetHullEnergiesResponse Response, CachedHull? Hull)>> locally)
+        ISystemHullGrain grain, string system, GetHullEnergiesRequest part, ILogger? logger, Func<Task<(GetHullEnergiesResponse Response, CachedHull? Hull)>> locally)
     {
         SystemHullAnswer answer;
         try
@@ -92,6 +93,8 @@ internal static class ClusteredHullEnergies
         }
         catch (Exception e) when (e is SiloUnavailableException or OrleansMessageRejectionException or ConnectionFailedException or TimeoutException)
         {
+            logger?.LogWarning("Answering system {System} here: the member holding its hull is unreachable ({Error})",
+                system, e.GetType().Name);
             return (await locally()).Response;
         }
 

@@ -15,7 +15,8 @@ namespace Hull.Server.Services;
 /// The stability service: checks each request, resolves the dataset version, takes the needed hulls from the
 /// cache and translates the science layer's results. Every answer names the version it used.
 /// </summary>
-public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits, Orleans.IGrainFactory? grains = null)
+public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits, Orleans.IGrainFactory? grains = null,
+    Microsoft.Extensions.Logging.ILogger<StabilityGrpcService>? logger = null)
     : StabilityService.StabilityServiceBase
 {
     public override async Task<GetEntryStabilityResponse> GetEntryStability(GetEntryStabilityRequest request, ServerCallContext context)
@@ -156,7 +157,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             return (await HullEnergies.AnswerAsync(request, compositions!, references, snapshot, cache, null, context.CancellationToken)).Response;
         }
 
-        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references, context.CancellationToken);
+        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references, logger, context.CancellationToken);
     }
 
     public override async Task<GetStablePhasesResponse> GetStablePhases(GetStablePhasesRequest request, ServerCallContext context)
