@@ -76,6 +76,15 @@ public sealed class ClusterFailoverTests(ITestOutputHelper output)
                 Assert.Equal(expected[0], await clients[live].Stability.GetHullEnergiesAsync(queries[0], clients[live].Call()));
             }
 
+            // The membership sees the loss: the survivors count two active members (once they have declared it dead).
+            ServerHealth health = new();
+            for (int attempt = 0; attempt < 60 && health.ActiveMembers != 2; attempt++)
+            {
+                if (attempt > 0) await Task.Delay(500);
+                health = await clients[0].Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), clients[0].Call());
+            }
+
+            Assert.Equal((2, "ACTIVE", "failover"), (health.ActiveMembers, health.MemberStatus, health.ClusterName));
             foreach (Clients c in clients) c.Dispose();
         }
         finally

@@ -31,6 +31,11 @@ public sealed class ClusterTests
 
         Assert.Equal(2, await ActiveMembersAsync(first));
         Assert.Equal(2, await ActiveMembersAsync(second));
+        ServerHealth health = await second.Clients.Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), second.Clients.Call());
+        Assert.Equal(("hull-test", 2, "ACTIVE", true, ""), (health.ClusterName, health.ActiveMembers, health.MemberStatus, health.StoreUsable, health.StoreProblem));
+        Assert.Equal(second.Server.StoreLocation, health.StoreLocation);
+        ServerHealth alone = await lone.Clients.Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), lone.Clients.Call());
+        Assert.Equal(("", 0, "", true, 0L), (alone.ClusterName, alone.ActiveMembers, alone.MemberStatus, alone.StoreUsable, alone.GrainHullBuilds));
         GetHullEnergiesResponse expected = await lone.Clients.Stability.GetHullEnergiesAsync(Request, lone.Clients.Call());
         foreach (RunningServer member in new[] { first, second, first, second })
         {
@@ -39,6 +44,8 @@ public sealed class ClusterTests
 
         // Four systems: Li-O, Co-O, Co-Li-O and Li; each built by its grain once in the cluster, wherever it was placed.
         Assert.Equal(4, first.Server.ClusterCounters.GrainHullBuilds + second.Server.ClusterCounters.GrainHullBuilds);
+        Assert.Equal(second.Server.ClusterCounters.GrainHullBuilds,
+            (await second.Clients.Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), second.Clients.Call())).GrainHullBuilds);
         Assert.Equal(0, lone.Server.ClusterCounters.GrainHullBuilds);
     }
 

@@ -9,6 +9,6 @@ internal sealed class ClusterHealthCheck(IServiceProvider services) : IHealthChe
     {
         ClusterStatus? status = ClusterStatus.Of(services);
         string text = status is null ? "no cluster" : $"{status.ActiveMembers} active members; this one {status.ThisMemberStatus}";
-        return Task.FromResult(status?.ThisMemberStatus == nameof(SiloStatus.Active) ? HealthCheckResult.Healthy(text) : HealthCheckResult.Unhealthy(text));
+        return Task.FromResult(status?.ThisMemberStatus == ClusterStatus.Active ? HealthCheckResult.Healthy(text) : HealthCheckResult.Unhealthy(text));
     }
 }

@@ -11,6 +11,7 @@ internal static class ClusterHosting
 {
     public static void Join(WebApplicationBuilder builder, ClusterSettings cluster)
     {
+        builder.Services.AddSingleton(cluster);
         builder.Services.AddSingleton(_ => NpgsqlDataSource.Create(cluster.MembershipConnectionString));
         builder.UseOrleans(silo =>
         {
