@@ -72,6 +72,7 @@ public sealed class CliAgainstServerTests : ServerBackedTests
                      new[] { "datasets", "show", "demo" },
                      new[] { "health" },
                      new[] { "server-info" },
+                     new[] { "health", "--report" },
                  })
         {
             var run = await CliRun.RunAsync([.. args, "--server", Server]);

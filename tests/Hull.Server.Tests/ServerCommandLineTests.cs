@@ -42,6 +42,12 @@ public sealed class ServerCommandLineTests
     [InlineData(new[] { "--data-dir", "/d", "--postgres", "Host=db" }, "give --data-dir or --postgres, not both")]
     [InlineData(new[] { "--postgres", "Host=db;Colour=blue" }, "--postgres: the PostgreSQL connection string cannot be read")]
     [InlineData(new[] { "--postgres", "Database=hull" }, "--postgres: the PostgreSQL connection string names no Host")]
+    [InlineData(new[] { "--data-dir", "/d", "--cluster", "c" }, "--cluster needs --postgres: the members of a cluster share one store")]
+    [InlineData(new[] { "--postgres", "Host=db", "--peer-port", "1" }, "--peer-port needs --cluster")]
+    [InlineData(new[] { "--postgres", "Host=db", "--cluster", "c", "--peer-port", "0" }, "--peer-port 0 is outside 1..65535")]
+    [InlineData(new[] { "--postgres", "Host=db", "--cluster", "c", "--peer-port", "7", "--gateway-port", "7" }, "--peer-port and --gateway-port are both 7")]
+    [InlineData(new[] { "--postgres", "Host=db", "--cluster", "c", "--peer-host", "0.0.0.0" }, "--peer-host 0.0.0.0 is not an address others can reach")]
+    [InlineData(new[] { "--postgres", "Host=db", "--cluster", "c", "--cluster-postgres", "Database=m" }, "--cluster-postgres: the PostgreSQL connection string names no Host")]
     public void Bad_options_are_named(string[] args, string expected)
     {
         Assert.Null(ServerCommandLine.Parse(args, out string? error, out _));
@@ -56,5 +62,24 @@ public sealed class ServerCommandLineTests
         Assert.Equal("Host=db.example;Database=hull;Username=u;Password=secret", options!.PostgresConnectionString);
         Assert.Equal("postgresql://u@db.example:5432/hull", options.StoreDescription);
         Assert.Null(ServerCommandLine.Parse(["--data-dir", "/d"], out _, out _)!.PostgresConnectionString);
+    }
+
+    [Fact]
+    public void Cluster_options_name_the_cluster_its_ports_and_the_membership_database()
+    {
+        HullServerOptions? alone = ServerCommandLine.Parse(["--postgres", "Host=db"], out _, out _);
+        Assert.Null(alone!.Cluster);
+
+        HullServerOptions? defaults = ServerCommandLine.Parse(["--postgres", "Host=db", "--cluster", "c", "--host", "0.0.0.0"], out string? error, out _);
+        Assert.Null(error);
+        Assert.Equal(("c", ServerCommandLine.DefaultPeerPort, ServerCommandLine.DefaultGatewayPort, "Host=db", IPAddress.Loopback),
+            (defaults!.Cluster!.ClusterName, defaults.Cluster.PeerPort, defaults.Cluster.GatewayPort, defaults.Cluster.MembershipConnectionString, defaults.Cluster.PeerAddress));
+
+        HullServerOptions? given = ServerCommandLine.Parse(
+            ["--postgres", "Host=db", "--cluster", "c", "--peer-port", "7001", "--gateway-port", "7101", "--peer-host", "10.0.0.5",
+             "--cluster-postgres", "Host=members"], out error, out _);
+        Assert.Null(error);
+        Assert.Equal((7001, 7101, "Host=members", IPAddress.Parse("10.0.0.5")),
+            (given!.Cluster!.PeerPort, given.Cluster.GatewayPort, given.Cluster.MembershipConnectionString, given.Cluster.PeerAddress));
     }
 }

@@ -87,6 +87,9 @@ def test_limits_cache_counters_and_health(client, demo):
     client.get_entry_stability(DEMO_DATASET, ["bin-CoO"])
     after = client.get_cache_statistics()
     assert after.hull_cache_hits > before.hull_cache_hits
+    health = client.get_server_health()  # a lone server: its store usable, no cluster
+    assert health.store_usable and health.store_problem == "" and health.store_location
+    assert (health.cluster_name, health.active_members, health.member_status) == ("", 0, "")
 
 
 @pytest.mark.parametrize("bad, where, problem", [

@@ -535,12 +535,34 @@ public static class CommandTree
 
     private static Command HealthCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
-        var command = new Command("health", "ask the server's standard gRPC health check (exit 0 only when SERVING)");
+        var report = new Option<bool>("--report") { Description = "also the store's state and the cluster membership as this server sees them" };
+        var command = new Command("health", "ask the server's standard gRPC health check (exit 0 only when SERVING)") { report };
         command.SetAction(wrap(async (c, t) =>
         {
             var response = await c.Server.Health.CheckAsync(new Grpc.Health.V1.HealthCheckRequest(), c.Server.Call(t));
-            c.Emit(response, () => new Table("server", "status").Add(c.ServerAddress.ToString(), response.Status.ToString().ToUpperInvariant()));
-            return response.Status == Grpc.Health.V1.HealthCheckResponse.Types.ServingStatus.Serving ? ExitCodes.Ok : ExitCodes.ServerError;
+            int exit = response.Status == Grpc.Health.V1.HealthCheckResponse.Types.ServingStatus.Serving ? ExitCodes.Ok : ExitCodes.ServerError;
+            if (!c.Get(report))
+            {
+                c.Emit(response, () => new Table("server", "status").Add(c.ServerAddress.ToString(), response.Status.ToString().ToUpperInvariant()));
+                return exit;
+            }
+
+            ServerHealth health = await c.Server.Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), c.Server.Call(t));
+            if (c.Format == OutputFormat.Json)
+            {
+                ProtoJson.WriteArray(c.Out, [response, health]);
+                return exit;
+            }
+
+            TableRenderer.Write(c.Out, new Table("setting", "value")
+                .Add("status", response.Status.ToString().ToUpperInvariant())
+                .Add("store", health.StoreLocation)
+                .Add("store_usable", health.StoreUsable ? "yes" : "no: " + health.StoreProblem)
+                .Add("cluster", health.ClusterName.Length == 0 ? "none (works alone)" : health.ClusterName)
+                .Add("active_members", health.ActiveMembers)
+                .Add("member_status", health.MemberStatus)
+                .Add("grain_hull_builds", health.GrainHullBuilds), c.Format);
+            return exit;
         }));
         return command;
     }

@@ -214,6 +214,9 @@ public sealed class DemoRunner(TextWriter output, TextWriter error)
         CacheStatistics stats = await hull.Diagnostics.GetCacheStatisticsAsync(new GetCacheStatisticsRequest(), hull.Call(t));
         ServerLimits limits = await hull.Diagnostics.GetServerLimitsAsync(new GetServerLimitsRequest(), hull.Call(t));
         output.WriteLine($"  Hull cache: {stats.HullBuilds} hulls built, {stats.HullCacheHits} answers from the cache, {stats.VersionLoads} versions loaded, {stats.DatasetAnalyses} whole-dataset analyses.");
+        ServerHealth report = await hull.Diagnostics.GetServerHealthAsync(new GetServerHealthRequest(), hull.Call(t));
+        output.WriteLine($"  Health: store {(report.StoreUsable ? "usable" : "NOT usable: " + report.StoreProblem)}; " +
+                         (report.ClusterName.Length == 0 ? "no cluster (this server works alone)." : $"cluster {report.ClusterName}, {report.ActiveMembers} active members, this one {report.MemberStatus}."));
         output.WriteLine($"  Limits: {limits.MaxComponentsPerSystem} components and {limits.MaxEntriesPerSystem} entries per chemical system, " +
                          $"{limits.MaxCompositionsPerRequest} compositions per request, {limits.MaxReceiveMessageBytes} bytes per request message.");
         await new DemoFigures(output).RunFiguresAsync(hull, DatasetName, FiguresFolder, t);

@@ -7,9 +7,8 @@ namespace Hull.Server.Cluster;
 public interface ISystemHullGrain : IGrainWithStringKey
 {
     /// <summary>
-    /// Answers a hull-energy request whose formulas all lie in this grain's system: the request and the answer are
-    /// the service's own wire messages (GetHullEnergiesRequest and GetHullEnergiesResponse), so the grain layer only
-    /// carries them.
+    /// Answers a hull-energy request whose formulas all lie in this grain's system: the request is the service's own
+    /// wire message (GetHullEnergiesRequest), the answer its response or refusal, so the grain layer only carries them.
     /// </summary>
-    Task<byte[]> HullEnergiesAsync(byte[] request);
+    Task<SystemHullAnswer> HullEnergiesAsync(byte[] request);
 }

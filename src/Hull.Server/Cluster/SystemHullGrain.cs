@@ -1,6 +1,8 @@
 using Google.Protobuf;
+using Grpc.Core;
 using Hull.Protos.V1;
 using Hull.Server.Caching;
+using Hull.Server.Errors;
 using Hull.Server.Services;
 using Hull.Server.Validation;
 
@@ -14,18 +16,24 @@ public sealed class SystemHullGrain(HullCache cache, ClusterCounters counters) :
 {
     private CachedHull? _hull;
 
-    public async Task<byte[]> HullEnergiesAsync(byte[] request)
+    public async Task<SystemHullAnswer> HullEnergiesAsync(byte[] request)
     {
-        GetHullEnergiesRequest parsed = GetHullEnergiesRequest.Parser.ParseFrom(request);
-        VersionRef version = SystemHullKey.VersionOf(this.GetPrimaryKeyString());
-        VersionSnapshot snapshot = await cache.GetSnapshotAsync(version, CancellationToken.None);
-        if (_hull is null)
+        try
         {
-            counters.CountGrainHullBuild();
+            GetHullEnergiesRequest parsed = GetHullEnergiesRequest.Parser.ParseFrom(request);
+            VersionRef version = SystemHullKey.VersionOf(this.GetPrimaryKeyString());
+            VersionSnapshot snapshot = await cache.GetSnapshotAsync(version, CancellationToken.None);
+            bool building = _hull is null;
+            (GetHullEnergiesResponse response, _hull) = await HullEnergies.AnswerAsync(
+                parsed, HullEnergies.ParseChecked(parsed), ElementalReferenceList.Parse(parsed.ElementalReferences), snapshot, cache, _hull, CancellationToken.None);
+            if (building && _hull is not null) counters.CountGrainHullBuild();
+            return new SystemHullAnswer(response.ToByteArray(), null);
         }
-
-        (GetHullEnergiesResponse response, _hull) = await HullEnergies.AnswerAsync(
-            parsed, HullEnergies.ParseChecked(parsed), ElementalReferenceList.Parse(parsed.ElementalReferences), snapshot, cache, _hull, CancellationToken.None);
-        return response.ToByteArray();
+        catch (Exception e) when (e is RpcException || StoreErrorTranslation.Translate(e) is not null)
+        {
+            // The status a lone server's last line would have made of it; anything else is a failure of this server.
+            RpcException refusal = e as RpcException is { } rpc ? RpcErrors.WithErrorInfo(rpc) : StoreErrorTranslation.Translate(e)!;
+            return new SystemHullAnswer(null, refusal.GetRpcStatus()!.ToByteArray());
+        }
     }
 }

@@ -63,6 +63,9 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>This server's counters as a cluster member (for in-process callers such as tests).</summary>
     public Cluster.ClusterCounters ClusterCounters => _app.Services.GetRequiredService<Cluster.ClusterCounters>();
 
+    /// <summary>This server's view of its cluster; null without one.</summary>
+    public Cluster.ClusterStatus? ClusterStatus => Cluster.ClusterStatus.Of(_app.Services);
+
     /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
     /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
@@ -172,7 +175,8 @@ public sealed class HullServer : IAsyncDisposable
             grpc.Interceptors.Add<ErrorTranslationInterceptor>();
             grpc.Interceptors.Add<WriteTokenInterceptor>();
         });
-        builder.Services.AddGrpcHealthChecks().AddCheck<StoreHealthCheck>("store");
+        IHealthChecksBuilder health = builder.Services.AddGrpcHealthChecks().AddCheck<StoreHealthCheck>("store");
+        if (options.Cluster is not null) health.AddCheck<Cluster.ClusterHealthCheck>("cluster");
         builder.Services.AddGrpcReflection();
 
         WebApplication app = builder.Build();

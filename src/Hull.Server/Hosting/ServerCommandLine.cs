@@ -34,7 +34,18 @@ public static class ServerCommandLine
         new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
         new("--warm-hulls", "N", $"once listening, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
         new("--log-level", "LEVEL", "Trace, Debug, Information, Warning, Error (default Information)"),
+        new("--cluster", "NAME", "join the cluster of this name, sharing hull work with its other members (needs --postgres, the shared store)"),
+        new("--peer-port", "N", $"with --cluster: port the members talk on (default {DefaultPeerPort})"),
+        new("--gateway-port", "N", $"with --cluster: port the cluster's own clients use (default {DefaultGatewayPort})"),
+        new("--peer-host", "ADDRESS", "with --cluster: address the other members reach this one at (default: 127.0.0.1)"),
+        new("--cluster-postgres", "CONNECTION", "with --cluster: PostgreSQL database of the membership tables (default: the --postgres store's)"),
     ];
+
+    /// <summary>The peers' port when --peer-port is not given.</summary>
+    public const int DefaultPeerPort = 50651;
+
+    /// <summary>The cluster clients' port when --gateway-port is not given.</summary>
+    public const int DefaultGatewayPort = 50751;
 
     /// <summary>What the server prints once ready, and where its logs go.</summary>
     public const string ReadyNote = "Prints \"hull server listening on <address>\" on stdout once ready; logs are JSON lines on stderr.";
@@ -111,9 +122,7 @@ public static class ServerCommandLine
             IPAddress host = IPAddress.Loopback;
             if (values.TryGetValue("--host", out string? hostText))
             {
-                host = hostText == "localhost" ? IPAddress.Loopback
-                    : IPAddress.TryParse(hostText, out IPAddress? parsed) ? parsed
-                    : throw new FormatException($"--host '{hostText}' is not an IP address (e.g. 127.0.0.1, ::1, 0.0.0.0)");
+                host = Address(hostText, "--host");
             }
 
             LogLevel level = LogLevel.Information;
@@ -138,6 +147,7 @@ public static class ServerCommandLine
             {
                 throw new FormatException($"--postgres: {badConnection}");
             }
+            Cluster.ClusterSettings? cluster = ParseCluster(values, postgres, host);
             int expirySeconds = PositiveInt(values, "--import-expiry-seconds", (int)ImportSessionSettings.DefaultIdleExpiry.TotalSeconds);
             return new HullServerOptions
             {
@@ -152,6 +162,7 @@ public static class ServerCommandLine
                 Limits = limits,
                 MinimumLogLevel = level,
                 WarmHullsOnStart = warmHulls,
+                Cluster = cluster,
             };
         }
         catch (FormatException e)
@@ -160,6 +171,44 @@ public static class ServerCommandLine
             return null;
         }
     }
+
+    private static Cluster.ClusterSettings? ParseCluster(Dictionary<string, string> values, string? postgres, IPAddress host)
+    {
+        string[] clusterOnly = ["--peer-port", "--gateway-port", "--peer-host", "--cluster-postgres"];
+        if (!values.TryGetValue("--cluster", out string? name))
+        {
+            string? stray = clusterOnly.FirstOrDefault(values.ContainsKey);
+            return stray is null ? null : throw new FormatException($"{stray} needs --cluster");
+        }
+
+        if (name.Trim().Length == 0) throw new FormatException("--cluster needs a name");
+        // Any member may answer for any system's hull, from its own store: they must all read the same one.
+        if (postgres is null) throw new FormatException("--cluster needs --postgres: the members of a cluster share one store");
+        int peerPort = Port(values, "--peer-port", DefaultPeerPort);
+        int gatewayPort = Port(values, "--gateway-port", DefaultGatewayPort);
+        if (peerPort == gatewayPort) throw new FormatException($"--peer-port and --gateway-port are both {peerPort}; give them different ports");
+        IPAddress peerHost = values.TryGetValue("--peer-host", out string? peerText) ? Address(peerText, "--peer-host")
+            : IPAddress.Any.Equals(host) || IPAddress.IPv6Any.Equals(host) ? IPAddress.Loopback : host;
+        if (IPAddress.Any.Equals(peerHost) || IPAddress.IPv6Any.Equals(peerHost))
+        {
+            throw new FormatException($"--peer-host {peerText} is not an address others can reach; give this machine's address");
+        }
+
+        string membership = values.GetValueOrDefault("--cluster-postgres") ?? postgres;
+        if (Hull.Store.Postgres.PostgresDatasetStore.CheckConnectionString(membership) is { } bad) throw new FormatException($"--cluster-postgres: {bad}");
+        return new Cluster.ClusterSettings(name.Trim(), peerPort, gatewayPort, membership) { PeerAddress = peerHost };
+    }
+
+    private static int Port(Dictionary<string, string> values, string name, int fallback)
+    {
+        int port = values.TryGetValue(name, out string? text) ? ParseInt(text, name) : fallback;
+        return port is >= 1 and <= 65535 ? port : throw new FormatException($"{name} {port} is outside 1..65535");
+    }
+
+    private static IPAddress Address(string text, string name) =>
+        text == "localhost" ? IPAddress.Loopback
+        : IPAddress.TryParse(text, out IPAddress? parsed) ? parsed
+        : throw new FormatException($"{name} '{text}' is not an IP address (e.g. 127.0.0.1, ::1, 0.0.0.0)");
 
     private static int PositiveInt(Dictionary<string, string> values, string name, int fallback)
     {

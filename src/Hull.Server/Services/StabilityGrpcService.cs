@@ -15,7 +15,8 @@ namespace Hull.Server.Services;
 /// The stability service: checks each request, resolves the dataset version, takes the needed hulls from the
 /// cache and translates the science layer's results. Every answer names the version it used.
 /// </summary>
-public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits, Orleans.IGrainFactory? grains = null)
+public sealed class StabilityGrpcService(VersionResolver versions, HullCache cache, ServiceLimits limits, Orleans.IGrainFactory? grains = null,
+    Microsoft.Extensions.Logging.ILogger<StabilityGrpcService>? logger = null)
     : StabilityService.StabilityServiceBase
 {
     public override async Task<GetEntryStabilityResponse> GetEntryStability(GetEntryStabilityRequest request, ServerCallContext context)
@@ -156,7 +157,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             return (await HullEnergies.AnswerAsync(request, compositions!, references, snapshot, cache, null, context.CancellationToken)).Response;
         }
 
-        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references);
+        return await Cluster.ClusteredHullEnergies.AnswerAsync(grains, cache, request, compositions!, snapshot, references, logger, context.CancellationToken);
     }
 
     public override async Task<GetStablePhasesResponse> GetStablePhases(GetStablePhasesRequest request, ServerCallContext context)
@@ -386,6 +387,14 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         {
             Spread();
             if (!_references!.ContainsKey(reference.Symbol)) _references.Add(reference.Symbol, WireMapping.ToWire(reference));
+        }
+
+        /// <summary>Coverage and references as another server's answer carried them (a cluster member's part of a request).</summary>
+        public void Add(IEnumerable<Protos.V1.SystemCoverage> coverage, IEnumerable<Protos.V1.ElementReference> references)
+        {
+            Spread();
+            foreach (Protos.V1.SystemCoverage c in coverage) _coverage!.TryAdd(c.ChemicalSystem, c);
+            foreach (Protos.V1.ElementReference r in references) _references!.TryAdd(r.Symbol, r);
         }
 
         public IEnumerable<Protos.V1.SystemCoverage> Coverage =>

@@ -19,6 +19,9 @@ public sealed class ChildServer : IDisposable
 
     public bool HasExited => _process.HasExited;
 
+    /// <summary>What the server has written to stderr so far (its JSON log lines).</summary>
+    public IReadOnlyCollection<string> ErrorLines { get; private init; } = [];
+
     private static ProcessStartInfo StartInfo(string dataDirectory, string[] extraArguments) =>
         StartInfo(["--data-dir", dataDirectory, .. extraArguments]);
 
@@ -69,7 +72,11 @@ public sealed class ChildServer : IDisposable
     private static async Task<ChildServer> StartAsync(ProcessStartInfo start)
     {
         var process = Process.Start(start) ?? throw new InvalidOperationException("could not start the server process");
-        process.ErrorDataReceived += (_, _) => { };
+        var errors = new System.Collections.Concurrent.ConcurrentQueue<string>();
+        process.ErrorDataReceived += (_, line) =>
+        {
+            if (line.Data is { } text) errors.Enqueue(text);
+        };
         process.BeginErrorReadLine();
         using var timeout = new CancellationTokenSource(StartTimeout);
         while (true)
@@ -80,7 +87,7 @@ public sealed class ChildServer : IDisposable
             if (line.StartsWith(Prefix, StringComparison.Ordinal))
             {
                 string address = line[Prefix.Length..].Split(' ')[0];
-                return new ChildServer(process, new Uri(address));
+                return new ChildServer(process, new Uri(address)) { ErrorLines = errors };
             }
         }
     }

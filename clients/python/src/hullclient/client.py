@@ -720,6 +720,13 @@ class HullClient:
                        wire.diagnostics_pb2.GetCacheStatisticsRequest())
         return r.CacheStatistics(m.hull_builds, m.hull_cache_hits, m.version_loads, m.dataset_analyses, m.cached_hulls)
 
+    @_calls("DiagnosticsService", "GetServerHealth")
+    def get_server_health(self) -> r.ServerHealth:
+        """The store (usable now, or why not) and this server's part in a cluster (empty cluster_name: it works alone)."""
+        m = self._call(self._diagnostics.GetServerHealth, self.get_server_health.hull_rpc, wire.diagnostics_pb2.GetServerHealthRequest())
+        return r.ServerHealth(m.store_location, m.store_usable, m.store_problem, m.cluster_name, m.active_members, m.member_status,
+                              m.grain_hull_builds)
+
     # --- WindowService ------------------------------------------------------------------------------------------
 
     @_calls("WindowService", "GetStabilityWindow")

@@ -137,6 +137,17 @@ class CacheStatistics:
     cached_hulls: int
 
 
+@dataclass(frozen=True)
+class ServerHealth:
+    store_location: str
+    store_usable: bool
+    store_problem: str
+    cluster_name: str
+    active_members: int
+    member_status: str
+    grain_hull_builds: int
+
+
 class SvgText:
     """A figure drawn by the server, for dataclasses with an `svg` field (the SVG text): save() writes it, and
     notebooks draw it inline."""
