@@ -10,6 +10,7 @@ if (args.Length == 0)
 {
     Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep|uncertainty> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
+    Console.Error.WriteLine("       Hull.Bench engines-file POINTS [REPS]");
     return 2;
 }
 if (args[0] == "solve-file")
@@ -17,6 +18,14 @@ if (args[0] == "solve-file")
     if (args.Length != 2) { Console.Error.WriteLine("usage: Hull.Bench solve-file POINTS"); return 2; }
     Console.WriteLine(Hull.Solve.PointsFileSolver.SolveFile(args[1]).Summary.Format());
     return 0;
+}
+
+if (args[0] == "engines-file")
+{
+    // engines-file POINTS [REPS]: both engines forced and the chosen one on one points file, in-process (one warm-up,
+    // then REPS runs: median wall, mean CPU of this process), for checking the engine choice on a file by hand.
+    if (args.Length is < 2 or > 3) { Console.Error.WriteLine("usage: Hull.Bench engines-file POINTS [REPS]"); return 2; }
+    return EnginesOnFile.Run(args[1], args.Length > 2 ? int.Parse(args[2], System.Globalization.CultureInfo.InvariantCulture) : 11);
 }
 
 if (args[0] == "write-points")
@@ -36,8 +45,10 @@ if (args[0] == "write-points")
 
 if (args[0] == "dataset-once")
 {
-    // dataset-once dense|sparse [ENTRIES]: generate and analyse the dataset60 dataset once, for profiling by hand.
-    return Dataset60Suite.RunOnce(Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[1], ignoreCase: true), args.Length > 2 ? int.Parse(args[2]) : Dataset60Suite.Entries);
+    // dataset-once dense|sparse [ENTRIES [REPS]]: generate and analyse the dataset60 dataset (REPS times, default
+    // once), for profiling by hand.
+    return Dataset60Suite.RunOnce(Enum.Parse<Hull.Bench.Data.EnergyDistribution>(args[1], ignoreCase: true),
+        args.Length > 2 ? int.Parse(args[2]) : Dataset60Suite.Entries, args.Length > 3 ? int.Parse(args[3]) : 1);
 }
 
 string suite = args[0];

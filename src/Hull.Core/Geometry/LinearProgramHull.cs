@@ -24,10 +24,17 @@ public sealed class LinearProgramHull : IHullStability
     private const int ChunkSize = 32;
 
     /// <summary>
-    /// Pricing work (queries × columns × rows, multiply-adds) from which a group of compositions is solved on all
-    /// cores: about 1e7, some milliseconds, far above the cost of starting workers.
+    /// Estimated pricing work (multiply-adds: queries × columns × rows × passes) from which compositions are solved
+    /// on all cores: about 1.7e7, some milliseconds, far above the cost of starting workers.
     /// </summary>
     private const long ParallelWork = 1L << 24;
+
+    /// <summary>
+    /// Pricing passes over the block one composition's program takes, for the work estimate of a group's solves:
+    /// measured 11 full passes and 33 steps (each pricing a candidate list) per composition on the pair family in
+    /// 8 components. Counting one pass per program kept groups of 100 ms and more on one core.
+    /// </summary>
+    private const long PricingPassesPerSolve = 16;
 
     private readonly HullInput _input;
     private readonly List<(ulong Mask, int[] Points)> _groups;
@@ -275,21 +282,26 @@ public sealed class LinearProgramHull : IHullStability
                 }
                 continue;
             }
-            var blocks = new ColumnBlock[level.Count];
             long work = 0;
-            for (int g = 0; g < level.Count; g++)
-            {
-                blocks[g] = ColumnBlock.Gather(level[g].Mask, _groups, _input);
-                work += (long)level[g].Points.Length * blocks[g].Count * size;
-            }
-            if (level.Count > 1 && work >= ParallelWork) Parallel.For(0, level.Count, g => SolveGroupOf(blocks[g], level[g].Points));
-            else for (int g = 0; g < level.Count; g++) SolveGroupOf(blocks[g], level[g].Points);
+            foreach (var (mask, points) in level) work += (long)points.Length * ColumnCount(mask) * size * PricingPassesPerSolve;
+            // Each group gathers its own block, so that the gathering runs side by side too.
+            if (level.Count > 1 && work >= ParallelWork) Parallel.For(0, level.Count, g => SolveGroupOf(level[g].Mask, level[g].Points));
+            else foreach (var (mask, points) in level) SolveGroupOf(mask, points);
         }
     }
 
-    private void SolveGroupOf(ColumnBlock block, int[] points)
+    private void SolveGroupOf(ulong mask, int[] points)
     {
+        var block = ColumnBlock.Gather(mask, _groups, _input);
         if (!TrySolveGroupOverCandidates(block, points)) SolveGroup(block, points);
+    }
+
+    /// <summary>The number of columns <see cref="ColumnBlock.Gather"/> would collect for <paramref name="mask"/>.</summary>
+    private int ColumnCount(ulong mask)
+    {
+        int count = 0;
+        foreach (var (m, points) in _groups) if ((m & ~mask) == 0) count += points.Length;
+        return count;
     }
 
     /// <summary>Runs <paramref name="work"/> for every chunk of a group, on all cores when the group is large.</summary>
@@ -314,7 +326,7 @@ public sealed class LinearProgramHull : IHullStability
     private void SolveEach(int[] points, ColumnBlock columns, Func<int, int> excludedColumn, SolvedHandler onSolved)
     {
         int rows = columns.Components.Length;
-        ForEachChunk(points.Length, (long)columns.Count * rows, chunk =>
+        ForEachChunk(points.Length, (long)columns.Count * rows * PricingPassesPerSolve, chunk =>
         {
             var solver = new BlockSimplex(rows);
             var basis = new int[rows];
@@ -407,11 +419,17 @@ public sealed class LinearProgramHull : IHullStability
             if (candidate[q]) kept.Add(points[q]);
         }
         var small = ColumnBlock.FromPoints(block.Components, kept, _input);
-        var again = new List<int>();
-        for (int q = 0; q < points.Length; q++)
+        var solveAgain = new bool[points.Length];
+        ForEachChunk(points.Length, (long)(small.Count - subsetVertices.Count) * rows, chunk =>
         {
-            if (candidate[q] || BlockSimplex.AnyColumnBelow(small, planes.AsSpan(q * rows, rows), subsetVertices.Count, small.Count)) again.Add(q);
-        }
+            int end = Math.Min(points.Length, (chunk + 1) * ChunkSize);
+            for (int q = chunk * ChunkSize; q < end; q++)
+            {
+                solveAgain[q] = candidate[q] || BlockSimplex.AnyColumnBelow(small, planes.AsSpan(q * rows, rows), subsetVertices.Count, small.Count);
+            }
+        });
+        var again = new List<int>();
+        for (int q = 0; q < points.Length; q++) if (solveAgain[q]) again.Add(q);
         var againPoints = new int[again.Count];
         for (int i = 0; i < againPoints.Length; i++) againPoints[i] = points[again[i]];
         SolveEach(againPoints, small, i => columnOf[again[i]], (i, p, x, solver, basis, weights, without) =>

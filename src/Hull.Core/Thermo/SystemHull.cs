@@ -252,8 +252,13 @@ public sealed partial class SystemHull
             }
         }
 
-        // Every point carries its id rank (a dataset's hull): sorting by the integer keys is the same order, faster.
-        Array.Sort(ranks, points);
+        // Every point carries its id rank (a dataset's hull): sorting by the integer keys is the same order, faster,
+        // and fastest as plain 64-bit keys (rank, then index; ranks are unique) with one permutation after.
+        var keys = new long[points.Length];
+        for (int i = 0; i < keys.Length; i++) keys[i] = ((long)ranks[i] << 32) | (uint)i;
+        Array.Sort(keys);
+        var before = (HullPoint[])points.Clone();
+        for (int i = 0; i < keys.Length; i++) points[i] = before[(int)(keys[i] & uint.MaxValue)];
     }
 
     /// <summary>By id (ordinal; by rank where both points carry one), then a synthetic reference after an entry.</summary>
