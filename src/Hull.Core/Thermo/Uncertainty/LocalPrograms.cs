@@ -79,8 +79,8 @@ internal sealed class LocalPrograms
     /// <summary>The largest number of components of a composition.</summary>
     public int MaxRows { get; private init; }
 
-    /// <summary>The programs of the plain hull over <paramref name="amounts"/> (canonical order) at <paramref name="energies"/>.</summary>
-    public static LocalPrograms Prepare(IReadOnlyList<long[]> amounts, double[] energies)
+    /// <summary>The programs of the plain hull over <paramref name="amounts"/> (canonical order) at <paramref name="energies"/>, on up to <paramref name="threads"/> threads.</summary>
+    public static LocalPrograms Prepare(IReadOnlyList<long[]> amounts, double[] energies, int threads)
     {
         HullInput input = HullInput.Check(amounts, energies);
         int n = energies.Length;
@@ -127,15 +127,8 @@ internal sealed class LocalPrograms
         var threshold = new double[m];
         var plainPlane = new double[m][];
         var plainBasis = new int[m][];
-        var block = ColumnBlock.Scratch(maxRows, n);
-        var solver = new BlockSimplex(maxRows);
-        var columns = new List<int>(n);
-        var keys = new double[n];
-        var order = new int[n];
-        var xAll = new double[maxRows];
-        var basisAll = new int[maxRows];
-        var weightsAll = new double[maxRows];
-        for (int c = 0; c < m; c++)
+        // Each composition's program and ranking is its own (the same on any thread); threads share nothing else.
+        Parallel.For(0, m, new ParallelOptions { MaxDegreeOfParallelism = Math.Max(1, threads) }, () => new PrepareScratch(maxRows, n), (c, _, scratch) =>
         {
             if (isPure[c])
             {
@@ -145,8 +138,10 @@ internal sealed class LocalPrograms
                 threshold[c] = double.PositiveInfinity;
                 plainPlane[c] = [];
                 plainBasis[c] = [];
-                continue;
+                return scratch;
             }
+
+            var (block, solver, columns, keys, order, xAll, basisAll, weightsAll) = scratch;
 
             int[] face = facePoints[masks[c]];
             int k = components[c].Length;
@@ -191,7 +186,8 @@ internal sealed class LocalPrograms
             rankedCost[c] = keys.AsSpan(0, rankedCount).ToArray();
             near[c] = [.. chosen.Distinct().Order()];
             threshold[c] = rankedCount < count ? keys[rankedCount] : double.PositiveInfinity;
-        }
+            return scratch;
+        }, _ => { });
 
         return new LocalPrograms(input)
         {
@@ -208,6 +204,16 @@ internal sealed class LocalPrograms
             FacePoints = facePoints,
             MaxRows = maxRows,
         };
+    }
+
+    private sealed record PrepareScratch(
+        ColumnBlock Block, BlockSimplex Solver, List<int> Columns, double[] Keys, int[] Order, double[] X, int[] Basis, double[] Weights)
+    {
+        public PrepareScratch(int maxRows, int points)
+            : this(ColumnBlock.Scratch(maxRows, points), new BlockSimplex(maxRows), new List<int>(points), new double[points], new int[points],
+                new double[maxRows], new int[maxRows], new double[maxRows])
+        {
+        }
     }
 
     /// <summary>Whether the fast programs take a system of <paramref name="componentCount"/> components.</summary>

@@ -79,7 +79,7 @@ public static class StabilitySampling
         }
 
         cancellation.ThrowIfCancellationRequested();
-        var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll, localPrograms);
+        var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll, localPrograms, maxThreads > 0 ? maxThreads : Environment.ProcessorCount);
         int entryCount = setup.EntryPoints.Length;
         long perSample = Math.Max(1, entryCount);
         int limit = (int)Math.Min(SamplingLimits.MaxSamples, SamplingLimits.MaxSampledValues / perSample);
@@ -305,7 +305,7 @@ internal sealed class SamplingSetup
     public double[][] Fractions { get; private init; } = [];
 
     public static SamplingSetup Prepare(
-        SystemHull plain, IReadOnlyList<EnergyUncertainty> uncertainties, IReadOnlyList<CorrelationGroup> groups, bool rebuildAll, bool localPrograms)
+        SystemHull plain, IReadOnlyList<EnergyUncertainty> uncertainties, IReadOnlyList<CorrelationGroup> groups, bool rebuildAll, bool localPrograms, int threads = 1)
     {
         var byId = new Dictionary<string, EnergyUncertainty>(StringComparer.Ordinal);
         for (int row = 0; row < uncertainties.Count; row++)
@@ -403,7 +403,7 @@ internal sealed class SamplingSetup
         {
             var amounts = new long[n][];
             for (int i = 0; i < n; i++) amounts[i] = plain.PointAt(i).Amounts;
-            local = LocalPrograms.Prepare(amounts, energy);
+            local = LocalPrograms.Prepare(amounts, energy, threads);
         }
 
         return new SamplingSetup(plain)
