@@ -176,16 +176,18 @@ internal sealed class LocalPrograms
                 order[count++] = p;
             }
 
-            Array.Sort(keys, order, 0, count);
+            // Only the ranked prefix needs order: select it, then sort it (the setup stays linear in the face per composition).
+            int rankedCount = Math.Min(RankedPoints, count);
+            double beyond = rankedCount < count ? SelectLowest(keys, order, count, rankedCount) : double.PositiveInfinity;
+            Array.Sort(keys, order, 0, rankedCount);
             var chosen = new List<int>(NearPoints + 2 * k);
             for (int t = 0; t < Math.Min(NearPoints, count); t++) chosen.Add(order[t]);
             foreach (int p in face) if (isPure[input.CompositionOf[p]]) chosen.Add(p);
             chosen.AddRange(plainBasis[c]);
-            int rankedCount = Math.Min(RankedPoints, count);
             ranked[c] = order.AsSpan(0, rankedCount).ToArray();
             rankedCost[c] = keys.AsSpan(0, rankedCount).ToArray();
             near[c] = [.. chosen.Distinct().Order()];
-            threshold[c] = rankedCount < count ? keys[rankedCount] : double.PositiveInfinity;
+            threshold[c] = beyond;
             return scratch;
         }, _ => { });
 
@@ -216,6 +218,45 @@ internal sealed class LocalPrograms
         }
     }
 
-    /// <summary>Whether the fast programs take a system of <paramref name="componentCount"/> components.</summary>
-    public static bool Takes(int componentCount) => componentCount <= MaxComponents;
+    /// <summary>
+    /// The fast programs take systems of up to this many points: their setup prices every point of each
+    /// composition's face once (quadratic in the points), which a system this size pays for within a few samples.
+    /// </summary>
+    public const int MaxPoints = 20_000;
+
+    /// <summary>Whether the fast programs take a system of <paramref name="componentCount"/> components and <paramref name="pointCount"/> points.</summary>
+    public static bool Takes(int componentCount, int pointCount) => componentCount <= MaxComponents && pointCount <= MaxPoints;
+
+    /// <summary>
+    /// Reorders keys[0, count) (and order alike) so that the <paramref name="want"/> lowest come first (quickselect),
+    /// and returns the lowest key of the rest.
+    /// </summary>
+    private static double SelectLowest(double[] keys, int[] order, int count, int want)
+    {
+        int lo = 0, hi = count - 1;
+        while (lo < hi)
+        {
+            double pivot = keys[(lo + hi) >>> 1];
+            int i = lo, j = hi;
+            while (i <= j)
+            {
+                while (keys[i] < pivot) i++;
+                while (keys[j] > pivot) j--;
+                if (i > j) break;
+                (keys[i], keys[j]) = (keys[j], keys[i]);
+                (order[i], order[j]) = (order[j], order[i]);
+                i++;
+                j--;
+            }
+
+            // [lo, j] ≤ pivot ≤ [i, hi]: go on in the part that holds position want.
+            if (want <= j) hi = j;
+            else if (want >= i) lo = i;
+            else break;
+        }
+
+        double lowest = double.PositiveInfinity;
+        for (int t = want; t < count; t++) lowest = Math.Min(lowest, keys[t]);
+        return lowest;
+    }
 }

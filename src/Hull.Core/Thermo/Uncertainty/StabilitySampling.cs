@@ -399,7 +399,7 @@ internal sealed class SamplingSetup
         }
 
         LocalPrograms? local = null;
-        if (localPrograms && LocalPrograms.Takes(plain.Components.Count))
+        if (localPrograms && LocalPrograms.Takes(plain.Components.Count, n))
         {
             var amounts = new long[n][];
             for (int i = 0; i < n; i++) amounts[i] = plain.PointAt(i).Amounts;
