@@ -19,7 +19,7 @@ internal sealed class BlockSimplex
     /// well above that noise and far below <see cref="HullTolerances.EnergyEvPerAtom"/>, so a skipped column can
     /// change the optimum by no more than 1e-12 eV/atom.
     /// </summary>
-    private const double EnteringReducedCost = 1e-12;
+    internal const double EnteringReducedCost = 1e-12;
 
     /// <summary>
     /// Pivot entries of the entering direction at or below this are treated as zero in the ratio test: the
@@ -237,6 +237,17 @@ internal sealed class BlockSimplex
             value += _weights[i] * block.Energies[basis[i]];
         }
         return value;
+    }
+
+    /// <summary>
+    /// Drops the candidate list: the next solve prices its block afresh. For a scratch block whose columns were
+    /// filled again (see <see cref="ColumnBlock.Refill"/>), where the list would name columns of the old content.
+    /// </summary>
+    public void ForgetCandidates()
+    {
+        _candidatesOf = null;
+        _candidateCount = 0;
+        _priceFrom = 0;
     }
 
     /// <summary>

@@ -17,22 +17,30 @@ internal sealed class ColumnBlock
         Rows = rows;
         Energies = energies;
         CornerColumns = cornerColumns;
+        _count = points.Length;
     }
 
+    // Columns in use: all of Points, except in a scratch block (see Scratch), whose arrays are sized for the most.
+    private int _count;
+
+    // A scratch block's component and corner arrays, one pair per number of rows (the solver reads their lengths).
+    private int[][]? _componentsOfRows;
+    private int[][]? _cornersOfRows;
+
     /// <summary>The components of this block as a bit set.</summary>
-    public ulong Mask { get; }
+    public ulong Mask { get; private set; }
 
     /// <summary>The component index of each row, ascending.</summary>
-    public int[] Components { get; }
+    public int[] Components { get; private set; }
 
-    /// <summary>The input point of each column.</summary>
+    /// <summary>The input point of each column (in a scratch block, the first <see cref="Count"/> entries).</summary>
     public int[] Points { get; }
 
     /// <summary>Number of columns.</summary>
-    public int Count => Points.Length;
+    public int Count => _count;
 
     /// <summary>Row r's fractions are [r * Stride, r * Stride + Count).</summary>
-    public int Stride => Points.Length;
+    public int Stride => _count;
 
     /// <summary>Fractions, row-major by component.</summary>
     public double[] Rows { get; }
@@ -41,10 +49,71 @@ internal sealed class ColumnBlock
     public double[] Energies { get; }
 
     /// <summary>For each row, the column of the pure point of that component.</summary>
-    public int[] CornerColumns { get; }
+    public int[] CornerColumns { get; private set; }
 
     /// <summary>The first column of the points whose mask is exactly <see cref="Mask"/> (they are consecutive, in group order), or -1.</summary>
     public int OwnGroupStart { get; private init; } = -1;
+
+    /// <summary>
+    /// An empty block to be filled again and again by <see cref="Refill"/>, with up to <paramref name="capacity"/>
+    /// columns of up to <paramref name="maxRows"/> rows: one per thread, so that many small programs (one per
+    /// composition and sample of uncertain energies) allocate nothing.
+    /// </summary>
+    public static ColumnBlock Scratch(int maxRows, int capacity)
+    {
+        var block = new ColumnBlock(0, [], new int[capacity], new double[maxRows * capacity], new double[capacity], [])
+        {
+            _componentsOfRows = new int[maxRows + 1][],
+            _cornersOfRows = new int[maxRows + 1][],
+        };
+        block._count = 0;
+        for (int k = 0; k <= maxRows; k++)
+        {
+            block._componentsOfRows[k] = new int[k];
+            block._cornersOfRows[k] = new int[k];
+        }
+        return block;
+    }
+
+    /// <summary>
+    /// Makes this scratch block the columns <paramref name="points"/> over the rows <paramref name="components"/>
+    /// (ascending), at the energies <paramref name="energyByPoint"/> (indexed by input point); exactly one of the
+    /// points must be the pure point of each row's component.
+    /// </summary>
+    public void Refill(ReadOnlySpan<int> components, ReadOnlySpan<int> points, HullInput input, ReadOnlySpan<double> energyByPoint)
+    {
+        if (_componentsOfRows is null || _cornersOfRows is null) throw new InvalidOperationException("Only a scratch block is filled again.");
+        int k = components.Length;
+        int count = points.Length;
+        if (k >= _componentsOfRows.Length || count > Points.Length) throw new ArgumentException("The columns do not fit the scratch block.");
+        int[] rowComponents = _componentsOfRows[k];
+        int[] corners = _cornersOfRows[k];
+        components.CopyTo(rowComponents);
+        Array.Fill(corners, -1);
+        ulong mask = 0;
+        foreach (int c in components) mask |= c < 64 ? 1UL << c : 0;
+        for (int j = 0; j < count; j++)
+        {
+            int p = points[j];
+            Points[j] = p;
+            Energies[j] = energyByPoint[p];
+            var x = input.FractionsOf(p);
+            for (int r = 0; r < k; r++)
+            {
+                double fraction = x[rowComponents[r]];
+                Rows[r * count + j] = fraction;
+                if (fraction == 1.0) corners[r] = j;
+            }
+        }
+        for (int r = 0; r < k; r++)
+        {
+            if (corners[r] < 0) throw new ArgumentException($"The columns hold no pure point of component {rowComponents[r]}.", nameof(points));
+        }
+        Mask = mask;
+        Components = rowComponents;
+        CornerColumns = corners;
+        _count = count;
+    }
 
     /// <summary>A composition's fractions (one per component of the whole space) restricted to this block's rows.</summary>
     public void Restrict(ReadOnlySpan<double> fractions, Span<double> x)

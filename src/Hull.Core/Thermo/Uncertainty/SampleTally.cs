@@ -47,8 +47,15 @@ internal sealed class SampleTally
     public void Run(SamplingSetup setup, ulong seed, int first, int count, int threads, CancellationToken cancellation)
     {
         Grow(first + count);
+        // Each thread keeps one solver for its samples; a sample's answer depends on nothing the solver kept.
         Parallel.For(first, first + count, new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = cancellation },
-            s => StabilitySampling.SampleOne(setup, seed, s, this, s));
+            () => setup.Local is null ? null : new SampleSolver(setup.Local),
+            (s, _, solver) =>
+            {
+                StabilitySampling.SampleOne(setup, seed, s, this, s, solver);
+                return solver;
+            },
+            _ => { });
         for (int e = 0; e < _entries; e++)
         {
             bool[] flags = _vertex[e];
@@ -76,6 +83,13 @@ internal sealed class SampleTally
         _stableSets[sample] = Intern(vertexPoints);
         _rebuilt[sample] = pointsRebuilt;
     }
+
+    /// <summary>Sample <paramref name="sample"/>'s reading of entry <paramref name="entry"/> (decomposition as canonical point indices).</summary>
+    public (bool IsVertex, double AboveEvPerAtom, int[] Products) Reading(int entry, int sample) =>
+        (_vertex[entry][sample], _above[entry][sample], _keys[_products[entry][sample]]);
+
+    /// <summary>Sample <paramref name="sample"/>'s hull vertices (canonical point indices, ascending).</summary>
+    public int[] StableSet(int sample) => _keys[_stableSets[sample]];
 
     /// <summary>The largest √(p(1−p)/N) over the entries.</summary>
     public double LargestVertexStandardError()

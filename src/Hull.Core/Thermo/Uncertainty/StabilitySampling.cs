@@ -16,6 +16,11 @@ namespace Hull.Core.Thermo.Uncertainty;
 /// stays above that bound by more than <see cref="CandidateMarginEvPerAtom"/> cannot be a vertex of the sample and
 /// is left out of the rebuild; it is placed on the sampled hull afterwards. The hull of the entries kept is the hull
 /// of all, since every vertex is kept, so only the hull near the perturbed entries is rebuilt.</para>
+/// <para>The hull of the kept entries is not built as a hull: each composition's program is solved over the points
+/// nearest its plain plane, starting from the plain optimum, with a bound from the plain reduced costs that shows
+/// when no other point can lie below the sample's plane (<see cref="LocalPrograms"/>, <see cref="SampleSolver"/>);
+/// the few programs the bound leaves open are solved over their whole face. The readings are those of the hull
+/// built over the kept entries (tested sample by sample).</para>
 /// <para>Samples run in parallel; each one's draws follow from the seed and its index alone, and every tally is
 /// summed in sample order afterwards, so the answer does not depend on the number of threads.</para>
 /// </remarks>
@@ -47,10 +52,12 @@ public static class StabilitySampling
         SamplingPlan plan,
         int maxThreads = 0,
         CancellationToken cancellation = default) =>
-        Run(plain, uncertainties, groups, plan, maxThreads, rebuildAll: false, cancellation);
+        Run(plain, uncertainties, groups, plan, maxThreads, rebuildAll: false, localPrograms: true, cancellation);
 
     /// <summary>As the public overload; <paramref name="rebuildAll"/> rebuilds every sample's hull over every entry
-    /// (no reuse of the plain hull), the check on the reuse.</summary>
+    /// (no reuse of the plain hull's decompositions), the check on the reuse; without
+    /// <paramref name="localPrograms"/> each sample's hull is built as a hull of its own (<see cref="SystemHull"/>
+    /// over the kept points) and read, the plain way the local programs are checked against.</summary>
     internal static StabilitySamplingResult Run(
         SystemHull plain,
         IReadOnlyList<EnergyUncertainty> uncertainties,
@@ -58,6 +65,7 @@ public static class StabilitySampling
         SamplingPlan plan,
         int maxThreads,
         bool rebuildAll,
+        bool localPrograms = true,
         CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(plain);
@@ -71,7 +79,7 @@ public static class StabilitySampling
         }
 
         cancellation.ThrowIfCancellationRequested();
-        var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll);
+        var setup = SamplingSetup.Prepare(plain, uncertainties, groups, rebuildAll, localPrograms, maxThreads > 0 ? maxThreads : Environment.ProcessorCount);
         int entryCount = setup.EntryPoints.Length;
         long perSample = Math.Max(1, entryCount);
         int limit = (int)Math.Min(SamplingLimits.MaxSamples, SamplingLimits.MaxSampledValues / perSample);
@@ -110,31 +118,15 @@ public static class StabilitySampling
         return tally.Summarise(setup, plan, reason);
     }
 
-    /// <summary>The per-sample work: draw, keep the entries that may be vertices, rebuild, read every entry.</summary>
-    internal static void SampleOne(SamplingSetup setup, ulong seed, int sample, SampleTally tally, int slot)
+    /// <summary>
+    /// The per-sample work: draw, keep the entries that may be vertices, read the hull of those at every entry,
+    /// by the local programs when <paramref name="solver"/> is given (see <see cref="LocalPrograms"/>), else by
+    /// building that hull.
+    /// </summary>
+    internal static void SampleOne(SamplingSetup setup, ulong seed, int sample, SampleTally tally, int slot, SampleSolver? solver)
     {
-        SystemHull plain = setup.Plain;
-        int n = plain.PointCount;
-        var random = new SampleRandom(seed, sample);
-        var groupShift = new double[setup.Groups.Count];
-        for (int g = 0; g < groupShift.Length; g++)
-        {
-            groupShift[g] = setup.Groups[g].SigmaEvPerAtom * random.NextGaussian();
-        }
-
-        var shift = new double[n];
-        var energy = new double[n];
-        for (int i = 0; i < n; i++)
-        {
-            if (setup.IsEntry[i])
-            {
-                // One draw per entry whatever its σ, so an entry's σ never moves another entry's stream.
-                double z = random.NextGaussian();
-                shift[i] = setup.Sigma[i] * z + (setup.GroupOf[i] >= 0 ? groupShift[setup.GroupOf[i]] : 0.0);
-            }
-
-            energy[i] = setup.PlainEnergy[i] + shift[i];
-        }
+        int n = setup.Plain.PointCount;
+        (double[] shift, double[] energy) = Draw(setup, seed, sample);
 
         if (Array.TrueForAll(shift, d => d == 0.0))
         {
@@ -145,18 +137,26 @@ public static class StabilitySampling
 
         var kept = new List<int>(n);
         var sampleIndex = new int[n];
+        var isKept = new bool[n];
         for (int i = 0; i < n; i++)
         {
             sampleIndex[i] = -1;
             if (setup.RebuildAll || setup.AlwaysKept[i] || LowerBoundAboveHull(setup, i, shift) <= CandidateMarginEvPerAtom)
             {
                 sampleIndex[i] = kept.Count;
+                isKept[i] = true;
                 kept.Add(i);
             }
         }
 
+        if (solver is not null)
+        {
+            ReadByLocalPrograms(setup, solver, energy, shift, isKept, kept.Count, tally, slot);
+            return;
+        }
+
         int[] keptPoints = kept.ToArray();
-        SystemHull hull = plain.Resampled(HullAxis.SampledEnergy(sample), keptPoints, energy);
+        SystemHull hull = setup.Plain.Resampled(HullAxis.SampledEnergy(sample), keptPoints, energy);
         var vertexSet = new int[hull.VertexPointIndices.Count];
         for (int k = 0; k < vertexSet.Length; k++)
         {
@@ -192,6 +192,62 @@ public static class StabilitySampling
                 Array.Sort(products);
             }
 
+            tally.Record(e, slot, isVertex, above, products);
+        }
+    }
+
+    /// <summary>
+    /// One sample's draws: each point's energy error (eV/atom; zero for points without an entry) and its sampled
+    /// energy, by canonical point index. They depend on the seed and the sample index alone.
+    /// </summary>
+    internal static (double[] Shift, double[] Energy) Draw(SamplingSetup setup, ulong seed, int sample)
+    {
+        int n = setup.Plain.PointCount;
+        var random = new SampleRandom(seed, sample);
+        var groupShift = new double[setup.Groups.Count];
+        for (int g = 0; g < groupShift.Length; g++)
+        {
+            groupShift[g] = setup.Groups[g].SigmaEvPerAtom * random.NextGaussian();
+        }
+
+        var shift = new double[n];
+        var energy = new double[n];
+        for (int i = 0; i < n; i++)
+        {
+            if (setup.IsEntry[i])
+            {
+                // One draw per entry whatever its σ, so an entry's σ never moves another entry's stream.
+                double z = random.NextGaussian();
+                shift[i] = setup.Sigma[i] * z + (setup.GroupOf[i] >= 0 ? groupShift[setup.GroupOf[i]] : 0.0);
+            }
+
+            energy[i] = setup.PlainEnergy[i] + shift[i];
+        }
+
+        return (shift, energy);
+    }
+
+    /// <summary>The readings of one sample from the local programs: the same fields as the hull built over the kept points.</summary>
+    private static void ReadByLocalPrograms(
+        SamplingSetup setup, SampleSolver solver, double[] energy, double[] shift, bool[] isKept, int keptCount, SampleTally tally, int slot)
+    {
+        solver.Solve(energy, shift, isKept);
+        int[] compositionOf = setup.Local!.CompositionOf;
+        var vertices = new List<int>();
+        for (int i = 0; i < energy.Length; i++) if (solver.IsVertexPoint(i)) vertices.Add(i);
+        tally.RecordStableSet(slot, [.. vertices], keptCount);
+        for (int e = 0; e < setup.EntryPoints.Length; e++)
+        {
+            int i = setup.EntryPoints[e];
+            int c = compositionOf[i];
+            bool isVertex = solver.IsVertexPoint(i);
+            double above = energy[i] - solver.HullEnergy[c];
+            if (!(above > HullTolerances.EnergyEvPerAtom))
+            {
+                above = 0.0;
+            }
+
+            int[] products = solver.IsVertexComposition[c] ? [solver.Representative[c]] : solver.Decomposition[c];
             tally.Record(e, slot, isVertex, above, products);
         }
     }
@@ -232,6 +288,9 @@ internal sealed class SamplingSetup
 
     public SystemHull Plain { get; }
     public bool RebuildAll { get; private init; }
+
+    /// <summary>The local programs of every composition, or null where each sample's hull is built as a hull.</summary>
+    public LocalPrograms? Local { get; private init; }
     public int[] EntryPoints { get; private init; } = [];
     public bool[] IsEntry { get; private init; } = [];
     public bool[] AlwaysKept { get; private init; } = [];
@@ -246,7 +305,7 @@ internal sealed class SamplingSetup
     public double[][] Fractions { get; private init; } = [];
 
     public static SamplingSetup Prepare(
-        SystemHull plain, IReadOnlyList<EnergyUncertainty> uncertainties, IReadOnlyList<CorrelationGroup> groups, bool rebuildAll)
+        SystemHull plain, IReadOnlyList<EnergyUncertainty> uncertainties, IReadOnlyList<CorrelationGroup> groups, bool rebuildAll, bool localPrograms, int threads = 1)
     {
         var byId = new Dictionary<string, EnergyUncertainty>(StringComparer.Ordinal);
         for (int row = 0; row < uncertainties.Count; row++)
@@ -339,9 +398,18 @@ internal sealed class SamplingSetup
             }
         }
 
+        LocalPrograms? local = null;
+        if (localPrograms && LocalPrograms.Takes(plain.Components.Count, n))
+        {
+            var amounts = new long[n][];
+            for (int i = 0; i < n; i++) amounts[i] = plain.PointAt(i).Amounts;
+            local = LocalPrograms.Prepare(amounts, energy, threads);
+        }
+
         return new SamplingSetup(plain)
         {
             RebuildAll = rebuildAll,
+            Local = local,
             EntryPoints = entries.ToArray(),
             IsEntry = isEntry,
             AlwaysKept = alwaysKept,
