@@ -45,6 +45,9 @@ public sealed record BenchOptions
     /// <summary>Only measure fresh servers' first second against their warm rate (--reps fresh servers per case); prints only.</summary>
     public bool ColdStartOnly { get; init; }
 
+    /// <summary>The arguments of --cold-start's second kind of server (default: no startup warming).</summary>
+    public string[] ColdVariantArgs { get; init; } = ["--warm-hulls", "0"];
+
     /// <summary>Another server build to run side by side with this one (--reps fresh servers of each); prints only.</summary>
     public string? CompareServerDll { get; init; }
 
@@ -75,7 +78,9 @@ public sealed record BenchOptions
           --no-pinned          skip the pinned-version runs
           --import-only        only the import, per-batch calls against one session side by side (--reps times, interleaved); prints only
           --output-formats     only `hull analyze` of the warm dataset, --json against --csv (--reps times, interleaved); prints only
-          --cold-start         only fresh servers' first second against their warm rate (--reps servers per case); prints only
+          --cold-start         only fresh servers' first second against their warm rate (--reps servers per case); prints only;
+                               with --compare-server, this build's fresh servers against the other's, interleaved
+          --cold-variant "A B" the arguments of --cold-start's second kind of server (default "--warm-hulls 0")
           --compare-server DLL only this server against another build's Hull.Server.dll (--reps fresh servers each, interleaved); prints only
           --server-dll DLL     the server build to measure (default: this checkout's)
           --server-args "A B"  extra arguments for every server started (e.g. "--warm-hulls 0")
@@ -110,6 +115,7 @@ public sealed record BenchOptions
                 "--import-only" => options with { ImportOnly = true, OutputPath = null },
                 "--output-formats" => options with { OutputFormatsOnly = true, OutputPath = null },
                 "--cold-start" => options with { ColdStartOnly = true, OutputPath = null },
+                "--cold-variant" => options with { ColdVariantArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },
                 "--compare-server" => options with { CompareServerDll = Path.GetFullPath(Value()), OutputPath = null },
                 "--server-dll" => options with { ServerDll = Path.GetFullPath(Value()) },
                 "--server-args" => options with { ServerArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },

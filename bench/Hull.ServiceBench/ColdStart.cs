@@ -13,12 +13,17 @@ namespace Hull.ServiceBench;
 /// unrecorded load) a warm window. Each (query kind, client count) gets its own fresh servers, the combinations
 /// taken in turn so that outside load does not hit one only; medians over the repetitions.
 /// </summary>
-public static class ColdStart
+public static partial class ColdStart
 {
     private static readonly TimeSpan FirstSecond = TimeSpan.FromSeconds(1);
 
+    [System.Text.RegularExpressions.GeneratedRegex(@"(startup warming|ready after)[^""]*")]
+    private static partial System.Text.RegularExpressions.Regex WarmingSeconds();
+
     /// <summary>Answers within the first second, per second.</summary>
     private static double FirstRate(LoadSample first) => first.AnsweredInWindow / FirstSecond.TotalSeconds;
+
+    private static string Label(string build, string variant) => build.Length == 0 ? variant : $"{build}, {variant}";
 
     public static async Task<string> RunAsync(string serverDll, BenchOptions options)
     {
@@ -37,8 +42,17 @@ public static class ColdStart
                 first.Stop();
             }
 
-            // The server as configured, and the same without its startup warming of the hull cache.
-            (string Name, string[] Args)[] variants = [("as configured", options.ServerArgs), ("--warm-hulls 0", [.. options.ServerArgs, "--warm-hulls", "0"])];
+            // Each server as configured and with the variant's arguments (default: without its startup warming of the
+            // hull cache); with --compare-server, this build and the other one (e.g. a published ReadyToRun server
+            // against the plain build), both ways.
+            string variantName = string.Join(' ', options.ColdVariantArgs);
+            var builds = options.CompareServerDll is string other ? new[] { ("this", serverDll), ("other", other) } : [("", serverDll)];
+            (string Name, string Dll, string[] Args)[] variants = [.. builds.SelectMany(b => new[]
+            {
+                (Label(b.Item1, "as configured"), b.Item2, options.ServerArgs),
+                (Label(b.Item1, variantName), b.Item2, [.. options.ServerArgs, .. options.ColdVariantArgs]),
+            })];
+            if (options.CompareServerDll is not null) Console.WriteLine($"this = {serverDll}{Environment.NewLine}other = {options.CompareServerDll}");
             var combinations = variants.SelectMany(v => Enum.GetValues<QueryKind>().SelectMany(k => options.ClientCounts.Where(c => c > 1).Select(c => (Variant: v.Name, Kind: k, Clients: c)))).ToArray();
             var rows = combinations.ToDictionary(c => c, _ => new List<(double Start, LoadSample Cold, LoadSample Warm, long Builds)>());
             for (int r = 0; r < options.Repetitions; r++)
@@ -46,7 +60,8 @@ public static class ColdStart
                 foreach ((string variant, QueryKind kind, int clients) in combinations)
                 {
                     long t0 = Stopwatch.GetTimestamp();
-                    using ServerProcess server = await ServerProcess.StartAsync(serverDll, dataDirectory, variants.First(v => v.Name == variant).Args);
+                    (_, string dll, string[] args) = variants.First(v => v.Name == variant);
+                    using ServerProcess server = await ServerProcess.StartAsync(dll, dataDirectory, args);
                     double startSeconds = Stopwatch.GetElapsedTime(t0).TotalSeconds;
                     using GrpcChannel channel = WarmDataset.Channel(server.Address);
                     var load = new QueryLoad([new StabilityService.StabilityServiceClient(channel)], WarmDataset.Name, warm.Entries.Select(e => e.Id).ToArray(), warm.Candidates);
@@ -57,9 +72,10 @@ public static class ColdStart
                     server.Stop();
                     rows[(variant, kind, clients)].Add((startSeconds, cold, hot, stats.HullBuilds));
                     Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                        $"rep {r + 1} {variant,-14} {kind,-9} {clients,3} clients: started in {startSeconds:F2} s, first second {FirstRate(cold):N0}/s " +
+                        $"rep {r + 1} {variant,-30} {kind,-9} {clients,3} clients: started in {startSeconds:F2} s, first second {FirstRate(cold):N0}/s " +
                         $"(p99 {cold.P99Ms:F1} ms, errors {cold.Errors}), warm {hot.QueriesPerSecond:N0}/s, ratio {FirstRate(cold) / hot.QueriesPerSecond:F2}, " +
                         $"hulls built {stats.HullBuilds}, load {ProcFiles.LoadAverage1Minute():F2}"));
+                    foreach (string warming in server.WarmingLines) Console.WriteLine($"    server: {WarmingSeconds().Match(warming).Value}");
                 }
             }
 

@@ -15,6 +15,7 @@ public sealed class ServerProcess : IDisposable
 
     // The last stderr lines (JSON logs), shown when the server dies unexpectedly.
     private readonly Queue<string> _lastErrors = new();
+    private readonly List<string> _warmingLines = [];
     private readonly Process _process;
 
     private ServerProcess(Process process) => _process = process;
@@ -98,9 +99,23 @@ public sealed class ServerProcess : IDisposable
         _process.Dispose();
     }
 
+    /// <summary>The server's log lines that say how long its startup warming and its warm-up before ready took.</summary>
+    public IReadOnlyList<string> WarmingLines
+    {
+        get
+        {
+            lock (_warmingLines) return [.. _warmingLines];
+        }
+    }
+
     private void KeepErrorLine(string? line)
     {
         if (line is null) return;
+        if (line.Contains("startup warming", StringComparison.Ordinal) || line.Contains("ready after", StringComparison.Ordinal))
+        {
+            lock (_warmingLines) _warmingLines.Add(line);
+        }
+
         lock (_lastErrors)
         {
             _lastErrors.Enqueue(line);

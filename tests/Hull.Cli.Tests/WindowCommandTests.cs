@@ -83,6 +83,47 @@ public sealed class WindowCommandTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task A_computed_molecule_option_reads_oxygen_against_the_datasets_total_energy_reference()
+    {
+        // The Li-Co-O set above in total energies per formula unit (invented): references Li −1.9, Co −7.1,
+        // O −4.95 eV/atom, each compound's total = Σ references + its formation energy × atoms.
+        string file = Path.Combine(_folder, "licoo-total.csv");
+        File.WriteAllText(file, """
+            id,formula,energy_ev,basis
+            Li,Li,-1.9,total_per_formula_unit
+            Co,Co,-7.1,total_per_formula_unit
+            O2,O2,-9.9,total_per_formula_unit
+            Li2O,Li2O,-14.75,total_per_formula_unit
+            CoO,CoO,-14.45,total_per_formula_unit
+            LiCoO2,LiCoO2,-26.1,total_per_formula_unit
+            """);
+        Assert.Equal(0, (await CliRun.RunAsync("import", "t", file, "--create", "--server", Server)).ExitCode);
+
+        var csv = await CliRun.RunAsync("window", "t", "LiCoO2", "--gas-temperature", "1000", "--gas-molecule", "O2=-9.86,0.098", "--server", Server, "--csv");
+        Assert.Equal(0, csv.ExitCode);
+        string[] rows = csv.Out.Split(Environment.NewLine, StringSplitOptions.RemoveEmptyEntries);
+        string[] header = rows[0].Split(',');
+        int mu = Array.IndexOf(header, "dmu_O_ev"), log10 = Array.IndexOf(header, "log10_p_O2_bar");
+        Assert.True(mu >= 0 && log10 >= 0, rows[0]);
+        foreach (string row in rows.Skip(1))
+        {
+            string[] cells = row.Split(',');
+            // Δμ_O(1000 K, p) = −1.030608 eV + ½ k_B·1000·ln p for this molecule against E_ref(O) = −4.95 eV/atom (worked
+            // in the server's window gas tests from the NIST-JANAF O2 rows): log10 p = 2 (Δμ_O + 1.030608) / (k_B·1000·ln 10).
+            double hand = 2 * (double.Parse(cells[mu], CultureInfo.InvariantCulture) + 1.030608) / (8.617333262e-5 * 1000 * Math.Log(10));
+            Assert.Equal(hand, double.Parse(cells[log10], CultureInfo.InvariantCulture), 2e-3);
+        }
+
+        Assert.Equal(ExitCodes.Usage, (await CliRun.RunAsync("window", "t", "LiCoO2", "--gas-molecule", "O2=-9.86", "--server", Server)).ExitCode);
+        var notGas = await CliRun.RunAsync("window", "t", "LiCoO2", "--gas-molecule", "Mg=-1,0", "--server", Server);
+        Assert.Equal(ExitCodes.Rejected, notGas.ExitCode);
+        Assert.Contains("settings.gas_molecules[0].gas", notGas.Err);
+        var formation = await CliRun.RunAsync("window", "w", "LiCoO2", "--gas-temperature", "1000", "--gas-molecule", "O2=-9.86,0.098", "--server", Server);
+        Assert.Equal(ExitCodes.Rejected, formation.ExitCode);
+        Assert.Contains("reference for O", formation.Err);
+    }
+
+    [Fact]
     public async Task Window_figure_writes_the_svg_and_lists_the_drawn_vertices()
     {
         string path = Path.Combine(_folder, "licoo2-window.svg");

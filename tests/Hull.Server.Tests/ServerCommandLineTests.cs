@@ -15,6 +15,8 @@ public sealed class ServerCommandLineTests
         Assert.Equal(IPAddress.Loopback, options!.BindAddress);
         Assert.Equal(HullServerOptions.DefaultPort, options.Port);
         Assert.Equal(ServiceLimits.Default, options.Limits);
+        Assert.Equal(HullServerOptions.DefaultWarmBeforeReady, options.WarmBeforeReady);
+        Assert.Equal(TimeSpan.Zero, new HullServerOptions { DataDirectory = "/tmp/x" }.WarmBeforeReady);
     }
 
     [Fact]
@@ -23,11 +25,12 @@ public sealed class ServerCommandLineTests
         HullServerOptions? options = ServerCommandLine.Parse(
             ["--data-dir=/d", "--host", "::1", "--port", "0", "--tls-cert", "c.pem", "--tls-key", "k.pem", "--write-token", "tok",
              "--max-components-per-system", "5", "--max-entries-per-system", "100", "--max-compositions-per-request", "7",
-             "--max-message-bytes", "65536", "--log-level", "warning"], out string? error, out _);
+             "--max-message-bytes", "65536", "--log-level", "warning", "--warm-before-ready", "3"], out string? error, out _);
         Assert.Null(error);
         Assert.Equal("/d", options!.DataDirectory);
         Assert.Equal(IPAddress.IPv6Loopback, options.BindAddress);
         Assert.Equal((0, "c.pem", "k.pem", "tok"), (options.Port, options.TlsCertificatePath, options.TlsKeyPath, options.WriteToken));
+        Assert.Equal(TimeSpan.FromSeconds(3), options.WarmBeforeReady);
         Assert.Equal((5, 100, 7, 65536), (options.Limits.MaxComponentsPerSystem, options.Limits.MaxEntriesPerSystem, options.Limits.MaxCompositionsPerRequest, options.Limits.MaxReceiveMessageBytes));
     }
 
@@ -39,6 +42,7 @@ public sealed class ServerCommandLineTests
     [InlineData(new[] { "--host", "example" }, "--host 'example' is not an IP address")]
     [InlineData(new[] { "--max-entries-per-system", "0" }, "--max-entries-per-system must be at least 1")]
     [InlineData(new[] { "--log-level", "loud" }, "--log-level 'loud' is not one of")]
+    [InlineData(new[] { "--warm-before-ready", "-1" }, "--warm-before-ready must be 0 or more seconds")]
     [InlineData(new[] { "--data-dir", "/d", "--postgres", "Host=db" }, "give --data-dir or --postgres, not both")]
     [InlineData(new[] { "--postgres", "Host=db;Colour=blue" }, "--postgres: the PostgreSQL connection string cannot be read")]
     [InlineData(new[] { "--postgres", "Database=hull" }, "--postgres: the PostgreSQL connection string names no Host")]

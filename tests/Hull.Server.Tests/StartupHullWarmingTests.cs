@@ -38,14 +38,24 @@ public sealed class StartupHullWarmingTests
     }
 
     [Fact]
+    public async Task A_server_that_warms_before_ready_has_built_the_hulls_and_answered_its_own_questions_when_it_starts()
+    {
+        using TempFolder folder = await LiCoOStoreAsync();
+
+        int systems = Data.LiCoO().Select(e => string.Join('-', Hull.Core.Chemistry.Composition.Parse(e.Formula).Elements)).Distinct().Count();
+        // A budget no machine needs: StartAsync returns when the warming and the own questions are done.
+        HullServerOptions options = Options(folder, warmHulls: 64) with { WarmBeforeReady = TimeSpan.FromMinutes(5) };
+        await using HullServer ready = await HullServer.StartAsync(options);
+        Assert.Equal(systems, ready.Cache.Counters.HullBuilds);
+        Assert.Equal(1, ready.Cache.Counters.VersionLoads);
+        // Its own questions (every entry by id and as a composition) found the hulls built.
+        Assert.True(ready.Cache.Counters.HullHits >= 2 * Data.LiCoO().Length, $"{ready.Cache.Counters.HullHits} hull cache hits");
+    }
+
+    [Fact]
     public async Task Warming_stops_at_its_budget_and_is_off_by_default_in_process()
     {
-        using var folder = new TempFolder();
-        await using (HullServer first = await HullServer.StartAsync(Options(folder, warmHulls: 0)))
-        {
-            using var c = new Clients(first.Address, token: null);
-            await Data.CreateWithAsync(c, "d", Data.LiCoO());
-        }
+        using TempFolder folder = await LiCoOStoreAsync();
 
         await using (HullServer budget = await HullServer.StartAsync(Options(folder, warmHulls: 2)))
         {
@@ -58,6 +68,16 @@ public sealed class StartupHullWarmingTests
         await using HullServer off = await HullServer.StartAsync(new HullServerOptions { DataDirectory = folder.Path, Port = 0, MinimumLogLevel = LogLevel.Warning });
         await Task.Delay(300);
         Assert.Equal(0, off.Cache.Counters.HullBuilds);
+    }
+
+    /// <summary>A store with the LiCoO2 set as dataset "d", written by a server that has stopped.</summary>
+    private static async Task<TempFolder> LiCoOStoreAsync()
+    {
+        var folder = new TempFolder();
+        await using HullServer first = await HullServer.StartAsync(Options(folder, warmHulls: 0));
+        using var c = new Clients(first.Address, token: null);
+        await Data.CreateWithAsync(c, "d", Data.LiCoO());
+        return folder;
     }
 
     private static HullServerOptions Options(TempFolder folder, int warmHulls) =>

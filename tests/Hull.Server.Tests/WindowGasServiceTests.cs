@@ -70,6 +70,83 @@ public sealed class WindowGasServiceTests : IAsyncLifetime
         }
     }
 
+    [Fact]
+    public async Task A_computed_oxygen_molecule_is_measured_from_the_datasets_reference_in_vertices_and_slices()
+    {
+        // The LiCoO2 set above in total energies per formula unit (invented): Li −1.9, Co −7.1, O −4.95 eV/atom (the
+        // pure-O entry, O2 at −9.9 eV per molecule), each compound's total = Σ references + its formation energy × atoms.
+        await Data.CreateWithAsync(C, "t",
+            Data.Total("Li", "Li", -1.9), Data.Total("Co", "Co", -7.1), Data.Total("O2", "O2", -9.9),
+            Data.Total("Li2O", "Li2O", -14.75), Data.Total("CoO", "CoO", -14.45), Data.Total("Co3O4", "Co3O4", -50.2),
+            Data.Total("LiCoO2", "LiCoO2", -26.1), Data.Total("Li2CoO3", "Li2CoO3", -34.75));
+
+        // A computed O2 (invented: −9.86 eV at rest, 0.098 eV zero-point energy) against E_ref(O) = −4.95 eV/atom, with
+        // the NIST-JANAF O2 rows at 1000 K above and H°(298.15 K) − H°(0) = 8.683 kJ/mol (4th ed., 1998 — from memory):
+        // Δμ_O(1000 K, p) = ½(−9.86 + 0.098) + 4.95 + ½(22.703 + 8.683 − 243.578) / 96.4853321233 + ½ k_B·1000·ln p
+        //                 = −1.030608 eV + ½ k_B·1000·ln p.
+        double standard = (0.5 * (-9.86 + 0.098)) + 4.95 + ((22.703 + 8.683 - 243.578) / 96.4853321233 / 2);
+        Assert.Equal(-1.030608, standard, 6);
+        var settings = new WindowSettings { GasAtTemperatureK = 1000, GasMolecules = { new WindowGasMolecule { Gas = "O2", MoleculeEnergyEv = -9.86, ZeroPointEnergyEv = 0.098 } } };
+        var compound = new CompoundRef { EntryId = "LiCoO2" };
+
+        GetStabilityWindowResponse window = await C.Windows.GetStabilityWindowAsync(
+            new GetStabilityWindowRequest { Dataset = "t", Compound = compound, Settings = settings }, C.Call());
+        Assert.NotEmpty(window.Window.Vertices);
+        foreach (WindowVertex v in window.Window.Vertices)
+        {
+            GasCondition c = Assert.Single(v.GasConditions);
+            Assert.True(c.ComputedMolecule);
+            double hand = 2 * (v.ChemicalPotentialsEv[2] - standard) / (Boltzmann * 1000 * Math.Log(10));
+            Assert.Equal(hand, c.Log10PressureBar, 2 * FitToleranceEv / (Boltzmann * 1000 * Math.Log(10)));
+        }
+
+        // O2 in air at 1000 K fixes Δμ_O through the same molecule, and the slice's vertices read back as 0.21 bar.
+        SliceStabilityWindowResponse slice = await C.Windows.SliceStabilityWindowAsync(new SliceStabilityWindowRequest
+        {
+            Dataset = "t", Compound = compound, Settings = settings,
+            FixedGases = { new GasPotential { Gas = "O2", TemperatureK = 1000, PressureBar = 0.21 } },
+        }, C.Call());
+        Assert.Equal(standard + (Boltzmann * 1000 * Math.Log(0.21) / 2), Assert.Single(slice.FixedPotentialsUsed).ChemicalPotentialEv, FitToleranceEv);
+        Assert.All(slice.Slice.Vertices, v => Assert.Equal(Math.Log10(0.21), Assert.Single(v.GasConditions).Log10PressureBar, 9));
+
+        // A formation-energy dataset has no total-energy reference for O to measure the molecule from.
+        RpcException e = await Assert.ThrowsAsync<RpcException>(() => C.Windows.GetStabilityWindowAsync(
+            new GetStabilityWindowRequest { Dataset = "d", Compound = compound, Settings = settings }, C.Call()).ResponseAsync);
+        Assert.Equal(StatusCode.FailedPrecondition, e.StatusCode);
+        Assert.Contains("settings.gas_molecules[0]", e.Status.Detail);
+        Assert.Contains("reference for O", e.Status.Detail);
+    }
+
+    public static TheoryData<string, string, string> BadMolecules() => new()
+    {
+        { "Mg", "settings.gas_molecules[0].gas", "not a gas with tables here" },
+        { "N2", "settings.gas_molecules[0].gas", "N is not an element of this answer" },
+        { "nan", "settings.gas_molecules[0].molecule_energy_ev", "not finite" },
+        { "negative-zpe", "settings.gas_molecules[0].zero_point_energy_ev", "must not be negative" },
+        { "twice", "settings.gas_molecules[1].gas", "given twice" },
+    };
+
+    [Theory]
+    [MemberData(nameof(BadMolecules))]
+    public async Task Bad_computed_molecules_name_their_field(string question, string field, string text)
+    {
+        var molecule = new WindowGasMolecule { Gas = "O2", MoleculeEnergyEv = -9.86, ZeroPointEnergyEv = 0.098 };
+        var settings = new WindowSettings { GasAtTemperatureK = 1000, GasMolecules = { molecule } };
+        switch (question)
+        {
+            case "nan": molecule.MoleculeEnergyEv = double.NaN; break;
+            case "negative-zpe": molecule.ZeroPointEnergyEv = -0.1; break;
+            case "twice": settings.GasMolecules.Add(molecule.Clone()); break;
+            default: molecule.Gas = question; break;
+        }
+
+        RpcException e = await Assert.ThrowsAsync<RpcException>(() => C.Windows.GetStabilityWindowAsync(
+            new GetStabilityWindowRequest { Dataset = "d", Compound = new CompoundRef { EntryId = "LiCoO2" }, Settings = settings }, C.Call()).ResponseAsync);
+        Assert.Equal(StatusCode.InvalidArgument, e.StatusCode);
+        Assert.Contains(text, e.Status.Detail);
+        Assert.Equal(field, Assert.Single(Data.Violations(e)).Field);
+    }
+
     public static TheoryData<string, string, string> BadGases() => new()
     {
         { "unknown-gas", "fixed_gases[0].gas", "not a gas with tables here" },

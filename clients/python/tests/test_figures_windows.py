@@ -4,9 +4,11 @@ requests, and each window vertex on the compound's own formation-energy plane wo
 import math
 import xml.etree.ElementTree as ET
 
+import pandas as pd
 import pytest
 
 from conftest import DEMO_DATASET, cli_json, run_cli
+from hullclient import InvalidArgumentError
 from reference_hull import formation_energies
 
 CATHODE = "ter-LiCoO2-r3m"
@@ -120,3 +122,36 @@ def test_a_slice_by_oxygen_in_air_equals_the_cli_and_the_janaf_hand_value(client
     assert len(sliced.slice.vertices) == len(expected["slice"].get("vertices", []))
     for _, row in sliced.slice.vertices.iterrows():
         assert row["log10_p_O2_bar"] == pytest.approx(math.log10(0.21), abs=1e-9)
+
+
+def test_a_computed_oxygen_molecule_reads_vertices_against_the_datasets_reference(client):
+    # An invented Li-Co-O set in total energies per formula unit: references Li −1.9, Co −7.1, O −4.95 eV/atom, each
+    # compound's total = Σ references + its formation energy × atoms. An invented computed O2: −9.86 eV at rest,
+    # 0.098 eV zero-point energy. NIST-JANAF 4th ed. (1998) O2 at 1000 K, as the gas tables hold it (from memory):
+    # H° − H°(298.15 K) = 22.703 kJ/mol, S° = 243.578 J/(mol K), H°(298.15 K) − H°(0) = 8.683 kJ/mol; CODATA 2018.
+    # Δμ_O = ½(E + ZPE) − E_ref + ½ Δμ(T, p°) + ½ k_B T ln(p/p°) = −1.030608 eV + ½ k_B·1000·ln(p/p°).
+    k_b = 8.617333262e-5
+    standard = 0.5 * (-9.86 + 0.098) + 4.95 + (22.703 + 8.683 - 243.578) / 96.4853321233 / 2
+    assert standard == pytest.approx(-1.030608, abs=1e-6)
+    client.create_dataset("licoo-total")
+    client.import_entries("licoo-total", pd.DataFrame({
+        "id": ["Li", "Co", "O2", "Li2O", "CoO", "LiCoO2"],
+        "formula": ["Li", "Co", "O2", "Li2O", "CoO", "LiCoO2"],
+        "energy_ev": [-1.9, -7.1, -9.9, -14.75, -14.45, -26.1],
+        "basis": ["total_per_formula_unit"] * 6,
+    }))
+    molecule = {"O2": (-9.86, 0.098)}
+    answer = client.get_stability_window("licoo-total", "entry:LiCoO2", gas_at_temperature_k=1000, gas_molecules=molecule)
+    assert len(answer.window.vertices) >= 3
+    for _, row in answer.window.vertices.iterrows():
+        hand = 2 * (row["delta_mu_O_ev"] - standard) / (k_b * 1000 * math.log(10))
+        assert row["log10_p_O2_bar"] == pytest.approx(hand, abs=2e-3)  # the Shomate fit, a few J/mol off the table
+
+    sliced = client.slice_stability_window("licoo-total", "entry:LiCoO2", fixed_gases={"O2": (1000, 0.21)}, gas_molecules=molecule)
+    assert sliced.fixed_potentials_used["O"] == pytest.approx(standard + k_b * 1000 * math.log(0.21) / 2, abs=1e-4)
+
+    with pytest.raises(InvalidArgumentError) as bad:
+        client.get_stability_window("licoo-total", "entry:LiCoO2", gas_molecules={"Mg": (-1.0, 0.0)})
+    assert bad.value.field_violations[0].field == "settings.gas_molecules[0].gas"
+    with pytest.raises(InvalidArgumentError, match="N is not an element of this answer"):
+        client.get_stability_window("licoo-total", "entry:LiCoO2", gas_molecules={"N2": (-16.6, 0.15)})

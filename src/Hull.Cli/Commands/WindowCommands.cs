@@ -16,9 +16,10 @@ public static class WindowCommands
 
     private sealed record Common(
         Argument<string> Dataset, Argument<string> Compound, Option<bool> ByFormula, Option<long> Version,
-        Option<double?> Tolerance, Option<double?> Lowering, Option<string> Omit, Option<double?> GasTemperature, Option<double?> GasPressure)
+        Option<double?> Tolerance, Option<double?> Lowering, Option<string> Omit, Option<double?> GasTemperature, Option<double?> GasPressure,
+        Option<string[]> GasMolecule)
     {
-        public IEnumerable<Symbol> All => [Dataset, Compound, ByFormula, Version, Tolerance, Lowering, Omit, GasTemperature, GasPressure];
+        public IEnumerable<Symbol> All => [Dataset, Compound, ByFormula, Version, Tolerance, Lowering, Omit, GasTemperature, GasPressure, GasMolecule];
 
         public CompoundRef CompoundOf(CliContext c) =>
             c.Get(ByFormula) ? new CompoundRef { Formula = c.Get(Compound)! } : new CompoundRef { EntryId = c.Get(Compound)! };
@@ -30,6 +31,7 @@ public static class WindowCommands
             if (c.Get(Lowering) is double l) settings.LoweringEvPerAtom = l;
             if (c.Get(GasTemperature) is double gt) settings.GasAtTemperatureK = gt;
             if (c.Get(GasPressure) is double gp) settings.GasAtPressureBar = gp;
+            foreach (string text in c.Get(GasMolecule) ?? []) settings.GasMolecules.Add(ParseMolecule(text));
             return settings;
         }
     }
@@ -43,7 +45,12 @@ public static class WindowCommands
         ValueOptions.OptionalNumber("--lowering", "how far below the hull such a compound is placed, eV/atom (default 0.001)", "an energy in eV/atom"),
         new Option<string>("--projection-omits") { Description = "element left out of the projected size (default: the one with most atoms)" },
         ValueOptions.OptionalNumber("--gas-temperature", "also give each gas element's dmu (O, N, H, F, Cl) as its gas's pressure at this temperature, K", "a temperature in K"),
-        ValueOptions.OptionalNumber("--gas-pressure", "also give each gas element's dmu as the temperature at this pressure, bar", "a pressure in bar"));
+        ValueOptions.OptionalNumber("--gas-pressure", "also give each gas element's dmu as the temperature at this pressure, bar", "a pressure in bar"),
+        new Option<string[]>("--gas-molecule")
+        {
+            Description = "read a gas through its computed molecule, GAS=ENERGY_EV,ZERO_POINT_EV per molecule, against the dataset's total-energy reference (repeatable), e.g. --gas-molecule O2=-9.86,0.098",
+            Arity = ArgumentArity.OneOrMore,
+        });
 
     private static Command WindowCommand(Func<CommandTree.Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
@@ -182,16 +189,30 @@ public static class WindowCommands
     /// <summary>GAS=T_K,P_BAR, or a usage error naming the option and an example.</summary>
     internal static GasPotential ParseGas(string text, string option)
     {
+        (string gas, double t, double p) = ParseGasPair(text, option, "GAS=T_K,P_BAR (e.g. O2=1273,0.21)");
+        return new GasPotential { Gas = gas, TemperatureK = t, PressureBar = p };
+    }
+
+    /// <summary>GAS=ENERGY_EV,ZERO_POINT_EV, or a usage error naming the option and an example.</summary>
+    internal static WindowGasMolecule ParseMolecule(string text)
+    {
+        (string gas, double energy, double zeroPoint) = ParseGasPair(text, "--gas-molecule", "GAS=ENERGY_EV,ZERO_POINT_EV (e.g. O2=-9.86,0.098)");
+        return new WindowGasMolecule { Gas = gas, MoleculeEnergyEv = energy, ZeroPointEnergyEv = zeroPoint };
+    }
+
+    /// <summary>GAS=A,B as the gas and two numbers, or a usage error naming the option and the form.</summary>
+    private static (string Gas, double First, double Second) ParseGasPair(string text, string option, string form)
+    {
         int eq = text.IndexOf('=');
         string[] parts = eq > 0 ? text[(eq + 1)..].Split(',') : [];
         if (parts.Length != 2
-            || !double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out double t)
-            || !double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out double p))
+            || !double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out double first)
+            || !double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out double second))
         {
-            throw new UsageException($"{option} '{text}' is not GAS=T_K,P_BAR (e.g. O2=1273,0.21)");
+            throw new UsageException($"{option} '{text}' is not {form}");
         }
 
-        return new GasPotential { Gas = text[..eq].Trim(), TemperatureK = t, PressureBar = p };
+        return (text[..eq].Trim(), first, second);
     }
 
     internal static string Caption(VersionUsed used, StabilityWindow w)
@@ -213,7 +234,7 @@ public static class WindowCommands
         if (w.Vertices.Any(v => v.GasConditions.Count > 0))
         {
             lines.Add("gas columns: log10 of the gas's pressure (bar) at the chosen temperature, or the temperature (K) at the chosen pressure, " +
-                      "that gives each vertex's dmu (ideal gas, the dataset's references as fitted H(298.15 K) references); " +
+                      "that gives each vertex's dmu (ideal gas, " + GasReferenceText(w) + "); " +
                       "pressurised oxygen and hydrogen are fire and explosion hazards: follow local rules and licensed practice");
         }
 
@@ -224,6 +245,14 @@ public static class WindowCommands
         }
 
         return string.Join("\n", lines);
+    }
+
+    private static string GasReferenceText(StabilityWindow w)
+    {
+        string[] computed = [.. w.Vertices.SelectMany(v => v.GasConditions).Where(g => g.ComputedMolecule).Select(g => g.Gas).Distinct()];
+        return computed.Length == 0
+            ? "the dataset's references as fitted H(298.15 K) references"
+            : $"{Join(computed)} through the computed molecule given, against the dataset's total-energy reference; other gases with the dataset's references as fitted H(298.15 K) references";
     }
 
     internal static Table VerticesTable(IReadOnlyList<string> elements, IEnumerable<WindowVertex> vertices)

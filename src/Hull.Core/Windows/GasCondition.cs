@@ -11,4 +11,6 @@ namespace Hull.Core.Windows;
 /// <param name="DeltaMuEvPerAtom">The Δμ read, eV/atom.</param>
 /// <param name="Pressure">At the chosen temperature: the pressure (log10 too, which stays finite where p under- or overflows).</param>
 /// <param name="Temperature">At the chosen pressure: the temperature solve, with why it stopped.</param>
-public sealed record GasCondition(string Element, string Gas, double DeltaMuEvPerAtom, PressureForShift? Pressure, TemperatureSolveResult? Temperature);
+/// <param name="ComputedMolecule">True when read through a computed molecule against the dataset's reference, false for the fitted default.</param>
+public sealed record GasCondition(string Element, string Gas, double DeltaMuEvPerAtom, PressureForShift? Pressure, TemperatureSolveResult? Temperature,
+    bool ComputedMolecule = false);

@@ -66,7 +66,10 @@ public sealed class HullServer : IAsyncDisposable
     /// <summary>This server's view of its cluster; null without one.</summary>
     public Cluster.ClusterStatus? ClusterStatus => Cluster.ClusterStatus.Of(_app.Services);
 
-    /// <summary>Opens the store and starts listening; returns once the port is bound.</summary>
+    /// <summary>
+    /// Opens the store and starts listening; returns once the port is bound and, with
+    /// <see cref="HullServerOptions.WarmBeforeReady"/>, once the server has warmed up (or that time has passed).
+    /// </summary>
     /// <exception cref="StoreException">The store cannot be opened (corrupt, newer schema, database unreachable).</exception>
     /// <exception cref="IOException">The port cannot be bound.</exception>
     /// <exception cref="TlsFileException">A TLS file is missing or unusable.</exception>
@@ -82,7 +85,13 @@ public sealed class HullServer : IAsyncDisposable
             WebApplication app = Build(options, store, certificate);
             await app.StartAsync(cancellation);
             string bound = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses.First();
-            return new HullServer(app, store, new Uri(bound));
+            var server = new HullServer(app, store, new Uri(bound));
+            if (options.WarmBeforeReady > TimeSpan.Zero)
+            {
+                await ReadinessWarmUp.RunAsync(server.Address, certificate, app.Services, options.WarmBeforeReady, cancellation);
+            }
+
+            return server;
         }
         catch
         {
@@ -165,6 +174,7 @@ public sealed class HullServer : IAsyncDisposable
         builder.Services.AddHostedService<ImportSessionSweeper>();
         // Never more than half the cache, so that warming cannot evict what queries need.
         builder.Services.AddSingleton(new StartupWarmingSettings(Math.Min(options.WarmHullsOnStart, options.MaxCachedHulls / 2)));
+        builder.Services.AddSingleton<StartupWarmingProgress>();
         builder.Services.AddHostedService<StartupHullWarming>();
         builder.Services.AddGrpc(grpc =>
         {

@@ -32,7 +32,9 @@ public static class ServerCommandLine
         new("--max-compositions-per-request", "N", "default 1000"),
         new("--max-message-bytes", "N", "largest request message (default 16777216)"),
         new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
-        new("--warm-hulls", "N", $"once listening, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
+        new("--warm-hulls", "N", $"once the port is bound, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
+        new("--warm-before-ready", "SECONDS", "wait up to this long for that warming and a few of the server's own queries before saying it listens " +
+            $"(default {HullServerOptions.DefaultWarmBeforeReady.TotalSeconds:0}; 0 = say so at once)"),
         new("--log-level", "LEVEL", "Trace, Debug, Information, Warning, Error (default Information)"),
         new("--cluster", "NAME", "join the cluster of this name, sharing hull work with its other members (needs --postgres, the shared store)"),
         new("--peer-port", "N", $"with --cluster: port the members talk on (default {DefaultPeerPort})"),
@@ -135,6 +137,9 @@ public static class ServerCommandLine
             if (token is not null && token.Trim().Length == 0) throw new FormatException("the write token is empty");
             int warmHulls = values.TryGetValue("--warm-hulls", out string? warmText) ? ParseInt(warmText, "--warm-hulls") : HullServerOptions.DefaultWarmHulls;
             if (warmHulls < 0) throw new FormatException($"--warm-hulls must be 0 or more, not {warmHulls}");
+            int warmBeforeReady = values.TryGetValue("--warm-before-ready", out string? readyText)
+                ? ParseInt(readyText, "--warm-before-ready") : (int)HullServerOptions.DefaultWarmBeforeReady.TotalSeconds;
+            if (warmBeforeReady < 0) throw new FormatException($"--warm-before-ready must be 0 or more seconds, not {warmBeforeReady}");
             string? postgres = values.GetValueOrDefault("--postgres");
             if (postgres is not null && values.ContainsKey("--data-dir")) throw new FormatException("give --data-dir or --postgres, not both");
             if (postgres is null && !values.ContainsKey("--data-dir"))
@@ -163,6 +168,7 @@ public static class ServerCommandLine
                 MinimumLogLevel = level,
                 WarmHullsOnStart = warmHulls,
                 Cluster = cluster,
+                WarmBeforeReady = TimeSpan.FromSeconds(warmBeforeReady),
             };
         }
         catch (FormatException e)

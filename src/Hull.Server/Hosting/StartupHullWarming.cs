@@ -18,9 +18,21 @@ namespace Hull.Server.Hosting;
 /// </summary>
 public sealed class StartupHullWarming(
     IDatasetStore store, VersionResolver versions, HullCache cache, StartupWarmingSettings settings, IHostApplicationLifetime lifetime,
-    ILogger<StartupHullWarming> log) : BackgroundService
+    StartupWarmingProgress progress, ILogger<StartupHullWarming> log) : BackgroundService
 {
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        try
+        {
+            await WarmAsync(stoppingToken);
+        }
+        finally
+        {
+            progress.Finish();
+        }
+    }
+
+    private async Task WarmAsync(CancellationToken stoppingToken)
     {
         if (settings.MaxHulls == 0) return;
         try

@@ -21,8 +21,9 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
     public override async Task<GetStabilityWindowResponse> GetStabilityWindow(GetStabilityWindowRequest request, ServerCallContext context)
     {
         WindowOptions options = Options(request.Settings);
-        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
         WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
+        (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        gas = Against(gas, snapshot, hull);
         CoreWindow window = Answer(() => StabilityWindows.Of(hull.Hull, id, options));
         return new GetStabilityWindowResponse
         {
@@ -55,9 +56,9 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
             }
         }
 
-        WindowGasMapping.AddFixed(request.FixedGases, "fixed_gases", fixedPotentials);
-
         (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        gas = Against(gas, snapshot, hull);
+        WindowGasMapping.AddFixed(request.FixedGases, "fixed_gases", fixedPotentials, gas);
         WindowSlice slice = Answer(
             () => StabilityWindows.Slice(hull.Hull, id, fixedPotentials, request.AllowAboveReference, options),
             element => FixedField(request.FixedPotentials, request.FixedGases, "fixed_potentials", "fixed_gases", element));
@@ -89,7 +90,8 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
         }
 
         (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
-        var response = new GetDopantLimitsResponse { Used = WireMapping.ToWire(snapshot.Version) };
+        var limits = new List<Core.Windows.DopantLimit>();
+        var references = new List<Core.Thermo.ElementReference>(hull.Hull.References);
         for (int i = 0; i < request.Dopants.Count; i++)
         {
             string dopant = request.Dopants[i];
@@ -101,11 +103,17 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
 
             string[] extendedSystem = [.. hull.Hull.Components.Append(dopant).Order(StringComparer.Ordinal)];
             CachedHull extended = await HullAsync(snapshot, extendedSystem, context);
-            Core.Windows.DopantLimit limit = Answer(() => DopantLimits.Of(hull.Hull, extended.Hull, id, dopant, options), _ => field);
-            if (i == 0) response.Host = WindowWireMapping.ToWire(limit.Host, snapshot.FormulasAsStored[row], hull.Hull.SystemName, gas);
-            response.Limits.Add(WindowWireMapping.ToWire(limit, gas));
+            limits.Add(Answer(() => DopantLimits.Of(hull.Hull, extended.Hull, id, dopant, options), _ => field));
+            references.AddRange(extended.Hull.References);
         }
 
+        gas = gas.Against(references, [.. hull.Hull.Components, .. request.Dopants], Where(snapshot));
+        var response = new GetDopantLimitsResponse
+        {
+            Used = WireMapping.ToWire(snapshot.Version),
+            Host = WindowWireMapping.ToWire(limits[0].Host, snapshot.FormulasAsStored[row], hull.Hull.SystemName, gas),
+        };
+        response.Limits.AddRange(limits.Select(limit => WindowWireMapping.ToWire(limit, gas)));
         return response;
     }
 
@@ -135,10 +143,10 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
             if (!section.TryAdd(p.Element, p.ChemicalPotentialEv)) throw RpcErrors.InvalidArgument($"section[{i}].element", $"{p.Element} is fixed twice");
         }
 
-        WindowGasMapping.AddFixed(request.SectionGases, "section_gases", section);
         WindowGasMapping.Display gas = WindowGasMapping.DisplayOf(request.Settings);
-
         (VersionSnapshot snapshot, CachedHull hull, string id, int row) = await ResolveAsync(request.Dataset, request.Version, request.Compound, context);
+        gas = Against(gas, snapshot, hull);
+        WindowGasMapping.AddFixed(request.SectionGases, "section_gases", section, gas);
         (string x, string y) = request.XElement.Length > 0 ? (request.XElement, request.YElement) : Answer(() => WindowMaps.DefaultAxes(hull.Hull, id));
         string SectionField(string? element)
         {
@@ -167,6 +175,12 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
         response.DrawnLineIds.AddRange(figure.DrawnLineIds);
         return response;
     }
+
+    /// <summary>The display with its computed molecules measured from the system hull's elemental references.</summary>
+    private static WindowGasMapping.Display Against(WindowGasMapping.Display gas, VersionSnapshot snapshot, CachedHull hull) =>
+        gas.Against(hull.Hull.References, hull.Hull.Components, Where(snapshot));
+
+    private static string Where(VersionSnapshot snapshot) => $"dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}";
 
     /// <summary>The request field that fixed an element: a potential by index, else a gas by index, else the list.</summary>
     private static string FixedField(IReadOnlyList<FixedPotential> potentials, IReadOnlyList<GasPotential> gases, string potentialsField, string gasesField, string? element)

@@ -65,6 +65,40 @@ public sealed class WindowGasConditionTests
     }
 
     [Fact]
+    public void A_computed_oxygen_molecule_reads_a_vertex_as_the_hand_worked_pressure_against_the_dataset_reference()
+    {
+        // An invented computed O2 (energy at rest −9.86 eV, zero-point energy 0.098 eV per molecule) against an invented
+        // dataset reference for O of −4.95 eV/atom. The standard-state term per molecule at 1000 K uses the gas tables'
+        // NIST-JANAF 4th ed. (1998) O2 rows: H°(1000 K) − H°(298.15 K) = 22.703 kJ/mol, S°(1000 K) = 243.578 J/(mol K),
+        // H°(298.15 K) − H°(0) = 8.683 kJ/mol — from memory:
+        //   Δμ(1000 K, p°) = (22.703 + 8.683 − 1000 × 0.243578) / 96.4853321233 = −2.199215 eV per molecule.
+        // Δμ_O = ½(E_O2 + ZPE) − E_ref + ½ Δμ(T, p°) + ½ k_B T ln(p/p°)
+        //      = ½(−9.86 + 0.098) + 4.95 − 1.099608 + ½ k_B T ln(p/p°) = −1.030608 eV + ½ k_B T ln(p/p°).
+        // A vertex at Δμ_O = −1.5 eV: ln(p/p°) = 2 (−1.5 + 1.030608) / (8.617333262e-5 × 1000) = −10.894146,
+        // log10 p = −4.731268, p = 1.8567e-5 bar.
+        const double moleculeEv = -9.86, zeroPointEv = 0.098, referenceEvPerAtom = -4.95;
+        WindowGasMolecule o2 = WindowGasMolecule.Of(GasTables.Oxygen, moleculeEv, zeroPointEv, referenceEvPerAtom);
+        var molecules = new Dictionary<string, WindowGasMolecule> { ["O"] = o2 };
+
+        GasCondition c = Assert.Single(WindowGasConditions.At(["Al", "O"], [-2.0, -1.5], 1000, null, molecules));
+        Assert.True(c.ComputedMolecule);
+        Assert.Equal(-4.731268, c.Pressure!.Log10PressureBar, 2 * FitToleranceEv / (Boltzmann * 1000) / Math.Log(10));
+        Assert.Equal(1.8567e-5, c.Pressure.PressureBar, 0.01 * 1.8567e-5);
+        Assert.Equal(-1.030608, WindowGasConditions.DeltaMu(GasTables.Oxygen, 1000, 1.0, o2), FitToleranceEv);
+
+        // The fitted default reads the same Δμ as another pressure (it does not see the molecule or the reference).
+        GasCondition fitted = Assert.Single(WindowGasConditions.At(["Al", "O"], [-2.0, -1.5], 1000, null));
+        Assert.False(fitted.ComputedMolecule);
+        Assert.Equal(2 * (-1.5 - HandDeltaMuO(1.0)) / (Boltzmann * 1000) / Math.Log(10), fitted.Pressure!.Log10PressureBar, 0.01);
+
+        // Bad input names what is wrong.
+        Assert.Contains("not finite", Assert.Throws<ThermoInputException>(() => WindowGasMolecule.Of(GasTables.Oxygen, double.NaN, zeroPointEv, referenceEvPerAtom)).Message);
+        Assert.Contains("reference for O", Assert.Throws<ThermoInputException>(() => WindowGasMolecule.Of(GasTables.Oxygen, moleculeEv, zeroPointEv, double.PositiveInfinity)).Message);
+        Assert.Contains("N2 molecule", Assert.Throws<ThermoInputException>(() =>
+            WindowGasConditions.DeltaMu(GasTables.Oxygen, 1000, 1.0, WindowGasMolecule.Of(GasTables.Nitrogen, -16.6, 0.15, -8.3))).Message);
+    }
+
+    [Fact]
     public void A_slice_given_as_the_gas_at_T_and_p_is_the_slice_at_its_delta_mu()
     {
         // MgO's window (Mg-O) sliced by O2 at 1000 K in air: Δμ_O = −1.2118 eV (hand value above), Δμ_Mg = h_M − Δμ_O.

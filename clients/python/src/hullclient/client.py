@@ -98,8 +98,11 @@ def _compound(compound: str):
 
 
 def _window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
-                     gas_at_temperature_k=None, gas_at_pressure_bar=None):
+                     gas_at_temperature_k=None, gas_at_pressure_bar=None, gas_molecules=None):
     settings = wire.windows_pb2.WindowSettings(projection_omits=projection_omits or "")
+    # {"O2": (molecule_energy_ev, zero_point_energy_ev)}: gases read through a computed molecule.
+    for gas, (energy, zero_point) in dict(gas_molecules or {}).items():
+        settings.gas_molecules.add(gas=gas, molecule_energy_ev=float(energy), zero_point_energy_ev=float(zero_point))
     if gas_at_temperature_k is not None:
         settings.gas_at_temperature_k = gas_at_temperature_k
     if gas_at_pressure_bar is not None:
@@ -734,15 +737,18 @@ class HullClient:
                              above_hull_tolerance_ev_per_atom: Optional[float] = None,
                              lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
                              gas_at_temperature_k: Optional[float] = None,
-                             gas_at_pressure_bar: Optional[float] = None) -> r.WindowAnswer:
+                             gas_at_pressure_bar: Optional[float] = None,
+                             gas_molecules: Optional[Mapping[str, Tuple[float, float]]] = None) -> r.WindowAnswer:
         """The chemical-potential window of a compound (a formula, or 'entry:ID'). With gas_at_temperature_k (or
         gas_at_pressure_bar) each gas element's Δμ is also given as its gas's pressure at that temperature (or the
-        temperature at that pressure): columns log10_p_O2_bar, p_O2_bar, T_O2_k."""
+        temperature at that pressure): columns log10_p_O2_bar, p_O2_bar, T_O2_k. By default the dataset's references
+        are taken as fitted; gas_molecules={'O2': (molecule_energy_ev, zero_point_energy_ev)} reads a gas through its
+        computed molecule against the dataset's total-energy reference instead."""
         reply = self._call(self._windows.GetStabilityWindow, self.get_stability_window.hull_rpc,
                            wire.windows_pb2.GetStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
                                settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
-                                                         gas_at_temperature_k, gas_at_pressure_bar)))
+                                                         gas_at_temperature_k, gas_at_pressure_bar, gas_molecules)))
         return r.WindowAnswer(r.version_used(reply.used), r.stability_window(reply.window, wire.windows_pb2))
 
     @_calls("WindowService", "SliceStabilityWindow")
@@ -752,15 +758,17 @@ class HullClient:
                                above_hull_tolerance_ev_per_atom: Optional[float] = None,
                                lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
                                gas_at_temperature_k: Optional[float] = None,
-                               gas_at_pressure_bar: Optional[float] = None) -> r.WindowSlice:
+                               gas_at_pressure_bar: Optional[float] = None,
+                               gas_molecules: Optional[Mapping[str, Tuple[float, float]]] = None) -> r.WindowSlice:
         """The window with some Δμ held fixed ({'O': -1.0}, eV), or gas elements by their gas at (T, p)
-        (fixed_gases={'O2': (1273, 0.21)}, K and bar); when it misses, the nearest window point."""
+        (fixed_gases={'O2': (1273, 0.21)}, K and bar), through gas_molecules as get_stability_window reads them;
+        when it misses, the nearest window point."""
         fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(fixed_potentials or {}).items()]
         reply = self._call(self._windows.SliceStabilityWindow, self.slice_stability_window.hull_rpc,
                            wire.windows_pb2.SliceStabilityWindowRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
                                settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
-                                                         gas_at_temperature_k, gas_at_pressure_bar),
+                                                         gas_at_temperature_k, gas_at_pressure_bar, gas_molecules),
                                fixed_potentials=fixed, allow_above_reference=allow_above_reference,
                                fixed_gases=_gas_potentials(fixed_gases)))
         return r.WindowSlice(r.version_used(reply.used), r.stability_window(reply.whole, wire.windows_pb2),
