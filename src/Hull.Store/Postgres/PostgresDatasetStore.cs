@@ -59,11 +59,7 @@ public sealed partial class PostgresDatasetStore : IDatasetStore
             string? schema = FirstSearchPathSchema(builder.SearchPath);
             try
             {
-                if (schema is not null)
-                {
-                    using NpgsqlCommand create = connection.Command(null, $"CREATE SCHEMA IF NOT EXISTS {QuoteIdentifier(schema)}");
-                    create.ExecuteNonQuery();
-                }
+                if (schema is not null) PostgresSchemaMigrator.CreateSchema(connection, QuoteIdentifier(schema));
                 PostgresSchemaMigrator.Migrate(connection, location, clock);
             }
             catch (Exception e) when (IsUnavailable(e))
