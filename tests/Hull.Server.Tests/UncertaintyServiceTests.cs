@@ -80,7 +80,7 @@ public sealed class UncertaintyServiceTests
     public async Task A_long_sampling_call_ends_at_its_deadline_or_cancel_and_the_server_answers_the_next_call()
     {
         await using var s = await RunningServer.StartAsync();
-        // 300 invented Li–Co–O entries with σ: 60,000 samples are minutes of work, far past the short deadline.
+        // 300 invented Li–Co–O entries with σ: 60,000 samples are about 10 s of work on two idle cores, far past the deadline.
         var random = new Random(5);
         var entries = new List<Entry>(Data.LiCoO());
         for (int i = 0; i < 300; i++)
@@ -97,12 +97,26 @@ public sealed class UncertaintyServiceTests
 
         var large = new SampleStabilityRequest { Dataset = "big", ChemicalSystem = "Co-Li-O", Samples = 60_000, Seed = 3 };
         var late = await Assert.ThrowsAsync<RpcException>(() =>
-            s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call(TimeSpan.FromMilliseconds(300))).ResponseAsync);
+            s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call(TimeSpan.FromSeconds(2))).ResponseAsync);
         Assert.Equal(StatusCode.DeadlineExceeded, late.StatusCode);
 
-        using var cancel = new CancellationTokenSource(TimeSpan.FromMilliseconds(300));
-        var cancelled = await Assert.ThrowsAsync<RpcException>(() =>
-            s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call().WithCancellationToken(cancel.Token)).ResponseAsync);
+        // Cancelled once its sampling is under way (a call cancelled before it samples has nothing to stop); the
+        // deadline call's sampling may still be winding down when its caller has given up, so wait for that first.
+        for (int wait = 0; wait < 6000 && s.Server.Sampling.Running > 0; wait++)
+        {
+            await Task.Delay(10);
+        }
+
+        Assert.Equal(1, s.Server.Sampling.Stopped);
+        using var cancel = new CancellationTokenSource();
+        Task<SampleStabilityResponse> running = s.Clients.Uncertainty.SampleStabilityAsync(large, s.Clients.Call().WithCancellationToken(cancel.Token)).ResponseAsync;
+        for (int wait = 0; wait < 6000 && s.Server.Sampling.Running == 0 && !running.IsCompleted; wait++)
+        {
+            await Task.Delay(10);
+        }
+
+        await cancel.CancelAsync();
+        var cancelled = await Assert.ThrowsAsync<RpcException>(() => running);
         Assert.Equal(StatusCode.Cancelled, cancelled.StatusCode);
 
         // Both stopped their sampling (not merely their reply): no call is sampling, neither ran to its end.
