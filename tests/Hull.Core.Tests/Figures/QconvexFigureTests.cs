@@ -112,7 +112,7 @@ public sealed class QconvexFigureTests
         string input = scratch.File("points.txt");
         File.WriteAllLines(input, new[] { points[0].Length.ToString(CultureInfo.InvariantCulture), points.Length.ToString(CultureInfo.InvariantCulture) }
             .Concat(points.Select(p => string.Join(' ', p.Select(v => v.ToString("R", CultureInfo.InvariantCulture))))));
-        ToolRun run = ToolProcess.Run("qconvex", ["Fv", "n", "TI", input], scratch.Path, TimeSpan.FromSeconds(60), "qhull-bin");
+        ToolRun run = ToolProcess.Run("qconvex", ["Fv", "n", "TI", input], scratch.Path, "qhull-bin");
         string[] lines = run.StandardOutput.Split('\n', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries);
         int facets = int.Parse(lines[0], CultureInfo.InvariantCulture);
         var vertices = new int[facets][];

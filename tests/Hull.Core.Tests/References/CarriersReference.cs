@@ -9,7 +9,7 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public sealed class CarriersReference
 {
-    private readonly PythonTaskBatch _batch = new("carriers.py", TimeSpan.FromSeconds(300));
+    private readonly PythonTaskBatch _batch = new("carriers.py");
 
     public int FermiDirac(IReadOnlyList<double> eta) => Add(new JsonObject { ["kind"] = "fd_half", ["eta"] = Numbers(eta) });
 

@@ -11,7 +11,7 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public sealed class ElectrostaticsReference
 {
-    private readonly PythonTaskBatch _batch = new("defect_electrostatics.py", TimeSpan.FromSeconds(120));
+    private readonly PythonTaskBatch _batch = new("defect_electrostatics.py");
 
     public int Lattice(LatticeCell cell, DielectricTensor eps, ModelCharge model, int q) =>
         Add(new JsonObject { ["kind"] = "lattice", ["cell"] = Rows(cell.Rows), ["eps"] = Rows(eps.Tensor), ["cov"] = Rows(model.Covariance), ["q"] = q });

@@ -13,7 +13,6 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class GlpkGeneralLpRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
 
     public static GeneralLpAnswer Solve(LinearProgram program)
     {
@@ -22,7 +21,7 @@ public static class GlpkGeneralLpRunner
         string solution = scratch.File("solution.txt");
         var emittedRows = new List<int>();
         File.WriteAllText(model, Model(program, emittedRows));
-        var run = ToolProcess.Run("glpsol", ["--math", model, "-w", solution, "--xcheck", "--nopresol"], scratch.Path, Timeout, "glpk-utils");
+        var run = ToolProcess.Run("glpsol", ["--math", model, "-w", solution, "--xcheck", "--nopresol"], scratch.Path, "glpk-utils");
         var lines = run.StandardOutput.Split('\n', StringSplitOptions.TrimEntries);
         // glpsol 5.0 console verdicts: "LP HAS NO PRIMAL FEASIBLE SOLUTION" (presolver) or "PROBLEM HAS NO PRIMAL
         // FEASIBLE SOLUTION" (simplex); likewise "... UNBOUNDED ..."; "OPTIMAL LP SOLUTION FOUND", and with

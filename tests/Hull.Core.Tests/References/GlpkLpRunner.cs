@@ -10,7 +10,6 @@ namespace Hull.Core.Tests.References;
 public static class GlpkLpRunner
 {
     private const string ModelName = "hull_lp.mod";
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
     /// <param name="exactCheck">
     /// Adds glpsol's <c>--xcheck</c>: the final basis of the floating-point simplex is re-solved in exact rational
@@ -27,7 +26,7 @@ public static class GlpkLpRunner
         File.WriteAllText(data, DataFile(problem));
         var arguments = new List<string> { "--math", model, "--data", data };
         if (exactCheck) arguments.Add("--xcheck");
-        var run = ToolProcess.Run("glpsol", arguments, scratch.Path, Timeout, "glpk-utils");
+        var run = ToolProcess.Run("glpsol", arguments, scratch.Path, "glpk-utils");
         // glpsol reports "OPTIMAL LP SOLUTION FOUND" after the floating-point simplex and, with --xcheck, "OPTIMAL
         // SOLUTION FOUND" after the exact re-solve (glpsol output, GLPK 5.0); anything else is not an optimum.
         var lines = run.StandardOutput.Split('\n', StringSplitOptions.TrimEntries);

@@ -12,7 +12,6 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class OpenHullLpRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
     public sealed record Answer(double?[] PhiEvPerClosedAtom, double[] HullEnergyEvPerClosedAtom, double[][] Duals);
 
@@ -31,7 +30,7 @@ public static class OpenHullLpRunner
             entries.Select(e => new RawEntry(AmountsOf(e.Composition), e.EnergyEv)).ToList(),
             queries.Select(AmountsOf).ToList());
         File.WriteAllText(input, JsonSerializer.Serialize(problem));
-        ToolProcess.Run("/usr/bin/python3", [script, input, output], scratch.Path, Timeout, "python3-scipy");
+        ToolProcess.Run("/usr/bin/python3", [script, input, output], scratch.Path, "python3-scipy");
         Answers parsed = JsonSerializer.Deserialize<Answers>(File.ReadAllText(output))
             ?? throw new ReferenceToolException("The open-hull LP script wrote an empty answer file.");
         return new Answer(parsed.Phi, parsed.List.Select(a => a.HullEnergy).ToArray(), parsed.List.Select(a => a.Duals).ToArray());

@@ -6,7 +6,7 @@ namespace Hull.Core.Tests.References;
 /// A batch of JSON tasks for one reference script run by Debian's /usr/bin/python3 (NumPy/SciPy): the script reads
 /// <c>{"tasks": [...]}</c> from the file named by its first argument and writes <c>{"results": [...]}</c>, one per task.
 /// </summary>
-public sealed class PythonTaskBatch(string script, TimeSpan timeout)
+public sealed class PythonTaskBatch(string script)
 {
     private const string Python = "/usr/bin/python3";
     private readonly JsonArray _tasks = [];
@@ -25,7 +25,7 @@ public sealed class PythonTaskBatch(string script, TimeSpan timeout)
         string input = scratch.File("tasks.json");
         File.WriteAllText(input, new JsonObject { ["tasks"] = _tasks.DeepClone() }.ToJsonString());
         string path = Path.Combine(AppContext.BaseDirectory, "References", script);
-        var run = ToolProcess.Run(Python, [path, input], scratch.Path, timeout, "python3-scipy");
+        var run = ToolProcess.Run(Python, [path, input], scratch.Path, "python3-scipy");
         var results = JsonNode.Parse(run.StandardOutput)?["results"]?.AsArray()
             ?? throw new ReferenceToolException($"{script} wrote no results");
         if (results.Count != _tasks.Count) throw new ReferenceToolException($"{script} answered {results.Count} of {_tasks.Count} tasks");

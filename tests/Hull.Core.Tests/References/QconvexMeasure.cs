@@ -6,7 +6,6 @@ namespace Hull.Core.Tests.References;
 /// <summary>qconvex (Debian qhull-bin) as a reference for volumes and for facet planes.</summary>
 public static partial class QconvexMeasure
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
 
     /// <summary>
     /// The volume of the convex hull of the points by <c>qconvex FA</c>: 'FA' adds the total area and volume to
@@ -50,7 +49,7 @@ public static partial class QconvexMeasure
             foreach (double[] p in points) w.WriteLine(string.Join(' ', p.Select(v => v.ToString("R", CultureInfo.InvariantCulture))));
         }
 
-        ToolRun run = ToolProcess.Run("qconvex", [.. options, "TI", input], scratch.Path, Timeout, "qhull-bin");
+        ToolRun run = ToolProcess.Run("qconvex", [.. options, "TI", input], scratch.Path, "qhull-bin");
         errors = run.StandardError;
         return run.StandardOutput;
     }

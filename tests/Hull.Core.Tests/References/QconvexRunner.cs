@@ -8,7 +8,6 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class QconvexRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
 
     /// <summary>
     /// Runs <c>qconvex Qt i n</c> on the points: 'Qt' triangulates merged facets so each facet line lists
@@ -32,7 +31,7 @@ public static class QconvexRunner
                 w.WriteLine(string.Join(' ', p.Select(v => v.ToString("R", CultureInfo.InvariantCulture))));
             }
         }
-        var run = ToolProcess.Run("qconvex", ["Qt", "i", "n", "TI", input], scratch.Path, Timeout, "qhull-bin");
+        var run = ToolProcess.Run("qconvex", ["Qt", "i", "n", "TI", input], scratch.Path, "qhull-bin");
         return Parse(run.StandardOutput, dim, points.Count);
     }
 

@@ -8,7 +8,6 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class QhalfRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
 
     /// <summary>
     /// Runs <c>qhalf Fp</c>: the input's first line "dim 1" then the interior point, then "dim+1", the count and one
@@ -29,7 +28,7 @@ public static class QhalfRunner
             foreach (var (normal, offset) in halfSpaces) w.WriteLine(string.Join(' ', normal.Append(offset).Select(R)));
         }
 
-        ToolRun run = ToolProcess.Run("qhalf", ["Fp", "TI", input], scratch.Path, Timeout, "qhull-bin");
+        ToolRun run = ToolProcess.Run("qhalf", ["Fp", "TI", input], scratch.Path, "qhull-bin");
         var lines = run.StandardOutput.Split('\n', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries);
         if (lines.Length < 2 || int.Parse(lines[0], CultureInfo.InvariantCulture) != dim)
         {

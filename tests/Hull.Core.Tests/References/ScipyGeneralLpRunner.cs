@@ -13,7 +13,6 @@ public static class ScipyGeneralLpRunner
 {
     private const string Python = "/usr/bin/python3";
     private const string ScriptName = "general_lp.py";
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
     public static IReadOnlyList<GeneralLpAnswer> Solve(IReadOnlyList<LinearProgram> programs)
     {
@@ -23,7 +22,7 @@ public static class ScipyGeneralLpRunner
         string input = scratch.File("programs.json");
         string output = scratch.File("answers.json");
         File.WriteAllText(input, JsonSerializer.Serialize(new Programs(programs.Select(ToJson).ToList())));
-        ToolProcess.Run(Python, [script, input, output], scratch.Path, Timeout, "python3-scipy");
+        ToolProcess.Run(Python, [script, input, output], scratch.Path, "python3-scipy");
         Answers parsed;
         try
         {

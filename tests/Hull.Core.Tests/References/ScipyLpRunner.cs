@@ -12,7 +12,6 @@ public static class ScipyLpRunner
 {
     private const string Python = "/usr/bin/python3";
     private const string ScriptName = "hull_lp.py";
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
     /// <summary>
     /// Largest accepted violation of sum_j lambda_j x_j = x_q: the solver works to 1e-10 feasibility; above 1e-9
@@ -33,7 +32,7 @@ public static class ScipyLpRunner
         string output = scratch.File("answers.json");
         File.WriteAllText(input, JsonSerializer.Serialize(new Problem(problem.Amounts, problem.EnergiesEvPerAtom, problem.Queries,
             problem.ExcludedPerQuery ?? problem.Queries.Select(_ => Array.Empty<int>()).ToList())));
-        ToolProcess.Run(Python, [script, input, output], scratch.Path, Timeout, "python3-scipy");
+        ToolProcess.Run(Python, [script, input, output], scratch.Path, "python3-scipy");
 
         Answers parsed;
         try

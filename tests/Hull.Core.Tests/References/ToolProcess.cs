@@ -9,8 +9,18 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class ToolProcess
 {
+    /// <summary>
+    /// How long a reference tool may run before it counts as hung. It only catches a tool that never returns: on a
+    /// shared, loaded machine a large SciPy or GLPK run can take minutes, and that is slow, not wrong.
+    /// </summary>
+    public static readonly TimeSpan HangTimeout = TimeSpan.FromMinutes(10);
+
     /// <param name="executable">A program name looked up on PATH, or an absolute path.</param>
     /// <param name="debianPackage">Named in the error when the tool is missing, so the fix is obvious.</param>
+    public static ToolRun Run(string executable, IReadOnlyList<string> arguments, string workingDirectory, string debianPackage) =>
+        Run(executable, arguments, workingDirectory, HangTimeout, debianPackage);
+
+    /// <param name="timeout">Only for checking the timeout itself; every reference run uses <see cref="HangTimeout"/>.</param>
     public static ToolRun Run(string executable, IReadOnlyList<string> arguments, string workingDirectory, TimeSpan timeout, string debianPackage)
     {
         string resolved = Resolve(executable)

@@ -9,7 +9,6 @@ namespace Hull.Core.Tests.References;
 /// </summary>
 public static class WindowLpRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(120);
 
     public sealed record Problem(
         [property: JsonPropertyName("a_ub")] double[][] AUpper,
@@ -38,7 +37,7 @@ public static class WindowLpRunner
         string input = scratch.File("problems.json");
         string output = scratch.File("answers.json");
         File.WriteAllText(input, JsonSerializer.Serialize(new Problems(problems)));
-        ToolProcess.Run("/usr/bin/python3", [script, input, output], scratch.Path, Timeout, "python3-scipy");
+        ToolProcess.Run("/usr/bin/python3", [script, input, output], scratch.Path, "python3-scipy");
         Answers parsed = JsonSerializer.Deserialize<Answers>(File.ReadAllText(output))
             ?? throw new ReferenceToolException("The window LP script wrote nothing.");
         if (parsed.List.Count != problems.Count) throw new ReferenceToolException($"{parsed.List.Count} answers for {problems.Count} problems.");

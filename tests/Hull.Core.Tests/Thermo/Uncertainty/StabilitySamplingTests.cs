@@ -22,7 +22,7 @@ public sealed class StabilitySamplingTests
     [Fact]
     public void Binary_vertex_probability_energy_above_hull_and_its_range_match_the_normal_closed_form()
     {
-        var batch = new PythonTaskBatch("stability_odds.py", TimeSpan.FromSeconds(120));
+        var batch = new PythonTaskBatch("stability_odds.py");
         foreach ((double d, double s) in BinaryCases)
         {
             batch.Add(new JsonObject { ["dE"] = d, ["sigma"] = s });
