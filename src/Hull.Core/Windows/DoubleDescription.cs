@@ -10,30 +10,46 @@ internal sealed class DoubleDescription
     private readonly List<double[]> _rows;
     private readonly List<double> _rhs;
     private readonly List<int> _ids;
-    private readonly List<double[]> _coords = new();
-    private readonly List<int[]> _tight = new();
-    private readonly List<List<int>> _adjacent = new();
-    private readonly List<bool> _alive = new();
-    private List<int> _live = new();
-    private List<int> _spareLive = new();
+    // Every vertex ever made, dead ones included: coordinates at _d·v, tight ids, neighbours, whether alive.
+    private double[] _coords;
+    private int _count;
+    private int[][] _tight;
+    private List<int>[] _adjacent;
+    private bool[] _alive;
+    private int[] _live;
+    private int _liveCount;
+    private int[] _spareLive;
     private readonly List<int> _negative = new();
     private readonly List<int> _zero = new();
+    private readonly List<int> _face = new();
     private double[] _slack = [];
+    // The live vertices' bounding box: a cut whose plane clears the whole box cannot touch any of them.
+    private readonly double[] _low;
+    private readonly double[] _high;
 
     private readonly Predicate<int> _isDead;
 
     public DoubleDescription(int d, double[] lower, double[] upper, int[] boxIds, List<double[]> rows, List<double> rhs, List<int> ids)
     {
         _d = d;
-        _isDead = v => !_alive[v];
         _rows = rows;
         _rhs = rhs;
         _ids = ids;
-        // The box: vertex b has coordinate f at its upper bound when bit f of b is set; edges flip one bit.
         int count = 1 << d;
+        int capacity = Math.Max(64, 4 * count);
+        _coords = new double[capacity * Math.Max(d, 1)];
+        _tight = new int[capacity][];
+        _adjacent = new List<int>[capacity];
+        _alive = new bool[capacity];
+        _live = new int[capacity];
+        _spareLive = new int[capacity];
+        _isDead = v => !_alive[v];
+        _low = (double[])lower.Clone();
+        _high = (double[])upper.Clone();
+        // The box: vertex b has coordinate f at its upper bound when bit f of b is set; edges flip one bit.
+        var x = new double[d];
         for (int b = 0; b < count; b++)
         {
-            var x = new double[d];
             var tight = new int[d];
             for (int f = 0; f < d; f++)
             {
@@ -45,34 +61,47 @@ internal sealed class DoubleDescription
             Array.Sort(tight);
             var neighbours = new List<int>(d);
             for (int f = 0; f < d; f++) neighbours.Add(b ^ (1 << f));
-            AddVertex(x, tight, neighbours);
+            _live[_liveCount++] = AddVertex(x, tight, neighbours);
+        }
+    }
+
+    private int AddVertex(ReadOnlySpan<double> x, int[] tight, List<int> neighbours)
+    {
+        if (_count == _alive.Length)
+        {
+            int grown = 2 * _count;
+            Array.Resize(ref _coords, grown * Math.Max(_d, 1));
+            Array.Resize(ref _tight, grown);
+            Array.Resize(ref _adjacent, grown);
+            Array.Resize(ref _alive, grown);
         }
 
-        _live = Enumerable.Range(0, count).ToList();
+        x.CopyTo(_coords.AsSpan(_count * _d, _d));
+        _tight[_count] = tight;
+        _adjacent[_count] = neighbours;
+        _alive[_count] = true;
+        return _count++;
     }
 
-    private int AddVertex(double[] x, int[] tight, List<int> neighbours)
-    {
-        _coords.Add(x);
-        _tight.Add(tight);
-        _adjacent.Add(neighbours);
-        _alive.Add(true);
-        return _coords.Count - 1;
-    }
+    private ReadOnlySpan<double> Point(int v) => new(_coords, v * _d, _d);
 
     public double[] Centroid()
     {
         var c = new double[_d];
-        foreach (int v in _live)
+        for (int i = 0; i < _liveCount; i++)
         {
-            for (int f = 0; f < _d; f++) c[f] += _coords[v][f];
+            ReadOnlySpan<double> x = Point(_live[i]);
+            for (int f = 0; f < _d; f++) c[f] += x[f];
         }
 
-        for (int f = 0; f < _d; f++) c[f] /= Math.Max(1, _live.Count);
+        for (int f = 0; f < _d; f++) c[f] /= Math.Max(1, _liveCount);
         return c;
     }
 
-    public IEnumerable<(double[] Point, int[] Tight)> Vertices() => _live.Select(v => (_coords[v], _tight[v]));
+    public IEnumerable<(double[] Point, int[] Tight)> Vertices()
+    {
+        for (int i = 0; i < _liveCount; i++) yield return (Point(_live[i]).ToArray(), _tight[_live[i]]);
+    }
 
     /// <summary>Cuts by constraint row <paramref name="k"/>; false when nothing is left.</summary>
     public bool Cut(int k)
@@ -80,45 +109,63 @@ internal sealed class DoubleDescription
         double[] row = _rows[k];
         double b = _rhs[k];
         int id = _ids[k];
-        if (_slack.Length < _coords.Count) _slack = new double[Math.Max(_coords.Count * 2, 64)];
-        double[] slack = _slack;
-        // Scratch lists kept across cuts: most cuts of a window are redundant and should allocate nothing.
+        int d = _d;
+        // Most cuts of a window are redundant and far from it: the plane's highest value over the bounding box
+        // settles those in d steps. Twice the tolerance, so that no vertex the full test would call tight is skipped.
+        if (b - Highest(row, _low, _high, 0) > 2 * PolytopeTolerances.SlackEv) return true;
+
+        if (_slack.Length < _count) _slack = new double[Math.Max(_count * 2, 64)];
+        // Scratch lists kept across cuts: a cut that changes nothing should allocate nothing.
         List<int> negative = _negative, zero = _zero;
         negative.Clear();
         zero.Clear();
+        // The rest are tested by groups of live vertices, each with its own bounding box: a group whose box the plane
+        // clears is skipped. Vertices made by one cut lie on one face, so consecutive live vertices lie close together.
+        if (_groupsStale) Group();
         bool anyPositive = false;
-        foreach (int v in _live)
+        for (int g = 0; g < _groupCount; g++)
         {
-            double s = b - VertexEnumeration.Dot(row, _coords[v]);
-            slack[v] = s;
-            if (s < -PolytopeTolerances.SlackEv) negative.Add(v);
-            else if (s <= PolytopeTolerances.SlackEv) zero.Add(v);
-            else anyPositive = true;
+            if (b - Highest(row, _groupLow, _groupHigh, g * d) > 2 * PolytopeTolerances.SlackEv) anyPositive = true;
+            else anyPositive |= Slacks(row, b, g * GroupSize, Math.Min(_liveCount, (g + 1) * GroupSize));
+        }
+
+        if (negative.Count > 0)
+        {
+            // It cuts: the new vertices need the slack of every live vertex, those of skipped groups included.
+            negative.Clear();
+            zero.Clear();
+            anyPositive = Slacks(row, b, 0, _liveCount);
         }
 
         foreach (int z in zero) _tight[z] = WithId(_tight[z], id);
         if (negative.Count == 0) return true;
         if (!anyPositive && zero.Count == 0)
         {
-            _live.Clear();
+            _liveCount = 0;
             return false;
         }
 
-        var face = new List<int>(zero);
+        double[] slack = _slack;
+        List<int> face = _face;
+        face.Clear();
+        face.AddRange(zero);
+        Span<double> x = stackalloc double[d];
         foreach (int u in negative)
         {
             double su = slack[u];
-            foreach (int v in _adjacent[u])
+            List<int> aroundU = _adjacent[u];
+            for (int a = 0; a < aroundU.Count; a++)
             {
+                int v = aroundU[a];
                 if (!_alive[v]) continue;
                 double sv = slack[v];
                 if (sv <= PolytopeTolerances.SlackEv) continue;
                 double t = sv / (sv - su);
-                var x = new double[_d];
-                double[] xu = _coords[u], xv = _coords[v];
-                for (int f = 0; f < _d; f++) x[f] = xv[f] + t * (xu[f] - xv[f]);
-                int[] tight = WithId(Intersect(_tight[u], _tight[v]), id);
-                int w = AddVertex(x, tight, [v]);
+                int au = u * d, av = v * d;
+                for (int f = 0; f < d; f++) x[f] = _coords[av + f] + t * (_coords[au + f] - _coords[av + f]);
+                int[] tight = IntersectWithId(_tight[u], _tight[v], id);
+                // A vertex of a d-dimensional polytope has at least d neighbours: room for them from the start.
+                int w = AddVertex(x, tight, new List<int>(d + 1) { v });
                 List<int> around = _adjacent[v];
                 around[around.IndexOf(u)] = w;
                 face.Add(w);
@@ -129,13 +176,119 @@ internal sealed class DoubleDescription
         foreach (int z in zero) _adjacent[z].RemoveAll(_isDead);
         JoinFace(face);
 
-        List<int> live = _spareLive;
-        live.Clear();
-        foreach (int v in _live) if (_alive[v]) live.Add(v);
-        for (int i = zero.Count; i < face.Count; i++) live.Add(face[i]);
+        int needed = _liveCount - negative.Count + face.Count - zero.Count;
+        if (_spareLive.Length < needed) _spareLive = new int[Math.Max(needed, 2 * _spareLive.Length)];
+        int[] live = _spareLive;
+        int kept = 0;
+        for (int i = 0; i < _liveCount; i++) if (_alive[_live[i]]) live[kept++] = _live[i];
+        for (int i = zero.Count; i < face.Count; i++) live[kept++] = face[i];
         _spareLive = _live;
         _live = live;
+        _liveCount = kept;
+        _groupsStale = true;
+        Bound();
         return true;
+    }
+
+    private const int GroupSize = 8;
+    private double[] _groupLow = [];
+    private double[] _groupHigh = [];
+    private int _groupCount;
+    private bool _groupsStale = true;
+
+    /// <summary>The highest value of the row's left side over the box at <paramref name="at"/> of the two corner arrays.</summary>
+    private double Highest(double[] row, double[] low, double[] high, int at)
+    {
+        double highest = 0;
+        for (int f = 0; f < _d; f++) highest += row[f] > 0 ? row[f] * high[at + f] : row[f] * low[at + f];
+        return highest;
+    }
+
+    /// <summary>
+    /// Slacks of the live vertices at positions [from, to) into the scratch array, sorted into the negative and zero
+    /// lists; whether any was positive.
+    /// </summary>
+    private bool Slacks(double[] row, double b, int from, int to)
+    {
+        int d = _d;
+        double[] coords = _coords, slack = _slack;
+        int[] live = _live;
+        bool anyPositive = false;
+        for (int i = from; i < to; i++)
+        {
+            int v = live[i];
+            int at = v * d;
+            double dot = 0;
+            if (d == 4)
+            {
+                // The five-element window's case, without the loop.
+                ReadOnlySpan<double> x = coords.AsSpan(at, 4);
+                dot = row[0] * x[0] + row[1] * x[1] + row[2] * x[2] + row[3] * x[3];
+            }
+            else
+            {
+                for (int f = 0; f < d; f++) dot += row[f] * coords[at + f];
+            }
+
+            double s = b - dot;
+            slack[v] = s;
+            if (s < -PolytopeTolerances.SlackEv) _negative.Add(v);
+            else if (s <= PolytopeTolerances.SlackEv) _zero.Add(v);
+            else anyPositive = true;
+        }
+
+        return anyPositive;
+    }
+
+    /// <summary>The bounding boxes of consecutive groups of live vertices.</summary>
+    private void Group()
+    {
+        int d = _d;
+        _groupCount = (_liveCount + GroupSize - 1) / GroupSize;
+        if (_groupLow.Length < _groupCount * d)
+        {
+            _groupLow = new double[2 * _groupCount * d];
+            _groupHigh = new double[2 * _groupCount * d];
+        }
+
+        for (int g = 0; g < _groupCount; g++)
+        {
+            for (int f = 0; f < d; f++)
+            {
+                _groupLow[g * d + f] = double.PositiveInfinity;
+                _groupHigh[g * d + f] = double.NegativeInfinity;
+            }
+
+            for (int i = g * GroupSize; i < Math.Min(_liveCount, (g + 1) * GroupSize); i++)
+            {
+                int at = _live[i] * d;
+                for (int f = 0; f < d; f++)
+                {
+                    double c = _coords[at + f];
+                    if (c < _groupLow[g * d + f]) _groupLow[g * d + f] = c;
+                    if (c > _groupHigh[g * d + f]) _groupHigh[g * d + f] = c;
+                }
+            }
+        }
+
+        _groupsStale = false;
+    }
+
+    /// <summary>The live vertices' bounding box, after a cut that changed them.</summary>
+    private void Bound()
+    {
+        Array.Fill(_low, double.PositiveInfinity);
+        Array.Fill(_high, double.NegativeInfinity);
+        for (int i = 0; i < _liveCount; i++)
+        {
+            int at = _live[i] * _d;
+            for (int f = 0; f < _d; f++)
+            {
+                double c = _coords[at + f];
+                if (c < _low[f]) _low[f] = c;
+                if (c > _high[f]) _high[f] = c;
+            }
+        }
     }
 
     /// <summary>
@@ -202,18 +355,18 @@ internal sealed class DoubleDescription
         return count;
     }
 
-    private static int[] Intersect(int[] a, int[] b)
+    /// <summary>The sorted ids common to both sorted sets, with <paramref name="id"/> (above none of them or among them) added: one allocation.</summary>
+    private int[] IntersectWithId(int[] a, int[] b, int id)
     {
-        var common = new List<int>(Math.Min(a.Length, b.Length));
-        int i = 0, j = 0;
-        while (i < a.Length && j < b.Length)
-        {
-            if (a[i] == b[j]) { common.Add(a[i]); i++; j++; }
-            else if (a[i] < b[j]) i++;
-            else j++;
-        }
-
-        return common.ToArray();
+        int count = IntersectInto(a, b, ref _common);
+        int at = Array.BinarySearch(_common, 0, count, id);
+        if (at >= 0) return _common.AsSpan(0, count).ToArray();
+        at = ~at;
+        var result = new int[count + 1];
+        Array.Copy(_common, result, at);
+        result[at] = id;
+        Array.Copy(_common, at, result, at + 1, count - at);
+        return result;
     }
 
     private static int[] WithId(int[] sorted, int id)
