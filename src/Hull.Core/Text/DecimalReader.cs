@@ -1,4 +1,7 @@
+using System.Buffers.Binary;
 using System.Globalization;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Numerics;
 
 namespace Hull.Core.Text;
@@ -41,31 +44,44 @@ public static class DecimalReader
             i++;
         }
 
+        // Every digit goes into the significand (it wraps past 19 digits, which are then counted and refused).
         ulong significand = 0;
-        int digits = 0, exponent = 0;
-        bool anyDigit = false;
+        int start = i;
         for (; i < n; i++)
         {
             uint d = At(s, i) - '0';
             if (d > 9) break;
-            anyDigit = true;
-            if (significand == 0 && d == 0) continue;
-            if (++digits > 19) return false;
             significand = significand * 10 + d;
         }
 
+        int digits = i - start, exponent = 0;
         if (i < n && At(s, i) == '.')
         {
-            for (i++; i < n; i++)
+            int fraction = ++i;
+            while (TryEightDigits(s, i, out uint eight))
+            {
+                significand = significand * 100_000_000 + eight;
+                i += 8;
+            }
+
+            for (; i < n; i++)
             {
                 uint d = At(s, i) - '0';
                 if (d > 9) break;
-                anyDigit = true;
-                exponent--;
-                if (significand == 0 && d == 0) continue;
-                if (++digits > 19) return false;
                 significand = significand * 10 + d;
             }
+
+            exponent = fraction - i;
+            digits += i - fraction;
+        }
+
+        bool anyDigit = digits > 0;
+        if (digits > 19)
+        {
+            // Leading zeros do not count: the significant digits start at the first non-zero one.
+            int significant = digits;
+            for (int k = start; k < i && (At(s, k) == '0' || At(s, k) == '.'); k++) if (At(s, k) == '0') significant--;
+            if (significant > 19) return false;
         }
 
         if (!anyDigit) return false;
@@ -79,7 +95,7 @@ public static class DecimalReader
                 i++;
             }
 
-            int start = i, written = 0;
+            int first = i, written = 0;
             for (; i < n; i++)
             {
                 uint d = At(s, i) - '0';
@@ -89,7 +105,7 @@ public static class DecimalReader
                 written = written * 10 + (int)d;
             }
 
-            if (i == start) return false;
+            if (i == first) return false;
             exponent += negativeExponent ? -written : written;
         }
 
@@ -99,6 +115,27 @@ public static class DecimalReader
         return true;
     }
 
+    /// <summary>
+    /// Eight ASCII digits at <paramref name="i"/> of UTF-8 text as their value, tested and converted a word at a time
+    /// (a digit is 0x30–0x39: its high nibble 3, and adding 6 leaves it below 0x40); false for UTF-16 text.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static bool TryEightDigits<TChar>(ReadOnlySpan<TChar> s, int i, out uint value)
+        where TChar : unmanaged, IBinaryInteger<TChar>
+    {
+        value = 0;
+        if (typeof(TChar) != typeof(byte) || i + 8 > s.Length) return false;
+        ulong word = BinaryPrimitives.ReadUInt64LittleEndian(MemoryMarshal.AsBytes(s.Slice(i, 8)));
+        if (((word & 0xF0F0_F0F0_F0F0_F0F0) | (((word + 0x0606_0606_0606_0606) & 0xF0F0_F0F0_F0F0_F0F0) >> 4)) != 0x3333_3333_3333_3333) return false;
+        word -= 0x3030_3030_3030_3030;
+        // Pairs, then quadruples, then all eight, by multiply-and-shift (the first digit is the lowest byte).
+        word = word * 10 + (word >> 8);
+        word = ((word & 0x0000_00FF_0000_00FF) * (100 + (1_000_000UL << 32)) + ((word >> 16) & 0x0000_00FF_0000_00FF) * (1 + (10_000UL << 32))) >> 32;
+        value = (uint)word;
+        return true;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static uint At<TChar>(ReadOnlySpan<TChar> s, int i)
         where TChar : unmanaged, IBinaryInteger<TChar> => uint.CreateTruncating(s[i]);
 

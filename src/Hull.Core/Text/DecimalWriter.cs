@@ -6,7 +6,8 @@ namespace Hull.Core.Text;
 /// Writes a double as the runtime's round-trip text (<c>ToString("R", CultureInfo.InvariantCulture)</c>: the shortest
 /// decimal that reads back to the same double, the nearest such when several have that length), with a short path
 /// for the fixed-point range 1e-4 ≤ |x| &lt; 1e15: the 15, 16 and 17 significant digits correctly rounded in exact
-/// 128-bit integer arithmetic, the first that reads back (through <see cref="DecimalReader"/>) written. Other values,
+/// 128-bit integer arithmetic, the first that reads back (by an exact test against half a unit in the last place)
+/// written. Other values,
 /// and a mantissa that is a power of two (its lower neighbour is closer, so a nearest-digits candidate may miss a
 /// shorter one), go to the runtime's formatter.
 /// </summary>
@@ -42,6 +43,20 @@ public static class DecimalWriter
 
     private static UInt128 Power(int e) => e < Pow10.Length ? Pow10[e] : (UInt128)Pow10[e - 19] * Pow10[19];
 
+    /// <summary>m·10^s exactly, for m &lt; 2^53 and 0 ≤ s ≤ 21 (below 2^124).</summary>
+    private static UInt128 Scale(ulong m, int s)
+    {
+        // Past 10^19 the power leaves 64 bits; m·10^(s−19) still fits them (m·100 &lt; 2^60).
+        if (s > 19) return Product(m * Pow10[s - 19], Pow10[19]);
+        return Product(m, Pow10[s]);
+    }
+
+    private static UInt128 Product(ulong a, ulong b)
+    {
+        ulong high = Math.BigMul(a, b, out ulong low);
+        return new UInt128(high, low);
+    }
+
     /// <summary>Characters written, or 0 when the value is left to the runtime.</summary>
     private static int TryWriteShort(double value, Span<char> destination)
     {
@@ -51,86 +66,101 @@ public static class DecimalWriter
         ulong fraction = bits & 0x000F_FFFF_FFFF_FFFF;
         if (biased == 0 || biased == 0x7FF || fraction == 0) return 0;
         ulong m = fraction | 1UL << 52;
-        int e2 = biased - 1075;   // value = m·2^e2
-        // 2^(e2+52) ≤ |value| < 2^(e2+53), so ⌊log10 |value|⌋ is this or one more (78913/2^18 ≈ log10 2, from below).
+        int e2 = biased - 1075;   // |value| = m / 2^shift
+        // 2^(e2+52) ≤ |value| < 2^(e2+53), so p = ⌊log10 |value|⌋ is this or one more (78913/2^18 ≈ log10 2, from below).
         int p = ((e2 + 52) * 78913) >> 18;
         if (p < -5 || p > 14 || e2 >= 0) return 0;
         int shift = -e2;
-        for (int n = 15; n <= 17; n++)
+        // 17 significant digits: |value|·10^s = scaled / 2^shift, its whole part below 10^17.
+        int s = 16 - p;
+        UInt128 scaled = Scale(m, s);
+        UInt128 whole = scaled >> shift;
+        if (whole >= Pow10[17])
         {
-            int s = n - 1 - p;
-            // Exact: m < 2^53 and 10^s ≤ 10^22 < 2^74, so the product stays below 2^127.
-            UInt128 scaled = (UInt128)m * Power(s);
-            UInt128 whole = scaled >> shift;
-            if (whole >= Pow10[n])
-            {
-                // ⌊log10 |value|⌋ was one more: the same digit count again at the next exponent.
-                if (++p > 14) return 0;
-                n--;
-                continue;
-            }
-
-            UInt128 rest = scaled - (whole << shift);
-            UInt128 half = UInt128.One << (shift - 1);
-            ulong digits = (ulong)whole;
-            if (rest > half || (rest == half && (digits & 1) == 1)) digits++;
-            int exponent = -s;
-            if (digits == Pow10[n])
-            {
-                digits = Pow10[n - 1];
-                exponent++;
-            }
-
-            if (!DecimalReader.TryCompose(digits, exponent, out double back)) return 0;
-            if (back != Math.Abs(value)) continue;
-            int leading = exponent + n - 1;   // ⌊log10⌋ of what is written
-            if (leading < -4 || leading > 14) return 0;
-            return Place(negative, digits, n, leading, destination);
+            if (++p > 14) return 0;
+            s--;
+            scaled = Scale(m, s);
+            whole = scaled >> shift;
         }
 
-        return 0;
+        UInt128 rest = scaled - (whole << shift);
+        ulong w = (ulong)whole;
+        bool exact = rest == UInt128.Zero;
+        // A candidate C (in units of 10^-s) reads back as the value exactly when it lies within half a unit in the
+        // last place of it: |C − scaled/2^shift| < 10^s/2^(shift+1), the boundary too when m is even (ties go to
+        // even). C·2^(shift+1) < 2^127 and 2·scaled < 2^125, so the test is exact in 128 bits.
+        UInt128 halfUlp = Power(s);
+        UInt128 twice = scaled << 1;
+        bool ReadsBack(ulong candidate)
+        {
+            UInt128 c = (UInt128)candidate << (shift + 1);
+            UInt128 distance = c > twice ? c - twice : twice - c;
+            return distance < halfUlp || (distance == halfUlp && (m & 1) == 0);
+        }
+
+        // 15, then 16 significant digits, each correctly rounded from the exact value; else the 17, which always read back.
+        for (int drop = 2; drop >= 1; drop--)
+        {
+            ulong unit = Pow10[drop];
+            ulong q = w / unit, r = w - q * unit, middle = unit / 2;
+            if (r > middle || (r == middle && (!exact || (q & 1) == 1))) q++;
+            if (ReadsBack(q * unit)) return Place(negative, q, 17 - drop, p, destination);
+        }
+
+        UInt128 half = UInt128.One << (shift - 1);
+        if (rest > half || (rest == half && (w & 1) == 1)) w++;
+        return Place(negative, w, 17, p, destination);
     }
 
-    /// <summary>Fixed-point text of digits·10^(leading − count + 1), trailing zeros dropped.</summary>
+    /// <summary>
+    /// Fixed-point text of the <paramref name="count"/>-digit <paramref name="digits"/> with the first digit at 10^leading
+    /// (digits = 10^count means the next power of ten), trailing zeros dropped; 0 when that is outside the fixed range.
+    /// </summary>
     private static int Place(bool negative, ulong digits, int count, int leading, Span<char> destination)
     {
+        if (digits == Pow10[count])
+        {
+            digits = 1;
+            count = 1;
+            leading++;
+        }
+
+        if (leading < -4 || leading > 14) return 0;
         while (digits % 10 == 0)
         {
             digits /= 10;
             count--;
         }
 
-        Span<char> text = stackalloc char[20];
-        for (int i = count - 1; i >= 0; i--)
-        {
-            text[i] = (char)('0' + (int)(digits % 10));
-            digits /= 10;
-        }
-
-        int at = 0;
-        if (negative) destination[at++] = '-';
+        int start = negative ? 1 : 0;
+        if (negative) destination[0] = '-';
+        int length;
         if (leading < 0)
         {
-            destination[at++] = '0';
-            destination[at++] = '.';
-            for (int z = 0; z < -leading - 1; z++) destination[at++] = '0';
-            text[..count].CopyTo(destination[at..]);
-            return at + count;
+            // 0.000ddd: the digits follow the point and −leading−1 zeros.
+            int first = start + 1 - leading;
+            destination[start] = '0';
+            destination[start + 1] = '.';
+            for (int z = start + 2; z < first; z++) destination[z] = '0';
+            length = first + count;
+            for (int i = length - 1; i >= first; i--, digits /= 10) destination[i] = (char)('0' + (int)(digits % 10));
+            return length;
         }
 
-        int integerDigits = leading + 1;
-        if (count <= integerDigits)
+        if (count <= leading + 1)
         {
-            text[..count].CopyTo(destination[at..]);
-            at += count;
-            for (int z = count; z < integerDigits; z++) destination[at++] = '0';
-            return at;
+            // A whole number: the digits, then zeros up to the units.
+            length = start + leading + 1;
+            for (int z = start + count; z < length; z++) destination[z] = '0';
+            for (int i = start + count - 1; i >= start; i--, digits /= 10) destination[i] = (char)('0' + (int)(digits % 10));
+            return length;
         }
 
-        text[..integerDigits].CopyTo(destination[at..]);
-        at += integerDigits;
-        destination[at++] = '.';
-        text[integerDigits..count].CopyTo(destination[at..]);
-        return at + count - integerDigits;
+        int point = start + leading + 1;
+        length = start + count + 1;
+        for (int i = length - 1; i > point; i--, digits /= 10) destination[i] = (char)('0' + (int)(digits % 10));
+        destination[point] = '.';
+        for (int i = point - 1; i >= start; i--, digits /= 10) destination[i] = (char)('0' + (int)(digits % 10));
+        return length;
     }
 }

@@ -23,9 +23,11 @@ internal sealed class DoubleDescription
     private readonly List<int> _zero = new();
     private readonly List<int> _face = new();
     private double[] _slack = [];
-    // The live vertices' bounding box: a cut whose plane clears the whole box cannot touch any of them.
-    private readonly double[] _low;
-    private readonly double[] _high;
+    // Bounding boxes as centre and half-width, d values each: box 0 holds every live vertex, box 1 + g the live
+    // vertices at positions [8g, 8g + 8). A cut whose plane clears a box cannot touch the vertices in it.
+    private double[] _centre = [];
+    private double[] _halfWidth = [];
+    private int _groupCount;
 
     private readonly Predicate<int> _isDead;
 
@@ -44,8 +46,6 @@ internal sealed class DoubleDescription
         _live = new int[capacity];
         _spareLive = new int[capacity];
         _isDead = v => !_alive[v];
-        _low = (double[])lower.Clone();
-        _high = (double[])upper.Clone();
         // The box: vertex b has coordinate f at its upper bound when bit f of b is set; edges flip one bit.
         var x = new double[d];
         for (int b = 0; b < count; b++)
@@ -63,6 +63,8 @@ internal sealed class DoubleDescription
             for (int f = 0; f < d; f++) neighbours.Add(b ^ (1 << f));
             _live[_liveCount++] = AddVertex(x, tight, neighbours);
         }
+
+        Boxes();
     }
 
     private int AddVertex(ReadOnlySpan<double> x, int[] tight, List<int> neighbours)
@@ -112,7 +114,9 @@ internal sealed class DoubleDescription
         int d = _d;
         // Most cuts of a window are redundant and far from it: the plane's highest value over the bounding box
         // settles those in d steps. Twice the tolerance, so that no vertex the full test would call tight is skipped.
-        if (b - Highest(row, _low, _high, 0) > 2 * PolytopeTolerances.SlackEv) return true;
+        Span<double> magnitude = stackalloc double[d];
+        for (int f = 0; f < d; f++) magnitude[f] = Math.Abs(row[f]);
+        if (b - Highest(row, magnitude, 0) > 2 * PolytopeTolerances.SlackEv) return true;
 
         if (_slack.Length < _count) _slack = new double[Math.Max(_count * 2, 64)];
         // Scratch lists kept across cuts: a cut that changes nothing should allocate nothing.
@@ -121,11 +125,10 @@ internal sealed class DoubleDescription
         zero.Clear();
         // The rest are tested by groups of live vertices, each with its own bounding box: a group whose box the plane
         // clears is skipped. Vertices made by one cut lie on one face, so consecutive live vertices lie close together.
-        if (_groupsStale) Group();
         bool anyPositive = false;
         for (int g = 0; g < _groupCount; g++)
         {
-            if (b - Highest(row, _groupLow, _groupHigh, g * d) > 2 * PolytopeTolerances.SlackEv) anyPositive = true;
+            if (b - Highest(row, magnitude, 1 + g) > 2 * PolytopeTolerances.SlackEv) anyPositive = true;
             else anyPositive |= Slacks(row, b, g * GroupSize, Math.Min(_liveCount, (g + 1) * GroupSize));
         }
 
@@ -174,7 +177,7 @@ internal sealed class DoubleDescription
 
         foreach (int u in negative) _alive[u] = false;
         foreach (int z in zero) _adjacent[z].RemoveAll(_isDead);
-        JoinFace(face);
+        JoinFace(face, zero.Count);
 
         int needed = _liveCount - negative.Count + face.Count - zero.Count;
         if (_spareLive.Length < needed) _spareLive = new int[Math.Max(needed, 2 * _spareLive.Length)];
@@ -185,22 +188,22 @@ internal sealed class DoubleDescription
         _spareLive = _live;
         _live = live;
         _liveCount = kept;
-        _groupsStale = true;
-        Bound();
+        Boxes();
         return true;
     }
 
     private const int GroupSize = 8;
-    private double[] _groupLow = [];
-    private double[] _groupHigh = [];
-    private int _groupCount;
-    private bool _groupsStale = true;
 
-    /// <summary>The highest value of the row's left side over the box at <paramref name="at"/> of the two corner arrays.</summary>
-    private double Highest(double[] row, double[] low, double[] high, int at)
+    /// <summary>
+    /// The highest value of the row's left side over box <paramref name="box"/>: centre·row + half-width·|row|. The
+    /// centre and half-width round by about 1e-15 eV, far inside the twice-the-tolerance margin the callers keep.
+    /// </summary>
+    private double Highest(double[] row, ReadOnlySpan<double> magnitude, int box)
     {
+        int at = box * _d;
+        ReadOnlySpan<double> centre = _centre.AsSpan(at, _d), half = _halfWidth.AsSpan(at, _d);
         double highest = 0;
-        for (int f = 0; f < _d; f++) highest += row[f] > 0 ? row[f] * high[at + f] : row[f] * low[at + f];
+        for (int f = 0; f < centre.Length; f++) highest += row[f] * centre[f] + magnitude[f] * half[f];
         return highest;
     }
 
@@ -240,54 +243,54 @@ internal sealed class DoubleDescription
         return anyPositive;
     }
 
-    /// <summary>The bounding boxes of consecutive groups of live vertices.</summary>
-    private void Group()
+    /// <summary>The bounding boxes of all live vertices and of each group of them, after the live set changed.</summary>
+    private void Boxes()
     {
         int d = _d;
         _groupCount = (_liveCount + GroupSize - 1) / GroupSize;
-        if (_groupLow.Length < _groupCount * d)
+        int size = (_groupCount + 1) * d;
+        if (_centre.Length < size)
         {
-            _groupLow = new double[2 * _groupCount * d];
-            _groupHigh = new double[2 * _groupCount * d];
+            _centre = new double[2 * size];
+            _halfWidth = new double[2 * size];
         }
 
+        Span<double> low = stackalloc double[d], high = stackalloc double[d], allLow = stackalloc double[d], allHigh = stackalloc double[d];
+        allLow.Fill(double.PositiveInfinity);
+        allHigh.Fill(double.NegativeInfinity);
+        double[] coords = _coords;
         for (int g = 0; g < _groupCount; g++)
         {
-            for (int f = 0; f < d; f++)
+            low.Fill(double.PositiveInfinity);
+            high.Fill(double.NegativeInfinity);
+            int end = Math.Min(_liveCount, (g + 1) * GroupSize);
+            for (int i = g * GroupSize; i < end; i++)
             {
-                _groupLow[g * d + f] = double.PositiveInfinity;
-                _groupHigh[g * d + f] = double.NegativeInfinity;
+                ReadOnlySpan<double> x = coords.AsSpan(_live[i] * d, d);
+                for (int f = 0; f < x.Length; f++)
+                {
+                    if (x[f] < low[f]) low[f] = x[f];
+                    if (x[f] > high[f]) high[f] = x[f];
+                }
             }
 
-            for (int i = g * GroupSize; i < Math.Min(_liveCount, (g + 1) * GroupSize); i++)
+            Store(1 + g, low, high);
+            for (int f = 0; f < d; f++)
             {
-                int at = _live[i] * d;
-                for (int f = 0; f < d; f++)
-                {
-                    double c = _coords[at + f];
-                    if (c < _groupLow[g * d + f]) _groupLow[g * d + f] = c;
-                    if (c > _groupHigh[g * d + f]) _groupHigh[g * d + f] = c;
-                }
+                if (low[f] < allLow[f]) allLow[f] = low[f];
+                if (high[f] > allHigh[f]) allHigh[f] = high[f];
             }
         }
 
-        _groupsStale = false;
+        Store(0, allLow, allHigh);
     }
 
-    /// <summary>The live vertices' bounding box, after a cut that changed them.</summary>
-    private void Bound()
+    private void Store(int box, ReadOnlySpan<double> low, ReadOnlySpan<double> high)
     {
-        Array.Fill(_low, double.PositiveInfinity);
-        Array.Fill(_high, double.NegativeInfinity);
-        for (int i = 0; i < _liveCount; i++)
+        for (int f = 0; f < _d; f++)
         {
-            int at = _live[i] * _d;
-            for (int f = 0; f < _d; f++)
-            {
-                double c = _coords[at + f];
-                if (c < _low[f]) _low[f] = c;
-                if (c > _high[f]) _high[f] = c;
-            }
+            _centre[box * _d + f] = 0.5 * (low[f] + high[f]);
+            _halfWidth[box * _d + f] = 0.5 * (high[f] - low[f]);
         }
     }
 
@@ -297,7 +300,81 @@ internal sealed class DoubleDescription
     /// vertex, so it is an edge). Only vertices of the new face can hold that set, as it contains the cut. Tight sets
     /// are decided combinatorially (see <see cref="VertexEnumeration"/>), so this needs no floating-point rank.
     /// </summary>
-    private void JoinFace(List<int> face)
+    private void JoinFace(List<int> face, int zeroCount)
+    {
+        if (!TryJoinFaceByMasks(face, zeroCount)) JoinFaceBySortedSets(face);
+    }
+
+    // Each constraint id tight somewhere on the face as one bit, when there are at most 64 of them (the usual case):
+    // intersections and inclusions of tight sets are then one machine word each.
+    private int[] _bitOf = [];
+    private int[] _bitStamp = [];
+    private int _stamp;
+    private ulong[] _masks = new ulong[16];
+
+    private bool TryJoinFaceByMasks(List<int> face, int zeroCount)
+    {
+        if (_bitOf.Length == 0)
+        {
+            int largest = 0;
+            foreach (int id in _ids) largest = Math.Max(largest, id);
+            foreach (int[] tight in _tight.AsSpan(0, _count)) foreach (int id in tight) largest = Math.Max(largest, id);
+            _bitOf = new int[largest + 1];
+            _bitStamp = new int[largest + 1];
+        }
+
+        if (_masks.Length < face.Count) _masks = new ulong[2 * face.Count];
+        ulong[] masks = _masks;
+        _stamp++;
+        int next = 0;
+        for (int i = 0; i < face.Count; i++)
+        {
+            ulong mask = 0;
+            foreach (int id in _tight[face[i]])
+            {
+                if (_bitStamp[id] != _stamp)
+                {
+                    if (next == 64) return false;
+                    _bitStamp[id] = _stamp;
+                    _bitOf[id] = next++;
+                }
+
+                mask |= 1UL << _bitOf[id];
+            }
+
+            masks[i] = mask;
+        }
+
+        int need = _d - 1;
+        for (int i = 0; i < face.Count; i++)
+        {
+            for (int j = i + 1; j < face.Count; j++)
+            {
+                ulong common = masks[i] & masks[j];
+                if (System.Numerics.BitOperations.PopCount(common) < need) continue;
+                int p = face[i], q = face[j];
+                // Only two vertices that were on the cutting plane already can be neighbours already.
+                if (j < zeroCount && _adjacent[p].Contains(q)) continue;
+                bool edge = true;
+                for (int k = 0; k < face.Count; k++)
+                {
+                    if (k != i && k != j && (common & ~masks[k]) == 0)
+                    {
+                        edge = false;
+                        break;
+                    }
+                }
+
+                if (!edge) continue;
+                _adjacent[p].Add(q);
+                _adjacent[q].Add(p);
+            }
+        }
+
+        return true;
+    }
+
+    private void JoinFaceBySortedSets(List<int> face)
     {
         int need = _d - 1;
         for (int i = 0; i < face.Count; i++)

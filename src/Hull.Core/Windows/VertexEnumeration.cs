@@ -32,16 +32,16 @@ public static class VertexEnumeration
         // Every constraint in the free coordinates: the inequalities (ids 0..m-1), then the bounds of the
         // eliminated coordinates (id m + 2·coordinate for lower, +1 for upper); the free coordinates' own bounds
         // are the starting box and use the same ids.
-        var rows = new List<double[]>();
-        var rhs = new List<double>();
-        var ids = new List<int>();
+        var rows = new List<double[]>(m + 2 * n);
+        var rhs = new List<double>(m + 2 * n);
+        var ids = new List<int>(m + 2 * n);
         var scratch = new double[d];
         var full = new double[n];
-        bool Add(IReadOnlyList<double> a, double b, int id)
+        bool Add(ReadOnlySpan<double> a, double b, int id)
         {
             if (map.Restrict(a, b, scratch, out double bound))
             {
-                rows.Add((double[])scratch.Clone());
+                rows.Add(scratch.AsSpan().ToArray());
                 rhs.Add(bound);
                 ids.Add(id);
                 return true;
@@ -64,7 +64,7 @@ public static class VertexEnumeration
         int boundCount = rows.Count;
         for (int k = 0; k < m; k++)
         {
-            if (!Add(polytope.Inequalities[k].Normal, polytope.Inequalities[k].Bound, k)) return PolytopeVertices.Empty(map.Free);
+            if (!Add(polytope.Inequalities[k].Coefficients, polytope.Inequalities[k].Bound, k)) return PolytopeVertices.Empty(map.Free);
         }
 
         var lower = map.Free.Select(j => polytope.LowerBounds[j]).ToArray();
