@@ -11,7 +11,7 @@ try
 {
     // Straight to the standard output stream: the text is ASCII, so no text writer or encoder is needed.
     using Stream output = Console.OpenStandardOutput();
-    output.Write(WindowFileSolver.FormatAscii(WindowFileSolver.SolveFile(args[0])));
+    WindowFileSolver.WriteAscii(WindowFileSolver.SolveFile(args[0]), output);
     return 0;
 }
 catch (Exception e) when (e is FormatException or IOException or UnauthorizedAccessException or ArgumentException)

@@ -104,36 +104,48 @@ public static class WindowFileSolver
     public static PolytopeVertices SolveFile(string path) => Solve(Read(path));
 
     /// <summary>"vertices K", then one vertex per line: every element's Δμ (round-trip), in the file's order.</summary>
-    public static string Format(PolytopeVertices vertices) => Encoding.ASCII.GetString(FormatAscii(vertices));
+    public static string Format(PolytopeVertices vertices)
+    {
+        int length = FormatAscii(vertices, out byte[] text);
+        return Encoding.ASCII.GetString(text, 0, length);
+    }
 
-    /// <summary>The same text as ASCII bytes, ready for standard output.</summary>
-    public static byte[] FormatAscii(PolytopeVertices vertices)
+    /// <summary>The same text written to <paramref name="output"/> as ASCII bytes.</summary>
+    public static void WriteAscii(PolytopeVertices vertices, Stream output)
+    {
+        int length = FormatAscii(vertices, out byte[] text);
+        output.Write(text, 0, length);
+    }
+
+    /// <summary>The text as ASCII bytes at the start of <paramref name="bytes"/>; their count.</summary>
+    private static int FormatAscii(PolytopeVertices vertices, out byte[] bytes)
     {
         int width = vertices.Vertices.Count == 0 ? 0 : vertices.Vertices[0].Coordinates.Count;
-        var bytes = new byte[32 + vertices.Vertices.Count * width * (DecimalWriter.MaxLength + 1)];
+        bytes = new byte[32 + vertices.Vertices.Count * width * (DecimalWriter.MaxLength + 1)];
+        byte[] into = bytes;
         Span<char> number = stackalloc char[DecimalWriter.MaxLength];
         int at = 0;
         void Put(ReadOnlySpan<char> text)
         {
             // Every character of this output is ASCII.
-            for (int i = 0; i < text.Length; i++) bytes[at++] = (byte)text[i];
+            for (int i = 0; i < text.Length; i++) into[at++] = (byte)text[i];
         }
 
         Put("vertices ");
         vertices.Vertices.Count.TryFormat(number, out int written, default, CultureInfo.InvariantCulture);
         Put(number[..written]);
-        bytes[at++] = (byte)'\n';
+        into[at++] = (byte)'\n';
         foreach (PolytopeVertex v in vertices.Vertices)
         {
             for (int i = 0; i < v.Coordinates.Count; i++)
             {
-                if (i > 0) bytes[at++] = (byte)' ';
+                if (i > 0) into[at++] = (byte)' ';
                 Put(number[..DecimalWriter.Write(v.Coordinates[i], number)]);
             }
 
-            bytes[at++] = (byte)'\n';
+            into[at++] = (byte)'\n';
         }
 
-        return bytes[..at];
+        return at;
     }
 }

@@ -38,7 +38,8 @@ internal sealed class DoubleDescription
         _rhs = rhs;
         _ids = ids;
         int count = 1 << d;
-        int capacity = Math.Max(64, 4 * count);
+        // Room for the box and about one new vertex per constraint from the start: regrowing copies every array.
+        int capacity = Math.Max(64, 4 * count) + rows.Count;
         _coords = new double[capacity * Math.Max(d, 1)];
         _tight = new int[capacity][];
         _adjacent = new List<int>[capacity];
@@ -118,7 +119,7 @@ internal sealed class DoubleDescription
         for (int f = 0; f < d; f++) magnitude[f] = Math.Abs(row[f]);
         if (b - Highest(row, magnitude, 0) > 2 * PolytopeTolerances.SlackEv) return true;
 
-        if (_slack.Length < _count) _slack = new double[Math.Max(_count * 2, 64)];
+        if (_slack.Length < _count) _slack = new double[_alive.Length];
         // Scratch lists kept across cuts: a cut that changes nothing should allocate nothing.
         List<int> negative = _negative, zero = _zero;
         negative.Clear();
