@@ -9,7 +9,9 @@ if (args.Length != 1)
 }
 try
 {
-    Console.Out.Write(WindowFileSolver.Format(WindowFileSolver.SolveFile(args[0])));
+    // Straight to the standard output stream: the text is ASCII, so no text writer or encoder is needed.
+    using Stream output = Console.OpenStandardOutput();
+    WindowFileSolver.WriteAscii(WindowFileSolver.SolveFile(args[0]), output);
     return 0;
 }
 catch (Exception e) when (e is FormatException or IOException or UnauthorizedAccessException or ArgumentException)

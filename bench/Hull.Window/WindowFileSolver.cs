@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text;
+using Hull.Core.Text;
 using Hull.Core.Windows;
 
 namespace Hull.Window;
@@ -17,54 +18,59 @@ public sealed record WindowLimits(int Elements, double[] Compound, double Compou
 
 public static class WindowFileSolver
 {
-    public static WindowLimits Read(string path)
+    public static WindowLimits Read(string path) => Parse(File.ReadAllBytes(path));
+
+    /// <summary>The limits in a file's bytes (ASCII numbers, UTF-8 at most): no string per line or per field.</summary>
+    public static WindowLimits Parse(ReadOnlySpan<byte> text)
     {
-        // One read of the whole file and numbers parsed from spans: no string per line or per field.
-        string text = File.ReadAllText(path);
         int at = 0, line = 0;
-        double[] Numbers(int expected)
+        void Numbers(ReadOnlySpan<byte> text, Span<double> values)
         {
+            int expected = values.Length;
             line++;
             if (at >= text.Length) throw new FormatException($"line {line}: the file ends early");
-            int end = text.IndexOf('\n', at);
-            if (end < 0) end = text.Length;
-            ReadOnlySpan<char> rest = text.AsSpan(at, end - at).TrimEnd('\r');
+            int end = text[at..].IndexOf((byte)'\n');
+            end = end < 0 ? text.Length : at + end;
+            ReadOnlySpan<byte> rest = text[at..end].TrimEnd((byte)'\r');
             at = end + 1;
-            var values = new double[expected];
             int count = 0;
             while (true)
             {
-                rest = rest.TrimStart(' ');
+                rest = rest.TrimStart((byte)' ');
                 if (rest.IsEmpty) break;
-                int space = rest.IndexOf(' ');
-                ReadOnlySpan<char> field = space < 0 ? rest : rest[..space];
+                int space = rest.IndexOf((byte)' ');
+                ReadOnlySpan<byte> field = space < 0 ? rest : rest[..space];
                 rest = space < 0 ? [] : rest[space..];
-                if (count < expected && (!double.TryParse(field, NumberStyles.Float, CultureInfo.InvariantCulture, out values[count]) || !double.IsFinite(values[count])))
+                if (count < expected && (!DecimalReader.TryParse(field, out values[count]) || !double.IsFinite(values[count])))
                 {
-                    throw new FormatException($"line {line}, field {count + 1}: '{field}' is not a finite number");
+                    throw new FormatException($"line {line}, field {count + 1}: '{Encoding.UTF8.GetString(field)}' is not a finite number");
                 }
 
                 count++;
             }
 
             if (count != expected) throw new FormatException($"line {line}: {count} numbers, expected {expected}");
-            return values;
         }
 
-        double[] header = Numbers(2);
+        Span<double> header = stackalloc double[2];
+        Numbers(text, header);
         int n = (int)header[0], m = (int)header[1];
         if (n < 2 || n != header[0] || m < 0 || m != header[1]) throw new FormatException("line 1: ELEMENTS (≥ 2) and PHASES (≥ 0) must be whole numbers");
-        double[] compound = Numbers(n + 1);
+        // One line's numbers: the atom fractions, then the energy.
+        Span<double> row = n < 64 ? stackalloc double[n + 1] : new double[n + 1];
+        Numbers(text, row);
+        double[] compound = row[..n].ToArray();
+        double compoundEnergy = row[n];
         var phases = new double[m][];
         var energies = new double[m];
         for (int j = 0; j < m; j++)
         {
-            double[] row = Numbers(n + 1);
-            phases[j] = row[..n];
+            Numbers(text, row);
+            phases[j] = row[..n].ToArray();
             energies[j] = row[n];
         }
 
-        return new WindowLimits(n, compound[..n], compound[n], phases, energies);
+        return new WindowLimits(n, compound, compoundEnergy, phases, energies);
     }
 
     /// <summary>The vertices of the compound's window (empty when the limits leave none).</summary>
@@ -85,7 +91,9 @@ public static class WindowFileSolver
         for (int j = 0; j < limits.Phases.Length; j++)
         {
             // A single element at or above its reference adds nothing to Δμ ≤ 0.
-            if (limits.Phases[j].Count(x => x > 0) == 1 && limits.PhaseEvPerAtom[j] >= 0) continue;
+            int present = 0;
+            foreach (double x in limits.Phases[j]) if (x > 0) present++;
+            if (present == 1 && limits.PhaseEvPerAtom[j] >= 0) continue;
             inequalities.Add(new HalfSpace(limits.Phases[j], limits.PhaseEvPerAtom[j], j));
         }
 
@@ -98,19 +106,46 @@ public static class WindowFileSolver
     /// <summary>"vertices K", then one vertex per line: every element's Δμ (round-trip), in the file's order.</summary>
     public static string Format(PolytopeVertices vertices)
     {
-        var b = new StringBuilder(64 + vertices.Vertices.Count * 120);
-        b.Append("vertices ").Append(vertices.Vertices.Count.ToString(CultureInfo.InvariantCulture)).Append('\n');
+        int length = FormatAscii(vertices, out byte[] text);
+        return Encoding.ASCII.GetString(text, 0, length);
+    }
+
+    /// <summary>The same text written to <paramref name="output"/> as ASCII bytes.</summary>
+    public static void WriteAscii(PolytopeVertices vertices, Stream output)
+    {
+        int length = FormatAscii(vertices, out byte[] text);
+        output.Write(text, 0, length);
+    }
+
+    /// <summary>The text as ASCII bytes at the start of <paramref name="bytes"/>; their count.</summary>
+    private static int FormatAscii(PolytopeVertices vertices, out byte[] bytes)
+    {
+        int width = vertices.Vertices.Count == 0 ? 0 : vertices.Vertices[0].Coordinates.Count;
+        bytes = new byte[32 + vertices.Vertices.Count * width * (DecimalWriter.MaxLength + 1)];
+        byte[] into = bytes;
+        Span<char> number = stackalloc char[DecimalWriter.MaxLength];
+        int at = 0;
+        void Put(ReadOnlySpan<char> text)
+        {
+            // Every character of this output is ASCII.
+            for (int i = 0; i < text.Length; i++) into[at++] = (byte)text[i];
+        }
+
+        Put("vertices ");
+        vertices.Vertices.Count.TryFormat(number, out int written, default, CultureInfo.InvariantCulture);
+        Put(number[..written]);
+        into[at++] = (byte)'\n';
         foreach (PolytopeVertex v in vertices.Vertices)
         {
             for (int i = 0; i < v.Coordinates.Count; i++)
             {
-                if (i > 0) b.Append(' ');
-                b.Append(CultureInfo.InvariantCulture, $"{v.Coordinates[i]:R}");
+                if (i > 0) into[at++] = (byte)' ';
+                Put(number[..DecimalWriter.Write(v.Coordinates[i], number)]);
             }
 
-            b.Append('\n');
+            into[at++] = (byte)'\n';
         }
 
-        return b.ToString();
+        return at;
     }
 }

@@ -42,3 +42,23 @@ def test_every_client_method_names_a_call_of_the_generated_stubs():
 def test_the_stubs_are_not_stale_against_the_protos():
     run = subprocess.run([sys.executable, str(CLIENT_DIR / "generate_stubs.py"), "--check"], capture_output=True, text=True)
     assert run.returncode == 0, run.stderr
+
+
+def test_every_window_call_takes_every_field_of_its_request():
+    # Read from the generated descriptors: a field added to a window request (or to WindowSettings, which all four
+    # carry) without a keyword on its Python method fails here. The compound field is the method's `compound`
+    # argument; `settings` is spread over the WindowSettings keywords.
+    import inspect
+    from hullclient import _stubs as wire
+
+    settings = [f.name for f in wire.windows_pb2.WindowSettings.DESCRIPTOR.fields]
+    assert "gas_molecules" in settings
+    methods = {"GetStabilityWindowRequest": HullClient.get_stability_window,
+               "SliceStabilityWindowRequest": HullClient.slice_stability_window,
+               "GetDopantLimitsRequest": HullClient.get_dopant_limits,
+               "DrawWindowFigureRequest": HullClient.draw_window_figure}
+    for request, method in methods.items():
+        parameters = set(inspect.signature(method).parameters)
+        fields = [f.name for f in getattr(wire.windows_pb2, request).DESCRIPTOR.fields if f.name != "settings"]
+        missing = sorted(set(fields + settings) - parameters)
+        assert not missing, f"{method.__name__} has no argument for {request} fields {missing}"

@@ -155,3 +155,46 @@ def test_a_computed_oxygen_molecule_reads_vertices_against_the_datasets_referenc
     assert bad.value.field_violations[0].field == "settings.gas_molecules[0].gas"
     with pytest.raises(InvalidArgumentError, match="N is not an element of this answer"):
         client.get_stability_window("licoo-total", "entry:LiCoO2", gas_molecules={"N2": (-16.6, 0.15)})
+
+
+def test_dopant_limits_and_the_window_figure_read_gases_through_a_computed_molecule(client):
+    # The invented Li-Co-O total-energy set of the test above, with Al (reference −3.75 eV/atom) and Al2O3 (formation
+    # −3.4 eV/atom: 2(−3.75) + 3(−4.95) − 5·3.4 = −39.35 eV per formula unit) as the dopant's phase, and the same
+    # invented computed O2 (−9.86 eV at rest, 0.098 eV zero-point). Hand value as there, from NIST-JANAF 4th ed. (1998)
+    # O2 at 1000 K (from memory): Δμ_O at 1 bar = ½(E + ZPE) − E_ref + ½{[H° − H°(298.15 K)] + [H°(298.15 K) − H°(0)]
+    # − T S°}, then log10 p = 2(Δμ_O − that)/(k_B T ln 10).
+    k_b = 8.617333262e-5
+    standard = 0.5 * (-9.86 + 0.098) + 4.95 + (22.703 + 8.683 - 243.578) / 96.4853321233 / 2
+    client.create_dataset("licoal-total")
+    client.import_entries("licoal-total", pd.DataFrame({
+        "id": ["Li", "Co", "O2", "Al", "Li2O", "CoO", "LiCoO2", "Al2O3"],
+        "formula": ["Li", "Co", "O2", "Al", "Li2O", "CoO", "LiCoO2", "Al2O3"],
+        "energy_ev": [-1.9, -7.1, -9.9, -3.75, -14.75, -14.45, -26.1, -39.35],
+        "basis": ["total_per_formula_unit"] * 8,
+    }))
+    molecule = {"O2": (-9.86, 0.098)}
+
+    def assert_read_through_the_molecule(vertices):
+        assert len(vertices) >= 3
+        for _, row in vertices.iterrows():
+            hand = 2 * (row["delta_mu_O_ev"] - standard) / (k_b * 1000 * math.log(10))
+            assert row["log10_p_O2_bar"] == pytest.approx(hand, abs=2e-3)  # the Shomate fit, a few J/mol off the table
+
+    limits = client.get_dopant_limits("licoal-total", "entry:LiCoO2", "Al", gas_at_temperature_k=1000, gas_molecules=molecule)
+    assert_read_through_the_molecule(limits.host.vertices)
+    assert_read_through_the_molecule(limits.limits[0].extended_vertices)
+    # Without the molecule the same vertices read O against the fitted reference: another pressure.
+    fitted = client.get_dopant_limits("licoal-total", "entry:LiCoO2", "Al", gas_at_temperature_k=1000)
+    assert (fitted.host.vertices["log10_p_O2_bar"] - limits.host.vertices["log10_p_O2_bar"]).abs().min() > 0.1
+    with pytest.raises(InvalidArgumentError) as bad:
+        client.get_dopant_limits("licoal-total", "entry:LiCoO2", "Al", gas_molecules={"Mg": (-1.0, 0.0)})
+    assert bad.value.field_violations[0].field == "settings.gas_molecules[0].gas"
+
+    figure = client.draw_window_figure("licoal-total", "entry:LiCoO2", x_element="Li", y_element="Co",
+                                       projection_omits="Li", gas_at_temperature_k=1000, gas_molecules=molecule)
+    assert_read_through_the_molecule(figure.window.vertices)
+    assert_read_through_the_molecule(figure.drawn_vertices)
+    assert figure.window.size.projection_elements == ("Co", "O")
+    with pytest.raises(InvalidArgumentError) as bad:
+        client.draw_window_figure("licoal-total", "entry:LiCoO2", gas_molecules={"Mg": (-1.0, 0.0)})
+    assert bad.value.field_violations[0].field == "settings.gas_molecules[0].gas"

@@ -137,7 +137,7 @@ internal sealed class AffineParametrization
     /// (false when the normal vanishes, i.e. the constraint is constant on the subspace, with <paramref name="bound"/>
     /// then its slack).
     /// </summary>
-    public bool Restrict(IReadOnlyList<double> a, double b, double[] normal, out double bound)
+    public bool Restrict(ReadOnlySpan<double> a, double b, double[] normal, out double bound)
     {
         double rhs = b;
         for (int f = 0; f < Free.Length; f++) normal[f] = a[Free[f]];

@@ -32,16 +32,16 @@ public static class VertexEnumeration
         // Every constraint in the free coordinates: the inequalities (ids 0..m-1), then the bounds of the
         // eliminated coordinates (id m + 2·coordinate for lower, +1 for upper); the free coordinates' own bounds
         // are the starting box and use the same ids.
-        var rows = new List<double[]>();
-        var rhs = new List<double>();
-        var ids = new List<int>();
+        var rows = new List<double[]>(m + 2 * n);
+        var rhs = new List<double>(m + 2 * n);
+        var ids = new List<int>(m + 2 * n);
         var scratch = new double[d];
         var full = new double[n];
-        bool Add(IReadOnlyList<double> a, double b, int id)
+        bool Add(ReadOnlySpan<double> a, double b, int id)
         {
             if (map.Restrict(a, b, scratch, out double bound))
             {
-                rows.Add((double[])scratch.Clone());
+                rows.Add(scratch.AsSpan().ToArray());
                 rhs.Add(bound);
                 ids.Add(id);
                 return true;
@@ -64,7 +64,7 @@ public static class VertexEnumeration
         int boundCount = rows.Count;
         for (int k = 0; k < m; k++)
         {
-            if (!Add(polytope.Inequalities[k].Normal, polytope.Inequalities[k].Bound, k)) return PolytopeVertices.Empty(map.Free);
+            if (!Add(polytope.Inequalities[k].Coefficients, polytope.Inequalities[k].Bound, k)) return PolytopeVertices.Empty(map.Free);
         }
 
         var lower = map.Free.Select(j => polytope.LowerBounds[j]).ToArray();
@@ -95,10 +95,23 @@ public static class VertexEnumeration
         }
 
         double[] centre = engine.Centroid();
-        int[] order = Enumerable.Range(boundCount, rows.Count - boundCount)
-            .OrderBy(k => rhs[k] - Dot(rows[k], centre))
-            .ThenBy(k => k)
-            .ToArray();
+        int[] order = new int[rows.Count - boundCount];
+        double[] depth = new double[rows.Count];
+        for (int i = 0; i < order.Length; i++)
+        {
+            order[i] = boundCount + i;
+            depth[boundCount + i] = rhs[boundCount + i] - Dot(rows[boundCount + i], centre);
+        }
+
+        double[] keys = new double[order.Length];
+        for (int i = 0; i < order.Length; i++) keys[i] = depth[order[i]];
+        Array.Sort(keys, order);
+        // Equal depths in row order, as a stable sort leaves them.
+        for (int i = 0, j; i < order.Length; i = j)
+        {
+            for (j = i + 1; j < order.Length && keys[j] == keys[i]; j++) { }
+            if (j - i > 1) Array.Sort(order, i, j - i);
+        }
         foreach (int k in order)
         {
             if (!engine.Cut(k)) return PolytopeVertices.Empty(map.Free);
@@ -108,22 +121,33 @@ public static class VertexEnumeration
         foreach ((double[] y, int[] tight) in engine.Vertices())
         {
             double[] x = map.Point(y);
-            var labels = new List<int>();
-            var atLower = new SortedSet<int>();
-            var atUpper = new SortedSet<int>();
+            // Tight ids ascend, so the bounds' coordinates come out ascending and once each; labels need sorting.
+            int inequalityCount = 0, lowerCount = 0;
             foreach (int id in tight)
             {
-                if (id < m) labels.Add(polytope.Inequalities[id].Label);
-                else if (((id - m) & 1) == 0) atLower.Add((id - m) / 2);
-                else atUpper.Add((id - m) / 2);
+                if (id < m) inequalityCount++;
+                else if (((id - m) & 1) == 0) lowerCount++;
+            }
+
+            var labels = new int[inequalityCount];
+            var atLower = new int[lowerCount];
+            var atUpper = new int[tight.Length - inequalityCount - lowerCount];
+            int li = 0, lo = 0, up = 0;
+            foreach (int id in tight)
+            {
+                if (id < m) labels[li++] = polytope.Inequalities[id].Label;
+                else if (((id - m) & 1) == 0) atLower[lo++] = (id - m) / 2;
+                else atUpper[up++] = (id - m) / 2;
             }
 
             // Eliminated coordinates are exact functions of the free ones; snap those within the tolerance of a
             // bound onto it so a reported bound and the printed value agree.
             foreach (int j in atLower) x[j] = polytope.LowerBounds[j];
             foreach (int j in atUpper) x[j] = polytope.UpperBounds[j];
-            labels.Sort();
-            vertices.Add(new PolytopeVertex(x, labels.Distinct().ToArray(), atLower.ToArray(), atUpper.ToArray()));
+            Array.Sort(labels);
+            int distinct = 0;
+            for (int i = 0; i < labels.Length; i++) if (i == 0 || labels[i] != labels[i - 1]) labels[distinct++] = labels[i];
+            vertices.Add(new PolytopeVertex(x, distinct == labels.Length ? labels : labels[..distinct], atLower, atUpper));
         }
 
         return new PolytopeVertices(map.Free, vertices, d);

@@ -779,13 +779,19 @@ class HullClient:
     @_calls("WindowService", "GetDopantLimits")
     def get_dopant_limits(self, dataset: str, compound: str, dopants: Union[str, Iterable[str]], *, version: int = 0,
                           above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                          lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "") -> r.DopantLimits:
-        """The highest Δμ of each dopant that the host's window allows, per host vertex and overall."""
+                          lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                          gas_at_temperature_k: Optional[float] = None,
+                          gas_at_pressure_bar: Optional[float] = None,
+                          gas_molecules: Optional[Mapping[str, Tuple[float, float]]] = None) -> r.DopantLimits:
+        """The highest Δμ of each dopant that the host's window allows, per host vertex and overall. The gas
+        arguments read gas elements on the host's and the extended vertices (a gas dopant too) as
+        get_stability_window reads them."""
         dopants = [dopants] if isinstance(dopants, str) else list(dopants)
         reply = self._call(self._windows.GetDopantLimits, self.get_dopant_limits.hull_rpc,
                            wire.windows_pb2.GetDopantLimitsRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar, gas_molecules),
                                dopants=dopants))
         return r.DopantLimits(r.version_used(reply.used), r.stability_window(reply.host, wire.windows_pb2),
                               tuple(r.dopant_limit(m) for m in reply.limits))
@@ -795,15 +801,21 @@ class HullClient:
                            section: Optional[Mapping[str, float]] = None,
                            section_gases: Optional[Mapping[str, Tuple[float, float]]] = None, version: int = 0,
                            above_hull_tolerance_ev_per_atom: Optional[float] = None,
-                           lowering_ev_per_atom: Optional[float] = None) -> r.WindowFigure:
+                           lowering_ev_per_atom: Optional[float] = None, projection_omits: str = "",
+                           gas_at_temperature_k: Optional[float] = None,
+                           gas_at_pressure_bar: Optional[float] = None,
+                           gas_molecules: Optional[Mapping[str, Tuple[float, float]]] = None) -> r.WindowFigure:
         """The window of a compound (a formula, or 'entry:ID') drawn on Δμ of x_element and y_element (both or
         neither: the default pair); for four or more elements a section at `section` ({'Mn': -1.2}, eV; all but one
-        of the other elements; default the vertices' mean). WindowFigure.save(path) writes the SVG."""
+        of the other elements; default the vertices' mean), or at gases' (T, p) by `section_gases`
+        ({'O2': (1000, 0.21)}). The gas arguments read section gases and the vertices' gas columns as
+        get_stability_window reads them. WindowFigure.save(path) writes the SVG."""
         fixed = [wire.windows_pb2.FixedPotential(element=e, chemical_potential_ev=float(v)) for e, v in dict(section or {}).items()]
         reply = self._call(self._windows.DrawWindowFigure, self.draw_window_figure.hull_rpc,
                            wire.windows_pb2.DrawWindowFigureRequest(
                                dataset=dataset, version=version, compound=_compound(compound),
-                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, ""),
+                               settings=_window_settings(above_hull_tolerance_ev_per_atom, lowering_ev_per_atom, projection_omits,
+                                                         gas_at_temperature_k, gas_at_pressure_bar, gas_molecules),
                                x_element=x_element, y_element=y_element, section=fixed,
                                section_gases=_gas_potentials(section_gases)))
         window = r.stability_window(reply.window, wire.windows_pb2)
