@@ -17,9 +17,6 @@ namespace Hull.Server.Corrections;
 public sealed class CorrectedVersionWriter(
     IDatasetStore store, VersionResolver versions, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
 {
-    /// <summary>Rows per staged batch: a large version goes into the session in parts, as the CLI's imports do.</summary>
-    private const int StageBatchRows = 20_000;
-
     /// <param name="dataset">The dataset.</param>
     /// <param name="sourceVersion">The version to correct; 0 for the latest. It must be the latest, so the new version
     /// holds exactly its entries.</param>
@@ -72,29 +69,7 @@ public sealed class CorrectedVersionWriter(
     {
         var provenance = new BatchProvenance($"{dataset}@{source} corrected with {set.Label}", note);
         ImportSessionInfo session = store.BeginImport(dataset, DuplicatePolicy.Replace, provenance, sessions.IdleExpiry);
-        try
-        {
-            for (int start = 0; start < rows.Count; start += StageBatchRows)
-            {
-                store.StageBatch(session.SessionId, rows.Skip(start).Take(StageBatchRows).ToArray(), sessions.IdleExpiry);
-            }
-
-            store.MarkImportCorrected(session.SessionId, new VersionCorrections(set.Name, set.Version, source));
-            return store.CommitImport(session.SessionId, rows.Count, basedOn: source);
-        }
-        catch
-        {
-            try
-            {
-                store.CancelImport(session.SessionId);
-            }
-            catch (StoreException)
-            {
-                // The sweep removes a session that could not be cancelled; it never became a version.
-            }
-
-            throw;
-        }
+        return SessionVersionWrite.Run(store, session, rows, sessions.IdleExpiry, new VersionCorrections(set.Name, set.Version, source), basedOn: source);
     }
 
     private static void CheckRange(CorrectedRows corrected, string setField, CorrectionSet set, string dataset, long source)

@@ -32,28 +32,12 @@ public sealed record CurationPlan(IReadOnlyList<EntryRow> Rows, CurationRecord R
 
     /// <summary>
     /// Writes the rows as the dataset's next version with the record, through one curated import session, in
-    /// batches of at most <paramref name="batchSize"/>. A failure on the way cancels the session, so nothing stays
-    /// staged; a server that dies on the way leaves a session that lapses, never a version.
+    /// batches of at most <paramref name="batchSize"/> (<see cref="SessionVersionWrite"/>: a failure cancels the session,
+    /// a server that dies on the way leaves a session that lapses, never a version).
     /// </summary>
     public ImportResult Write(IDatasetStore store, BatchProvenance provenance, TimeSpan idleExpiry, int batchSize)
     {
         ImportSessionInfo session = store.BeginCuratedImport(Record.SourceDataset, Record, provenance, idleExpiry);
-        try
-        {
-            foreach (EntryRow[] batch in Rows.Chunk(batchSize)) store.StageBatch(session.SessionId, batch, idleExpiry);
-            return store.CommitImport(session.SessionId, Rows.Count);
-        }
-        catch
-        {
-            try
-            {
-                store.CancelImport(session.SessionId);
-            }
-            catch (ImportSessionNotFoundException)
-            {
-                // Already gone (lapsed and swept): nothing is left to remove.
-            }
-            throw;
-        }
+        return SessionVersionWrite.Run(store, session, Rows, idleExpiry, batchRows: batchSize);
     }
 }
