@@ -74,17 +74,8 @@ public sealed class CorrectedVersionWriter(
 
     private static void CheckRange(CorrectedRows corrected, string setField, CorrectionSet set, string dataset, long source)
     {
-        var violations = new List<FieldViolation>();
-        for (int i = 0; i < corrected.Rows.Count && violations.Count < RpcErrors.MaxViolationsReported; i++)
-        {
-            CorrectedEntry entry = corrected.Outcome.Entries[i];
-            if (!entry.IsChanged || entry.Raw.IsTotalEnergy) continue;
-            if (BatchValidation.FormationRangeProblem(entry.Corrected.EnergyEv, entry.Corrected.Basis, entry.Corrected.Composition) is { } problem)
-            {
-                violations.Add(new FieldViolation(setField, $"entry '{entry.Raw.Id}' of {dataset}@{source} after correction: {problem}"));
-            }
-        }
-
+        var violations = corrected.RangeProblems().Take(RpcErrors.MaxViolationsReported)
+            .Select(p => new FieldViolation(setField, $"entry '{p.EntryId}' of {dataset}@{source} after correction: {p.Problem}")).ToList();
         if (violations.Count > 0)
         {
             throw RpcErrors.InvalidArgument(BatchValidation.Summarize($"correction set '{set.Label}' was refused; nothing was written", violations),
