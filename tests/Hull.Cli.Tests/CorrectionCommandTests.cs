@@ -60,6 +60,13 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
             Assert.False(doc.RootElement.GetProperty("used").TryGetProperty("corrections", out _));
         }
 
+        // The versions table says which version holds corrected energies, and from which.
+        var shown = await CliRun.RunAsync("datasets", "show", "mx", "--csv", "--server", Server);
+        string[] lines = shown.Out.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.EndsWith(",corrected_with", lines[0]);
+        Assert.EndsWith(",", lines[1].TrimEnd('\r'));
+        Assert.EndsWith(",demo-mix v1 from version 1", lines[2].TrimEnd('\r'));
+
         // The new version exports with its method tags and imports again unchanged.
         string exported = Path.Combine(_folder, "v2.csv");
         Assert.Equal(0, (await CliRun.RunAsync("export", "mx", "--csv", "--output", exported, "--server", Server)).ExitCode);

@@ -86,6 +86,8 @@ public sealed class CurationCorrectionStepTests
         Assert.Equal(-168.6 / KilojoulesPerMolPerEv / 3, after.Phases.Single(p => p.PhaseId == "Cu2O").FormationEnergyEvPerAtom, 12);
         Assert.Equal(-157.3 / KilojoulesPerMolPerEv / 2, after.Phases.Single(p => p.PhaseId == "CuO").FormationEnergyEvPerAtom, 12);
         Assert.Equal(new Store.VersionCorrections("nbs-copper", 1, 1), running.Server.Store.GetVersionCorrections("cu", 2));
+        var named = new CorrectionsUsed { SetName = "nbs-copper", SetVersion = 1, SourceVersion = 1 };
+        Assert.Equal(named, curated.Corrections);
 
         // The other order: drop_above_hull on the raw energies takes Cu2O (0.0277 eV/atom above) before the correction.
         string dropThenCorrect = """
@@ -101,6 +103,15 @@ public sealed class CurationCorrectionStepTests
         CurateVersionResponse again = await c.Curation.CurateVersionAsync(
             new CurateVersionRequest { Dataset = "cu", SourceVersion = 1, RecipeJson = curated.Record.RecipeJson }, c.Call());
         Assert.Equal(curated.ContentSha256, again.ContentSha256);
+
+        // The version lists say which versions hold corrected energies; a recipe without the step carries none.
+        CurateVersionResponse plain = await c.Curation.CurateVersionAsync(
+            new CurateVersionRequest { Dataset = "cu", SourceVersion = 1, RecipeJson = """{"recipe_schema": 1, "steps": [{"kind": "drop_flagged"}]}""" }, c.Call());
+        Assert.Null(plain.Corrections);
+        var described = await c.Datasets.DescribeDatasetAsync(new DescribeDatasetRequest { Name = "cu" }, c.Call());
+        Assert.Equal([null, named, named, named, null], described.Versions.Select(v => v.Corrections));
+        var listed = await c.Datasets.ListVersionsAsync(new ListVersionsRequest { Dataset = "cu", PageSize = 2 }, c.Call());
+        Assert.Equal([null, named], listed.Versions.Select(v => v.Corrections));
     }
 
     [Fact]

@@ -612,14 +612,19 @@ public static class CommandTree
 
     internal static Table VersionsTable(IEnumerable<DatasetVersion> versions)
     {
-        var table = new Table("version", "committed_utc", "batch_entries", "inserted", "replaced", "entries", "source", "note");
+        var table = new Table("version", "committed_utc", "batch_entries", "inserted", "replaced", "entries", "source", "note", "corrected_with");
         foreach (DatasetVersion v in versions)
         {
-            table.Add(v.Version, FormatTime(v.CommittedAt), v.BatchEntryCount, v.InsertedCount, v.ReplacedCount, v.EntryCount, v.SourceLabel, v.Note);
+            table.Add(v.Version, FormatTime(v.CommittedAt), v.BatchEntryCount, v.InsertedCount, v.ReplacedCount, v.EntryCount, v.SourceLabel, v.Note,
+                CorrectedWith(v.Corrections));
         }
 
         return table;
     }
+
+    /// <summary>"set v1 from version 3" for a version holding corrected energies; empty for one imported as given.</summary>
+    internal static string CorrectedWith(CorrectionsUsed? used) =>
+        used is null ? string.Empty : $"{used.SetName} v{used.SetVersion} from version {used.SourceVersion}";
 
     internal static Table StabilityTable(IEnumerable<Protos.V1.EntryStability> results, VersionUsed? used)
     {

@@ -50,13 +50,15 @@ public sealed class CurationGrpcService(IDatasetStore store, ImportGate imports,
             imports.Forget(request.Dataset);
         }
 
-        return new CurateVersionResponse
+        var response = new CurateVersionResponse
         {
             DatasetVersion = result.NewVersion,
             EntryCount = plan.Rows.Count,
             ContentSha256 = store.GetFingerprint(request.Dataset, result.NewVersion),
             Record = CurationWireMapping.ToWire(request.Dataset, result.NewVersion, plan.Record),
         };
+        if (plan.Corrections is { } corrections) response.Corrections = WireMapping.ToWire(corrections);
+        return response;
     }
 
     public override async Task<Protos.V1.CurationRecord> GetCurationRecord(GetCurationRecordRequest request, ServerCallContext context)

@@ -1124,7 +1124,8 @@ class HullClient:
         reply = self._call(self._curation.CurateVersion, self.curate_version.hull_rpc,
                            wire.curation_pb2.CurateVersionRequest(dataset=dataset, source_version=source_version,
                                                                   recipe_json=text, note=note))
-        return r.CuratedVersion(reply.dataset_version, reply.entry_count, reply.content_sha256, r.curation_record(reply.record))
+        return r.CuratedVersion(reply.dataset_version, reply.entry_count, reply.content_sha256, r.curation_record(reply.record),
+                                r.corrections_used(reply))
 
     @_calls("CurationService", "GetCurationRecord")
     def get_curation_record(self, dataset: str, version: int) -> r.CurationRecord:
