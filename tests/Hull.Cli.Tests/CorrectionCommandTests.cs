@@ -80,6 +80,25 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task An_older_version_is_corrected_with_from_and_the_new_version_holds_its_entries_only()
+    {
+        string extra = Path.Combine(_folder, "extra.csv");
+        File.WriteAllText(extra, "id,formula,energy_ev,basis,note,method\nLi2O2,Li2O2,-18.6,total_per_formula_unit,peroxide,gga\n");
+        Assert.Equal(0, (await CliRun.RunAsync("import", "mx", extra, "--server", Server)).ExitCode);
+
+        var derive = await CliRun.RunAsync("corrections", "derive", "mx", "--set-file", SetFile, "--from", "1", "--server", Server);
+        Assert.True(derive.ExitCode == 0, derive.Err);
+        Assert.Contains("version 3 derived from version 1", derive.Out);
+
+        // Version 3 holds version 1's nine entries, not version 2's peroxide; its record is the recipe that makes it again.
+        var exported = await CliRun.RunAsync("export", "mx", "--version", "3", "--csv", "--server", Server);
+        Assert.DoesNotContain("Li2O2", exported.Out);
+        var shown = await CliRun.RunAsync("datasets", "show", "mx", "--server", Server);
+        Assert.Contains("demo-mix v1 from version 1", shown.Out);
+        Assert.Contains("apply_correction_set", shown.Out);
+    }
+
+    [Fact]
     public async Task Bad_corrections_questions_exit_with_their_codes()
     {
         Assert.Equal(ExitCodes.Usage, (await CliRun.RunAsync("corrections", "derive", "mx", "--server", Server)).ExitCode);
