@@ -157,6 +157,42 @@ public sealed class CorrectionServiceTests : IAsyncLifetime
         Assert.Equal(derived.Derived.Corrections, described.Versions[2].Corrections);
     }
 
+    [Fact]
+    public async Task Every_answer_on_a_corrected_version_names_its_set_and_none_on_the_raw_one()
+    {
+        await Data.CreateWithAsync(C, "named", CopperOxides());
+        await C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest { Dataset = "named", InlineSetJson = CopperFit }, C.Call());
+
+        async Task<VersionUsed[]> AnswersAsync(long version)
+        {
+            var analyzed = C.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = "named", Version = version }, C.Call());
+            var streamed = new List<VersionUsed>();
+            await foreach (AnalyzeDatasetResponse page in analyzed.ResponseStream.ReadAllAsync()) streamed.Add(page.Used);
+            return
+            [
+                (await EntriesAsync("named", version, "Cu2O")).Used,
+                (await StableAsync("named", version, "Cu-O")).Used,
+                (await C.Stability.AssessCandidatesAsync(new AssessCandidatesRequest
+                {
+                    Dataset = "named", Version = version,
+                    Candidates = { new Candidate { Label = "c", Formula = "Cu3O2", EnergyEv = -0.5, Basis = WireBasis.FormationPerAtom } },
+                }, C.Call())).Used,
+                (await C.Stability.GetHullEnergiesAsync(new GetHullEnergiesRequest { Dataset = "named", Version = version, Formulas = { "Cu3O2" } }, C.Call())).Used,
+                (await C.Stability.GetHullFacetsAsync(new GetHullFacetsRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call())).Used,
+                (await C.Figures.DrawPhaseDiagramAsync(new DrawPhaseDiagramRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call())).Used,
+                (await C.Uncertainty.SampleStabilityAsync(new SampleStabilityRequest
+                {
+                    Dataset = "named", Version = version, ChemicalSystem = "Cu-O", Samples = 20, Seed = 7,
+                }, C.Call())).Used,
+                .. streamed,
+            ];
+        }
+
+        VersionUsed[] corrected = await AnswersAsync(2), raw = await AnswersAsync(1);
+        Assert.All(corrected, u => Assert.Equal(("nbs-copper", 1L, 1L, 2L), (u.Corrections?.SetName, u.Corrections?.SetVersion, u.Corrections?.SourceVersion, u.Version)));
+        Assert.All(raw, u => Assert.Null(u.Corrections));
+    }
+
     // Two methods in Li–Co, worked by hand in the Core check (eV): aligning "hybrid" on LiCo shifts it by
     // −4.80 − (−5.50) = +0.70 eV/atom, so LiCo3-hybrid's formation energy becomes −0.10 eV/atom, 0.05 eV/atom above the
     // LiCo–Co tie-line at −0.15; raw, it would be the binary's lowest point at −0.80.
