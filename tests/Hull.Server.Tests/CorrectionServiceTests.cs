@@ -191,6 +191,13 @@ public sealed class CorrectionServiceTests : IAsyncLifetime
         VersionUsed[] corrected = await AnswersAsync(2), raw = await AnswersAsync(1);
         Assert.All(corrected, u => Assert.Equal(("nbs-copper", 1L, 1L, 2L), (u.Corrections?.SetName, u.Corrections?.SetVersion, u.Corrections?.SourceVersion, u.Version)));
         Assert.All(raw, u => Assert.Null(u.Corrections));
+
+        // A figure travels without its answer: its footer and metadata name the set themselves.
+        string Figure(long version) => C.Figures.DrawPhaseDiagram(new DrawPhaseDiagramRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call()).Svg;
+        Assert.Contains("version 2, content sha256 ", Figure(2));
+        Assert.Contains(", corrected with nbs-copper v1 from version 1", Figure(2));
+        Assert.Contains("corrections=\"nbs-copper v1 from version 1\"", Figure(2));
+        Assert.DoesNotContain("corrected with", Figure(1));
     }
 
     // Two methods in Li–Co, worked by hand in the Core check (eV): aligning "hybrid" on LiCo shifts it by
