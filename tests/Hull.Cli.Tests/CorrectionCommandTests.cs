@@ -60,6 +60,12 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
             Assert.False(doc.RootElement.GetProperty("used").TryGetProperty("corrections", out _));
         }
 
+        // Headings of other answers name it too: a figure, and a curated version that applied the set.
+        var figure = await CliRun.RunAsync("figure", "mx", "Li-Co-O", "--output", Path.Combine(_folder, "mx.svg"), "--server", Server);
+        Assert.True(figure.ExitCode == 0, figure.Err);
+        Assert.True(figure.Out.Contains("dataset mx, version 2 (corrected with demo-mix v1 from version 1), system Co-Li-O", StringComparison.Ordinal), figure.Out);
+        Assert.Contains("corrected with demo-mix v1 from version 1", File.ReadAllText(Path.Combine(_folder, "mx.svg")));
+
         // The versions table says which version holds corrected energies, and from which.
         var shown = await CliRun.RunAsync("datasets", "show", "mx", "--csv", "--server", Server);
         string[] lines = shown.Out.Split('\n', StringSplitOptions.RemoveEmptyEntries);
@@ -96,6 +102,12 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
         var shown = await CliRun.RunAsync("datasets", "show", "mx", "--server", Server);
         Assert.Contains("demo-mix v1 from version 1", shown.Out);
         Assert.Contains("apply_correction_set", shown.Out);
+
+        string recipe = Path.Combine(_folder, "apply.recipe.json");
+        File.WriteAllText(recipe, """{"recipe_schema": 1, "steps": [{"kind": "apply_correction_set", "set_name": "demo-mix", "set_version": 1}]}""");
+        var curated = await CliRun.RunAsync("curate", "mx", recipe, "--version", "1", "--server", Server);
+        Assert.True(curated.ExitCode == 0, curated.Err);
+        Assert.Contains("corrected with demo-mix v1 from version 1: every answer on it names the set", curated.Out);
     }
 
     [Fact]

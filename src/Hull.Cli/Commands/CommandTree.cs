@@ -61,8 +61,7 @@ public static class CommandTree
         "--page-size", "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
         min: 0, max: 1000, fallback: 0, meaning: "a page size");
 
-    private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}"
-        + (used.Corrections is { } k ? $" (corrected with {k.SetName} v{k.SetVersion} from version {k.SourceVersion})" : string.Empty);
+    private static string Caption(VersionUsed used) => VersionText.Of(used);
 
     private static Command DatasetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
@@ -616,15 +615,11 @@ public static class CommandTree
         foreach (DatasetVersion v in versions)
         {
             table.Add(v.Version, FormatTime(v.CommittedAt), v.BatchEntryCount, v.InsertedCount, v.ReplacedCount, v.EntryCount, v.SourceLabel, v.Note,
-                CorrectedWith(v.Corrections));
+                VersionText.CorrectedWith(v.Corrections));
         }
 
         return table;
     }
-
-    /// <summary>"set v1 from version 3" for a version holding corrected energies; empty for one imported as given.</summary>
-    internal static string CorrectedWith(CorrectionsUsed? used) =>
-        used is null ? string.Empty : $"{used.SetName} v{used.SetVersion} from version {used.SourceVersion}";
 
     internal static Table StabilityTable(IEnumerable<Protos.V1.EntryStability> results, VersionUsed? used)
     {

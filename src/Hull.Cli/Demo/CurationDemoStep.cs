@@ -28,7 +28,7 @@ internal static class CurationDemoStep
             Dataset = dataset, SourceVersion = 1, RecipeJson = await File.ReadAllTextAsync(recipeFile, t), Note = Path.GetFileName(recipeFile),
         }, hull.Call(t));
         output.WriteLine($"  {Path.GetFileName(recipeFile)} on {dataset}@1 (step 7i's mixture): version {curated.DatasetVersion} holds "
-                         + $"{curated.EntryCount} entries, corrected with {CommandTree.CorrectedWith(curated.Corrections)}.");
+                         + $"{curated.EntryCount} entries, corrected with {VersionText.CorrectedWith(curated.Corrections)}.");
         foreach (string line in CurationText.Lines(curated.Record)) output.WriteLine("  " + line);
 
         // The steps the other way round: drop_above_hull judges the raw mixture, where the gga+u entries sit on another
