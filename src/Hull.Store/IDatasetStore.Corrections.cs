@@ -37,4 +37,8 @@ public partial interface IDatasetStore
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
     /// <exception cref="VersionNotFoundException">No such version, or a deleted one.</exception>
     VersionCorrections? GetVersionCorrections(string datasetName, long version);
+
+    /// <summary>The sets every live version of a dataset was derived with, by version (versions imported as given absent).</summary>
+    /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
+    IReadOnlyDictionary<long, VersionCorrections> ListVersionCorrections(string datasetName);
 }

@@ -60,6 +60,19 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
             Assert.False(doc.RootElement.GetProperty("used").TryGetProperty("corrections", out _));
         }
 
+        // Headings of other answers name it too: a figure, and a curated version that applied the set.
+        var figure = await CliRun.RunAsync("figure", "mx", "Li-Co-O", "--output", Path.Combine(_folder, "mx.svg"), "--server", Server);
+        Assert.True(figure.ExitCode == 0, figure.Err);
+        Assert.True(figure.Out.Contains("dataset mx, version 2 (corrected with demo-mix v1 from version 1), system Co-Li-O", StringComparison.Ordinal), figure.Out);
+        Assert.Contains("corrected with demo-mix v1 from version 1", File.ReadAllText(Path.Combine(_folder, "mx.svg")));
+
+        // The versions table says which version holds corrected energies, and from which.
+        var shown = await CliRun.RunAsync("datasets", "show", "mx", "--csv", "--server", Server);
+        string[] lines = shown.Out.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.EndsWith(",corrected_with", lines[0]);
+        Assert.EndsWith(",", lines[1].TrimEnd('\r'));
+        Assert.EndsWith(",demo-mix v1 from version 1", lines[2].TrimEnd('\r'));
+
         // The new version exports with its method tags and imports again unchanged.
         string exported = Path.Combine(_folder, "v2.csv");
         Assert.Equal(0, (await CliRun.RunAsync("export", "mx", "--csv", "--output", exported, "--server", Server)).ExitCode);
@@ -70,6 +83,31 @@ public sealed class CorrectionCommandTests : IAsyncLifetime
         var copyStable = await CliRun.RunAsync("stable", "mx-copy", "--system", "Li-Co-O", "--csv", "--server", Server);
         var derivedStable = await CliRun.RunAsync("stable", "mx", "--system", "Li-Co-O", "--csv", "--server", Server);
         Assert.Equal(derivedStable.Out, copyStable.Out);
+    }
+
+    [Fact]
+    public async Task An_older_version_is_corrected_with_from_and_the_new_version_holds_its_entries_only()
+    {
+        string extra = Path.Combine(_folder, "extra.csv");
+        File.WriteAllText(extra, "id,formula,energy_ev,basis,note,method\nLi2O2,Li2O2,-18.6,total_per_formula_unit,peroxide,gga\n");
+        Assert.Equal(0, (await CliRun.RunAsync("import", "mx", extra, "--server", Server)).ExitCode);
+
+        var derive = await CliRun.RunAsync("corrections", "derive", "mx", "--set-file", SetFile, "--from", "1", "--server", Server);
+        Assert.True(derive.ExitCode == 0, derive.Err);
+        Assert.Contains("version 3 derived from version 1", derive.Out);
+
+        // Version 3 holds version 1's nine entries, not version 2's peroxide; its record is the recipe that makes it again.
+        var exported = await CliRun.RunAsync("export", "mx", "--version", "3", "--csv", "--server", Server);
+        Assert.DoesNotContain("Li2O2", exported.Out);
+        var shown = await CliRun.RunAsync("datasets", "show", "mx", "--server", Server);
+        Assert.Contains("demo-mix v1 from version 1", shown.Out);
+        Assert.Contains("apply_correction_set", shown.Out);
+
+        string recipe = Path.Combine(_folder, "apply.recipe.json");
+        File.WriteAllText(recipe, """{"recipe_schema": 1, "steps": [{"kind": "apply_correction_set", "set_name": "demo-mix", "set_version": 1}]}""");
+        var curated = await CliRun.RunAsync("curate", "mx", recipe, "--version", "1", "--server", Server);
+        Assert.True(curated.ExitCode == 0, curated.Err);
+        Assert.Contains("corrected with demo-mix v1 from version 1: every answer on it names the set", curated.Out);
     }
 
     [Fact]

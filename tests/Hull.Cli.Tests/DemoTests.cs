@@ -58,6 +58,12 @@ public sealed class DemoTests
         Assert.Contains("  1. drop_flagged {\"flag\":\"flagged\"}: 14 entries, 1 removed, 0 changed", run.Out);
         Assert.Contains("makes version 3 with the same content fingerprint: yes", run.Out);
         Assert.Contains("A misspelt field is refused: InvalidArgument, recipe step 2, field 'max_ev_per_atm'", run.Out);
+        // A recipe applying step 7i's set: the version names it, in the record, the versions table and the answers.
+        Assert.Contains("correct-then-clean.recipe.json on cathodes-mixed@1 (step 7i's mixture): version 3 holds 9 entries, corrected with demo-mix v1 from version 1.", run.Out);
+        Assert.Contains("  1. apply_correction_set {\"set_name\":\"demo-mix\",\"set_version\":1}: 9 entries, 0 removed, 7 changed", run.Out);
+        Assert.Contains("The same steps reversed are refused: InvalidArgument, recipe step 2, field 'set_name'", run.Out);
+        Assert.Matches(@"\n +3 +[0-9: -]+ +9 +0 +9 +9 +curated from cathodes-mixed@1 +correct-then-clean\.recipe\.json +demo-mix v1 from version 1\r?\n", run.Out);
+        Assert.Contains("Stable phases of version 3 (correction set demo-mix v1): Co, Co3O4-u, CoO-u, Li, Li2O, LiCo2O4-u, LiCoO2, O2", run.Out);
         try
         {
             string[] files = Directory.GetFiles(figures, "*.svg").Order(StringComparer.Ordinal).ToArray();

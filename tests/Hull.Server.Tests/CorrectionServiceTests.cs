@@ -105,6 +105,101 @@ public sealed class CorrectionServiceTests : IAsyncLifetime
         Assert.Equal(raw.Single(e => e.Id == "CuO").EnergyEv, exported.Single(e => e.Id == "CuO").EnergyEv);
     }
 
+    [Fact]
+    public async Task A_version_derived_from_an_older_version_holds_the_set_applied_to_that_version_not_to_the_latest()
+    {
+        Entry[] raw = CopperOxides();
+        await Data.CreateWithAsync(C, "older", raw);
+        // Version 2 moves CuO and adds an entry: neither may reach a version derived from version 1.
+        Entry movedCuO = Total("CuO", "CuO", raw[3].EnergyEv - 0.4), added = Total("Cu4O3", "Cu4O3", 4 * FittedCu + 3 * FittedO - 5.0);
+        await C.Datasets.ImportEntriesAsync(Data.Batch("older", DuplicatePolicy.Replace, movedCuO, added), C.Call());
+
+        DeriveCorrectedVersionResponse derived = await C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest
+        {
+            Dataset = "older", SourceVersion = 1, InlineSetJson = CopperFit, Note = "from the first import",
+        }, C.Call());
+
+        Assert.Equal((3L, 1L), (derived.Derived.Version, derived.Derived.Corrections.SourceVersion));
+        Assert.Equal(4, derived.EntryCount);
+        // Core's corrections of version 1's entries, in process, are exactly what version 3 holds.
+        PhaseEntry[] entries = raw.Select(ToCore).ToArray();
+        CorrectionOutcome outcome = EnergyCorrections.Apply(entries, new string?[entries.Length], CorrectionSetDocument.Parse(CopperFit));
+        Entry[] exported = await ExportAsync("older", 3);
+        Assert.Equal(raw.Select(e => e.Id).Order(StringComparer.Ordinal), exported.Select(e => e.Id).Order(StringComparer.Ordinal));
+        foreach (Entry e in exported)
+        {
+            Assert.Equal(outcome.CorrectedEntries.Single(c => c.Id == e.Id).EnergyEv, e.EnergyEv);
+        }
+
+        // The same as deriving from a dataset holding version 1's entries alone; not what correcting the latest gives.
+        await Data.CreateWithAsync(C, "first-only", raw);
+        DeriveCorrectedVersionResponse alone = await C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest
+        {
+            Dataset = "first-only", Stored = new CorrectionSetName { Name = "nbs-copper", Version = 1 },
+        }, C.Call());
+        Assert.Equal(alone.Derived.ContentSha256, derived.Derived.ContentSha256);
+        DeriveCorrectedVersionResponse latest = await C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest
+        {
+            Dataset = "older", SourceVersion = 2, Stored = new CorrectionSetName { Name = "nbs-copper", Version = 1 },
+        }, C.Call());
+        Assert.NotEqual(latest.Derived.ContentSha256, derived.Derived.ContentSha256);
+        Assert.Equal(5, latest.EntryCount);
+
+        // Its record is the one-step recipe that makes it: run again on version 1, the same content.
+        CurationRecord record = await C.Curation.GetCurationRecordAsync(new GetCurationRecordRequest { Dataset = "older", Version = 3 }, C.Call());
+        Assert.Equal((1L, "apply_correction_set", 2), (record.SourceVersion, record.Steps.Single().Kind, record.Steps.Single().ChangedCount));
+        CurateVersionResponse again = await C.Curation.CurateVersionAsync(
+            new CurateVersionRequest { Dataset = "older", SourceVersion = 1, RecipeJson = record.RecipeJson }, C.Call());
+        Assert.Equal(derived.Derived.ContentSha256, again.ContentSha256);
+        var described = await C.Datasets.DescribeDatasetAsync(new DescribeDatasetRequest { Name = "older" }, C.Call());
+        Assert.Equal("older@1 corrected with nbs-copper v1", described.Versions[2].SourceLabel);
+        Assert.Equal("from the first import", described.Versions[2].Note);
+        Assert.Equal(derived.Derived.Corrections, described.Versions[2].Corrections);
+    }
+
+    [Fact]
+    public async Task Every_answer_on_a_corrected_version_names_its_set_and_none_on_the_raw_one()
+    {
+        await Data.CreateWithAsync(C, "named", CopperOxides());
+        await C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest { Dataset = "named", InlineSetJson = CopperFit }, C.Call());
+
+        async Task<VersionUsed[]> AnswersAsync(long version)
+        {
+            var analyzed = C.Stability.AnalyzeDataset(new AnalyzeDatasetRequest { Dataset = "named", Version = version }, C.Call());
+            var streamed = new List<VersionUsed>();
+            await foreach (AnalyzeDatasetResponse page in analyzed.ResponseStream.ReadAllAsync()) streamed.Add(page.Used);
+            return
+            [
+                (await EntriesAsync("named", version, "Cu2O")).Used,
+                (await StableAsync("named", version, "Cu-O")).Used,
+                (await C.Stability.AssessCandidatesAsync(new AssessCandidatesRequest
+                {
+                    Dataset = "named", Version = version,
+                    Candidates = { new Candidate { Label = "c", Formula = "Cu3O2", EnergyEv = -0.5, Basis = WireBasis.FormationPerAtom } },
+                }, C.Call())).Used,
+                (await C.Stability.GetHullEnergiesAsync(new GetHullEnergiesRequest { Dataset = "named", Version = version, Formulas = { "Cu3O2" } }, C.Call())).Used,
+                (await C.Stability.GetHullFacetsAsync(new GetHullFacetsRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call())).Used,
+                (await C.Figures.DrawPhaseDiagramAsync(new DrawPhaseDiagramRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call())).Used,
+                (await C.Uncertainty.SampleStabilityAsync(new SampleStabilityRequest
+                {
+                    Dataset = "named", Version = version, ChemicalSystem = "Cu-O", Samples = 20, Seed = 7,
+                }, C.Call())).Used,
+                .. streamed,
+            ];
+        }
+
+        VersionUsed[] corrected = await AnswersAsync(2), raw = await AnswersAsync(1);
+        Assert.All(corrected, u => Assert.Equal(("nbs-copper", 1L, 1L, 2L), (u.Corrections?.SetName, u.Corrections?.SetVersion, u.Corrections?.SourceVersion, u.Version)));
+        Assert.All(raw, u => Assert.Null(u.Corrections));
+
+        // A figure travels without its answer: its footer and metadata name the set themselves.
+        string Figure(long version) => C.Figures.DrawPhaseDiagram(new DrawPhaseDiagramRequest { Dataset = "named", Version = version, ChemicalSystem = "Cu-O" }, C.Call()).Svg;
+        Assert.Contains("version 2, content sha256 ", Figure(2));
+        Assert.Contains(", corrected with nbs-copper v1 from version 1", Figure(2));
+        Assert.Contains("corrections=\"nbs-copper v1 from version 1\"", Figure(2));
+        Assert.DoesNotContain("corrected with", Figure(1));
+    }
+
     // Two methods in Li–Co, worked by hand in the Core check (eV): aligning "hybrid" on LiCo shifts it by
     // −4.80 − (−5.50) = +0.70 eV/atom, so LiCo3-hybrid's formation energy becomes −0.10 eV/atom, 0.05 eV/atom above the
     // LiCo–Co tie-line at −0.15; raw, it would be the binary's lowest point at −0.80.
@@ -179,17 +274,17 @@ public sealed class CorrectionServiceTests : IAsyncLifetime
         Assert.Single((await C.Datasets.DescribeDatasetAsync(new DescribeDatasetRequest { Name = "bad" }, C.Call())).Versions);
         Assert.Empty((await C.Corrections.ListCorrectionSetsAsync(new ListCorrectionSetsRequest(), C.Call())).Sets);
 
-        // A stored set's name and version never take another document; an older source version is not derived from.
+        // A stored set's name and version never take another document; a source version that does not exist is not found.
         await C.Corrections.PutCorrectionSetAsync(new PutCorrectionSetRequest { SetJson = CopperFit }, C.Call());
         var conflict = await Assert.ThrowsAsync<RpcException>(() => C.Corrections.PutCorrectionSetAsync(
             new PutCorrectionSetRequest { SetJson = CopperFit.Replace("-4.9", "-5.0", StringComparison.Ordinal) }, C.Call()).ResponseAsync);
         Assert.Equal(StatusCode.AlreadyExists, conflict.StatusCode);
         await C.Datasets.ImportEntriesAsync(Data.Batch("bad", DuplicatePolicy.Replace, Total("Cu4O3", "Cu4O3", -20.5)), C.Call());
-        var old = await Assert.ThrowsAsync<RpcException>(() => C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest
+        var absentSource = await Assert.ThrowsAsync<RpcException>(() => C.Corrections.DeriveCorrectedVersionAsync(new DeriveCorrectedVersionRequest
         {
-            Dataset = "bad", SourceVersion = 1, Stored = new CorrectionSetName { Name = "nbs-copper", Version = 1 },
+            Dataset = "bad", SourceVersion = 9, Stored = new CorrectionSetName { Name = "nbs-copper", Version = 1 },
         }, C.Call()).ResponseAsync);
-        Assert.Equal(StatusCode.FailedPrecondition, old.StatusCode);
+        Assert.Equal(StatusCode.NotFound, absentSource.StatusCode);
         var missing = await Assert.ThrowsAsync<RpcException>(() => C.Corrections.GetCorrectionSetAsync(
             new GetCorrectionSetRequest { Name = "nbs-copper", Version = 9 }, C.Call()).ResponseAsync);
         Assert.Equal(StatusCode.NotFound, missing.StatusCode);

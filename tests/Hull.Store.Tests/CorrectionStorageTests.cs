@@ -110,6 +110,31 @@ public abstract class CorrectionStorageTests : IDisposable
     }
 
     [Fact]
+    public void The_records_of_a_datasets_live_versions_are_listed_by_version()
+    {
+        _store.PutCorrectionSet("fit", 1, "{}");
+        _store.PutCorrectionSet("fit", 2, "{ }");
+        _store.ImportBatch("d", Rows.Many("a", 3), DuplicatePolicy.Reject, BatchProvenance.None);
+        Assert.Empty(_store.ListVersionCorrections("d"));
+        foreach ((long set, long source) in new[] { (1L, 1L), (2L, 1L), (1L, 3L) })
+        {
+            ImportSessionInfo session = _store.BeginImport("d", DuplicatePolicy.Replace, BatchProvenance.None, Expiry);
+            SessionVersionWrite.Run(_store, session, Rows.Many("a", 3, offsetEv: -0.1 * set), Expiry, new VersionCorrections("fit", set, source));
+        }
+
+        _store.ImportBatch("d", Rows.Many("b", 1), DuplicatePolicy.Reject, BatchProvenance.None);
+        _store.DeleteVersion("d", 3);
+
+        // Versions 2 and 4 were corrected and are live; 3 was deleted; 1 and 5 were imported as given.
+        IReadOnlyDictionary<long, VersionCorrections> listed = _store.ListVersionCorrections("d");
+        Assert.Equal([2L, 4L], listed.Keys.Order());
+        Assert.Equal(new VersionCorrections("fit", 1, 1), listed[2]);
+        Assert.Equal(new VersionCorrections("fit", 1, 3), listed[4]);
+        Assert.Equal(listed[4], _store.GetVersionCorrections("d", 4));
+        Assert.Throws<DatasetNotFoundException>(() => _store.ListVersionCorrections("nope"));
+    }
+
+    [Fact]
     public void A_refused_commit_of_a_marked_session_writes_neither_version_nor_record()
     {
         _store.ImportBatch("d", [Rows.Make("a")], DuplicatePolicy.Reject, BatchProvenance.None);

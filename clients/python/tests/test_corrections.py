@@ -68,3 +68,39 @@ def test_a_set_naming_an_absent_element_is_refused_and_nothing_is_written(client
     assert "element F" in str(refused.value)
     assert len(client.describe_dataset(mixed).versions) == len(before.versions)
     assert "py-bad" not in set(client.list_correction_sets().name)
+
+
+def test_version_lists_say_which_versions_hold_corrected_energies_as_the_cli_does(client, server):
+    client.import_table("mixed-py-versions", MIXTURE, create=True)
+    client.put_correction_set(SET_FILE)
+    client.derive_corrected_version("mixed-py-versions", stored=("demo-mix", 1))
+    recipe = {"recipe_schema": 1, "steps": [{"kind": "apply_correction_set", "set_name": "demo-mix", "set_version": 1}]}
+    curated = client.curate_version("mixed-py-versions", recipe, source_version=1)
+    assert (curated.dataset_version, curated.corrections.set_name, curated.corrections.source_version) == (3, "demo-mix", 1)
+    # The same set applied to the same source version: the same content, by either road.
+    listed = client.list_versions("mixed-py-versions")
+    assert list(listed.correction_set_name) == ["", "demo-mix", "demo-mix"]
+    assert listed.correction_set_version.isna().tolist() == [True, False, False]
+    assert list(listed.corrected_from_version.dropna()) == [1, 1]
+    described = client.describe_dataset("mixed-py-versions").versions
+    assert described[["correction_set_name", "corrected_from_version"]].equals(listed[["correction_set_name", "corrected_from_version"]])
+    expected = cli_json(server.url, "datasets", "show", "mixed-py-versions")
+    assert [v.get("corrections", {}).get("set_name", "") for v in expected["versions"]] == list(listed.correction_set_name)
+    assert client.get_stable_phases("mixed-py-versions", "Li-Co-O", version=3).attrs["used"].content_sha256 == \
+        client.get_stable_phases("mixed-py-versions", "Li-Co-O", version=2).attrs["used"].content_sha256
+
+
+def test_an_older_version_is_corrected_into_a_version_holding_its_entries_only(client):
+    client.import_table("mixed-py-older", MIXTURE, create=True)
+    client.put_correction_set(SET_FILE)
+    first = client.derive_corrected_version("mixed-py-older", stored=("demo-mix", 1))
+    extra = pd.DataFrame([{"id": "Li2O2", "formula": "Li2O2", "energy_ev": -18.6, "basis": "total_per_formula_unit",
+                           "note": "peroxide", "method": "gga"}])
+    client.import_entries("mixed-py-older", extra, on_duplicate="replace")
+    older = client.derive_corrected_version("mixed-py-older", stored=("demo-mix", 1), source_version=1)
+    used = older.attrs["used"]
+    assert (used.version, used.corrections.source_version) == (4, 1)
+    # The set applied to version 1 again: the content of version 2, not of the latest with its peroxide.
+    assert used.content_sha256 == first.attrs["used"].content_sha256
+    assert "Li2O2" not in set(client.export_entries("mixed-py-older", version=4).id)
+    assert client.get_curation_record("mixed-py-older", 4).steps.kind.tolist() == ["apply_correction_set"]

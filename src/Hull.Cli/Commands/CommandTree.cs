@@ -61,8 +61,7 @@ public static class CommandTree
         "--page-size", "items per call while following the server's pages (0 = the server's default, 100; at most 1000)",
         min: 0, max: 1000, fallback: 0, meaning: "a page size");
 
-    private static string Caption(VersionUsed used) => $"dataset {used.Dataset}, version {used.Version}"
-        + (used.Corrections is { } k ? $" (corrected with {k.SetName} v{k.SetVersion} from version {k.SourceVersion})" : string.Empty);
+    private static string Caption(VersionUsed used) => VersionText.Of(used);
 
     private static Command DatasetsCommand(Func<Body, Func<ParseResult, CancellationToken, Task<int>>> wrap)
     {
@@ -612,10 +611,11 @@ public static class CommandTree
 
     internal static Table VersionsTable(IEnumerable<DatasetVersion> versions)
     {
-        var table = new Table("version", "committed_utc", "batch_entries", "inserted", "replaced", "entries", "source", "note");
+        var table = new Table("version", "committed_utc", "batch_entries", "inserted", "replaced", "entries", "source", "note", "corrected_with");
         foreach (DatasetVersion v in versions)
         {
-            table.Add(v.Version, FormatTime(v.CommittedAt), v.BatchEntryCount, v.InsertedCount, v.ReplacedCount, v.EntryCount, v.SourceLabel, v.Note);
+            table.Add(v.Version, FormatTime(v.CommittedAt), v.BatchEntryCount, v.InsertedCount, v.ReplacedCount, v.EntryCount, v.SourceLabel, v.Note,
+                VersionText.CorrectedWith(v.Corrections));
         }
 
         return table;

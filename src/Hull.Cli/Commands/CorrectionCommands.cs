@@ -70,7 +70,7 @@ public static class CorrectionCommands
         var dataset = CommandTree.DatasetArgument();
         var stored = new Option<string?>("--set") { Description = "a stored correction set, NAME@VERSION (e.g. demo-fit@1)" };
         var file = new Option<string?>("--set-file") { Description = "a correction set document to apply (stored with the new version)" };
-        var from = ValueOptions.WholeNumber("--from", "the version to correct (default: the latest; it must be the latest)", min: 0, max: long.MaxValue, fallback: 0, meaning: "a dataset version");
+        var from = ValueOptions.WholeNumber("--from", "the version to correct (default: the latest; an older one gives a version holding exactly its entries, corrected)", min: 0, max: long.MaxValue, fallback: 0, meaning: "a dataset version");
         var note = new Option<string>("--note") { Description = "note recorded with the new version" };
         var command = new Command("derive", "write the dataset's entries with corrected energies as its next version, recording the set; prints each moved entry's shift")
         {

@@ -49,7 +49,8 @@ public static class CurateCommand
             }, c.Server.Call(t));
             if (savePath is not null) await SaveAsync(c, savePath, response.Record, t);
             string caption = $"dataset {name}: version {response.DatasetVersion} holds {response.EntryCount} entries (content sha256 {response.ContentSha256})\n"
-                             + CurationText.Lines(response.Record).First();
+                             + CurationText.Lines(response.Record).First()
+                             + (response.Corrections is { } k ? $"\ncorrected with {VersionText.CorrectedWith(k)}: every answer on it names the set" : string.Empty);
             c.Emit(response, () => CurationText.StepsTable(response.Record), caption);
             return ExitCodes.Ok;
         }));

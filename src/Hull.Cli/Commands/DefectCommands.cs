@@ -254,7 +254,7 @@ public static class DefectCommands
             await File.WriteAllTextAsync(path, response.Svg, new UTF8Encoding(false), t);
             var summary = response.Clone();
             summary.Svg = string.Empty;
-            c.Emit(summary, () => FigureTable(response, path), $"dataset {response.Used.Dataset}, version {response.Used.Version}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
+            c.Emit(summary, () => FigureTable(response, path), $"{VersionText.Of(response.Used)}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
             WriteWarnings(c, response.Warnings);
             return ExitCodes.Ok;
         }));
@@ -363,7 +363,7 @@ public static class DefectCommands
             var summary = response.Clone();
             summary.Svg = string.Empty;
             c.Emit(summary, () => new Table("file", "point", "temperatures", "path_to").Add(path, response.Point.Label, request.TemperaturesK.Count, c.Get(pathTo) ?? ""),
-                $"dataset {response.Used.Dataset}, version {response.Used.Version}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
+                $"{VersionText.Of(response.Used)}, study {response.Study.StudyName} version {response.Study.StudyVersion}");
             WriteWarnings(c, response.Warnings);
             return ExitCodes.Ok;
         }));
@@ -426,7 +426,7 @@ public static class DefectCommands
 
     internal static string Caption(VersionUsed used, DefectStudyInfo study, string hostEntryId, DefectGasPoint? gas)
     {
-        string text = $"dataset {used.Dataset}, version {used.Version}: study {study.StudyName} version {study.StudyVersion} of {study.HostFormula} (host entry {hostEntryId}), " +
+        string text = $"{VersionText.Of(used)}: study {study.StudyName} version {study.StudyVersion} of {study.HostFormula} (host entry {hostEntryId}), " +
                       $"band gap {Invariant(study.BandGapEv)} eV, E_F from the VBM";
         if (gas is not null)
         {

@@ -74,7 +74,7 @@ public static class ElectrochemistryCommands
             };
             request.OpenElements.AddRange(Potentials(c, open, absolute));
             GetOpenElementHullResponse r = await c.Server.Electrochemistry.GetOpenElementHullAsync(request, c.Server.Call(t));
-            var caption = new StringBuilder($"dataset {r.Used.Dataset}, version {r.Used.Version}: {r.EnergyAxis} over {r.ChemicalSystem}, in {r.EnergyUnit}");
+            var caption = new StringBuilder($"{VersionText.Of(r.Used)}: {r.EnergyAxis} over {r.ChemicalSystem}, in {r.EnergyUnit}");
             caption.Append($"\nstable: {string.Join(" ", r.StablePhaseIds)}");
             if (r.ExcludedEntryIds.Count > 0) caption.Append($"\nleft out (open elements only, the reservoir): {string.Join(" ", r.ExcludedEntryIds)}");
             c.Emit(r, () =>
@@ -117,7 +117,7 @@ public static class ElectrochemistryCommands
             await WriteFigureAsync(c, c.Get(figure), r.FigureSvg, t);
             Protos.V1.VoltageProfile p = r.Profile;
             string caption = string.Create(CultureInfo.InvariantCulture,
-                $"dataset {r.Used.Dataset}, version {r.Used.Version}: {p.Ion} (z = {p.ChargeNumber}) into {p.HostFormula} in {p.ChemicalSystem}, up to {p.FullyInsertedFormula}{(p.EndsAtIonMetal ? $" (then {p.Ion} metal)" : string.Empty)}\n")
+                $"{VersionText.Of(r.Used)}: {p.Ion} (z = {p.ChargeNumber}) into {p.HostFormula} in {p.ChemicalSystem}, up to {p.FullyInsertedFormula}{(p.EndsAtIonMetal ? $" (then {p.Ion} metal)" : string.Empty)}\n")
                 + string.Create(CultureInfo.InvariantCulture,
                 $"mean {p.AverageVoltsAgainstMetal:0.000} V over Δx = {p.IonsPerHostInserted:0.###}; capacity {p.CapacityPerHostMassMahPerG:0.0} mAh/g of {p.HostFormula}, {p.CapacityPerInsertedMassMahPerG:0.0} mAh/g of {p.FullyInsertedFormula}; ")
                 + string.Create(CultureInfo.InvariantCulture,
@@ -179,7 +179,7 @@ public static class ElectrochemistryCommands
             : $"{x.EntryId} ({x.Formula})";
         var lines = new List<string>
         {
-            $"dataset {r.Used.Dataset}, version {r.Used.Version}: {Reactant(r.First)} with {Reactant(r.Second)} in {r.ChemicalSystem}, {r.EnergyAxis} in {r.EnergyUnit}",
+            $"{VersionText.Of(r.Used)}: {Reactant(r.First)} with {Reactant(r.Second)} in {r.ChemicalSystem}, {r.EnergyAxis} in {r.EnergyUnit}",
             r.Reacts
                 ? string.Create(CultureInfo.InvariantCulture, $"most negative (headline, per atom of mixture): {best.ReactionEnergyEvPerAtom:0.####} at x = {best.AtomFractionExact} -> {Products(best)}")
                 : "no reaction: the two phases coexist at every ratio",
@@ -231,7 +231,7 @@ public static class ElectrochemistryCommands
             };
             if (c.Get(charge) is long z and > 0) request.ChargeNumber = (int)z;
             GetElectrochemicalWindowResponse r = await c.Server.Electrochemistry.GetElectrochemicalWindowAsync(request, c.Server.Call(t));
-            string caption = $"dataset {r.Used.Dataset}, version {r.Used.Version}: {r.EntryId} ({r.Formula}) against {r.Ion}/{r.Ion}+ in {r.ChemicalSystem}\n{r.Caveat}";
+            string caption = $"{VersionText.Of(r.Used)}: {r.EntryId} ({r.Formula}) against {r.Ion}/{r.Ion}+ in {r.ChemicalSystem}\n{r.Caveat}";
             c.Emit(r, () => WindowTable(r), caption);
             return ExitCodes.Ok;
         }));

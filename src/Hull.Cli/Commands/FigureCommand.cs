@@ -42,7 +42,7 @@ public static class FigureCommand
             await File.WriteAllTextAsync(path, response.Svg, new UTF8Encoding(false), t);
             if (c.Format == OutputFormat.Json) c.Err.WriteLine($"wrote {path}");
             c.Emit(Summary(response, path), () => SummaryTable(response, path),
-                $"dataset {response.Used.Dataset}, version {response.Used.Version}, system {response.ChemicalSystem}");
+                $"{VersionText.Of(response.Used)}, system {response.ChemicalSystem}");
             return ExitCodes.Ok;
         }));
         return command;

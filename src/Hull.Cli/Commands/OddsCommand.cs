@@ -81,7 +81,7 @@ public static class OddsCommand
             _ => "as many samples as asked",
         };
         string groups = r.Groups.Count == 0 ? "no correlation groups" : "groups " + string.Join(", ", r.Groups.Select(g => $"{g.Group} σ {Number(g.SigmaEvPerAtom)} eV/atom"));
-        return $"dataset {r.Used.Dataset}, version {r.Used.Version}, system {r.ChemicalSystem}: {r.SampleCount} samples, seed {r.Seed} ({stop}; largest vertex-probability SE {Number(r.LargestVertexStandardError)}); {groups}\n"
+        return $"{VersionText.Of(r.Used)}, system {r.ChemicalSystem}: {r.SampleCount} samples, seed {r.Seed} ({stop}; largest vertex-probability SE {Number(r.LargestVertexStandardError)}); {groups}\n"
             + $"probable stable set (vertex in >= 50% of samples): {string.Join(", ", r.ProbableStableSet)}\n"
             + $"stable set seen most often ({Number(r.MostFrequentStableSetProbability * 100)}% of samples): {string.Join(", ", r.MostFrequentStableSet)}";
     }

@@ -103,7 +103,7 @@ public static class ThermoCommands
             GetGasPotentialResponse r = await c.Server.Thermo.GetGasPotentialAsync(request, c.Server.Call(t));
             var caption = new StringBuilder(string.Create(CultureInfo.InvariantCulture,
                 $"{request.Gas.Gas} at {kelvin:0.##} K, {Treatment(r.Treatment)}, reference anchored at {r.AnchorTemperatureK:0.##} K; table {r.TableSource} ({r.TableMinimumK:0.##} K to {r.TableMaximumK:0.##} K)"));
-            if (r.Used is not null) caption.Append($"\ndataset {r.Used.Dataset}, version {r.Used.Version}");
+            if (r.Used is not null) caption.Append($"\n{VersionText.Of(r.Used)}");
             if (r.HasConversion)
             {
                 caption.Append(string.Create(CultureInfo.InvariantCulture, $"\nΔμ_{r.Element} = {request.DeltaMuEvPerAtom:0.####} eV/atom: p = {r.PressureForDeltaMuBar:G4} bar (log10 {r.Log10PressureForDeltaMuBar:0.###}) at {kelvin:0.##} K"));
@@ -167,7 +167,7 @@ public static class ThermoCommands
 
             request.Models.AddRange(Models(c, models));
             GetHullAtConditionsResponse r = await c.Server.Thermo.GetHullAtConditionsAsync(request, c.Server.Call(t));
-            var caption = new StringBuilder($"dataset {r.Used.Dataset}, version {r.Used.Version}: {r.EnergyAxis} over {r.ChemicalSystem}, in {r.EnergyUnit}; {Treatment(r.Treatment)}; models: {r.ModelsFrom}");
+            var caption = new StringBuilder($"{VersionText.Of(r.Used)}: {r.EnergyAxis} over {r.ChemicalSystem}, in {r.EnergyUnit}; {Treatment(r.Treatment)}; models: {r.ModelsFrom}");
             caption.Append($"\ngas: {Gas(r.Gas)}");
             caption.Append("\nreferences at T: " + string.Join(", ", r.References.Select(x =>
                 $"{x.Element} {x.EntryId}{(x.ChangedFromAnchor ? $" (not {x.AnchorEntryId} as at the anchor)" : string.Empty)}")));
@@ -226,7 +226,7 @@ public static class ThermoCommands
     internal static string DecompositionCaption(FindDecompositionTemperaturesResponse r)
     {
         var caption = new StringBuilder(string.Create(CultureInfo.InvariantCulture,
-            $"dataset {r.Used.Dataset}, version {r.Used.Version}: {r.Formula} ({r.PhaseId}) in {r.ChemicalSystem}, {r.FromK:0.##} K to {r.ToK:0.##} K; {Treatment(r.Treatment)}; models: {r.ModelsFrom}"));
+            $"{VersionText.Of(r.Used)}: {r.Formula} ({r.PhaseId}) in {r.ChemicalSystem}, {r.FromK:0.##} K to {r.ToK:0.##} K; {Treatment(r.Treatment)}; models: {r.ModelsFrom}"));
         caption.Append($"\ngas: {Gas(r.Gas)}");
         caption.Append(string.Create(CultureInfo.InvariantCulture,
             $"\nsigned decomposition energy {r.EnergyAtFromEvPerClosedAtom:0.0000} at {r.FromK:0.##} K ({(r.StableAtFrom ? "stable" : "unstable")}), {r.EnergyAtToEvPerClosedAtom:0.0000} at {r.ToK:0.##} K ({(r.StableAtTo ? "stable" : "unstable")}), {r.EnergyUnit}"));
@@ -305,7 +305,7 @@ public static class ThermoCommands
                 }
 
                 return table;
-            }, $"dataset {r.Used.Dataset}, version {r.Used.Version}: wrote {path}\n{SafetyNote}");
+            }, $"{VersionText.Of(r.Used)}: wrote {path}\n{SafetyNote}");
             return ExitCodes.Ok;
         }));
         return command;

@@ -225,7 +225,7 @@ public static class WindowCommands
             WindowKind.AboveHull => $"no window: {Number(w.EnergyAboveHullEvPerAtom)} eV/atom above the hull, decomposes as {w.Decomposition?.Reaction}",
             _ => "unknown answer",
         };
-        var lines = new List<string> { $"dataset {used.Dataset}, version {used.Version}: {w.EntryId} ({w.Formula}) in {w.ChemicalSystem}, {kind}" };
+        var lines = new List<string> { $"{VersionText.Of(used)}: {w.EntryId} ({w.Formula}) in {w.ChemicalSystem}, {kind}" };
         if (w.Size is { } size && w.Vertices.Count > 0)
         {
             lines.Add($"size: {Number(size.MeasureInPlaneEvPowK)} eV^{size.Dimension} in its own plane, {Number(size.ProjectedMeasureEvPowK)} eV^{size.Dimension} projected on dmu of {Join(size.ProjectionElements)}");

@@ -4,4 +4,6 @@ namespace Hull.Core.Figures;
 /// <param name="Dataset">Dataset name.</param>
 /// <param name="Version">Dataset version the hull was built from.</param>
 /// <param name="ContentSha256">The version's content fingerprint (hex).</param>
-public sealed record FigureMetadata(string Dataset, long Version, string ContentSha256);
+/// <param name="Corrections">The correction set the version's energies were corrected with, as answers name it
+/// ("fit v1 from version 3"); null for energies imported as given. A figure travels without its answer, so it says so itself.</param>
+public sealed record FigureMetadata(string Dataset, long Version, string ContentSha256, string? Corrections = null);

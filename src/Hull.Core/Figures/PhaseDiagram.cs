@@ -52,6 +52,6 @@ public static class PhaseDiagram
     internal static string Provenance(FigureMetadata m)
     {
         string print = m.ContentSha256.Length > 12 ? m.ContentSha256[..12] + "…" : m.ContentSha256;
-        return $"dataset {m.Dataset}, version {m.Version}, content sha256 {print}";
+        return $"dataset {m.Dataset}, version {m.Version}, content sha256 {print}" + (m.Corrections is null ? string.Empty : $", corrected with {m.Corrections}");
     }
 }

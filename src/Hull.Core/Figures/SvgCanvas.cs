@@ -105,6 +105,7 @@ internal sealed class SvgCanvas
         $"kind=\"{kind.ToString().ToLowerInvariant()}\" system=\"{Escape(input.SystemName)}\" " +
         $"components=\"{Escape(string.Join(' ', input.Components))}\" over-end-members=\"{(input.OverEndMembers ? "true" : "false")}\" " +
         $"dataset=\"{Escape(input.Metadata.Dataset)}\" version=\"{input.Metadata.Version}\" content-sha256=\"{Escape(input.Metadata.ContentSha256)}\" " +
+        (input.Metadata.Corrections is { } corrections ? $"corrections=\"{Escape(corrections)}\" " : string.Empty) +
         $"energy-axis=\"{Escape(input.Axis.Name)}\" energy-unit=\"{Escape(input.Axis.Unit)}\"");
 
     /// <summary>The whole document with the metadata element's attributes given (already escaped).</summary>

@@ -2,6 +2,7 @@ using Hull.Core.Chemistry;
 using Hull.Core.Thermo;
 using Hull.Core.Thermo.Corrections;
 using Hull.Server.Mapping;
+using Hull.Server.Validation;
 using Hull.Store;
 
 namespace Hull.Server.Corrections;
@@ -31,5 +32,18 @@ public sealed record CorrectedRows(IReadOnlyList<EntryRow> Rows, CorrectionOutco
         }
 
         return new CorrectedRows(corrected, outcome);
+    }
+
+    /// <summary>The moved formation-energy entries whose corrected energy leaves the range every import is held to, in row order.</summary>
+    public IEnumerable<(string EntryId, string Problem)> RangeProblems()
+    {
+        foreach (CorrectedEntry entry in Outcome.Entries)
+        {
+            if (!entry.IsChanged || entry.Raw.IsTotalEnergy) continue;
+            if (BatchValidation.FormationRangeProblem(entry.Corrected.EnergyEv, entry.Corrected.Basis, entry.Corrected.Composition) is { } problem)
+            {
+                yield return (entry.Raw.Id, problem);
+            }
+        }
     }
 }

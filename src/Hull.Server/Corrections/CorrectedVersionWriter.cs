@@ -1,6 +1,7 @@
 using Hull.Core.Thermo;
 using Hull.Core.Thermo.Corrections;
 using Hull.Server.Caching;
+using Hull.Server.Curation;
 using Hull.Server.Errors;
 using Hull.Server.Hosting;
 using Hull.Server.Validation;
@@ -9,41 +10,30 @@ using Hull.Store;
 namespace Hull.Server.Corrections;
 
 /// <summary>
-/// Writes a corrected version: a set applied to the latest version's entries, written as the next version of the same
-/// dataset through one import session (replace policy, every entry staged) whose commit also records the set, so the
-/// store holds the whole version with its record or nothing. Every check runs before anything is written, the set
-/// included; the import lock and the reference rule are the ones every import of this server goes through.
+/// Writes a corrected version: a set applied to one version's entries (any live version, the latest by default),
+/// written as the next version of the same dataset holding exactly those entries corrected. It goes through one
+/// curated import session whose record is the one-step recipe that makes it (apply_correction_set with the set), and
+/// whose commit also records the set, so the store holds the whole version with both records or nothing, and the
+/// recipe run again on the same source gives the same content. Every check runs before anything is written, the set
+/// included; the import lock is the one every import of this server goes through.
 /// </summary>
-public sealed class CorrectedVersionWriter(
-    IDatasetStore store, VersionResolver versions, HullCache cache, ImportGate imports, ImportSessionSettings sessions)
+public sealed class CorrectedVersionWriter(IDatasetStore store, VersionResolver versions, ImportGate imports, ImportSessionSettings sessions)
 {
-    /// <summary>Rows per staged batch: a large version goes into the session in parts, as the CLI's imports do.</summary>
-    private const int StageBatchRows = 20_000;
-
     /// <param name="dataset">The dataset.</param>
-    /// <param name="sourceVersion">The version to correct; 0 for the latest. It must be the latest, so the new version
-    /// holds exactly its entries.</param>
+    /// <param name="sourceVersion">The version to correct; 0 for the latest.</param>
     /// <param name="set">The set, parsed.</param>
     /// <param name="setJson">Its document, stored with it (the same document again is no change).</param>
     /// <param name="setField">The request field that gave the set, named in refusals.</param>
     /// <param name="note">Kept with the new version.</param>
     /// <param name="cancellation">Stops waiting for the import lock and the reads; once the session commits, it commits whole.</param>
     /// <exception cref="Grpc.Core.RpcException">INVALID_ARGUMENT for a set that does not fit the entries or a corrected
-    /// energy out of range; FAILED_PRECONDITION when the source is not the latest version; store faults translated.</exception>
+    /// energy out of range; store faults translated.</exception>
     public async Task<DerivedVersion> WriteAsync(string dataset, long sourceVersion, CorrectionSet set, string setJson, string setField,
         string note, CancellationToken cancellation)
     {
         using (await imports.EnterAsync(dataset, cancellation))
         {
             VersionRef source = versions.Resolve(dataset, sourceVersion);
-            DatasetLatest latest = store.GetLatest(dataset);
-            if (source.Version != latest.Version)
-            {
-                throw RpcErrors.FailedPrecondition(
-                    $"dataset '{dataset}' is at version {latest.Version}; a corrected version is derived from the latest version, so that it holds "
-                    + $"exactly that version's entries (asked for {source.Version})", subject: $"version:{dataset}@{source.Version}");
-            }
-
             IReadOnlyList<EntryRow> rows = await Task.Run(() => store.GetEntries(dataset, source.Version), cancellation);
             CorrectedRows corrected;
             try
@@ -57,59 +47,38 @@ public sealed class CorrectedVersionWriter(
             }
 
             CheckRange(corrected, setField, set, dataset, source.Version);
-            ReferenceLedger next = await CheckReferencesAsync(dataset, source, latest, corrected.Rows, cancellation);
+            await CheckReferencesAsync(corrected.Rows);
 
             // Nothing is written before this point. The set goes first: the version's record names it.
             await Task.Run(() => store.PutCorrectionSet(set.Name, set.Version, setJson), cancellation);
-            ImportResult result = await Task.Run(() => Commit(dataset, source.Version, set, note, corrected.Rows));
-            imports.Remember(dataset, latest with { Version = result.NewVersion }, next);
-            return new DerivedVersion(versions.Resolve(dataset, result.NewVersion), corrected);
+            try
+            {
+                ImportResult result = await Task.Run(() => Commit(dataset, source, set, note, corrected));
+                return new DerivedVersion(versions.Resolve(dataset, result.NewVersion), corrected);
+            }
+            finally
+            {
+                // The version holds the corrected rows only: what was remembered of the latest no longer describes it.
+                imports.Forget(dataset);
+            }
         }
     }
 
-    // One session: all rows staged, the record marked, one commit on the source version; cancelled on any refusal.
-    private ImportResult Commit(string dataset, long source, CorrectionSet set, string note, IReadOnlyList<EntryRow> rows)
+    // One curated session: every row staged, the set marked, one commit; cancelled on any refusal.
+    private ImportResult Commit(string dataset, VersionRef source, CorrectionSet set, string note, CorrectedRows corrected)
     {
-        var provenance = new BatchProvenance($"{dataset}@{source} corrected with {set.Label}", note);
-        ImportSessionInfo session = store.BeginImport(dataset, DuplicatePolicy.Replace, provenance, sessions.IdleExpiry);
-        try
-        {
-            for (int start = 0; start < rows.Count; start += StageBatchRows)
-            {
-                store.StageBatch(session.SessionId, rows.Skip(start).Take(StageBatchRows).ToArray(), sessions.IdleExpiry);
-            }
-
-            store.MarkImportCorrected(session.SessionId, new VersionCorrections(set.Name, set.Version, source));
-            return store.CommitImport(session.SessionId, rows.Count, basedOn: source);
-        }
-        catch
-        {
-            try
-            {
-                store.CancelImport(session.SessionId);
-            }
-            catch (StoreException)
-            {
-                // The sweep removes a session that could not be cancelled; it never became a version.
-            }
-
-            throw;
-        }
+        var step = new ApplyCorrectionSetStep(1, set.Name, set.Version);
+        var steps = new[] { new CurationStepRecord(1, step.Kind, step.Parameters(), corrected.Rows.Count, 0, corrected.Outcome.ChangedCount) };
+        var record = new CurationRecord(dataset, source.Version, source.Fingerprint, new CurationRecipe([step]).ToJson(), CurationStepsJson.Write(steps));
+        var provenance = new BatchProvenance($"{dataset}@{source.Version} corrected with {set.Label}", note);
+        ImportSessionInfo session = store.BeginCuratedImport(dataset, record, provenance, sessions.IdleExpiry);
+        return SessionVersionWrite.Run(store, session, corrected.Rows, sessions.IdleExpiry, new VersionCorrections(set.Name, set.Version, source.Version));
     }
 
     private static void CheckRange(CorrectedRows corrected, string setField, CorrectionSet set, string dataset, long source)
     {
-        var violations = new List<FieldViolation>();
-        for (int i = 0; i < corrected.Rows.Count && violations.Count < RpcErrors.MaxViolationsReported; i++)
-        {
-            CorrectedEntry entry = corrected.Outcome.Entries[i];
-            if (!entry.IsChanged || entry.Raw.IsTotalEnergy) continue;
-            if (BatchValidation.FormationRangeProblem(entry.Corrected.EnergyEv, entry.Corrected.Basis, entry.Corrected.Composition) is { } problem)
-            {
-                violations.Add(new FieldViolation(setField, $"entry '{entry.Raw.Id}' of {dataset}@{source} after correction: {problem}"));
-            }
-        }
-
+        var violations = corrected.RangeProblems().Take(RpcErrors.MaxViolationsReported)
+            .Select(p => new FieldViolation(setField, $"entry '{p.EntryId}' of {dataset}@{source} after correction: {p.Problem}")).ToList();
         if (violations.Count > 0)
         {
             throw RpcErrors.InvalidArgument(BatchValidation.Summarize($"correction set '{set.Label}' was refused; nothing was written", violations),
@@ -117,20 +86,15 @@ public sealed class CorrectedVersionWriter(
         }
     }
 
-    // The import rule for total energies over the corrected rows, as every replace import on the source is checked.
-    private async Task<ReferenceLedger> CheckReferencesAsync(string dataset, VersionRef source, DatasetLatest latest, IReadOnlyList<EntryRow> rows,
-        CancellationToken cancellation)
+    // The import rule for total energies over the corrected rows, checked as a whole version of their own.
+    private static async Task CheckReferencesAsync(IReadOnlyList<EntryRow> rows)
     {
-        VersionSnapshot snapshot = await cache.GetSnapshotAsync(source, cancellation);
-        ReferenceLedger ledger = imports.TryGetLedger(dataset, latest, out ReferenceLedger known) ? known : ReferenceLedger.Of(snapshot.Entries);
-        (IReadOnlyList<FieldViolation> violations, ReferenceLedger next) = await ImportReferenceCheck.CheckAsync(
-            rows, DuplicatePolicy.Replace, ledger, () => Task.FromResult(snapshot.Entries), "corrected");
+        (IReadOnlyList<FieldViolation> violations, _) = await ImportReferenceCheck.CheckAsync(
+            rows, DuplicatePolicy.Reject, ReferenceLedger.Empty, () => Task.FromResult<IReadOnlyList<PhaseEntry>>([]), "corrected");
         if (violations.Count > 0)
         {
             throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the corrected entries were refused; nothing was written", violations),
                 violations, ErrorReasons.InvalidEntry);
         }
-
-        return next;
     }
 }

@@ -1,3 +1,5 @@
+using Hull.Core.Thermo.Corrections;
+using Hull.Server.Corrections;
 using Hull.Store;
 
 namespace Hull.Server.Curation;
@@ -9,7 +11,9 @@ namespace Hull.Server.Curation;
 /// <param name="Rows">The rows left by the last step, as stored in the source version.</param>
 /// <param name="Record">The record to write beside the derived version.</param>
 /// <param name="Steps">What each step did (the same counts as the record's steps text).</param>
-public sealed record CurationPlan(IReadOnlyList<EntryRow> Rows, CurationRecord Record, IReadOnlyList<CurationStepRecord> Steps)
+/// <param name="Corrections">The correction set the recipe applied, recorded with the version; null for none.</param>
+public sealed record CurationPlan(IReadOnlyList<EntryRow> Rows, CurationRecord Record, IReadOnlyList<CurationStepRecord> Steps,
+    VersionCorrections? Corrections = null)
 {
     /// <summary>Reads the source version and runs the recipe on it.</summary>
     /// <param name="store">The store.</param>
@@ -18,42 +22,42 @@ public sealed record CurationPlan(IReadOnlyList<EntryRow> Rows, CurationRecord R
     /// <param name="recipe">The recipe, already read.</param>
     /// <exception cref="DatasetNotFoundException">No such dataset.</exception>
     /// <exception cref="VersionNotFoundException">No such version, a deleted one, or (null) none at all.</exception>
-    /// <exception cref="CurationRecipeException">A step that cannot run on these rows.</exception>
+    /// <exception cref="CurationRecipeException">A step that cannot run on these rows, or a correction set not stored.</exception>
     public static CurationPlan Make(IDatasetStore store, string dataset, long? sourceVersion, CurationRecipe recipe)
     {
         long version = sourceVersion ?? store.GetLatestVersion(dataset);
         // A version is never changed once written, so its rows and its fingerprint read apart still belong together.
         IReadOnlyList<EntryRow> rows = store.GetEntries(dataset, version == IDatasetStore.NoVersion ? null : version);
         string fingerprint = store.GetFingerprint(dataset, version);
-        CurationRun run = CurationRun.Apply(recipe, rows);
+        CorrectionSet? set = recipe.Corrections is { } step ? LoadSet(store, step) : null;
+        CurationRun run = CurationRun.Apply(recipe, rows, set);
         var record = new CurationRecord(dataset, version, fingerprint, recipe.ToJson(), CurationStepsJson.Write(run.Records));
-        return new CurationPlan(run.Rows, record, run.Records);
+        VersionCorrections? corrections = set is null ? null : new VersionCorrections(set.Name, set.Version, version);
+        return new CurationPlan(run.Rows, record, run.Records, corrections);
+    }
+
+    // The set as stored: a recipe names it, so that the recipe re-runs to the same content.
+    private static CorrectionSet LoadSet(IDatasetStore store, ApplyCorrectionSetStep step)
+    {
+        try
+        {
+            return CorrectionSetDocument.Parse(store.GetCorrectionSet(step.SetName, step.SetVersion).SetJson);
+        }
+        catch (CorrectionSetNotFoundException)
+        {
+            throw new CurationRecipeException(step.StepNumber, "set_name",
+                $"no correction set '{step.Label}' is stored; store it first (PutCorrectionSet, hull corrections put)");
+        }
     }
 
     /// <summary>
     /// Writes the rows as the dataset's next version with the record, through one curated import session, in
-    /// batches of at most <paramref name="batchSize"/>. A failure on the way cancels the session, so nothing stays
-    /// staged; a server that dies on the way leaves a session that lapses, never a version.
+    /// batches of at most <paramref name="batchSize"/> (<see cref="SessionVersionWrite"/>: a failure cancels the session,
+    /// a server that dies on the way leaves a session that lapses, never a version).
     /// </summary>
     public ImportResult Write(IDatasetStore store, BatchProvenance provenance, TimeSpan idleExpiry, int batchSize)
     {
         ImportSessionInfo session = store.BeginCuratedImport(Record.SourceDataset, Record, provenance, idleExpiry);
-        try
-        {
-            foreach (EntryRow[] batch in Rows.Chunk(batchSize)) store.StageBatch(session.SessionId, batch, idleExpiry);
-            return store.CommitImport(session.SessionId, Rows.Count);
-        }
-        catch
-        {
-            try
-            {
-                store.CancelImport(session.SessionId);
-            }
-            catch (ImportSessionNotFoundException)
-            {
-                // Already gone (lapsed and swept): nothing is left to remove.
-            }
-            throw;
-        }
+        return SessionVersionWrite.Run(store, session, Rows, idleExpiry, Corrections, batchRows: batchSize);
     }
 }

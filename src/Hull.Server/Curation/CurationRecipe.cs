@@ -79,8 +79,18 @@ public sealed class CurationRecipe
             }
             steps.Add(CurationStepKinds.Read(kind.GetValue<string>(), new StepParameters(number, parameters)));
         }
+        // A version records one correction set, so a recipe applies at most one.
+        ApplyCorrectionSetStep[] corrections = steps.OfType<ApplyCorrectionSetStep>().ToArray();
+        if (corrections.Length > 1)
+        {
+            throw new CurationRecipeException(corrections[1].StepNumber, "kind",
+                $"a recipe applies at most one correction set (a derived version records one); step {corrections[0].StepNumber} already applies {corrections[0].Label}");
+        }
         return new CurationRecipe(steps);
     }
+
+    /// <summary>The recipe's apply_correction_set step, or null when it applies no set.</summary>
+    public ApplyCorrectionSetStep? Corrections => Steps.OfType<ApplyCorrectionSetStep>().SingleOrDefault();
 
     /// <summary>A short label of the steps, e.g. "drop_flagged, keep_lowest_duplicate".</summary>
     public override string ToString() => string.Join(", ", Steps.Select(s => s.Kind));

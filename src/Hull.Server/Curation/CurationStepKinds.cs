@@ -11,6 +11,7 @@ public static class CurationStepKinds
         [DropSourceStep.KindName] = (DropSourceStep.Read, ["source"]),
         [DropAboveHullStep.KindName] = (DropAboveHullStep.Read, ["max_ev_per_atom"]),
         [KeepElementsStep.KindName] = (KeepElementsStep.Read, ["elements"]),
+        [ApplyCorrectionSetStep.KindName] = (ApplyCorrectionSetStep.Read, ["set_name", "set_version"]),
     };
 
     /// <summary>The kinds known, sorted, for error messages and help.</summary>

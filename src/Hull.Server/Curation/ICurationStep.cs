@@ -19,4 +19,7 @@ public interface ICurationStep
 }
 
 /// <summary>What one step left, and how many entries it changed in place (0 for steps that only drop).</summary>
-public sealed record CurationStepOutcome(IReadOnlyList<CurationEntry> Entries, int Changed = 0);
+/// <param name="Entries">The entries after the step.</param>
+/// <param name="Changed">Entries it changed in place.</param>
+/// <param name="Context">What later steps know instead, when the step changed the energies' scale; null keeps it.</param>
+public sealed record CurationStepOutcome(IReadOnlyList<CurationEntry> Entries, int Changed = 0, CurationContext? Context = null);

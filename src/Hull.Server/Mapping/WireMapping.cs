@@ -88,16 +88,15 @@ public static class WireMapping
     public static VersionUsed ToWire(VersionRef version)
     {
         var used = new VersionUsed { Dataset = version.Dataset, Version = version.Version, ContentSha256 = version.Fingerprint };
-        if (version.Corrections is { } corrections)
-        {
-            used.Corrections = new CorrectionsUsed
-            {
-                SetName = corrections.SetName, SetVersion = corrections.SetVersion, SourceVersion = corrections.SourceVersion,
-            };
-        }
-
+        if (version.Corrections is { } corrections) used.Corrections = ToWire(corrections);
         return used;
     }
+
+    /// <summary>The set a version was derived with, as answers name it.</summary>
+    public static CorrectionsUsed ToWire(VersionCorrections corrections) => new()
+    {
+        SetName = corrections.SetName, SetVersion = corrections.SetVersion, SourceVersion = corrections.SourceVersion,
+    };
 
     /// <summary>
     /// A formation energy for the wire. The service builds closed hulls over formation energies only, where every

@@ -17,9 +17,6 @@ namespace Hull.Server.Services;
 /// </summary>
 public sealed class CurationGrpcService(IDatasetStore store, ImportGate imports, ImportSessionSettings sessions) : CurationService.CurationServiceBase
 {
-    /// <summary>Rows per staged batch: keeps each staging transaction short on a large version.</summary>
-    private const int StageBatchRows = 10_000;
-
     public override async Task<CurateVersionResponse> CurateVersion(CurateVersionRequest request, ServerCallContext context)
     {
         RequireName(request.Dataset);
@@ -49,17 +46,19 @@ public sealed class CurationGrpcService(IDatasetStore store, ImportGate imports,
         using (await imports.EnterAsync(request.Dataset, context.CancellationToken))
         {
             // Once begun, the write commits or cancels whole off the request thread, whatever the caller does.
-            result = await Task.Run(() => plan.Write(store, provenance, sessions.IdleExpiry, StageBatchRows));
+            result = await Task.Run(() => plan.Write(store, provenance, sessions.IdleExpiry, SessionVersionWrite.DefaultBatchRows));
             imports.Forget(request.Dataset);
         }
 
-        return new CurateVersionResponse
+        var response = new CurateVersionResponse
         {
             DatasetVersion = result.NewVersion,
             EntryCount = plan.Rows.Count,
             ContentSha256 = store.GetFingerprint(request.Dataset, result.NewVersion),
             Record = CurationWireMapping.ToWire(request.Dataset, result.NewVersion, plan.Record),
         };
+        if (plan.Corrections is { } corrections) response.Corrections = WireMapping.ToWire(corrections);
+        return response;
     }
 
     public override async Task<Protos.V1.CurationRecord> GetCurationRecord(GetCurationRecordRequest request, ServerCallContext context)

@@ -296,14 +296,16 @@ public sealed class DatasetGrpcService(
         return Task.FromResult(new DeleteVersionResponse());
     }
 
-    /// <summary>The versions for the wire, each derived one with its curation record.</summary>
+    /// <summary>The versions for the wire, each derived one with its curation record and the correction set it carries.</summary>
     private IEnumerable<DatasetVersion> WithCuration(string dataset, IReadOnlyList<DatasetVersionInfo> listed)
     {
         IReadOnlyDictionary<long, Store.CurationRecord> records = listed.Count == 0 ? new Dictionary<long, Store.CurationRecord>() : store.ListCurationRecords(dataset);
+        IReadOnlyDictionary<long, VersionCorrections> corrections = listed.Count == 0 ? new Dictionary<long, VersionCorrections>() : store.ListVersionCorrections(dataset);
         foreach (DatasetVersionInfo version in listed)
         {
             DatasetVersion wire = WireMapping.ToWire(version);
             if (records.TryGetValue(version.Version, out Store.CurationRecord? record)) wire.Curation = CurationWireMapping.ToWire(dataset, version.Version, record);
+            if (corrections.TryGetValue(version.Version, out VersionCorrections? used)) wire.Corrections = WireMapping.ToWire(used);
             yield return wire;
         }
     }

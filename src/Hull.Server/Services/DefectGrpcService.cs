@@ -189,7 +189,7 @@ public sealed class DefectGrpcService(IDatasetStore store, VersionResolver versi
             request.HasFermiMinEv ? request.FermiMinEv : 0.0,
             request.HasFermiMaxEv ? request.FermiMaxEv : ev.Study.Bulk.BandGapEv,
             [.. defects.Select(d => new DefectFigureLine(d.Name, calculator.AtValenceBandMaximum(d)))],
-            new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint),
+            FigureSource.Of(ev.Version),
             ev.Record.StudyName,
             ev.Record.Version);
         DefectFigureResult figure;
@@ -418,7 +418,7 @@ public sealed class DefectGrpcService(IDatasetStore store, VersionResolver versi
         string svg;
         try
         {
-            svg = CarrierFigure.Render([(ev.Study.Host.Formula, true), (title, false)], axis, x, solutions, new FigureMetadata(ev.Version.Dataset, ev.Version.Version, ev.Version.Fingerprint));
+            svg = CarrierFigure.Render([(ev.Study.Host.Formula, true), (title, false)], axis, x, solutions, FigureSource.Of(ev.Version));
         }
         catch (FigureInputException e)
         {

@@ -60,7 +60,7 @@ public sealed class FigureGrpcService(VersionResolver versions, HullCache cache)
             ? await cache.GetEndMemberHullAsync(snapshot, EndMemberList.Read(request.EndMembers, snapshot, "end_members")!, context.CancellationToken)
             : await cache.GetHullAsync(snapshot, elements!, context.CancellationToken);
 
-        var metadata = new FigureMetadata(resolved.Dataset, resolved.Version, resolved.Fingerprint);
+        var metadata = FigureSource.Of(resolved);
         FigureInput input = FigureInput.FromHull(hull.Hull, metadata);
         FigureResult figure = PhaseDiagram.Draw(input, options);
         var response = new DrawPhaseDiagramResponse

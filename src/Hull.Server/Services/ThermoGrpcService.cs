@@ -181,7 +181,7 @@ public sealed class ThermoGrpcService(CompoundResolution compounds) : ThermoServ
             response.Phases.Add(phase);
         }
 
-        response.Svg = TemperatureStabilityFigure.Render(curves, new FigureMetadata(snapshot.Version.Dataset, snapshot.Version.Version, snapshot.Version.Fingerprint));
+        response.Svg = TemperatureStabilityFigure.Render(curves, FigureSource.Of(snapshot.Version));
         return response;
     }
 

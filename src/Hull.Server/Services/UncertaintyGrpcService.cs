@@ -61,7 +61,7 @@ public sealed class UncertaintyGrpcService(VersionResolver versions, HullCache c
         }
 
         (StabilitySamplingResult result, CachedHull hull, VersionRef resolved) = await SampleAsync(sampling, "sampling.", context);
-        string svg = StabilityOddsFigure.Draw(hull.Hull, result, new FigureMetadata(resolved.Dataset, resolved.Version, resolved.Fingerprint));
+        string svg = StabilityOddsFigure.Draw(hull.Hull, result, FigureSource.Of(resolved));
         return new DrawStabilityOddsFigureResponse
         {
             Used = WireMapping.ToWire(resolved),

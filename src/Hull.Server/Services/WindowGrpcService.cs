@@ -155,7 +155,7 @@ public sealed class WindowGrpcService(CompoundResolution compounds) : WindowServ
         }
 
         WindowMap map = Answer(() => WindowMaps.Of(hull.Hull, id, x, y, section, options), SectionField);
-        WindowFigureResult figure = WindowFigure.Render(map, new FigureMetadata(snapshot.Version.Dataset, snapshot.Version.Version, snapshot.Version.Fingerprint));
+        WindowFigureResult figure = WindowFigure.Render(map, FigureSource.Of(snapshot.Version));
         string formula = snapshot.FormulasAsStored[row];
         var response = new DrawWindowFigureResponse
         {

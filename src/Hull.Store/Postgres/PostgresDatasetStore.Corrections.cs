@@ -86,6 +86,25 @@ public sealed partial class PostgresDatasetStore
         });
     }
 
+    /// <inheritdoc />
+    public IReadOnlyDictionary<long, VersionCorrections> ListVersionCorrections(string datasetName)
+    {
+        DatasetName.Validate(datasetName);
+        return Read((connection, transaction) =>
+        {
+            DatasetRecord dataset = FindDataset(connection, transaction, datasetName);
+            using NpgsqlCommand command = connection.Command(transaction, """
+                SELECT c.version, c.set_name, c.set_version, c.source_version
+                FROM version_corrections c JOIN dataset_versions v ON v.dataset_id = c.dataset_id AND v.version = c.version
+                WHERE c.dataset_id = @d AND v.deleted_at_utc IS NULL ORDER BY c.version
+                """).With("@d", dataset.DatasetId);
+            using NpgsqlDataReader reader = command.ExecuteReader();
+            var records = new Dictionary<long, VersionCorrections>();
+            while (reader.Read()) records[reader.GetInt64(0)] = new VersionCorrections(reader.GetString(1), reader.GetInt64(2), reader.GetInt64(3));
+            return (IReadOnlyDictionary<long, VersionCorrections>)records;
+        });
+    }
+
     /// <summary>In a commit: the session's correction record, when it has one, becomes the new version's.</summary>
     private static void RecordSessionCorrections(NpgsqlConnection connection, NpgsqlTransaction transaction, long sessionKey, long datasetId, long newVersion)
     {

@@ -694,9 +694,11 @@ class HullClient:
     @_calls("CorrectionService", "DeriveCorrectedVersion")
     def derive_corrected_version(self, dataset: str, *, stored: Optional[Tuple[str, int]] = None, set_json=None,
                                  source_version: int = 0, note: str = "") -> pd.DataFrame:
-        """Writes the latest version's entries with corrected energies as the dataset's next version, with a stored set
-        (`stored=("name", version)`) or a document (`set_json`, stored with it). One row per moved entry with its
-        shift in three parts (eV/atom); attrs: used (the new version, naming its set), entry_count, changed_count."""
+        """Writes a version's entries (`source_version`, 0 = the latest) with corrected energies as the dataset's next
+        version, with a stored set (`stored=("name", version)`) or a document (`set_json`, stored with it); the new
+        version holds exactly the source version's entries, and its curation record is the one-step recipe that makes
+        it again. One row per moved entry with its shift in three parts (eV/atom); attrs: used (the new version, naming
+        its set), entry_count, changed_count."""
         if (stored is None) == (set_json is None):
             raise ValueError("give one of stored=(name, version) and set_json")
         request = wire.corrections_pb2.DeriveCorrectedVersionRequest(dataset=dataset, source_version=int(source_version), note=note)
@@ -1136,7 +1138,8 @@ class HullClient:
         reply = self._call(self._curation.CurateVersion, self.curate_version.hull_rpc,
                            wire.curation_pb2.CurateVersionRequest(dataset=dataset, source_version=source_version,
                                                                   recipe_json=text, note=note))
-        return r.CuratedVersion(reply.dataset_version, reply.entry_count, reply.content_sha256, r.curation_record(reply.record))
+        return r.CuratedVersion(reply.dataset_version, reply.entry_count, reply.content_sha256, r.curation_record(reply.record),
+                                r.corrections_used(reply))
 
     @_calls("CurationService", "GetCurationRecord")
     def get_curation_record(self, dataset: str, version: int) -> r.CurationRecord:

@@ -309,9 +309,7 @@ def timestamp(message) -> Optional[datetime]:
 
 
 def version_used(m) -> VersionUsed:
-    corrections = (CorrectionsUsed(m.corrections.set_name, m.corrections.set_version, m.corrections.source_version)
-                   if m.HasField("corrections") else None)
-    return VersionUsed(m.dataset, m.version, m.content_sha256, corrections)
+    return VersionUsed(m.dataset, m.version, m.content_sha256, corrections_used(m))
 
 
 @dataclass(frozen=True)
@@ -379,7 +377,8 @@ def dataset(m) -> Dataset:
 
 DATASET_COLUMNS = ("name", "description", "created_at", "latest_version", "entry_count")
 VERSION_COLUMNS = ("version", "committed_at", "source_label", "note", "batch_entry_count", "inserted_count",
-                   "replaced_count", "entry_count")
+                   "replaced_count", "entry_count", "correction_set_name", "correction_set_version",
+                   "corrected_from_version")
 
 
 def datasets_frame(messages) -> pd.DataFrame:
@@ -390,8 +389,25 @@ def datasets_frame(messages) -> pd.DataFrame:
 def versions_frame(messages) -> pd.DataFrame:
     rows = [{"version": m.version, "committed_at": timestamp(m.committed_at), "source_label": m.source_label,
              "note": m.note, "batch_entry_count": m.batch_entry_count, "inserted_count": m.inserted_count,
-             "replaced_count": m.replaced_count, "entry_count": m.entry_count} for m in messages]
-    return pd.DataFrame(rows, columns=list(VERSION_COLUMNS))
+             "replaced_count": m.replaced_count, "entry_count": m.entry_count, **_corrected_columns(m)} for m in messages]
+    frame = pd.DataFrame(rows, columns=list(VERSION_COLUMNS))
+    # Versions imported as given have no set: empty name, and <NA> (not 0, which is no version) in the numbers.
+    for column in ("correction_set_version", "corrected_from_version"):
+        frame[column] = frame[column].astype("Int64")
+    return frame
+
+
+def _corrected_columns(m) -> dict:
+    if not m.HasField("corrections"):
+        return {"correction_set_name": "", "correction_set_version": None, "corrected_from_version": None}
+    return {"correction_set_name": m.corrections.set_name, "correction_set_version": m.corrections.set_version,
+            "corrected_from_version": m.corrections.source_version}
+
+
+def corrections_used(m) -> Optional[CorrectionsUsed]:
+    """The message's corrections field, or None when it is unset (a version imported as given)."""
+    return (CorrectionsUsed(m.corrections.set_name, m.corrections.set_version, m.corrections.source_version)
+            if m.HasField("corrections") else None)
 
 
 def import_session(m) -> ImportSession:
@@ -598,6 +614,8 @@ class CuratedVersion:
     # The new version's content fingerprint: equal for equal content.
     content_sha256: str
     record: CurationRecord
+    # The correction set the version carries when the recipe applied one (apply_correction_set); None otherwise.
+    corrections: Optional[CorrectionsUsed] = None
 
 
 def curation_record(m) -> CurationRecord:
