@@ -105,7 +105,7 @@ public static class Dataset60Suite
             double sum = 0;
             foreach (var e in result.Entries) sum += e.EnergyAboveHullEvPerAtom;
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{list.Length} entries, {result.HullSystems.Count} hulls, {onHull} on hull, sum of energies above hull {sum:R} eV/atom, {ms:F0} ms wall, {cpuMs:F0} ms CPU"));
+                $"{list.Length} entries, {result.HullSystems.Count} hulls, {onHull} on hull, sum of energies above hull {sum:R} eV/atom, answers digest {DatasetDigest.Of(result)}, {ms:F0} ms wall, {cpuMs:F0} ms CPU"));
         }
         return 0;
 #else

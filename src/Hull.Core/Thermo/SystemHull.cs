@@ -635,7 +635,7 @@ public sealed partial class SystemHull
     private SystemCoverage BuildCoverage()
     {
         var pure = new int[_space.Names.Count];
-        int entries = 0, compounds = 0;
+        int entries = 0;
         foreach (HullPoint point in _points)
         {
             if (point.Entry is null)
@@ -648,12 +648,19 @@ public sealed partial class SystemHull
             {
                 pure[point.PureComponent]++;
             }
-            else
-            {
-                compounds++;
-            }
         }
 
+        return CoverageOf(pure, entries);
+    }
+
+    /// <summary>
+    /// The coverage from counts of entries: <paramref name="pure"/>[k] of component k alone, and
+    /// <paramref name="entries"/> in all (synthetic corners not counted). A dataset's hull that holds only some of
+    /// its subsystems' entries reports the counts of all of them.
+    /// </summary>
+    internal SystemCoverage CoverageOf(int[] pure, int entries)
+    {
+        int compounds = entries - pure.Sum();
         var components = new ComponentCoverage[pure.Length];
         for (int k = 0; k < pure.Length; k++)
         {
