@@ -26,6 +26,7 @@ internal sealed class DatasetPoints
     private readonly IReadOnlyList<List<int>> _rowsOfSystem;
     private readonly IReadOnlyList<int> _hullsOfSystem;
     private readonly int[][]? _keptRowsOfSystem;
+    private readonly int[]? _compositionKey;
     private readonly ConcurrentDictionary<(int System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
 
     /// <param name="entries">The dataset.</param>
@@ -77,7 +78,11 @@ internal sealed class DatasetPoints
         }
 
         _sortRank = OrdinalIdRanks(entries);
-        _keptRowsOfSystem = PassesHullChecks(rowsOfSystem, formationEvPerAtom) ? KeptRows(rowsOfSystem, formationEvPerAtom) : null;
+        if (PassesHullChecks(rowsOfSystem, formationEvPerAtom))
+        {
+            _compositionKey = new int[entries.Count];
+            _keptRowsOfSystem = KeptRows(rowsOfSystem, formationEvPerAtom, _compositionKey);
+        }
     }
 
     /// <summary>
@@ -151,11 +156,13 @@ internal sealed class DatasetPoints
     /// <summary>
     /// Per system, the rows a hull that does not report it needs: per composition (equal coprime amounts; rows of
     /// one system share their elements), the first by id and the one of lowest energy, the first by id among exact
-    /// ties (the engine's representative).
+    /// ties (the engine's representative). Also numbers the dataset's compositions into <paramref name="keyOfRow"/>,
+    /// system by system.
     /// </summary>
-    private int[][] KeptRows(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom)
+    private int[][] KeptRows(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom, int[] keyOfRow)
     {
         var kept = new int[rowsOfSystem.Count][];
+        var compositionsOfSystem = new int[rowsOfSystem.Count];
         Parallel.For(
             0,
             rowsOfSystem.Count,
@@ -164,22 +171,26 @@ internal sealed class DatasetPoints
             {
                 int[] rows = rowsOfSystem[s].ToArray();
                 Array.Sort(rows, (a, b) => _sortRank[a].CompareTo(_sortRank[b]));
-                var byComposition = new Dictionary<long[], (int First, int Lowest)>(AmountRowComparer.Instance);
+                var byComposition = new Dictionary<long[], (int First, int Lowest, int Key)>(AmountRowComparer.Instance);
                 foreach (int row in rows)
                 {
                     long[] amounts = _prepared[row].Amounts;
                     if (!byComposition.TryGetValue(amounts, out var known))
                     {
-                        byComposition[amounts] = (row, row);
+                        known = (row, row, byComposition.Count);
+                        byComposition[amounts] = known;
                     }
                     else if (formationEvPerAtom[row] < formationEvPerAtom[known.Lowest])
                     {
-                        byComposition[amounts] = (known.First, row);
+                        byComposition[amounts] = (known.First, row, known.Key);
                     }
+
+                    keyOfRow[row] = known.Key;
                 }
 
+                compositionsOfSystem[s] = byComposition.Count;
                 var keep = new List<int>(2 * byComposition.Count);
-                foreach ((int first, int lowest) in byComposition.Values)
+                foreach ((int first, int lowest, _) in byComposition.Values)
                 {
                     keep.Add(first);
                     if (lowest != first)
@@ -190,6 +201,18 @@ internal sealed class DatasetPoints
 
                 kept[s] = keep.ToArray();
             });
+
+        // Keys numbered within each system, then offset so that they are unique in the dataset.
+        int offset = 0;
+        for (int s = 0; s < rowsOfSystem.Count; s++)
+        {
+            foreach (int row in rowsOfSystem[s])
+            {
+                keyOfRow[row] += offset;
+            }
+
+            offset += compositionsOfSystem[s];
+        }
 
         return kept;
     }
@@ -232,7 +255,7 @@ internal sealed class DatasetPoints
         for (int k = 0; k < points.Length; k++)
         {
             int row = rows[k];
-            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row]);
+            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row], _compositionKey?[row] ?? -1);
         }
 
         return points;

@@ -179,15 +179,7 @@ public sealed partial class SystemHull
         // engine, and so every result, independent of the input order. Ids are unique, so the order is total.
         _points = WithCornerPoints(space, points);
         SortCanonically(_points);
-        var amounts = new long[_points.Length][];
-        var energies = new double[_points.Length];
-        for (int i = 0; i < _points.Length; i++)
-        {
-            amounts[i] = _points[i].Amounts;
-            energies[i] = _points[i].AxisEnergyEvPerAtom;
-        }
-
-        var input = HullInput.Check(amounts, energies);
+        HullInput input = GroupByCompositionKey(_points, space.Names.Count) ?? CheckPoints(_points);
         _hull = engineLike is null ? HullStability.Build(input, onDemand) : HullStability.BuildLike(input, engineLike);
         // Facets are built on first use only: in many components they outnumber the points by far, and stability
         // does not need them.
@@ -237,6 +229,91 @@ public sealed partial class SystemHull
         }
 
         return points;
+    }
+
+    private static HullInput CheckPoints(HullPoint[] points)
+    {
+        var amounts = new long[points.Length][];
+        var energies = new double[points.Length];
+        for (int i = 0; i < points.Length; i++)
+        {
+            amounts[i] = points[i].Amounts;
+            energies[i] = points[i].AxisEnergyEvPerAtom;
+        }
+
+        return HullInput.Check(amounts, energies);
+    }
+
+    /// <summary>Composition of each composition key in the hull being grouped on this thread (-1: not seen); reset after each hull.</summary>
+    [ThreadStatic]
+    private static int[]? _localOfKey;
+
+    /// <summary>
+    /// The engine's input from the points' dataset composition keys (see <see cref="HullPoint.CompositionKey"/>),
+    /// or null when an entry has none. Synthetic corners are compositions of their own (an element has one only
+    /// when no entry is made of it alone).
+    /// </summary>
+    private static HullInput? GroupByCompositionKey(HullPoint[] points, int componentCount)
+    {
+        int largestKey = -1;
+        foreach (HullPoint point in points)
+        {
+            if (point.Entry is null)
+            {
+                continue;
+            }
+
+            if (point.CompositionKey < 0)
+            {
+                return null;
+            }
+
+            largestKey = Math.Max(largestKey, point.CompositionKey);
+        }
+
+        int[] localOfKey = _localOfKey is { } known && known.Length > largestKey ? known : GrowKeyTable(largestKey + 1);
+        var compositionOf = new int[points.Length];
+        var energies = new double[points.Length];
+        var firstPoints = new List<int>();
+        for (int i = 0; i < points.Length; i++)
+        {
+            HullPoint point = points[i];
+            energies[i] = point.AxisEnergyEvPerAtom;
+            int key = point.CompositionKey;
+            int local = point.Entry is null ? -1 : localOfKey[key];
+            if (local < 0)
+            {
+                local = firstPoints.Count;
+                firstPoints.Add(i);
+                if (point.Entry is not null)
+                {
+                    localOfKey[key] = local;
+                }
+            }
+
+            compositionOf[i] = local;
+        }
+
+        var reducedRows = new long[firstPoints.Count * componentCount];
+        for (int c = 0; c < firstPoints.Count; c++)
+        {
+            HullPoint first = points[firstPoints[c]];
+            first.Amounts.CopyTo(reducedRows, c * componentCount);
+            if (first.Entry is not null)
+            {
+                localOfKey[first.CompositionKey] = -1;
+            }
+        }
+
+        return HullInput.FromGrouped(componentCount, energies, compositionOf, firstPoints.Count, reducedRows);
+    }
+
+    private static int[] GrowKeyTable(int keys)
+    {
+        var table = new int[Math.Max(keys, 2 * (_localOfKey?.Length ?? 0))];
+        Array.Fill(table, -1);
+        _localOfKey = table;
+        return table;
     }
 
     private static void SortCanonically(HullPoint[] points)
