@@ -9,12 +9,13 @@ namespace Hull.Core.Thermo;
 /// a few layouts), so they are shared between those hulls instead of being rebuilt for each. Safe for parallel use.
 /// </summary>
 /// <remarks>
-/// A hull that does not report a subsystem needs only two of its entries per composition: the representative
-/// (lowest energy, then lowest id), which is all the engine hulls, and the first by id, which fixes where the
-/// composition falls in the engine's order. The other entries of that composition change no answer of that hull,
-/// so they are left out of it (a binary's hundreds of entries then weigh a few dozen points in each of its hundred
-/// hulls). The composition grouping behind this is done here once per dataset. It is skipped when some entry would
-/// fail the engine's input checks, so that such a fault is reported exactly as by a hull holding every entry.
+/// A hull that does not report a subsystem needs only one of its entries per composition: the representative
+/// (lowest energy, then lowest id), which is all the engine hulls. The other entries of that composition change no
+/// answer of that hull, so they are left out of it (a binary's hundreds of entries then weigh a few dozen points in
+/// each of its hundred hulls); the hull numbers its compositions by the dataset's first entry of each, as a hull of
+/// every entry would (<see cref="HullPoint.CompositionFirstRank"/>). The composition grouping behind this is done
+/// here once per dataset. It is skipped when some entry would fail the engine's input checks, so that such a fault
+/// is reported exactly as by a hull holding every entry.
 /// </remarks>
 internal sealed class DatasetPoints
 {
@@ -27,6 +28,8 @@ internal sealed class DatasetPoints
     private readonly IReadOnlyList<int> _hullsOfSystem;
     private readonly int[][]? _keptRowsOfSystem;
     private readonly int[]? _compositionKey;
+    // Per row: the id rank of the first entry of its composition.
+    private readonly int[]? _compositionFirstRank;
     private readonly ConcurrentDictionary<(int System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
 
     /// <param name="entries">The dataset.</param>
@@ -81,7 +84,8 @@ internal sealed class DatasetPoints
         if (PassesHullChecks(rowsOfSystem, formationEvPerAtom))
         {
             _compositionKey = new int[entries.Count];
-            _keptRowsOfSystem = KeptRows(rowsOfSystem, formationEvPerAtom, _compositionKey);
+            _compositionFirstRank = new int[entries.Count];
+            _keptRowsOfSystem = KeptRows(rowsOfSystem, formationEvPerAtom, EveryElementHasPureEntry(systems));
         }
     }
 
@@ -153,14 +157,36 @@ internal sealed class DatasetPoints
         return true;
     }
 
+    /// <summary>True when every element of the systems has a system of its own (so no hull needs a synthetic corner).</summary>
+    private static bool EveryElementHasPureEntry(IReadOnlyList<UInt128> systems)
+    {
+        UInt128 all = UInt128.Zero, pure = UInt128.Zero;
+        foreach (UInt128 system in systems)
+        {
+            all |= system;
+            if (UInt128.PopCount(system) == 1)
+            {
+                pure |= system;
+            }
+        }
+
+        return all == pure;
+    }
+
     /// <summary>
     /// Per system, the rows a hull that does not report it needs: per composition (equal coprime amounts; rows of
-    /// one system share their elements), the first by id and the one of lowest energy, the first by id among exact
-    /// ties (the engine's representative). Also numbers the dataset's compositions into <paramref name="keyOfRow"/>,
-    /// system by system.
+    /// one system share their elements) the one of lowest energy, the first by id among exact ties (the engine's
+    /// representative), and, when <paramref name="representativesOnly"/> is false, the first by id. Also numbers the
+    /// dataset's compositions (system by system) and notes the id rank of each one's first entry, which orders the
+    /// compositions of a hull as a hull of all entries would.
     /// </summary>
-    private int[][] KeptRows(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom, int[] keyOfRow)
+    /// <remarks>
+    /// The first entry of each composition is left out only where no hull has a synthetic corner: a hull places a
+    /// corner by its position among the points it holds, which the first entries then still fix.
+    /// </remarks>
+    private int[][] KeptRows(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom, bool representativesOnly)
     {
+        int[] keyOfRow = _compositionKey!;
         var kept = new int[rowsOfSystem.Count][];
         var compositionsOfSystem = new int[rowsOfSystem.Count];
         Parallel.For(
@@ -192,11 +218,16 @@ internal sealed class DatasetPoints
                 var keep = new List<int>(2 * byComposition.Count);
                 foreach ((int first, int lowest, _) in byComposition.Values)
                 {
-                    keep.Add(first);
-                    if (lowest != first)
+                    keep.Add(lowest);
+                    if (lowest != first && !representativesOnly)
                     {
-                        keep.Add(lowest);
+                        keep.Add(first);
                     }
+                }
+
+                foreach (int row in rows)
+                {
+                    _compositionFirstRank![row] = _sortRank[byComposition[_prepared[row].Amounts].First];
                 }
 
                 kept[s] = keep.ToArray();
@@ -255,7 +286,7 @@ internal sealed class DatasetPoints
         for (int k = 0; k < points.Length; k++)
         {
             int row = rows[k];
-            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row], _compositionKey?[row] ?? -1);
+            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row], _compositionKey?[row] ?? -1, _compositionFirstRank?[row] ?? -1);
         }
 
         return points;

@@ -24,6 +24,7 @@ internal sealed class HullPoint
         RowIndex = rowIndex;
         SortRank = -1;
         CompositionKey = -1;
+        CompositionFirstRank = -1;
         _componentAtoms = componentAtoms;
         Rational total = Rational.Zero;
         foreach (Rational a in componentAtoms)
@@ -39,12 +40,15 @@ internal sealed class HullPoint
     /// <summary>
     /// A point over elements from coordinates prepared once for its entry: <paramref name="columns"/>[e] is the hull
     /// column of the entry's element e. <paramref name="sortRank"/> orders the points of one dataset by id;
-    /// <paramref name="compositionKey"/> is the <see cref="CompositionKey"/> or -1.
+    /// <paramref name="compositionKey"/> and <paramref name="compositionFirstRank"/> are the <see cref="CompositionKey"/>
+    /// and <see cref="CompositionFirstRank"/>, or -1.
     /// </summary>
     public HullPoint(
-        HullPhase phase, PhaseEntry entry, int rowIndex, PreparedCoordinates prepared, int[] columns, int componentCount, int sortRank, int compositionKey)
+        HullPhase phase, PhaseEntry entry, int rowIndex, PreparedCoordinates prepared, int[] columns, int componentCount, int sortRank,
+        int compositionKey, int compositionFirstRank)
     {
         CompositionKey = compositionKey;
+        CompositionFirstRank = compositionFirstRank;
         Phase = phase;
         AxisEnergyEvPerAtom = phase.AxisEnergyEvPerAtom;
         Entry = entry;
@@ -72,6 +76,7 @@ internal sealed class HullPoint
         SortRank = other.SortRank;
         // The energy is another one, not checked with the dataset's.
         CompositionKey = -1;
+        CompositionFirstRank = -1;
         _componentAtoms = other._componentAtoms;
         _fractions = other._fractions;
         _prepared = other._prepared;
@@ -102,6 +107,12 @@ internal sealed class HullPoint
     /// points groups them by this id instead of checking and hashing their rows.
     /// </summary>
     public int CompositionKey { get; }
+
+    /// <summary>
+    /// With a <see cref="CompositionKey"/>: the id rank of the dataset's first entry of that composition (the
+    /// composition's place in a hull of every entry, where a hull holds only some of them); otherwise -1.
+    /// </summary>
+    public int CompositionFirstRank { get; }
 
     /// <summary>Atoms contributed by each component to one formula unit as written (exact).</summary>
     public Rational[] ComponentAtoms => _componentAtoms ??= Expand(_prepared!.Atoms, Rational.Zero);

@@ -250,8 +250,11 @@ public sealed partial class SystemHull
 
     /// <summary>
     /// The engine's input from the points' dataset composition keys (see <see cref="HullPoint.CompositionKey"/>),
-    /// or null when an entry has none. Synthetic corners are compositions of their own (an element has one only
-    /// when no entry is made of it alone).
+    /// or null when an entry has none. Compositions are numbered in the order their first entries have among all
+    /// the dataset's entries (<see cref="HullPoint.CompositionFirstRank"/>), which is their order of first
+    /// occurrence in a hull of every entry, also where this hull holds only some of them. A synthetic corner (an
+    /// element has one only when no entry is made of it alone) is a composition of its own, placed after the entry
+    /// before it.
     /// </summary>
     private static HullInput? GroupByCompositionKey(HullPoint[] points, int componentCount)
     {
@@ -275,6 +278,10 @@ public sealed partial class SystemHull
         var compositionOf = new int[points.Length];
         var energies = new double[points.Length];
         var firstPoints = new List<int>();
+        // Per composition in order of appearance here: its place (twice the first rank; a corner's is odd) and number.
+        var order = new List<long>();
+        long lastRank = -1;
+        bool inOrder = true;
         for (int i = 0; i < points.Length; i++)
         {
             HullPoint point = points[i];
@@ -285,27 +292,53 @@ public sealed partial class SystemHull
             {
                 local = firstPoints.Count;
                 firstPoints.Add(i);
+                long place = point.Entry is null ? 2 * lastRank + 1 : 2L * point.CompositionFirstRank;
+                inOrder &= order.Count == 0 || (order[^1] >> 32) <= place;
+                order.Add((place << 32) | (uint)local);
                 if (point.Entry is not null)
                 {
                     localOfKey[key] = local;
                 }
             }
 
+            if (point.Entry is not null)
+            {
+                lastRank = point.SortRank;
+            }
+
             compositionOf[i] = local;
         }
 
-        var reducedRows = new long[firstPoints.Count * componentCount];
-        for (int c = 0; c < firstPoints.Count; c++)
+        int count = firstPoints.Count;
+        var renumbered = new int[count];
+        if (!inOrder)
         {
-            HullPoint first = points[firstPoints[c]];
-            first.Amounts.CopyTo(reducedRows, c * componentCount);
+            // Places are distinct, but a corner after an entry may share one with the next corner: the number breaks it.
+            order.Sort();
+        }
+
+        for (int c = 0; c < count; c++)
+        {
+            renumbered[(int)(order[c] & uint.MaxValue)] = c;
+        }
+
+        for (int i = 0; i < compositionOf.Length; i++)
+        {
+            compositionOf[i] = renumbered[compositionOf[i]];
+        }
+
+        var reducedRows = new long[count * componentCount];
+        foreach (int p in firstPoints)
+        {
+            HullPoint first = points[p];
+            first.Amounts.CopyTo(reducedRows, compositionOf[p] * componentCount);
             if (first.Entry is not null)
             {
                 localOfKey[first.CompositionKey] = -1;
             }
         }
 
-        return HullInput.FromGrouped(componentCount, energies, compositionOf, firstPoints.Count, reducedRows);
+        return HullInput.FromGrouped(componentCount, energies, compositionOf, count, reducedRows);
     }
 
     private static int[] GrowKeyTable(int keys)

@@ -133,7 +133,8 @@ public sealed class DatasetStabilityTests
     {
         // Li–O sits in two ternary hulls and is reported by Co–Li–O only; the Li–Mn–O hull needs, of its many
         // Li2O polymorphs, the lowest (an exact tie of three, the first by id wins) and decomposes into it.
-        // Li4O2 is Li2O written twice over. Invented energies.
+        // Li4O2 is Li2O written twice over. Li2O2's lowest entry comes after Li2O's by id, its first before: the
+        // hull numbers the compositions by their first entries, as a hull of every entry does. Invented energies.
         PhaseEntry[] entries =
         [
             Formation("Li", "Li", 0.0),
@@ -149,6 +150,7 @@ public sealed class DatasetStabilityTests
             Formation("b-Li2O", "Li2O", -2.00),
             Formation("Li2O2", "Li2O2", -1.64),
             Formation("Li2O2-b", "Li2O2", -1.64),
+            Formation("n-Li2O2", "Li2O2", -1.70),
             Formation("CoO", "CoO", -1.24),
             Formation("LiCoO2", "LiCoO2", -1.80),
             Formation("MnO", "MnO", -2.00),
@@ -164,7 +166,7 @@ public sealed class DatasetStabilityTests
         AssertMatchesOwnSystemHulls(entries, result);
         // Li4MnO4 lies above Li2O + Li2MnO3 (checked against the own-system hull above); the Li2O there is the
         // first by id among the three at -2.07 eV/atom.
-        Assert.Contains(result.Entries[17].Decomposition.Products, p => p.Phase.Id == "m-Li4O2");
+        Assert.Contains(result.Entries[18].Decomposition.Products, p => p.Phase.Id == "m-Li4O2");
         foreach (SystemCoverage coverage in result.Coverage)
         {
             var elements = coverage.HullSystem.Split('-').ToHashSet(StringComparer.Ordinal);
@@ -174,7 +176,7 @@ public sealed class DatasetStabilityTests
             Assert.Equal(own.Components, coverage.Components);
         }
 
-        Assert.Equal(16, result.Coverage.Single(c => c.HullSystem == "Li-Mn-O").EntryCount);
+        Assert.Equal(17, result.Coverage.Single(c => c.HullSystem == "Li-Mn-O").EntryCount);
     }
 
     [Fact]
