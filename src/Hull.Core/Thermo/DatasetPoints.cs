@@ -13,7 +13,8 @@ namespace Hull.Core.Thermo;
 /// (lowest energy, then lowest id), which is all the engine hulls. The other entries of that composition change no
 /// answer of that hull, so they are left out of it (a binary's hundreds of entries then weigh a few dozen points in
 /// each of its hundred hulls); the hull numbers its compositions by the dataset's first entry of each, as a hull of
-/// every entry would (<see cref="HullPoint.CompositionFirstRank"/>). The composition grouping behind this is done
+/// every entry would (<see cref="HullPoint.CompositionFirstRank"/>); where a hull has a synthetic corner, placed by
+/// the points it holds, the first entry of each composition is kept too. The composition grouping behind this is done
 /// here once per dataset. It is skipped when some entry would fail the engine's input checks, so that such a fault
 /// is reported exactly as by a hull holding every entry.
 /// </remarks>
