@@ -100,12 +100,17 @@ public static class Dataset60Suite
         for (int rep = 0; rep < reps; rep++)
         {
             var cpu = Environment.CpuUsage.TotalTime;
+            var pause = GC.GetTotalPauseDuration();
+            int[] collections = [GC.CollectionCount(0), GC.CollectionCount(1), GC.CollectionCount(2)];
+            long allocated = GC.GetTotalAllocatedBytes();
             double ms = Solve(list, out var result, out int onHull);
             double cpuMs = (Environment.CpuUsage.TotalTime - cpu).TotalMilliseconds;
+            string gc = string.Create(CultureInfo.InvariantCulture,
+                $"GC: {(GC.GetTotalAllocatedBytes() - allocated) / 1e6:F0} MB allocated, {GC.CollectionCount(0) - collections[0]}/{GC.CollectionCount(1) - collections[1]}/{GC.CollectionCount(2) - collections[2]} collections of generation 0/1/2, {(GC.GetTotalPauseDuration() - pause).TotalMilliseconds:F0} ms paused");
             double sum = 0;
             foreach (var e in result.Entries) sum += e.EnergyAboveHullEvPerAtom;
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{list.Length} entries, {result.HullSystems.Count} hulls, {onHull} on hull, sum of energies above hull {sum:R} eV/atom, {ms:F0} ms wall, {cpuMs:F0} ms CPU"));
+                $"{list.Length} entries, {result.HullSystems.Count} hulls, {onHull} on hull, sum of energies above hull {sum:R} eV/atom, answers digest {DatasetDigest.Of(result)}, {ms:F0} ms wall, {cpuMs:F0} ms CPU; {gc}"));
         }
         return 0;
 #else

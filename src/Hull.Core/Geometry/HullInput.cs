@@ -111,6 +111,30 @@ internal sealed class HullInput
         return CheckRows(new FlatRows(amountsRowMajor, componentCount), count, componentCount, energiesEvPerAtom);
     }
 
+    /// <summary>
+    /// The input of points already checked and grouped by the caller: every row non-negative, not all zero, adding
+    /// up within 64 bits, every energy finite and within ±<see cref="HullTolerances.MaxEnergyMagnitudeEvPerAtom"/>;
+    /// <paramref name="compositionOf"/> numbers the compositions from 0 in order of first occurrence, and
+    /// <paramref name="reducedRows"/> holds each composition's row in lowest terms (composition c's at
+    /// [c * componentCount, (c + 1) * componentCount)). The same input <see cref="Check(IReadOnlyList{long[]}, IReadOnlyList{double})"/>
+    /// builds from those points, without the checks and the hashing of every row: a dataset's hulls share their
+    /// entries, which are checked and grouped once for all of them. The arrays are taken over.
+    /// </summary>
+    internal static HullInput FromGrouped(int componentCount, double[] energiesEvPerAtom, int[] compositionOf, int compositionCount, long[] reducedRows)
+    {
+        var fractions = new double[compositionCount * componentCount];
+        for (int c = 0; c < compositionCount; c++)
+        {
+            ReadOnlySpan<long> row = reducedRows.AsSpan(c * componentCount, componentCount);
+            // As DistinctCompositions: amount / total, each rounded once.
+            long total = 0;
+            foreach (long v in row) total += v;
+            for (int k = 0; k < componentCount; k++) fractions[c * componentCount + k] = (double)row[k] / total;
+        }
+        var candidates = ChooseRepresentatives(compositionOf, compositionCount, energiesEvPerAtom);
+        return new HullInput(componentCount, energiesEvPerAtom, compositionOf, compositionCount, reducedRows, fractions, candidates);
+    }
+
     /// <summary>Where the rows come from: one array per point, or one array for all.</summary>
     private interface IRowSource
     {

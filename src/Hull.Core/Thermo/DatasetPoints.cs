@@ -1,4 +1,5 @@
 using System.Collections.Concurrent;
+using System.Runtime.InteropServices;
 
 namespace Hull.Core.Thermo;
 
@@ -7,6 +8,16 @@ namespace Hull.Core.Thermo;
 /// every hull that places its elements in the same columns (a binary sits in a hundred quaternary hulls but in only
 /// a few layouts), so they are shared between those hulls instead of being rebuilt for each. Safe for parallel use.
 /// </summary>
+/// <remarks>
+/// A hull that does not report a subsystem needs only one of its entries per composition: the representative
+/// (lowest energy, then lowest id), which is all the engine hulls. The other entries of that composition change no
+/// answer of that hull, so they are left out of it (a binary's hundreds of entries then weigh a few dozen points in
+/// each of its hundred hulls); the hull numbers its compositions by the dataset's first entry of each, as a hull of
+/// every entry would (<see cref="HullPoint.CompositionFirstRank"/>); where a hull has a synthetic corner, placed by
+/// the points it holds, the first entry of each composition is kept too. The composition grouping behind this is done
+/// here once per dataset. It is skipped when some entry would fail the engine's input checks, so that such a fault
+/// is reported exactly as by a hull holding every entry.
+/// </remarks>
 internal sealed class DatasetPoints
 {
     private readonly IReadOnlyList<PhaseEntry> _entries;
@@ -16,6 +27,10 @@ internal sealed class DatasetPoints
     private readonly IReadOnlyList<UInt128> _systems;
     private readonly IReadOnlyList<List<int>> _rowsOfSystem;
     private readonly IReadOnlyList<int> _hullsOfSystem;
+    private readonly int[][]? _keptRowsOfSystem;
+    private readonly int[]? _compositionKey;
+    // Per row: the id rank of the first entry of its composition.
+    private readonly int[]? _compositionFirstRank;
     private readonly ConcurrentDictionary<(int System, UInt128 Columns, int Width), HullPoint[]> _byLayout = new();
 
     /// <param name="entries">The dataset.</param>
@@ -67,42 +82,212 @@ internal sealed class DatasetPoints
         }
 
         _sortRank = OrdinalIdRanks(entries);
+        if (PassesHullChecks(rowsOfSystem, formationEvPerAtom))
+        {
+            _compositionKey = new int[entries.Count];
+            _compositionFirstRank = new int[entries.Count];
+            _keptRowsOfSystem = KeptRows(rowsOfSystem, formationEvPerAtom, EveryElementHasPureEntry(systems));
+        }
     }
 
-    /// <summary>The points of a present subsystem's entries in the columns of a system that contains it.</summary>
-    public HullPoint[] Of(int subsystem, UInt128 system)
+    /// <summary>
+    /// Number of points <see cref="Of"/> gives for a subsystem: every entry in the hull that reports it, the kept ones
+    /// elsewhere.
+    /// </summary>
+    public int CountOf(int subsystem, bool reported) =>
+        reported || _keptRowsOfSystem is null ? _rowsOfSystem[subsystem].Count : _keptRowsOfSystem[subsystem].Length;
+
+    /// <summary>
+    /// The points of a present subsystem's entries in the columns of a system that contains it: all of them when
+    /// that system's hull reports the subsystem, otherwise those its answers depend on (see the remarks).
+    /// </summary>
+    public HullPoint[] Of(int subsystem, UInt128 system, bool reported)
+    {
+        if (reported || _keptRowsOfSystem is null)
+        {
+            return AllOf(subsystem, system);
+        }
+
+        int width = (int)UInt128.PopCount(system);
+        int[] columns = ColumnsOf(_systems[subsystem], system);
+        int[] rows = _keptRowsOfSystem[subsystem];
+        if (_hullsOfSystem[subsystem] < 3)
+        {
+            // In two hulls at most: it is reported by one, kept in the other; nothing to share.
+            return Make(rows, columns, width);
+        }
+
+        var key = (subsystem, ColumnSet(columns), width);
+        if (!_byLayout.TryGetValue(key, out HullPoint[]? points))
+        {
+            points = _byLayout.GetOrAdd(key, Make(rows, columns, width));
+        }
+
+        return points;
+    }
+
+    /// <summary>
+    /// True when every entry passes the engine's per-point input checks (amounts adding up within 64 bits, energy
+    /// finite and in range), which then hold in every hull.
+    /// </summary>
+    private bool PassesHullChecks(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom)
+    {
+        foreach (List<int> rows in rowsOfSystem)
+        {
+            foreach (int row in rows)
+            {
+                double energy = formationEvPerAtom[row];
+                if (!double.IsFinite(energy) || Math.Abs(energy) > Geometry.HullTolerances.MaxEnergyMagnitudeEvPerAtom)
+                {
+                    return false;
+                }
+
+                long total = 0;
+                foreach (long amount in _prepared[row].Amounts)
+                {
+                    if (amount < 0 || amount > long.MaxValue - total)
+                    {
+                        return false;
+                    }
+
+                    total += amount;
+                }
+            }
+        }
+
+        return true;
+    }
+
+    /// <summary>True when every element of the systems has a system of its own (so no hull needs a synthetic corner).</summary>
+    private static bool EveryElementHasPureEntry(IReadOnlyList<UInt128> systems)
+    {
+        UInt128 all = UInt128.Zero, pure = UInt128.Zero;
+        foreach (UInt128 system in systems)
+        {
+            all |= system;
+            if (UInt128.PopCount(system) == 1)
+            {
+                pure |= system;
+            }
+        }
+
+        return all == pure;
+    }
+
+    /// <summary>
+    /// Per system, the rows a hull that does not report it needs: per composition (equal coprime amounts; rows of
+    /// one system share their elements) the one of lowest energy, the first by id among exact ties (the engine's
+    /// representative), and, when <paramref name="representativesOnly"/> is false, the first by id. Also numbers the
+    /// dataset's compositions (system by system) and notes the id rank of each one's first entry, which orders the
+    /// compositions of a hull as a hull of all entries would.
+    /// </summary>
+    /// <remarks>
+    /// The first entry of each composition is left out only where no hull has a synthetic corner: a hull places a
+    /// corner by its position among the points it holds, which the first entries then still fix.
+    /// </remarks>
+    private int[][] KeptRows(IReadOnlyList<List<int>> rowsOfSystem, IReadOnlyList<double> formationEvPerAtom, bool representativesOnly)
+    {
+        int[] keyOfRow = _compositionKey!;
+        var kept = new int[rowsOfSystem.Count][];
+        var compositionsOfSystem = new int[rowsOfSystem.Count];
+        Parallel.For(
+            0,
+            rowsOfSystem.Count,
+            new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
+            s =>
+            {
+                int[] rows = rowsOfSystem[s].ToArray();
+                Array.Sort(rows, (a, b) => _sortRank[a].CompareTo(_sortRank[b]));
+                var byComposition = new Dictionary<long[], (int First, int Lowest, int Key)>(AmountRowComparer.Instance);
+                foreach (int row in rows)
+                {
+                    long[] amounts = _prepared[row].Amounts;
+                    if (!byComposition.TryGetValue(amounts, out var known))
+                    {
+                        known = (row, row, byComposition.Count);
+                        byComposition[amounts] = known;
+                    }
+                    else if (formationEvPerAtom[row] < formationEvPerAtom[known.Lowest])
+                    {
+                        byComposition[amounts] = (known.First, row, known.Key);
+                    }
+
+                    keyOfRow[row] = known.Key;
+                }
+
+                compositionsOfSystem[s] = byComposition.Count;
+                var keep = new List<int>(2 * byComposition.Count);
+                foreach ((int first, int lowest, _) in byComposition.Values)
+                {
+                    keep.Add(lowest);
+                    if (lowest != first && !representativesOnly)
+                    {
+                        keep.Add(first);
+                    }
+                }
+
+                foreach (int row in rows)
+                {
+                    _compositionFirstRank![row] = _sortRank[byComposition[_prepared[row].Amounts].First];
+                }
+
+                kept[s] = keep.ToArray();
+            });
+
+        // Keys numbered within each system, then offset so that they are unique in the dataset.
+        int offset = 0;
+        for (int s = 0; s < rowsOfSystem.Count; s++)
+        {
+            foreach (int row in rowsOfSystem[s])
+            {
+                keyOfRow[row] += offset;
+            }
+
+            offset += compositionsOfSystem[s];
+        }
+
+        return kept;
+    }
+
+    /// <summary>The points of every entry of a present subsystem in the columns of a system that contains it.</summary>
+    private HullPoint[] AllOf(int subsystem, UInt128 system)
     {
         int width = (int)UInt128.PopCount(system);
         int[] columns = ColumnsOf(_systems[subsystem], system);
-        if (_hullsOfSystem[subsystem] < 2)
+        if (_hullsOfSystem[subsystem] < 2 || _keptRowsOfSystem is not null)
         {
-            // A system in one hull only (every hull's own system, most single-entry systems): nothing to share.
-            return Make(subsystem, columns, width);
+            // A system in one hull only (every hull's own system, most single-entry systems), or in full only in the
+            // hull that reports it: nothing to share.
+            return Make(CollectionsMarshal.AsSpan(_rowsOfSystem[subsystem]), columns, width);
         }
 
+        var key = (subsystem, ColumnSet(columns), width);
+        if (!_byLayout.TryGetValue(key, out HullPoint[]? points))
+        {
+            points = _byLayout.GetOrAdd(key, Make(CollectionsMarshal.AsSpan(_rowsOfSystem[subsystem]), columns, width));
+        }
+
+        return points;
+    }
+
+    private static UInt128 ColumnSet(int[] columns)
+    {
         UInt128 columnSet = UInt128.Zero;
         foreach (int c in columns)
         {
             columnSet |= UInt128.One << c;
         }
 
-        var key = (subsystem, columnSet, width);
-        if (!_byLayout.TryGetValue(key, out HullPoint[]? points))
-        {
-            points = _byLayout.GetOrAdd(key, Make(subsystem, columns, width));
-        }
-
-        return points;
+        return columnSet;
     }
 
-    private HullPoint[] Make(int subsystem, int[] columns, int width)
+    private HullPoint[] Make(ReadOnlySpan<int> rows, int[] columns, int width)
     {
-        List<int> rows = _rowsOfSystem[subsystem];
-        var points = new HullPoint[rows.Count];
+        var points = new HullPoint[rows.Length];
         for (int k = 0; k < points.Length; k++)
         {
             int row = rows[k];
-            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row]);
+            points[k] = new HullPoint(_phases[row], _entries[row], row, _prepared[row], columns, width, _sortRank[row], _compositionKey?[row] ?? -1, _compositionFirstRank?[row] ?? -1);
         }
 
         return points;

@@ -51,7 +51,7 @@ public static class DatasetStability
         for (int h = 0; h < work.Length; h++)
         {
             int points = 0;
-            foreach (int member in grouping.MembersOf(h)) points += grouping.RowsOf(member).Count;
+            foreach (int member in grouping.MembersOf(h)) points += datasetPoints.CountOf(member, grouping.ReportingHullOf(member) == h);
             work[h] = (h, points);
         }
 
@@ -69,16 +69,25 @@ public static class DatasetStability
                     UInt128 mask = grouping.MaximalMask(item.Hull);
                     var hullPoints = new HullPoint[item.Points];
                     int count = 0;
+                    int entryCount = 0;
+                    var pureEntries = new int[(int)UInt128.PopCount(mask)];
                     foreach (int member in grouping.MembersOf(item.Hull))
                     {
-                        HullPoint[] memberPoints = datasetPoints.Of(member, mask);
+                        HullPoint[] memberPoints = datasetPoints.Of(member, mask, grouping.ReportingHullOf(member) == item.Hull);
                         memberPoints.CopyTo(hullPoints, count);
                         count += memberPoints.Length;
+                        int rows = grouping.RowsOf(member).Count;
+                        entryCount += rows;
+                        if (UInt128.PopCount(grouping.MaskOfSystem(member)) == 1)
+                        {
+                            pureEntries[ColumnOf(grouping.MaskOfSystem(member), mask)] += rows;
+                        }
                     }
 
                     var space = new ComponentSpace.OverElements(grouping.SymbolsOf(mask));
                     var hull = new SystemHull(HullAxis.FormationEnergy, space, hullPoints, formation.References, onDemand: true);
-                    coverage[item.Hull] = hull.Coverage;
+                    // Counted over every entry of the hull's system, including those its points leave out.
+                    coverage[item.Hull] = hull.CoverageOf(pureEntries, entryCount);
                     for (int i = 0; i < hull.PointCount; i++)
                     {
                         int row = hull.RowOfPoint(i);
@@ -111,6 +120,9 @@ public static class DatasetStability
         EntryStability[] answered = results.OfType<EntryStability>().ToArray();
         return new DatasetStabilityResult(answered, hullSystems, formation.References, coverageByName, problems);
     }
+
+    /// <summary>The column of a one-element system's element among the elements of a system containing it.</summary>
+    private static int ColumnOf(UInt128 element, UInt128 system) => (int)UInt128.PopCount(system & (element - UInt128.One));
 
     /// <summary>
     /// Groups the unusable entries by chemical system and clears the answer of every entry whose system contains one

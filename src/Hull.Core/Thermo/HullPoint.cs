@@ -23,6 +23,8 @@ internal sealed class HullPoint
         Entry = entry;
         RowIndex = rowIndex;
         SortRank = -1;
+        CompositionKey = -1;
+        CompositionFirstRank = -1;
         _componentAtoms = componentAtoms;
         Rational total = Rational.Zero;
         foreach (Rational a in componentAtoms)
@@ -37,10 +39,16 @@ internal sealed class HullPoint
 
     /// <summary>
     /// A point over elements from coordinates prepared once for its entry: <paramref name="columns"/>[e] is the hull
-    /// column of the entry's element e. <paramref name="sortRank"/> orders the points of one dataset by id.
+    /// column of the entry's element e. <paramref name="sortRank"/> orders the points of one dataset by id;
+    /// <paramref name="compositionKey"/> and <paramref name="compositionFirstRank"/> are the <see cref="CompositionKey"/>
+    /// and <see cref="CompositionFirstRank"/>, or -1.
     /// </summary>
-    public HullPoint(HullPhase phase, PhaseEntry entry, int rowIndex, PreparedCoordinates prepared, int[] columns, int componentCount, int sortRank)
+    public HullPoint(
+        HullPhase phase, PhaseEntry entry, int rowIndex, PreparedCoordinates prepared, int[] columns, int componentCount, int sortRank,
+        int compositionKey, int compositionFirstRank)
     {
+        CompositionKey = compositionKey;
+        CompositionFirstRank = compositionFirstRank;
         Phase = phase;
         AxisEnergyEvPerAtom = phase.AxisEnergyEvPerAtom;
         Entry = entry;
@@ -66,6 +74,9 @@ internal sealed class HullPoint
         Entry = other.Entry;
         RowIndex = other.RowIndex;
         SortRank = other.SortRank;
+        // The energy is another one, not checked with the dataset's.
+        CompositionKey = -1;
+        CompositionFirstRank = -1;
         _componentAtoms = other._componentAtoms;
         _fractions = other._fractions;
         _prepared = other._prepared;
@@ -89,6 +100,19 @@ internal sealed class HullPoint
 
     /// <summary>Rank of the id among the ids of one dataset (ordinal order), or -1 when not known.</summary>
     public int SortRank { get; }
+
+    /// <summary>
+    /// Id of the point's reduced composition among a dataset's compositions, the same in every hull of the dataset,
+    /// or -1. Given only when every entry of the dataset passed the engine's input checks, so that a hull of such
+    /// points groups them by this id instead of checking and hashing their rows.
+    /// </summary>
+    public int CompositionKey { get; }
+
+    /// <summary>
+    /// With a <see cref="CompositionKey"/>: the id rank of the dataset's first entry of that composition (the
+    /// composition's place in a hull of every entry, where a hull holds only some of them); otherwise -1.
+    /// </summary>
+    public int CompositionFirstRank { get; }
 
     /// <summary>Atoms contributed by each component to one formula unit as written (exact).</summary>
     public Rational[] ComponentAtoms => _componentAtoms ??= Expand(_prepared!.Atoms, Rational.Zero);

@@ -179,15 +179,7 @@ public sealed partial class SystemHull
         // engine, and so every result, independent of the input order. Ids are unique, so the order is total.
         _points = WithCornerPoints(space, points);
         SortCanonically(_points);
-        var amounts = new long[_points.Length][];
-        var energies = new double[_points.Length];
-        for (int i = 0; i < _points.Length; i++)
-        {
-            amounts[i] = _points[i].Amounts;
-            energies[i] = _points[i].AxisEnergyEvPerAtom;
-        }
-
-        var input = HullInput.Check(amounts, energies);
+        HullInput input = GroupByCompositionKey(_points, space.Names.Count) ?? CheckPoints(_points);
         _hull = engineLike is null ? HullStability.Build(input, onDemand) : HullStability.BuildLike(input, engineLike);
         // Facets are built on first use only: in many components they outnumber the points by far, and stability
         // does not need them.
@@ -237,6 +229,124 @@ public sealed partial class SystemHull
         }
 
         return points;
+    }
+
+    private static HullInput CheckPoints(HullPoint[] points)
+    {
+        var amounts = new long[points.Length][];
+        var energies = new double[points.Length];
+        for (int i = 0; i < points.Length; i++)
+        {
+            amounts[i] = points[i].Amounts;
+            energies[i] = points[i].AxisEnergyEvPerAtom;
+        }
+
+        return HullInput.Check(amounts, energies);
+    }
+
+    /// <summary>Composition of each composition key in the hull being grouped on this thread (-1: not seen); reset after each hull.</summary>
+    [ThreadStatic]
+    private static int[]? _localOfKey;
+
+    /// <summary>
+    /// The engine's input from the points' dataset composition keys (see <see cref="HullPoint.CompositionKey"/>),
+    /// or null when an entry has none. Compositions are numbered in the order their first entries have among all
+    /// the dataset's entries (<see cref="HullPoint.CompositionFirstRank"/>), which is their order of first
+    /// occurrence in a hull of every entry, also where this hull holds only some of them. A synthetic corner (an
+    /// element has one only when no entry is made of it alone) is a composition of its own, placed after the entry
+    /// before it.
+    /// </summary>
+    private static HullInput? GroupByCompositionKey(HullPoint[] points, int componentCount)
+    {
+        int largestKey = -1;
+        foreach (HullPoint point in points)
+        {
+            if (point.Entry is null)
+            {
+                continue;
+            }
+
+            if (point.CompositionKey < 0)
+            {
+                return null;
+            }
+
+            largestKey = Math.Max(largestKey, point.CompositionKey);
+        }
+
+        int[] localOfKey = _localOfKey is { } known && known.Length > largestKey ? known : GrowKeyTable(largestKey + 1);
+        var compositionOf = new int[points.Length];
+        var energies = new double[points.Length];
+        var firstPoints = new List<int>();
+        // Per composition in order of appearance here: its place (twice the first rank; a corner's is odd) and number.
+        var order = new List<long>();
+        long lastRank = -1;
+        bool inOrder = true;
+        for (int i = 0; i < points.Length; i++)
+        {
+            HullPoint point = points[i];
+            energies[i] = point.AxisEnergyEvPerAtom;
+            int key = point.CompositionKey;
+            int local = point.Entry is null ? -1 : localOfKey[key];
+            if (local < 0)
+            {
+                local = firstPoints.Count;
+                firstPoints.Add(i);
+                long place = point.Entry is null ? 2 * lastRank + 1 : 2L * point.CompositionFirstRank;
+                inOrder &= order.Count == 0 || (order[^1] >> 32) <= place;
+                order.Add((place << 32) | (uint)local);
+                if (point.Entry is not null)
+                {
+                    localOfKey[key] = local;
+                }
+            }
+
+            if (point.Entry is not null)
+            {
+                lastRank = point.SortRank;
+            }
+
+            compositionOf[i] = local;
+        }
+
+        int count = firstPoints.Count;
+        var renumbered = new int[count];
+        if (!inOrder)
+        {
+            // Places are distinct, but a corner after an entry may share one with the next corner: the number breaks it.
+            order.Sort();
+        }
+
+        for (int c = 0; c < count; c++)
+        {
+            renumbered[(int)(order[c] & uint.MaxValue)] = c;
+        }
+
+        for (int i = 0; i < compositionOf.Length; i++)
+        {
+            compositionOf[i] = renumbered[compositionOf[i]];
+        }
+
+        var reducedRows = new long[count * componentCount];
+        foreach (int p in firstPoints)
+        {
+            HullPoint first = points[p];
+            first.Amounts.CopyTo(reducedRows, compositionOf[p] * componentCount);
+            if (first.Entry is not null)
+            {
+                localOfKey[first.CompositionKey] = -1;
+            }
+        }
+
+        return HullInput.FromGrouped(componentCount, energies, compositionOf, count, reducedRows);
+    }
+
+    private static int[] GrowKeyTable(int keys)
+    {
+        var table = new int[Math.Max(keys, 2 * (_localOfKey?.Length ?? 0))];
+        Array.Fill(table, -1);
+        _localOfKey = table;
+        return table;
     }
 
     private static void SortCanonically(HullPoint[] points)
@@ -635,7 +745,7 @@ public sealed partial class SystemHull
     private SystemCoverage BuildCoverage()
     {
         var pure = new int[_space.Names.Count];
-        int entries = 0, compounds = 0;
+        int entries = 0;
         foreach (HullPoint point in _points)
         {
             if (point.Entry is null)
@@ -648,12 +758,19 @@ public sealed partial class SystemHull
             {
                 pure[point.PureComponent]++;
             }
-            else
-            {
-                compounds++;
-            }
         }
 
+        return CoverageOf(pure, entries);
+    }
+
+    /// <summary>
+    /// The coverage from counts of entries: <paramref name="pure"/>[k] of component k alone, and
+    /// <paramref name="entries"/> in all (synthetic corners not counted). A dataset's hull that holds only some of
+    /// its subsystems' entries reports the counts of all of them.
+    /// </summary>
+    internal SystemCoverage CoverageOf(int[] pure, int entries)
+    {
+        int compounds = entries - pure.Sum();
         var components = new ComponentCoverage[pure.Length];
         for (int k = 0; k < pure.Length; k++)
         {

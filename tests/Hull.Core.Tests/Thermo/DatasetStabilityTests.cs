@@ -129,6 +129,57 @@ public sealed class DatasetStabilityTests
     }
 
     [Fact]
+    public void Polymorphs_and_exact_ties_of_a_shared_subsystem_match_own_system_hulls_and_coverage_counts_them_all()
+    {
+        // Li–O sits in two ternary hulls and is reported by Co–Li–O only; the Li–Mn–O hull needs, of its many
+        // Li2O polymorphs, the lowest (an exact tie of three, the first by id wins) and decomposes into it.
+        // Li4O2 is Li2O written twice over. Li2O2's lowest entry comes after Li2O's by id, its first before: the
+        // hull numbers the compositions by their first entries, as a hull of every entry does. Invented energies.
+        PhaseEntry[] entries =
+        [
+            Formation("Li", "Li", 0.0),
+            Formation("Li-b", "Li", 0.0),
+            Formation("O", "O", 0.0),
+            Formation("Co", "Co", 0.0),
+            Formation("Mn", "Mn", 0.0),
+            Formation("Mn-b", "Mn", 0.05),
+            Formation("a-Li2O", "Li2O", -1.90),
+            Formation("z-Li2O", "Li2O", -2.07),
+            Formation("m-Li4O2", "Li4O2", -2.07),
+            Formation("q-Li2O", "Li2O", -2.07),
+            Formation("b-Li2O", "Li2O", -2.00),
+            Formation("Li2O2", "Li2O2", -1.64),
+            Formation("Li2O2-b", "Li2O2", -1.64),
+            Formation("n-Li2O2", "Li2O2", -1.70),
+            Formation("CoO", "CoO", -1.24),
+            Formation("LiCoO2", "LiCoO2", -1.80),
+            Formation("MnO", "MnO", -2.00),
+            Formation("Li2MnO3", "Li2MnO3", -2.02),
+            Formation("Li4MnO4", "Li4MnO4", -1.99),
+            Formation("LiMnO2", "LiMnO2", -2.01),
+        ];
+
+        DatasetStabilityResult result = DatasetStability.Analyze(entries);
+
+        Assert.Equal(["Co-Li-O", "Li-Mn-O"], result.HullSystems);
+        Assert.Equal("Co-Li-O", result.Entries[7].HullSystem);
+        AssertMatchesOwnSystemHulls(entries, result);
+        // Li4MnO4 lies above Li2O + Li2MnO3 (checked against the own-system hull above); the Li2O there is the
+        // first by id among the three at -2.07 eV/atom.
+        Assert.Contains(result.Entries[18].Decomposition.Products, p => p.Phase.Id == "m-Li4O2");
+        foreach (SystemCoverage coverage in result.Coverage)
+        {
+            var elements = coverage.HullSystem.Split('-').ToHashSet(StringComparer.Ordinal);
+            SystemCoverage own = SystemHull.OverElements(entries.Where(e => e.Composition.Elements.All(elements.Contains)).ToArray()).Coverage;
+            Assert.Equal(own.EntryCount, coverage.EntryCount);
+            Assert.Equal(own.CompoundEntryCount, coverage.CompoundEntryCount);
+            Assert.Equal(own.Components, coverage.Components);
+        }
+
+        Assert.Equal(17, result.Coverage.Single(c => c.HullSystem == "Li-Mn-O").EntryCount);
+    }
+
+    [Fact]
     public void Dataset_entries_needing_amounts_beyond_64_bits_name_the_earliest_row()
     {
         // Arithmetic: with p = 2^35 + 1 and q = 2^35 + 3 (odd, two apart, so coprime), Co_{1/p} Fe_{(p-1)/p}
