@@ -7,7 +7,8 @@ namespace Hull.ServiceBench;
 /// <summary>
 /// The whole-dataset analysis as a user runs it: `hull analyze warm --json` against `--csv`, each a fresh CLI process
 /// calling the bench's server, timed from process start to exit with its whole output read. Repetitions alternate
-/// which format goes first; medians, the JSON/CSV ratio and the output sizes are reported.
+/// which format goes first; medians, the JSON/CSV ratio and the output sizes are reported. With other CLI builds
+/// (e.g. the published one against the plain build) all are run in every repetition, taken in turn.
 /// </summary>
 public static class OutputFormats
 {
@@ -15,23 +16,32 @@ public static class OutputFormats
 
     public static async Task<string> RunAsync(string cliDll, Uri server, BenchOptions options)
     {
-        // One unrecorded run of each, so that the files and the server's cached analysis path are warm for both.
-        foreach (string format in Formats) await TimeAsync(cliDll, server, format);
-        var seconds = Formats.ToDictionary(f => f, _ => new List<double>());
-        var cpu = Formats.ToDictionary(f => f, _ => new List<double>());
-        var bytes = new Dictionary<string, long>();
+        (string Name, string Dll)[] builds = options.CompareCliDlls.Length == 0 ? [("", cliDll)]
+            : [("this", cliDll), .. options.CompareCliDlls.Select((d, i) => (options.CompareCliDlls.Length == 1 ? "other" : $"other {i + 1}", d))];
+        (string Build, string Dll, string Format)[] cases = [.. builds.SelectMany(b => Formats.Select(f => (b.Name, b.Dll, f)))];
+        foreach ((string name, string dll) in builds.Where(b => b.Name.Length > 0)) Console.WriteLine($"{name} = {dll}");
+
+        // One unrecorded run of each, so that the files and the server's cached analysis path are warm for all.
+        foreach (var c in cases) await TimeAsync(c.Dll, server, c.Format);
+        var seconds = cases.ToDictionary(c => c, _ => new List<double>());
+        var cpu = cases.ToDictionary(c => c, _ => new List<double>());
+        var bytes = new Dictionary<(string, string, string), long>();
         for (int r = 0; r < options.Repetitions; r++)
         {
-            foreach (string format in r % 2 == 0 ? Formats : Formats.Reverse())
+            // Each repetition starts one case later, so no case always runs first.
+            var line = new StringBuilder(string.Create(CultureInfo.InvariantCulture, $"repetition {r + 1}:"));
+            for (int i = 0; i < cases.Length; i++)
             {
-                (double s, double c, long b) = await TimeAsync(cliDll, server, format);
-                seconds[format].Add(s);
-                cpu[format].Add(c);
-                bytes[format] = b;
+                var c = cases[(i + r) % cases.Length];
+                (double s, double u, long b) = await TimeAsync(c.Dll, server, c.Format);
+                seconds[c].Add(s);
+                cpu[c].Add(u);
+                bytes[c] = b;
+                line.Append(CultureInfo.InvariantCulture, $" {Label(c.Build, c.Format)} {s:F3} s ({u:F2} s CPU);");
             }
 
-            Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"repetition {r + 1}: json {seconds["--json"][^1]:F3} s ({cpu["--json"][^1]:F2} s CPU), csv {seconds["--csv"][^1]:F3} s ({cpu["--csv"][^1]:F2} s CPU) (load {ProcFiles.LoadAverage1Minute():F2})"));
+            line.Append(CultureInfo.InvariantCulture, $" load {ProcFiles.LoadAverage1Minute():F2}");
+            Console.WriteLine(line);
         }
 
         var text = new StringBuilder();
@@ -39,20 +49,33 @@ public static class OutputFormats
         text.AppendLine();
         text.AppendLine("| output | seconds | (min–max) | CPU seconds of the CLI (user + system) | (min–max) | output, 10⁶ characters |");
         text.AppendLine("| --- | ---: | ---: | ---: | ---: | ---: |");
-        foreach (string format in Formats)
+        foreach (var c in cases)
         {
-            List<double> s = seconds[format];
-            List<double> c = cpu[format];
+            List<double> s = seconds[c];
+            List<double> u = cpu[c];
             text.AppendLine(CultureInfo.InvariantCulture,
-                $"| `hull analyze {format}` | {Medians.Of(s):F3} | {s.Min():F3}–{s.Max():F3} | {Medians.Of(c):F2} | {c.Min():F2}–{c.Max():F2} | {bytes[format] / 1e6:F2} |");
+                $"| `hull analyze {c.Format}`{(c.Build.Length == 0 ? "" : $", {c.Build}")} | {Medians.Of(s):F3} | {s.Min():F3}–{s.Max():F3} | {Medians.Of(u):F2} | {u.Min():F2}–{u.Max():F2} | {bytes[c] / 1e6:F2} |");
         }
 
         text.AppendLine();
-        text.AppendLine(CultureInfo.InvariantCulture,
-            $"JSON / CSV (medians): {Medians.Of(seconds["--json"]) / Medians.Of(seconds["--csv"]):F2} in wall time (target ≤ 1.5), " +
-            $"{Medians.Of(cpu["--json"]) / Medians.Of(cpu["--csv"]):F2} in the CLI's CPU time; load average at the end {ProcFiles.LoadAverages()}.");
+        foreach ((string build, string dll) in builds)
+        {
+            var json = (build, dll, "--json");
+            var csv = (build, dll, "--csv");
+            // The ratio of each repetition's pair too: the pair ran back to back, so it shares that moment's load.
+            double[] paired = seconds[json].Zip(seconds[csv], (j, c) => j / c).ToArray();
+            text.AppendLine(CultureInfo.InvariantCulture,
+                $"{(build.Length == 0 ? "" : $"{build}: ")}JSON / CSV (medians): {Medians.Of(seconds[json]) / Medians.Of(seconds[csv]):F2} in wall time (target ≤ 1.5), " +
+                $"per repetition {Medians.Of(paired):F2} ({paired.Min():F2}–{paired.Max():F2}), " +
+                $"{Medians.Of(cpu[json]) / Medians.Of(cpu[csv]):F2} in the CLI's CPU time.");
+        }
+
+        text.AppendLine();
+        text.AppendLine(CultureInfo.InvariantCulture, $"Load average at the end {ProcFiles.LoadAverages()}.");
         return text.ToString();
     }
+
+    private static string Label(string build, string format) => build.Length == 0 ? format[2..] : $"{build} {format[2..]}";
 
     /// <summary>Wall seconds, the CLI's CPU seconds (from /usr/bin/time, which runs it) and the characters it printed.</summary>
     private static async Task<(double Seconds, double CpuSeconds, long Characters)> TimeAsync(string cliDll, Uri server, string format)

@@ -72,6 +72,50 @@ public sealed class ProtoJsonTests
         Assert.Equal(ReferenceText(response) + Environment.NewLine, output.ToString());
     }
 
+    [Fact]
+    public void The_bytes_written_to_a_redirected_output_are_the_text_written_to_a_terminal()
+    {
+        var response = new AnalyzeDatasetResponse { EntryCount = 200 };
+        var random = new Random(5);
+        for (int i = 0; i < 200; i++)
+        {
+            var result = new EntryStability();
+            Fill(result, random, depth: 0);
+            response.Results.Add(result);
+        }
+
+        var text = new StringWriter();
+        ProtoJson.WriteLine(text, response);
+        using var bytes = new MemoryStream();
+        ProtoJson.WriteLine(bytes, response);
+
+        Assert.Equal(text.ToString(), System.Text.Encoding.UTF8.GetString(bytes.ToArray()));
+        Assert.Equal(ReferenceText(response) + Environment.NewLine, text.ToString());
+    }
+
+    [Fact]
+    public void Special_values_and_empty_fields_are_written_as_the_reference_writes_them()
+    {
+        var result = new EntryStability
+        {
+            EntryId = "a\"b\u0001<é>", EnergyAboveHullEvPerAtom = double.NaN, FormationEnergyEvPerAtom = double.NegativeInfinity,
+            // Set, empty and at its default: written, as an empty object and as -0 (a field with presence keeps its -0).
+            Decomposition = new Decomposition(), DecompositionEnergyEvPerAtom = -0.0,
+        };
+        var response = new AnalyzeDatasetResponse { EntryCount = long.MinValue, Results = { result, new EntryStability(), new EntryStability { EnergyAboveHullEvPerAtom = double.PositiveInfinity } } };
+        response.Coverage.Add(new SystemCoverage());
+        foreach (IMessage message in new IMessage[] { response, new AnalyzeDatasetResponse(), result })
+        {
+            Assert.Equal(ReferenceText(message), ProtoJson.Format(message));
+        }
+
+        string text = ProtoJson.Format(response);
+        Assert.Contains("\"NaN\"", text);
+        Assert.Contains("\"-Infinity\"", text);
+        Assert.Contains("\"-9223372036854775808\"", text);
+        Assert.Contains("\"decomposition_energy_ev_per_atom\": -0", text);
+    }
+
     /// <summary>What the CLI wrote before: the reference formatter's text with only JSON's own escapes.</summary>
     private static string ReferenceText(IMessage message)
     {
