@@ -80,8 +80,8 @@ public static class OutputFormats
     /// <summary>
     /// Wall seconds, the CLI's CPU seconds (from /usr/bin/time, which runs it) and the bytes it wrote. The output
     /// goes to a file, as in `hull analyze … --json > answer.json`: through a pipe, 12 MB of JSON is some 190 fills of
-    /// the pipe's 64 KiB, each a wait until this process's reader is scheduled, and on a busy machine those waits
-    /// made more of the JSON case's wall time than the CLI's own work.
+    /// the pipe's 64 KiB, each a wait until this process's reader is scheduled, and on a busy machine the JSON case
+    /// took about 1.2 s more wall time that way for the same CPU of the CLI (bench/SERVICE.md).
     /// </summary>
     private static async Task<(double Seconds, double CpuSeconds, long Bytes)> TimeAsync(string cliDll, Uri server, string format)
     {

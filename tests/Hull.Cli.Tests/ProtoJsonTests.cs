@@ -56,15 +56,7 @@ public sealed class ProtoJsonTests
     [Fact]
     public void A_whole_analysis_answer_written_in_pieces_equals_the_reference_text()
     {
-        var response = new AnalyzeDatasetResponse { EntryCount = 3_000 };
-        var random = new Random(11);
-        for (int i = 0; i < 3_000; i++)
-        {
-            var result = new EntryStability();
-            Fill(result, random, depth: 0);
-            response.Results.Add(result);
-        }
-
+        AnalyzeDatasetResponse response = RandomAnswer(3_000, seed: 11);
         var output = new StringWriter();
         ProtoJson.WriteLine(output, response);
 
@@ -75,15 +67,7 @@ public sealed class ProtoJsonTests
     [Fact]
     public void The_bytes_written_to_a_redirected_output_are_the_text_written_to_a_terminal()
     {
-        var response = new AnalyzeDatasetResponse { EntryCount = 200 };
-        var random = new Random(5);
-        for (int i = 0; i < 200; i++)
-        {
-            var result = new EntryStability();
-            Fill(result, random, depth: 0);
-            response.Results.Add(result);
-        }
-
+        AnalyzeDatasetResponse response = RandomAnswer(200, seed: 5);
         var text = new StringWriter();
         ProtoJson.WriteLine(text, response);
         using var bytes = new MemoryStream();
@@ -114,6 +98,21 @@ public sealed class ProtoJsonTests
         Assert.Contains("\"-Infinity\"", text);
         Assert.Contains("\"-9223372036854775808\"", text);
         Assert.Contains("\"decomposition_energy_ev_per_atom\": -0", text);
+    }
+
+    /// <summary>An analysis answer of <paramref name="count"/> results filled with awkward values.</summary>
+    private static AnalyzeDatasetResponse RandomAnswer(int count, int seed)
+    {
+        var response = new AnalyzeDatasetResponse { EntryCount = count };
+        var random = new Random(seed);
+        for (int i = 0; i < count; i++)
+        {
+            var result = new EntryStability();
+            Fill(result, random, depth: 0);
+            response.Results.Add(result);
+        }
+
+        return response;
     }
 
     /// <summary>What the CLI wrote before: the reference formatter's text with only JSON's own escapes.</summary>
