@@ -56,6 +56,9 @@ public sealed record BenchOptions
 
     public string? CliDll { get; init; }
 
+    /// <summary>Other CLI builds that --output-formats runs beside this one (e.g. the published CLI).</summary>
+    public string[] CompareCliDlls { get; init; } = [];
+
     /// <summary>Extra arguments for every server the run starts (e.g. "--warm-hulls 0").</summary>
     public string[] ServerArgs { get; init; } = [];
 
@@ -85,6 +88,7 @@ public sealed record BenchOptions
           --server-dll DLL     the server build to measure (default: this checkout's)
           --server-args "A B"  extra arguments for every server started (e.g. "--warm-hulls 0")
           --cli-dll DLL        the CLI build --output-formats runs (default: this checkout's hull.dll)
+          --compare-cli A,B    with --output-formats, also these other CLI builds' hull.dll, all taken in turn in every repetition
           --trace DIR          after the measurements, trace the server for 10 s under 64 clients of each query kind
           --output FILE        write the results (default bench/SERVICE.md for a full run; nothing for --quick)
         """;
@@ -120,6 +124,7 @@ public sealed record BenchOptions
                 "--server-dll" => options with { ServerDll = Path.GetFullPath(Value()) },
                 "--server-args" => options with { ServerArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },
                 "--cli-dll" => options with { CliDll = Path.GetFullPath(Value()) },
+                "--compare-cli" => options with { CompareCliDlls = Value().Split(',').Select(Path.GetFullPath).ToArray() },
                 "--trace" => options with { TraceDirectory = Path.GetFullPath(Value()) },
                 "--output" => options with { OutputPath = Path.GetFullPath(Value()) },
                 _ => throw new FormatException($"unknown option '{args[i]}'"),

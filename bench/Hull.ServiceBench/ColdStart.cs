@@ -23,6 +23,11 @@ public static partial class ColdStart
     /// <summary>Answers within the first second, per second.</summary>
     private static double FirstRate(LoadSample first) => first.AnsweredInWindow / FirstSecond.TotalSeconds;
 
+    /// <summary>Server CPU per answer, µs: what an answer costs the server, which follows the other sessions' load
+    /// much less than the rate does (NaN when nothing was answered).</summary>
+    private static double CpuPerAnswer(LoadSample sample, double answersPerSecond) =>
+        answersPerSecond > 0 ? sample.ServerCpuCores / answersPerSecond * 1e6 : double.NaN;
+
     private static string Label(string build, string variant) => build.Length == 0 ? variant : $"{build}, {variant}";
 
     public static async Task<string> RunAsync(string serverDll, BenchOptions options)
@@ -73,7 +78,8 @@ public static partial class ColdStart
                     rows[(variant, kind, clients)].Add((startSeconds, cold, hot, stats.HullBuilds));
                     Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
                         $"rep {r + 1} {variant,-30} {kind,-9} {clients,3} clients: started in {startSeconds:F2} s, first second {FirstRate(cold):N0}/s " +
-                        $"(p99 {cold.P99Ms:F1} ms, errors {cold.Errors}), warm {hot.QueriesPerSecond:N0}/s, ratio {FirstRate(cold) / hot.QueriesPerSecond:F2}, " +
+                        $"(p99 {cold.P99Ms:F1} ms, errors {cold.Errors}, server CPU {CpuPerAnswer(cold, FirstRate(cold)):F0} µs/answer), warm {hot.QueriesPerSecond:N0}/s " +
+                        $"({CpuPerAnswer(hot, hot.QueriesPerSecond):F0} µs/answer), ratio {FirstRate(cold) / hot.QueriesPerSecond:F2}, " +
                         $"hulls built {stats.HullBuilds}, load {ProcFiles.LoadAverage1Minute():F2}"));
                     foreach (string warming in server.WarmingLines) Console.WriteLine($"    server: {WarmingSeconds().Match(warming).Value}");
                 }
@@ -83,15 +89,17 @@ public static partial class ColdStart
             text.AppendLine(CultureInfo.InvariantCulture,
                 $"### A fresh server's first second against its warm rate ({options.Repetitions} fresh servers per row, medians; warm = {options.Window.TotalSeconds:F0} s after {options.JitWarmUp.TotalSeconds:F0} s of load)");
             text.AppendLine();
-            text.AppendLine("| server | query | clients | start to listening, s | first second, queries/s | (min–max) | p99 of the first second's calls, ms | warm, queries/s | first / warm | (min–max) | hulls built |");
-            text.AppendLine("| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |");
+            text.AppendLine("| server | query | clients | start to listening, s | first second, queries/s | (min–max) | p99 of the first second's calls, ms | warm, queries/s | first / warm | (min–max) | server CPU per answer, first second / warm, µs | hulls built |");
+            text.AppendLine("| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |");
             foreach (((string variant, QueryKind kind, int clients), var s) in rows)
             {
                 double[] ratios = s.Select(x => FirstRate(x.Cold) / x.Warm.QueriesPerSecond).ToArray();
                 text.AppendLine(CultureInfo.InvariantCulture,
                     $"| {variant} | {(kind == QueryKind.EntryById ? "entry by id" : "ad-hoc composition")} | {clients} | {Medians.Of(s.Select(x => x.Start)):F2} | " +
                     $"{Medians.Cells(s.Select(x => FirstRate(x.Cold)), "N0")} | {Medians.Of(s.Select(x => x.Cold.P99Ms)):F1} | " +
-                    $"{Medians.Of(s.Select(x => x.Warm.QueriesPerSecond)):N0} | {Medians.Cells(ratios, "F2")} | {Medians.Of(s.Select(x => (double)x.Builds)):F0} |");
+                    $"{Medians.Of(s.Select(x => x.Warm.QueriesPerSecond)):N0} | {Medians.Cells(ratios, "F2")} | " +
+                    $"{Medians.Of(s.Select(x => CpuPerAnswer(x.Cold, FirstRate(x.Cold))).Where(double.IsFinite)):F0} / {Medians.Of(s.Select(x => CpuPerAnswer(x.Warm, x.Warm.QueriesPerSecond))):F0} | " +
+                    $"{Medians.Of(s.Select(x => (double)x.Builds)):F0} |");
             }
 
             text.AppendLine();

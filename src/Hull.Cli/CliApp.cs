@@ -13,14 +13,17 @@ namespace Hull.Cli;
 /// </summary>
 public static class CliApp
 {
-    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default, TerminalInfo? terminal = null)
+    /// <summary>Runs one command line; <paramref name="stdoutBytes"/> is the stream under <paramref name="stdout"/> when
+    /// JSON may be written to it as UTF-8 bytes directly (a redirected standard output), null = through the writer.</summary>
+    public static async Task<int> RunAsync(
+        string[] args, TextWriter stdout, TextWriter stderr, CancellationToken cancellation = default, TerminalInfo? terminal = null, Stream? stdoutBytes = null)
     {
         terminal ??= TerminalInfo.None;
         var options = new GlobalOptions();
         int exitCode = ExitCodes.Ok;
         RootCommand root = CommandTree.Build(options, (body) => async (parse, token) =>
         {
-            var context = new CliContext(parse, stdout, stderr, options, terminal) { Cancellation = token };
+            var context = new CliContext(parse, stdout, stderr, options, terminal) { Cancellation = token, OutBytes = stdoutBytes };
             try
             {
                 exitCode = await body(context, token);

@@ -7,4 +7,7 @@ Console.CancelKeyPress += (_, e) =>
     e.Cancel = true;
     cancel.Cancel();
 };
-return await CliApp.RunAsync(args, Console.Out, Console.Error, cancel.Token, TerminalInfo.OfConsole());
+
+// Redirected output (a file or a pipe) takes JSON as the UTF-8 bytes it is written in.
+Stream? stdoutBytes = Console.IsOutputRedirected ? Console.OpenStandardOutput() : null;
+return await CliApp.RunAsync(args, Console.Out, Console.Error, cancel.Token, TerminalInfo.OfConsole(), stdoutBytes);

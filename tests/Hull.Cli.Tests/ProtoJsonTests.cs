@@ -56,20 +56,63 @@ public sealed class ProtoJsonTests
     [Fact]
     public void A_whole_analysis_answer_written_in_pieces_equals_the_reference_text()
     {
-        var response = new AnalyzeDatasetResponse { EntryCount = 3_000 };
-        var random = new Random(11);
-        for (int i = 0; i < 3_000; i++)
+        AnalyzeDatasetResponse response = RandomAnswer(3_000, seed: 11);
+        var output = new StringWriter();
+        ProtoJson.WriteLine(output, response);
+
+        Assert.True(output.ToString().Length > 16 * 1024 * 4, "the answer is long enough to be written in several pieces");
+        Assert.Equal(ReferenceText(response) + Environment.NewLine, output.ToString());
+    }
+
+    [Fact]
+    public void The_bytes_written_to_a_redirected_output_are_the_text_written_to_a_terminal()
+    {
+        AnalyzeDatasetResponse response = RandomAnswer(200, seed: 5);
+        var text = new StringWriter();
+        ProtoJson.WriteLine(text, response);
+        using var bytes = new MemoryStream();
+        ProtoJson.WriteLine(bytes, response);
+
+        Assert.Equal(text.ToString(), System.Text.Encoding.UTF8.GetString(bytes.ToArray()));
+        Assert.Equal(ReferenceText(response) + Environment.NewLine, text.ToString());
+    }
+
+    [Fact]
+    public void Special_values_and_empty_fields_are_written_as_the_reference_writes_them()
+    {
+        var result = new EntryStability
+        {
+            EntryId = "a\"b\u0001<é>", EnergyAboveHullEvPerAtom = double.NaN, FormationEnergyEvPerAtom = double.NegativeInfinity,
+            // Set, empty and at its default: written, as an empty object and as -0 (a field with presence keeps its -0).
+            Decomposition = new Decomposition(), DecompositionEnergyEvPerAtom = -0.0,
+        };
+        var response = new AnalyzeDatasetResponse { EntryCount = long.MinValue, Results = { result, new EntryStability(), new EntryStability { EnergyAboveHullEvPerAtom = double.PositiveInfinity } } };
+        response.Coverage.Add(new SystemCoverage());
+        foreach (IMessage message in new IMessage[] { response, new AnalyzeDatasetResponse(), result })
+        {
+            Assert.Equal(ReferenceText(message), ProtoJson.Format(message));
+        }
+
+        string text = ProtoJson.Format(response);
+        Assert.Contains("\"NaN\"", text);
+        Assert.Contains("\"-Infinity\"", text);
+        Assert.Contains("\"-9223372036854775808\"", text);
+        Assert.Contains("\"decomposition_energy_ev_per_atom\": -0", text);
+    }
+
+    /// <summary>An analysis answer of <paramref name="count"/> results filled with awkward values.</summary>
+    private static AnalyzeDatasetResponse RandomAnswer(int count, int seed)
+    {
+        var response = new AnalyzeDatasetResponse { EntryCount = count };
+        var random = new Random(seed);
+        for (int i = 0; i < count; i++)
         {
             var result = new EntryStability();
             Fill(result, random, depth: 0);
             response.Results.Add(result);
         }
 
-        var output = new StringWriter();
-        ProtoJson.WriteLine(output, response);
-
-        Assert.True(output.ToString().Length > 16 * 1024 * 4, "the answer is long enough to be written in several pieces");
-        Assert.Equal(ReferenceText(response) + Environment.NewLine, output.ToString());
+        return response;
     }
 
     /// <summary>What the CLI wrote before: the reference formatter's text with only JSON's own escapes.</summary>

@@ -6,7 +6,8 @@ using Microsoft.Extensions.Logging;
 namespace Hull.Server.Tests;
 
 /// <summary>A server started on a store with data builds the latest versions' hulls in the background, so that the
-/// first queries find them cached; with warming off (the in-process default) it builds none until asked.</summary>
+/// first queries find them cached, with every entry's answer on its own system's hull made; with warming off (the
+/// in-process default) it builds none until asked.</summary>
 public sealed class StartupHullWarmingTests
 {
     [Fact]
@@ -22,19 +23,22 @@ public sealed class StartupHullWarmingTests
             Assert.Equal(0, first.Cache.Counters.HullBuilds);
         }
 
-        int systems = Data.LiCoO().Append(Data.Formation("Fe2O3", "Fe2O3", -1.7)).Append(Data.Formation("Fe", "Fe", 0.0))
-            .Select(e => string.Join('-', Hull.Core.Chemistry.Composition.Parse(e.Formula).Elements)).Distinct().Count();
+        var stored = Data.LiCoO().Append(Data.Formation("Fe2O3", "Fe2O3", -1.7)).Append(Data.Formation("Fe", "Fe", 0.0)).ToArray();
+        int systems = stored.Select(e => string.Join('-', Hull.Core.Chemistry.Composition.Parse(e.Formula).Elements)).Distinct().Count();
         await using HullServer second = await HullServer.StartAsync(Options(folder, warmHulls: 64));
         var deadline = DateTime.UtcNow.AddSeconds(60);
-        while (second.Cache.Counters.HullBuilds < systems && DateTime.UtcNow < deadline) await Task.Delay(20);
+        while (second.Cache.Counters.EntryAnswersMade < stored.Length && DateTime.UtcNow < deadline) await Task.Delay(20);
         Assert.Equal(systems, second.Cache.Counters.HullBuilds);
         Assert.Equal(1, second.Cache.Counters.VersionLoads);
+        Assert.Equal(stored.Length, second.Cache.Counters.EntryAnswersMade);
 
         using var client = new Clients(second.Address, token: null);
         var answer = await client.Stability.GetEntryStabilityAsync(new GetEntryStabilityRequest { Dataset = "d", EntryIds = { "LiCoO2", "Fe2O3" } }, client.Call());
         Assert.Equal(2, answer.Used.Version);
         Assert.Equal(systems, second.Cache.Counters.HullBuilds);
         Assert.Equal(2, second.Cache.Counters.HullHits);
+        // Both answers were made by the warming, not by the question.
+        Assert.Equal(stored.Length, second.Cache.Counters.EntryAnswersMade);
     }
 
     [Fact]

@@ -15,6 +15,9 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
 
     public TextWriter Err { get; } = stderr;
 
+    /// <summary>The stream under <see cref="Out"/> for JSON as UTF-8 bytes (a redirected standard output); null = none.</summary>
+    public Stream? OutBytes { get; init; }
+
     public TerminalInfo Terminal { get; } = terminal;
 
     /// <summary>The command's cancellation (Ctrl+C), to tell a cancel from a server's own Cancelled answer.</summary>
@@ -53,7 +56,16 @@ public sealed class CliContext(ParseResult parse, TextWriter stdout, TextWriter 
     {
         if (Format == OutputFormat.Json)
         {
-            ProtoJson.WriteLine(Out, message);
+            if (OutBytes is null)
+            {
+                ProtoJson.WriteLine(Out, message);
+                return;
+            }
+
+            // A large answer's JSON (10 MB for 10,000 entries) as the bytes it is written in, not decoded to text and
+            // encoded again; what Out holds goes first.
+            Out.Flush();
+            ProtoJson.WriteLine(OutBytes, message);
             return;
         }
 

@@ -51,6 +51,15 @@ public static class ProtoJson
         output.WriteLine();
     }
 
+    /// <summary>The message as indented JSON and a line end, to <paramref name="output"/> as UTF-8 bytes, flushed.</summary>
+    public static void WriteLine(Stream output, IMessage message)
+    {
+        using MemoryStream buffer = Written(message);
+        output.Write(buffer.GetBuffer(), 0, (int)buffer.Length);
+        output.Write(Encoding.UTF8.GetBytes(Environment.NewLine));
+        output.Flush();
+    }
+
     private static MemoryStream Written(IMessage message)
     {
         var buffer = new MemoryStream(64 * 1024);

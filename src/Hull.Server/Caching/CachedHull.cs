@@ -20,9 +20,12 @@ public sealed class CachedHull
     private readonly Lazy<IReadOnlyList<KeyValuePair<string, WireReference>>> _wireReferences;
     private readonly ConcurrentDictionary<string, WireEntryStability> _wireStability = new(StringComparer.Ordinal);
 
-    public CachedHull(SystemHull hull)
+    private readonly CacheStatisticsCounters? _counters;
+
+    public CachedHull(SystemHull hull, CacheStatisticsCounters? counters = null)
     {
         Hull = hull;
+        _counters = counters;
         _byId = new Lazy<Dictionary<string, EntryStability>>(
             () => hull.Entries.ToDictionary(e => e.Id, StringComparer.Ordinal), LazyThreadSafetyMode.ExecutionAndPublication);
         _wireCoverage = new Lazy<WireCoverage>(() => WireMapping.ToWire(hull.Coverage), LazyThreadSafetyMode.PublicationOnly);
@@ -51,6 +54,7 @@ public sealed class CachedHull
     {
         if (_wireStability.TryGetValue(id, out WireEntryStability? wire)) return wire;
         wire = WireMapping.ToWire(StabilityOf(id), formulaAsStored);
+        _counters?.CountEntryAnswerMade();
         return _wireStability.GetOrAdd(id, wire);
     }
 

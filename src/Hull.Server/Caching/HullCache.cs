@@ -83,7 +83,7 @@ public sealed class HullCache
         {
             Counters.CountHullBuild();
             IReadOnlyList<PhaseEntry> entries = snapshot.EntriesWithin(elements);
-            return new CachedHull(SystemHull.OverElements(entries, references.References, elements));
+            return new CachedHull(SystemHull.OverElements(entries, references.References, elements), Counters);
         }, Counters.CountHullHit, cancellation);
     }
 
@@ -109,7 +109,7 @@ public sealed class HullCache
         return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, "end-members:" + system, references.KeyFor(basis.Elements)), _maxHulls, () =>
         {
             Counters.CountHullBuild();
-            return new CachedHull(EndMemberHull.Build(snapshot.EntriesWithin(basis.Elements), basis, references.References));
+            return new CachedHull(EndMemberHull.Build(snapshot.EntriesWithin(basis.Elements), basis, references.References), Counters);
         }, Counters.CountHullHit, cancellation);
     }
 
