@@ -51,6 +51,9 @@ public sealed record BenchOptions
     /// <summary>The PostgreSQL the screening uses (Npgsql connection string); null = a throwaway one it starts and stops.</summary>
     public string? PostgresConnection { get; init; }
 
+    /// <summary>The screening's setups by members (0 = the lone server); null = all three.</summary>
+    public int[]? ScreeningSetups { get; init; }
+
     /// <summary>Compositions the screening asks (default 1e5; 1e4 with --quick).</summary>
     public int? ScreeningQueries { get; init; }
 
@@ -93,6 +96,7 @@ public sealed record BenchOptions
                                member and three members over one PostgreSQL (--reps interleaved); prints only
           --postgres CONN      the screening's PostgreSQL (default: a throwaway one, scripts/postgres-throwaway.sh)
           --queries N          compositions the screening asks (default 100000)
+          --setups 0,1,3       the screening's setups: 0 = lone server, 1 and 3 = cluster members (default all)
           --cold-variant "A B" the arguments of --cold-start's second kind of server (default "--warm-hulls 0")
           --compare-server DLL only this server against another build's Hull.Server.dll (--reps fresh servers each, interleaved); prints only
           --server-dll DLL     the server build to measure (default: this checkout's)
@@ -130,6 +134,7 @@ public sealed record BenchOptions
                 "--cold-start" => options with { ColdStartOnly = true, OutputPath = null },
                 "--cluster-screening" => options with { ClusterScreeningOnly = true, OutputPath = null },
                 "--postgres" => options with { PostgresConnection = Value() },
+                "--setups" => options with { ScreeningSetups = Value().Split(',').Select(c => int.Parse(c, CultureInfo.InvariantCulture)).ToArray() },
                 "--queries" => options with { ScreeningQueries = Positive(Value(), "--queries") },
                 "--cold-variant" => options with { ColdVariantArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },
                 "--compare-server" => options with { CompareServerDll = Path.GetFullPath(Value()), OutputPath = null },

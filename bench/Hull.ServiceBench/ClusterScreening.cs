@@ -83,7 +83,8 @@ public static class ClusterScreening
             }
 
             Console.WriteLine($"store writes: session {session.EntriesPerSecond:N0} entries/s; per call {perCall.Batches / perCall.Seconds:F1} versions/s");
-            ScreeningSetup[] setups = [new("lone server", 1, false), new("1 cluster member", 1, true), new("3 cluster members", 3, true)];
+            ScreeningSetup[] setups = [.. new ScreeningSetup[] { new("lone server", 1, false), new("1 cluster member", 1, true), new("3 cluster members", 3, true) }
+                .Where(s => options.ScreeningSetups is null || options.ScreeningSetups.Contains(s.Clustered ? s.Servers : 0))];
             double[]? reference = null;
             var passes = new List<ScreeningPass>();
             for (int rep = 0; rep < options.Repetitions; rep++)
@@ -155,6 +156,16 @@ public static class ClusterScreening
             }
 
             return (passes, energies);
+        }
+        catch (Exception)
+        {
+            for (int i = 0; i < servers.Length; i++)
+            {
+                Console.Error.WriteLine($"-- server {i} ({(servers[i].HasExited ? "exited" : "running")}), its last log lines:");
+                Console.Error.WriteLine(servers[i].LastErrors());
+            }
+
+            throw;
         }
         finally
         {
