@@ -71,11 +71,12 @@ internal static class ClusteredStability
 
     /// <summary>
     /// A grain call that failed because the member holding the grain is gone or cut off (not because the caller gave
-    /// up): the receiving member answers that part itself.
+    /// up): the receiving member answers that part itself. A cancellation the caller did not ask for is the runtime
+    /// abandoning the call (its holder stopping, say) and counts as one.
     /// </summary>
     internal static bool IsUnreachable(Exception e, CancellationToken cancellation) =>
         !cancellation.IsCancellationRequested &&
-        e is SiloUnavailableException or OrleansMessageRejectionException or ConnectionFailedException or TimeoutException;
+        e is SiloUnavailableException or OrleansMessageRejectionException or ConnectionFailedException or TimeoutException or OperationCanceledException;
 
     /// <summary>
     /// The request's rows grouped by chemical system (in the order of each system's first row), each group asked of
