@@ -45,6 +45,18 @@ public sealed record BenchOptions
     /// <summary>Only measure fresh servers' first second against their warm rate (--reps fresh servers per case); prints only.</summary>
     public bool ColdStartOnly { get; init; }
 
+    /// <summary>Only the cluster screening run (lone server, one member, three members over one PostgreSQL); prints only.</summary>
+    public bool ClusterScreeningOnly { get; init; }
+
+    /// <summary>The PostgreSQL the screening uses (Npgsql connection string); null = a throwaway one it starts and stops.</summary>
+    public string? PostgresConnection { get; init; }
+
+    /// <summary>The screening's setups by members (0 = the lone server); null = all three.</summary>
+    public int[]? ScreeningSetups { get; init; }
+
+    /// <summary>Compositions the screening asks (default 1e5; 1e4 with --quick).</summary>
+    public int? ScreeningQueries { get; init; }
+
     /// <summary>The arguments of --cold-start's second kind of server (default: no startup warming).</summary>
     public string[] ColdVariantArgs { get; init; } = ["--warm-hulls", "0"];
 
@@ -83,6 +95,11 @@ public sealed record BenchOptions
           --output-formats     only `hull analyze` of the warm dataset, --json against --csv (--reps times, interleaved); prints only
           --cold-start         only fresh servers' first second against their warm rate (--reps servers per case); prints only;
                                with --compare-server, this build's fresh servers against the other's, interleaved
+          --cluster-screening  only the screening run: 1e5 compositions of the 60-element dataset on a lone server, one cluster
+                               member and three members over one PostgreSQL (--reps interleaved); prints only
+          --postgres CONN      the screening's PostgreSQL (default: a throwaway one, scripts/postgres-throwaway.sh)
+          --queries N          compositions the screening asks (default 100000)
+          --setups 0,1,3       the screening's setups: 0 = lone server, 1 and 3 = cluster members (default all)
           --cold-variant "A B" the arguments of --cold-start's second kind of server (default "--warm-hulls 0")
           --compare-server DLL only this server against another build's Hull.Server.dll (--reps fresh servers each, interleaved); prints only
           --server-dll DLL     the server build to measure (default: this checkout's)
@@ -119,6 +136,10 @@ public sealed record BenchOptions
                 "--import-only" => options with { ImportOnly = true, OutputPath = null },
                 "--output-formats" => options with { OutputFormatsOnly = true, OutputPath = null },
                 "--cold-start" => options with { ColdStartOnly = true, OutputPath = null },
+                "--cluster-screening" => options with { ClusterScreeningOnly = true, OutputPath = null },
+                "--postgres" => options with { PostgresConnection = Value() },
+                "--setups" => options with { ScreeningSetups = Value().Split(',').Select(c => int.Parse(c, CultureInfo.InvariantCulture)).ToArray() },
+                "--queries" => options with { ScreeningQueries = Positive(Value(), "--queries") },
                 "--cold-variant" => options with { ColdVariantArgs = Value().Split(' ', StringSplitOptions.RemoveEmptyEntries) },
                 "--compare-server" => options with { CompareServerDll = Path.GetFullPath(Value()), OutputPath = null },
                 "--server-dll" => options with { ServerDll = Path.GetFullPath(Value()) },

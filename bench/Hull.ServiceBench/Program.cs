@@ -50,6 +50,12 @@ if (options.ColdStartOnly)
     return 0;
 }
 
+if (options.ClusterScreeningOnly)
+{
+    Console.WriteLine(await ClusterScreening.RunAsync(serverDll, root, options));
+    return 0;
+}
+
 if (options.CompareServerDll is not null)
 {
     Console.WriteLine(await ServerComparison.RunAsync(serverDll, options.CompareServerDll, options));

@@ -28,7 +28,11 @@ public sealed class ServerProcess : IDisposable
     public bool HasExited => _process.HasExited;
 
     /// <summary>Starts the server on a free loopback port and waits for its "listening" line.</summary>
-    public static async Task<ServerProcess> StartAsync(string serverDll, string dataDirectory, IEnumerable<string>? extraArgs = null)
+    public static Task<ServerProcess> StartAsync(string serverDll, string dataDirectory, IEnumerable<string>? extraArgs = null) =>
+        StartWithArgumentsAsync(serverDll, new[] { "--data-dir", dataDirectory, "--port", "0", "--host", "127.0.0.1" }.Concat(extraArgs ?? []));
+
+    /// <summary>Starts the server with exactly these arguments (its store and port among them) and waits for its "listening" line.</summary>
+    public static async Task<ServerProcess> StartWithArgumentsAsync(string serverDll, IEnumerable<string> arguments)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -36,7 +40,7 @@ public sealed class ServerProcess : IDisposable
             RedirectStandardError = true,
             UseShellExecute = false,
         };
-        foreach (string arg in new[] { serverDll, "--data-dir", dataDirectory, "--port", "0", "--host", "127.0.0.1" }.Concat(extraArgs ?? []))
+        foreach (string arg in arguments.Prepend(serverDll))
         {
             start.ArgumentList.Add(arg);
         }

@@ -92,19 +92,19 @@ public sealed class ClusterTests
         Cluster = new ClusterSettings("hull-test", FreePort(), FreePort(), store),
     };
 
-    private static Task CreateAsync(RunningServer server) =>
+    internal static Task CreateAsync(RunningServer server) =>
         Data.CreateWithAsync(server.Clients, "cl",
             Data.Formation("li", "Li", 0.0), Data.Formation("o", "O", 0.0), Data.Formation("co", "Co", 0.0),
             Data.Formation("li2o", "Li2O", -2.07), Data.Formation("lio2", "LiO2", -0.9), Data.Formation("coo", "CoO", -1.2),
             Data.Formation("licoo2", "LiCoO2", -1.8));
 
-    private static async Task<int> ActiveMembersAsync(RunningServer server)
+    internal static async Task<int> ActiveMembersAsync(RunningServer server, int expected = 2)
     {
-        // Membership settles within a few probe rounds; ask until both are in, or give up after half a minute.
+        // Membership settles within a few probe rounds; ask until all are in, or give up after half a minute.
         for (int attempt = 0; ; attempt++)
         {
             int active = server.Server.ClusterStatus!.ActiveMembers;
-            if (active >= 2 || attempt == 60) return active;
+            if (active >= expected || attempt == 60) return active;
             await Task.Delay(500);
         }
     }

@@ -4,9 +4,15 @@ namespace Hull.Server.Cluster;
 public sealed class ClusterCounters
 {
     private long _grainHullBuilds;
+    private long _grainCallsCancelled;
 
     /// <summary>System hulls this server built as the cluster's holder of them.</summary>
     public long GrainHullBuilds => Interlocked.Read(ref _grainHullBuilds);
+
+    /// <summary>Calls to this server's grains that ended because their caller cancelled or its deadline passed.</summary>
+    public long GrainCallsCancelled => Interlocked.Read(ref _grainCallsCancelled);
+
+    internal void CountGrainCallCancelled() => Interlocked.Increment(ref _grainCallsCancelled);
 
     internal void CountGrainHullBuild() => Interlocked.Increment(ref _grainHullBuilds);
 }

@@ -9,6 +9,9 @@ namespace Hull.Server.Cluster;
 /// <summary>Makes a server one member (silo) of a cluster; the gRPC front is unchanged.</summary>
 internal static class ClusterHosting
 {
+    /// <summary>The longest a part of a request waits for its system's grain when the caller gave no deadline.</summary>
+    public static readonly TimeSpan GrainCallTimeout = TimeSpan.FromMinutes(10);
+
     public static void Join(WebApplicationBuilder builder, ClusterSettings cluster)
     {
         builder.Services.AddSingleton(cluster);
@@ -23,6 +26,13 @@ internal static class ClusterHosting
             silo.ConfigureEndpoints(cluster.PeerAddress, cluster.PeerPort, cluster.GatewayPort, listenOnAnyHostAddress: false);
             silo.Services.AddSingleton<IMembershipTable>(services =>
                 new PostgresMembershipTable(services.GetRequiredService<NpgsqlDataSource>(), cluster.ClusterName));
+            silo.Configure<SiloMessagingOptions>(o =>
+            {
+                // The caller's deadline or cancel ends a grain call (it reaches the grain); this only bounds a call
+                // whose caller set none. Orleans' default of 30 s made a loaded member's queued parts time out and be
+                // answered again by the receiving member, building their hulls twice.
+                o.ResponseTimeout = GrainCallTimeout;
+            });
             silo.Configure<ClusterMembershipOptions>(o =>
             {
                 // A member that stops answering is declared dead after about three missed probes of two seconds, so

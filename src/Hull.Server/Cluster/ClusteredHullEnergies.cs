@@ -23,25 +23,11 @@ internal static class ClusteredHullEnergies
     {
         // Systems in the order of their first formula, so that the first refusal is the one a lone server, which
         // answers formula by formula, would give.
-        var bySystem = new Dictionary<string, List<int>>(StringComparer.Ordinal);
-        var order = new List<string>();
-        for (int i = 0; i < compositions.Count; i++)
-        {
-            string system = string.Join('-', compositions[i].Elements);
-            if (!bySystem.TryGetValue(system, out List<int>? rows))
-            {
-                bySystem[system] = rows = [];
-                order.Add(system);
-            }
-
-            rows.Add(i);
-        }
-
+        List<(string System, List<int> Rows)> groups = ClusteredStability.BySystem([.. compositions.Select(c => c.Elements)]);
         var calls = new List<(List<int> Rows, Task<GetHullEnergiesResponse> Answer)>();
         RpcException? limit = null;
-        foreach (string system in order)
+        foreach ((string system, List<int> rows) in groups)
         {
-            List<int> rows = bySystem[system];
             try
             {
                 // Refused here, as a lone server refuses it, rather than as a peer's failure.
@@ -57,7 +43,7 @@ internal static class ClusteredHullEnergies
             part.ElementalReferences.AddRange(request.ElementalReferences);
             part.Formulas.AddRange(rows.Select(i => request.Formulas[i]));
             string key = SystemHullKey.Of(snapshot.Version, system, references.KeyFor(compositions[rows[0]].Elements));
-            calls.Add((rows, PartAsync(grains.GetGrain<ISystemHullGrain>(key), system, part, logger,
+            calls.Add((rows, PartAsync(grains.GetGrain<ISystemHullGrain>(key), system, part, logger, cancellation,
                 () => HullEnergies.AnswerAsync(part, [.. rows.Select(i => compositions[i])], references, snapshot, cache, null, cancellation))));
         }
 
@@ -84,14 +70,15 @@ internal static class ClusteredHullEnergies
     /// itself, with the same code and data, so that a member's loss costs time, not answers.
     /// </summary>
     private static async Task<GetHullEnergiesResponse> PartAsync(
-        ISystemHullGrain grain, string system, GetHullEnergiesRequest part, ILogger? logger, Func<Task<(GetHullEnergiesResponse Response, CachedHull? Hull)>> locally)
+        ISystemHullGrain grain, string system, GetHullEnergiesRequest part, ILogger? logger, CancellationToken cancellation,
+        Func<Task<(GetHullEnergiesResponse Response, CachedHull? Hull)>> locally)
     {
         SystemHullAnswer answer;
         try
         {
-            answer = await grain.HullEnergiesAsync(part.ToByteArray());
+            answer = await grain.AnswerAsync(SystemHullQuestion.HullEnergies, part.ToByteArray(), cancellation);
         }
-        catch (Exception e) when (e is SiloUnavailableException or OrleansMessageRejectionException or ConnectionFailedException or TimeoutException)
+        catch (Exception e) when (ClusteredStability.IsUnreachable(e, cancellation))
         {
             logger?.LogWarning("Answering system {System} here: the member holding its hull is unreachable ({Error})",
                 system, e.GetType().Name);

@@ -7,8 +7,10 @@ namespace Hull.Server.Cluster;
 public interface ISystemHullGrain : IGrainWithStringKey
 {
     /// <summary>
-    /// Answers a hull-energy request whose formulas all lie in this grain's system: the request is the service's own
-    /// wire message (GetHullEnergiesRequest), the answer its response or refusal, so the grain layer only carries them.
+    /// Answers a request whose formulas or entries all lie in this grain's system: the request is the stability
+    /// service's own wire message for <paramref name="question"/>, the answer its response or refusal, so the grain
+    /// layer only carries them. The caller's cancellation (its deadline or cancel) reaches the grain's wait for the
+    /// version and the hull.
     /// </summary>
-    Task<SystemHullAnswer> HullEnergiesAsync(byte[] request);
+    Task<SystemHullAnswer> AnswerAsync(SystemHullQuestion question, byte[] request, CancellationToken cancellation);
 }

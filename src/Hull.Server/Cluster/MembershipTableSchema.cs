@@ -15,8 +15,9 @@ internal static class MembershipTableSchema
     public static async Task CreateAsync(NpgsqlConnection connection, string connectionString)
     {
         await using NpgsqlTransaction transaction = await connection.BeginTransactionAsync();
+        // The schema under the store's own lock, since a store beside these tables may be creating it at this moment.
+        Hull.Store.Postgres.PostgresSchemaCreation.CreateFirstSchema(connection, transaction, new NpgsqlConnectionStringBuilder(connectionString).SearchPath);
         var statements = new List<string> { $"SELECT pg_advisory_xact_lock({CreationLock})" };
-        if (FirstSchema(connectionString) is { } schema) statements.Add($"CREATE SCHEMA IF NOT EXISTS \"{schema.Replace("\"", "\"\"", StringComparison.Ordinal)}\"");
         statements.Add(
             "CREATE TABLE IF NOT EXISTS cluster_membership_versions (cluster_id text COLLATE \"C\" PRIMARY KEY, version integer NOT NULL, etag bigint NOT NULL)");
         statements.Add(
@@ -31,11 +32,5 @@ internal static class MembershipTableSchema
         }
 
         await transaction.CommitAsync();
-    }
-
-    private static string? FirstSchema(string connectionString)
-    {
-        string? first = new NpgsqlConnectionStringBuilder(connectionString).SearchPath?.Split(',')[0].Trim().Trim('"');
-        return string.IsNullOrEmpty(first) ? null : first;
     }
 }

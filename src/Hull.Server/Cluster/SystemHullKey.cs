@@ -11,6 +11,9 @@ public static class SystemHullKey
         string.Join(Separator, version.Dataset, version.Version.ToString(System.Globalization.CultureInfo.InvariantCulture),
             version.Fingerprint, system, references);
 
+    /// <summary>The chemical system ("Co-Li-O") named by a key made with <see cref="Of"/>.</summary>
+    public static string SystemOf(string key) => key.Split(Separator)[3];
+
     /// <summary>The version named by a key made with <see cref="Of"/>.</summary>
     public static VersionRef VersionOf(string key)
     {

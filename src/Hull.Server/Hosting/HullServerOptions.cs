@@ -41,7 +41,10 @@ public sealed record HullServerOptions
     public ServiceLimits Limits { get; init; } = ServiceLimits.Default;
 
     /// <summary>Hulls kept in the cache before the least recently used are dropped.</summary>
-    public int MaxCachedHulls { get; init; } = 512;
+    public int MaxCachedHulls { get; init; } = DefaultMaxCachedHulls;
+
+    /// <summary>The hull cache's size when --max-cached-hulls is not given.</summary>
+    public const int DefaultMaxCachedHulls = 512;
 
     /// <summary>Hulls of the latest versions built in the background once the server listens (see
     /// <see cref="StartupHullWarming"/>); 0, the default for servers started in-process, builds none. The server's

@@ -31,6 +31,7 @@ public static class ServerCommandLine
         new("--max-entries-per-system", "N", "default 50000"),
         new("--max-compositions-per-request", "N", "default 1000"),
         new("--max-message-bytes", "N", "largest request message (default 16777216)"),
+        new("--max-cached-hulls", "N", $"chemical-system hulls kept in memory before the least recently used is dropped (default {HullServerOptions.DefaultMaxCachedHulls})"),
         new("--import-expiry-seconds", "N", "an import session not named by any call this long is removed with its staged rows (default 600)"),
         new("--warm-hulls", "N", $"once the port is bound, build up to N hulls of the datasets' latest versions in the background (default {HullServerOptions.DefaultWarmHulls}; 0 = none)"),
         new("--warm-before-ready", "SECONDS", "wait up to this long for that warming and a few of the server's own queries before saying it listens " +
@@ -169,6 +170,7 @@ public static class ServerCommandLine
                 WarmHullsOnStart = warmHulls,
                 Cluster = cluster,
                 WarmBeforeReady = TimeSpan.FromSeconds(warmBeforeReady),
+                MaxCachedHulls = PositiveInt(values, "--max-cached-hulls", HullServerOptions.DefaultMaxCachedHulls),
             };
         }
         catch (FormatException e)

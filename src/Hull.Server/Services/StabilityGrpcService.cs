@@ -24,17 +24,7 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         CheckCount(request.EntryIds.Count, "entry_ids", "entry id");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        var rows = new int[request.EntryIds.Count];
-        for (int i = 0; i < rows.Length; i++)
-        {
-            if (!snapshot.TryFind(request.EntryIds[i], out rows[i]))
-            {
-                throw RpcErrors.EntryNotFound(snapshot.Version.Dataset, snapshot.Version.Version, request.EntryIds[i],
-                    $"entry '{request.EntryIds[i]}' is not in dataset '{snapshot.Version.Dataset}' version {snapshot.Version.Version}",
-                    $"entry_ids[{i}]");
-            }
-        }
-
+        int[] rows = StabilityAnswers.RowsOf(request, snapshot);
         var response = new GetEntryStabilityResponse { Used = WireMapping.ToWire(snapshot.Version) };
         EndMemberBasis? basis = EndMemberList.Read(request.EndMembers, snapshot, "end_members");
         if (basis is not null)
@@ -57,18 +47,12 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             return response;
         }
 
-        var used = new HullsUsed();
-        foreach (int row in rows)
+        if (grains is not null && await Cluster.ClusteredStability.EntryStabilityAsync(grains, request, snapshot, rows, references, logger, context.CancellationToken) is { } clustered)
         {
-            PhaseEntry entry = snapshot.Entries[row];
-            CachedHull hull = await cache.GetHullAsync(snapshot, entry.Composition.Elements, context.CancellationToken, references);
-            used.Add(hull);
-            response.Results.Add(hull.WireStabilityOf(entry.Id, snapshot.FormulasAsStored[row]));
+            return clustered;
         }
 
-        response.Coverage.AddRange(used.Coverage);
-        response.References.AddRange(used.References);
-        return response;
+        return await StabilityAnswers.EntryStabilityAsync(request, snapshot, rows, Hulls(snapshot, references, context));
     }
 
     public override async Task<AssessCandidatesResponse> AssessCandidates(AssessCandidatesRequest request, ServerCallContext context)
@@ -104,44 +88,13 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         ThrowIfAny(violations);
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        var response = new AssessCandidatesResponse { Used = WireMapping.ToWire(snapshot.Version) };
-        var used = new HullsUsed();
-        var hulls = new CachedHull[compositions.Length];
-        var formations = new double[compositions.Length];
-        for (int i = 0; i < compositions.Length; i++)
+        if (grains is not null &&
+            await Cluster.ClusteredStability.AssessCandidatesAsync(grains, request, compositions, snapshot, references, logger, context.CancellationToken) is { } clustered)
         {
-            hulls[i] = await cache.GetHullAsync(snapshot, compositions[i].Elements, context.CancellationToken, references);
-            used.Add(hulls[i]);
-            formations[i] = FormationEnergyOf(request.Candidates[i], compositions[i], bases[i], hulls[i].Hull, references, i, used);
-            if (!FormationEnergyRange.Contains(formations[i]))
-            {
-                violations.Add(new($"candidates[{i}].energy_ev",
-                    $"{FormationEnergyRange.Describe(formations[i])} (implied by the total energy and the elemental references); check the number and its basis"));
-            }
+            return clustered;
         }
 
-        ThrowIfAny(violations);
-        for (int i = 0; i < compositions.Length; i++)
-        {
-            Candidate candidate = request.Candidates[i];
-            CachedHull hull = hulls[i];
-            CandidateStability assessed = hull.Hull.Assess(compositions[i], formations[i]);
-            response.Results.Add(new CandidateAssessment
-            {
-                Label = candidate.Label,
-                Formula = candidate.Formula,
-                ChemicalSystem = hull.Hull.SystemName,
-                FormationEnergyEvPerAtom = WireMapping.FormationOf(assessed.FormationEnergyEvPerAtom),
-                EnergyRelativeToHullEvPerAtom = assessed.EnergyRelativeToHullEvPerAtom,
-                EnergyAboveHullEvPerAtom = assessed.EnergyAboveHullEvPerAtom,
-                IsOnOrBelowHull = assessed.IsOnOrBelowHull,
-                Decomposition = WireMapping.ToWire(assessed.Decomposition),
-            });
-        }
-
-        response.Coverage.AddRange(used.Coverage);
-        response.References.AddRange(used.References);
-        return response;
+        return await StabilityAnswers.AssessCandidatesAsync(request, compositions, bases, snapshot, references, Hulls(snapshot, references, context));
     }
 
     public override async Task<GetHullEnergiesResponse> GetHullEnergies(GetHullEnergiesRequest request, ServerCallContext context)
@@ -176,19 +129,18 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
             return onEndMembers;
         }
 
-        var response = new GetStablePhasesResponse
-        {
-            Used = WireMapping.ToWire(snapshot.Version),
-            ChemicalSystem = elements is null ? string.Empty : string.Join('-', elements),
-        };
         if (elements is not null)
         {
-            CachedHull hull = await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
-            response.Phases.AddRange(hull.Hull.StablePhases.OrderBy(p => p.Id, StringComparer.Ordinal).Select(WireMapping.ToWire));
-            response.Coverage.Add(WireMapping.ToWire(hull.Hull.Coverage));
-            response.References.AddRange(hull.Hull.References.Select(WireMapping.ToWire));
-            return response;
+            if (grains is not null &&
+                await Cluster.ClusteredStability.StablePhasesAsync(grains, request, elements, snapshot, references, logger, context.CancellationToken) is { } clustered)
+            {
+                return clustered;
+            }
+
+            return StabilityAnswers.StablePhases(snapshot, elements, await cache.GetHullAsync(snapshot, elements, context.CancellationToken, references));
         }
+
+        var response = new GetStablePhasesResponse { Used = WireMapping.ToWire(snapshot.Version), ChemicalSystem = string.Empty };
 
         // The whole dataset from its analysis: a vertex is a vertex in every hull that holds it, and the synthetic
         // corners are the elements no hull system has an entry of. A system that cannot be analysed is reported, not
@@ -206,20 +158,18 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         IReadOnlyList<string>? elements = request.EndMembers.Count > 0 ? null : ChemicalSystemText.Parse(request.ChemicalSystem, "chemical_system");
         ElementalReferenceList references = ElementalReferenceList.Parse(request.ElementalReferences);
         VersionSnapshot snapshot = await SnapshotAsync(request.Dataset, request.Version, context);
-        CachedHull hull = await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, references, context)
-                          ?? await cache.GetHullAsync(snapshot, elements!, context.CancellationToken, references);
-        var response = new GetHullFacetsResponse
+        if (await EndMemberHullAsync(request.EndMembers, request.ChemicalSystem, snapshot, references, context) is { } pseudo)
         {
-            Used = WireMapping.ToWire(snapshot.Version),
-            ChemicalSystem = hull.Hull.SystemName,
-        };
-        response.Components.AddRange(hull.Hull.Components);
-        response.Facets.AddRange(hull.Hull.Facets.Select(WireMapping.ToWire));
-        response.TieLines.AddRange(hull.Hull.TieLines.Select(WireMapping.ToWire));
-        response.StablePhases.AddRange(hull.Hull.StablePhases.Select(WireMapping.ToWire));
-        response.Coverage.Add(WireMapping.ToWire(hull.Hull.Coverage));
-        response.References.AddRange(hull.Hull.References.Select(WireMapping.ToWire));
-        return response;
+            return StabilityAnswers.Facets(snapshot, pseudo);
+        }
+
+        if (grains is not null &&
+            await Cluster.ClusteredStability.FacetsAsync(grains, request, elements!, snapshot, references, logger, context.CancellationToken) is { } clustered)
+        {
+            return clustered;
+        }
+
+        return StabilityAnswers.Facets(snapshot, await cache.GetHullAsync(snapshot, elements!, context.CancellationToken, references));
     }
 
     public override async Task AnalyzeDataset(AnalyzeDatasetRequest request, IServerStreamWriter<AnalyzeDatasetResponse> responseStream, ServerCallContext context)
@@ -282,6 +232,10 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         return await cache.GetSnapshotAsync(resolved, context.CancellationToken);
     }
 
+    /// <summary>This server's hulls of the call's version, from its own cache.</summary>
+    private SystemHullSource Hulls(VersionSnapshot snapshot, ElementalReferenceList references, ServerCallContext context) =>
+        elements => cache.GetHullAsync(snapshot, elements, context.CancellationToken, references);
+
     private void CheckCount(int count, string field, string what)
     {
         if (count == 0) throw RpcErrors.InvalidArgument(field, $"no {what} given; send at least one");
@@ -314,47 +268,6 @@ public sealed class StabilityGrpcService(VersionResolver versions, HullCache cac
         if (violations.Count > 0)
         {
             throw RpcErrors.InvalidArgument(BatchValidation.Summarize("the request was refused", violations), violations);
-        }
-    }
-
-    /// <summary>
-    /// The candidate's formation energy per atom. A total energy needs a reference for each of its elements: the
-    /// caller's explicit one, else the version's (the lowest pure-element total energy per atom); an element with
-    /// neither is FAILED_PRECONDITION. References taken for the candidate are recorded in <paramref name="used"/>.
-    /// </summary>
-    private static double FormationEnergyOf(
-        Candidate candidate, Composition composition, ThermoBasis basis, SystemHull hull, ElementalReferenceList explicitReferences,
-        int index, HullsUsed used)
-    {
-        string id = candidate.Label.Length > 0 ? candidate.Label : $"candidates[{index}]";
-        var entry = new PhaseEntry(id, composition, candidate.EnergyEv, basis);
-        if (!entry.IsTotalEnergy) return entry.EnergyEvPerAtom;
-
-        // The caller's explicit reference of an element wins over the version's; the rule itself lives in Core.
-        var references = new List<Core.Thermo.ElementReference>();
-        foreach (string element in composition.Elements)
-        {
-            if (explicitReferences.TryGet(element, out double given))
-            {
-                references.Add(new Core.Thermo.ElementReference(element, given, null));
-            }
-            else if (hull.References.FirstOrDefault(r => string.Equals(r.Symbol, element, StringComparison.Ordinal)) is { } stored)
-            {
-                references.Add(stored);
-            }
-        }
-
-        try
-        {
-            double formation = FormationEnergies.OfCandidate(entry, references);
-            foreach (Core.Thermo.ElementReference reference in references) used.AddReference(reference);
-            return formation;
-        }
-        catch (ThermoInputException e) when (e.Element is { } element)
-        {
-            throw RpcErrors.MissingElementalReference(element,
-                $"candidates[{index}] ({candidate.Formula}): {e.Message} Give one in elemental_references (hull --reference {element}=ENERGY).",
-                [new FieldViolation($"candidates[{index}].basis", $"missing elemental reference for {element}")]);
         }
     }
 

@@ -56,10 +56,14 @@ public sealed partial class PostgresDatasetStore : IDatasetStore
         try
         {
             using NpgsqlConnection connection = OpenConnection(source, location);
-            string? schema = FirstSearchPathSchema(builder.SearchPath);
             try
             {
-                if (schema is not null) PostgresSchemaMigrator.CreateSchema(connection, QuoteIdentifier(schema));
+                using (NpgsqlTransaction transaction = connection.BeginTransaction())
+                {
+                    PostgresSchemaCreation.CreateFirstSchema(connection, transaction, builder.SearchPath);
+                    transaction.Commit();
+                }
+
                 PostgresSchemaMigrator.Migrate(connection, location, clock);
             }
             catch (Exception e) when (IsUnavailable(e))
@@ -214,15 +218,7 @@ public sealed partial class PostgresDatasetStore : IDatasetStore
 
     private static string Describe(NpgsqlConnectionStringBuilder builder)
     {
-        string schema = FirstSearchPathSchema(builder.SearchPath) is { } s ? $" (schema {s})" : string.Empty;
+        string schema = PostgresSchemaCreation.FirstSchema(builder.SearchPath) is { } s ? $" (schema {s})" : string.Empty;
         return $"postgresql://{builder.Username}@{builder.Host}:{builder.Port}/{builder.Database}{schema}";
     }
-
-    private static string? FirstSearchPathSchema(string? searchPath)
-    {
-        string? first = searchPath?.Split(',')[0].Trim().Trim('"');
-        return string.IsNullOrEmpty(first) ? null : first;
-    }
-
-    private static string QuoteIdentifier(string name) => "\"" + name.Replace("\"", "\"\"", StringComparison.Ordinal) + "\"";
 }

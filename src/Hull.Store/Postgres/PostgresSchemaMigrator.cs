@@ -7,27 +7,8 @@ namespace Hull.Store.Postgres;
 internal static class PostgresSchemaMigrator
 {
     // Any number of servers may start at once on one database: the steps run under one advisory lock, so each
-    // step runs once. The key is an arbitrary constant of ours (hull store migrations).
-    private const long MigrationLockKey = 0x4855_4C4C_4D49_4752;
-
-    /// <summary>
-    /// Creates the store's schema unless it exists. CREATE SCHEMA IF NOT EXISTS alone is not safe when several servers
-    /// start at once (two may both find it missing and one fails on the catalogue's unique key), so it runs under
-    /// the migration lock.
-    /// </summary>
-    public static void CreateSchema(NpgsqlConnection connection, string quotedSchema)
-    {
-        using NpgsqlTransaction transaction = connection.BeginTransaction();
-        using (NpgsqlCommand lockCommand = connection.Command(transaction, "SELECT pg_advisory_xact_lock(@k)").With("@k", MigrationLockKey))
-        {
-            lockCommand.ExecuteNonQuery();
-        }
-        using (NpgsqlCommand create = connection.Command(transaction, $"CREATE SCHEMA IF NOT EXISTS {quotedSchema}"))
-        {
-            create.ExecuteNonQuery();
-        }
-        transaction.Commit();
-    }
+    // step runs once.
+    private const long MigrationLockKey = PostgresSchemaCreation.MigrationLockKey;
 
     /// <summary>
     /// Creates or upgrades the schema, one recorded step per transaction. Refuses, before writing anything, a
