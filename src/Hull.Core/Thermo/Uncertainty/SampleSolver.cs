@@ -24,6 +24,8 @@ internal sealed class SampleSolver
     private readonly bool[] _inBlock;
     private readonly int _nearCapacity;
     private readonly Dictionary<ulong, FaceBlock> _faces = [];
+    private readonly int[] _decomposition;
+    private readonly int[] _decompositionLength;
     private long _sample;
 
     public SampleSolver(LocalPrograms local)
@@ -45,7 +47,8 @@ internal sealed class SampleSolver
         Representative = new int[local.CompositionCount];
         IsVertexComposition = new bool[local.CompositionCount];
         HullEnergy = new double[local.CompositionCount];
-        Decomposition = new int[local.CompositionCount][];
+        _decomposition = new int[local.CompositionCount * rows];
+        _decompositionLength = new int[local.CompositionCount];
     }
 
     /// <summary>Per composition, the sample's representative (its lowest kept point, lowest index among equals), or -1.</summary>
@@ -57,8 +60,8 @@ internal sealed class SampleSolver
     /// <summary>Per composition, the hull energy there (eV/atom; the representative's energy at a vertex).</summary>
     public double[] HullEnergy { get; }
 
-    /// <summary>Per composition that is no vertex, its decomposition into hull vertices (points, ascending).</summary>
-    public int[][] Decomposition { get; }
+    /// <summary>Composition <paramref name="c"/>'s decomposition into hull vertices (points, ascending; empty at a vertex).</summary>
+    public ReadOnlySpan<int> DecompositionOf(int c) => _decomposition.AsSpan(c * _local.MaxRows, _decompositionLength[c]);
 
     /// <summary>Programs of the last sample solved over their whole face (the bound did not settle them).</summary>
     public int WholeFacePrograms { get; private set; }
@@ -91,7 +94,7 @@ internal sealed class SampleSolver
         _sample++;
         for (int c = 0; c < m; c++)
         {
-            Decomposition[c] = [];
+            _decompositionLength[c] = 0;
             if (local.IsPure[c])
             {
                 IsVertexComposition[c] = true;
@@ -155,7 +158,7 @@ internal sealed class SampleSolver
             }
             else
             {
-                Decomposition[c] = PositivePoints(solvedOver, basis, weights);
+                _decompositionLength[c] = PositivePoints(solvedOver, basis, weights, DecompositionSpace(c));
             }
         }
 
@@ -163,7 +166,7 @@ internal sealed class SampleSolver
         // others): solved again over the vertices only, which gives the same energy into vertices.
         for (int c = 0; c < m; c++)
         {
-            if (IsVertexComposition[c] || AllVertices(Decomposition[c])) continue;
+            if (IsVertexComposition[c] || AllVertices(DecompositionOf(c))) continue;
             int[] components = local.Components[c];
             int k = components.Length;
             int count = 0;
@@ -179,7 +182,7 @@ internal sealed class SampleSolver
             var weights = _weights.AsSpan(0, k);
             _solver.ForgetCandidates();
             _solver.Solve(_face, x, excluded: -1, basis, weights, warm: false);
-            Decomposition[c] = PositivePoints(_face, basis, weights);
+            _decompositionLength[c] = PositivePoints(_face, basis, weights, DecompositionSpace(c));
         }
     }
 
@@ -282,7 +285,7 @@ internal sealed class SampleSolver
         return added;
     }
 
-    private bool AllVertices(int[] points)
+    private bool AllVertices(ReadOnlySpan<int> points)
     {
         foreach (int p in points) if (!IsVertexPoint(p)) return false;
         return true;
@@ -304,17 +307,18 @@ internal sealed class SampleSolver
         return true;
     }
 
-    private static int[] PositivePoints(ColumnBlock block, ReadOnlySpan<int> basis, ReadOnlySpan<double> weights)
+    private Span<int> DecompositionSpace(int c) => _decomposition.AsSpan(c * _local.MaxRows, _local.MaxRows);
+
+    // The points of the basis with a positive weight, ascending, written to points; returns how many.
+    private static int PositivePoints(ColumnBlock block, ReadOnlySpan<int> basis, ReadOnlySpan<double> weights, Span<int> points)
     {
         int kept = 0;
-        for (int i = 0; i < basis.Length; i++) if (weights[i] > HullTolerances.BarycentricWeight) kept++;
-        var points = new int[kept];
-        for (int i = 0, j = 0; i < basis.Length; i++)
+        for (int i = 0; i < basis.Length; i++)
         {
-            if (weights[i] > HullTolerances.BarycentricWeight) points[j++] = block.Points[basis[i]];
+            if (weights[i] > HullTolerances.BarycentricWeight) points[kept++] = block.Points[basis[i]];
         }
 
-        Array.Sort(points);
-        return points;
+        points[..kept].Sort();
+        return kept;
     }
 }
