@@ -63,6 +63,9 @@ internal sealed class SampleSolver
     /// <summary>Composition <paramref name="c"/>'s decomposition into hull vertices (points, ascending; empty at a vertex).</summary>
     public ReadOnlySpan<int> DecompositionOf(int c) => _decomposition.AsSpan(c * _local.MaxRows, _decompositionLength[c]);
 
+    /// <summary>Compositions of the last sample shown to be vertices by the lower bound alone, with no program solved.</summary>
+    public int BoundVertices { get; private set; }
+
     /// <summary>Programs of the last sample solved over their whole face (the bound did not settle them).</summary>
     public int WholeFacePrograms { get; private set; }
 
@@ -91,6 +94,7 @@ internal sealed class SampleSolver
         }
 
         WholeFacePrograms = 0;
+        BoundVertices = 0;
         _sample++;
         for (int c = 0; c < m; c++)
         {
@@ -99,6 +103,18 @@ internal sealed class SampleSolver
             {
                 IsVertexComposition[c] = true;
                 HullEnergy[c] = energy[Representative[c]];
+                continue;
+            }
+
+            // The plane μ0 + min δ lies below every point at its sampled energy, so the program's optimum is at
+            // least PlainValue + min δ (less the plain solve's entering threshold): a representative below that,
+            // by a margin past the rounding, is a vertex whatever the program would find.
+            int lowest = Representative[c];
+            if (lowest >= 0 && energy[lowest] < local.PlainValue[c] + lowestShift - StabilitySampling.CandidateMarginEvPerAtom - HullTolerances.EnergyEvPerAtom)
+            {
+                IsVertexComposition[c] = true;
+                HullEnergy[c] = energy[lowest];
+                BoundVertices++;
                 continue;
             }
 
