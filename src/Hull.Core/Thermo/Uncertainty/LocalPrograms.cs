@@ -10,7 +10,8 @@ namespace Hull.Core.Thermo.Uncertainty;
 /// <remarks>
 /// A sample moves every energy by its error δ_j. For a point j of c's face, its reduced cost against the sample's
 /// plane μ is E_j + δ_j − μ·x_j = r0_j + δ_j − (μ − μ0)·x_j, where r0_j is its plain reduced cost against the plain
-/// plane μ0; the fractions x_j are non-negative and sum to 1, so that is at least r0_j + min δ − max_k (μ − μ0)_k.
+/// plane μ0; the fractions x_j are non-negative and sum to 1, so that is at least r0_j + min δ − max_k (μ − μ0)_k,
+/// min δ the lowest error among the points of c's face.
 /// The sample's program is therefore solved over the near points only, and its optimum holds over every point when
 /// <see cref="Threshold"/> + min δ − max_k (μ − μ0)_k stays at or above the solver's entering threshold; otherwise it
 /// is solved over the whole face (see <see cref="SampleSolver"/>).

@@ -26,6 +26,9 @@ internal sealed class SampleSolver
     private readonly Dictionary<ulong, FaceBlock> _faces = [];
     private readonly int[] _decomposition;
     private readonly int[] _decompositionLength;
+    private readonly int[][] _facePoints;
+    private readonly int[] _faceOf;
+    private readonly double[] _faceLowestShift;
     private long _sample;
 
     public SampleSolver(LocalPrograms local)
@@ -49,6 +52,10 @@ internal sealed class SampleSolver
         HullEnergy = new double[local.CompositionCount];
         _decomposition = new int[local.CompositionCount * rows];
         _decompositionLength = new int[local.CompositionCount];
+        ulong[] faces = [.. local.FacePoints.Keys.Order()];
+        _facePoints = [.. faces.Select(f => local.FacePoints[f])];
+        _faceOf = [.. local.Masks.Select(mask => Array.IndexOf(faces, mask))];
+        _faceLowestShift = new double[faces.Length];
     }
 
     /// <summary>Per composition, the sample's representative (its lowest kept point, lowest index among equals), or -1.</summary>
@@ -78,8 +85,15 @@ internal sealed class SampleSolver
         LocalPrograms local = _local;
         HullInput input = local.Input;
         int m = local.CompositionCount;
-        double lowestShift = 0;
-        foreach (double d in shift) lowestShift = Math.Min(lowestShift, d);
+        // The lowest error of each face's points (and never above zero): the bounds below need it only over the
+        // points a composition's program can use, and a face of few components holds few points.
+        for (int f = 0; f < _facePoints.Length; f++)
+        {
+            double lowest = 0;
+            foreach (int p in _facePoints[f]) lowest = Math.Min(lowest, shift[p]);
+            _faceLowestShift[f] = lowest;
+        }
+
         for (int c = 0; c < m; c++)
         {
             int rep = -1;
@@ -109,11 +123,12 @@ internal sealed class SampleSolver
             // The plane μ0 + min δ lies below every point at its sampled energy, so the program's optimum is at
             // least PlainValue + min δ (less the plain solve's entering threshold): a representative below that,
             // by a margin past the rounding, is a vertex whatever the program would find.
-            int lowest = Representative[c];
-            if (lowest >= 0 && energy[lowest] < local.PlainValue[c] + lowestShift - StabilitySampling.CandidateMarginEvPerAtom - HullTolerances.EnergyEvPerAtom)
+            double lowestShift = _faceLowestShift[_faceOf[c]];
+            int own = Representative[c];
+            if (own >= 0 && energy[own] < local.PlainValue[c] + lowestShift - StabilitySampling.CandidateMarginEvPerAtom - HullTolerances.EnergyEvPerAtom)
             {
                 IsVertexComposition[c] = true;
-                HullEnergy[c] = energy[lowest];
+                HullEnergy[c] = energy[own];
                 BoundVertices++;
                 continue;
             }
@@ -159,9 +174,9 @@ internal sealed class SampleSolver
                 WholeFacePrograms++;
                 FaceBlock face = Face(c, energy);
                 for (int i = 0; i < k; i++) basis[i] = face.ColumnOf[_near.Points[basis[i]]];
-                int own = Representative[c] >= 0 ? face.ColumnOf[Representative[c]] : -1;
+                int ownColumn = own >= 0 ? face.ColumnOf[own] : -1;
                 _solver.ForgetCandidates();
-                value = _solver.Solve(face.Block, x, own, basis, weights, warm: true);
+                value = _solver.Solve(face.Block, x, ownColumn, basis, weights, warm: true);
                 solvedOver = face.Block;
             }
 
