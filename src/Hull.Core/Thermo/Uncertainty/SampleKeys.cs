@@ -33,6 +33,20 @@ internal sealed class SampleKeys
         return id;
     }
 
+    /// <summary>As <see cref="Intern(ReadOnlySpan{int})"/>, keeping <paramref name="key"/> itself when it is new (it is never changed after).</summary>
+    public int InternShared(int[] key)
+    {
+        if (_ids.TryGetValue(key, out int id))
+        {
+            return id;
+        }
+
+        id = _keys.Count;
+        _keys.Add(key);
+        _ids.Add(key, id);
+        return id;
+    }
+
     /// <summary>Orders keys as sequences (the tie-break of the most frequent key).</summary>
     public static int Compare(int[] x, int[] y) => x.AsSpan().SequenceCompareTo(y);
 

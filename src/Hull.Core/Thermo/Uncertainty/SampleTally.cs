@@ -254,7 +254,7 @@ internal sealed class SampleTally
 
         if (ids[id] < 0)
         {
-            ids[id] = _keys.Intern(worker.Keys[id]);
+            ids[id] = _keys.InternShared(worker.Keys[id]);
         }
 
         return ids[id];
