@@ -159,7 +159,7 @@ internal sealed class SampleSolver
             // again from its optimum, until none does and the bound covers every point past the last one checked.
             while (true)
             {
-                int added = AddRankedBelow(c, lowestShift, energy, shift, ref count, out settled);
+                int added = AddRankedBelow(c, lowestShift, energy, ref count, out settled);
                 if (added == 0) break;
                 for (int i = 0; i < k; i++) _start[i] = _near.Points[basis[i]];
                 _near.Refill(components, _columnBuffer.AsSpan(0, count), input, energy);
@@ -273,7 +273,7 @@ internal sealed class SampleSolver
     /// plane (by more than the solver's entering threshold) to the column buffer. Returns how many were appended;
     /// <paramref name="settled"/> tells whether the bound covered every point of the face past those checked.
     /// </summary>
-    private int AddRankedBelow(int c, double lowestShift, double[] energy, double[] shift, ref int count, out bool settled)
+    private int AddRankedBelow(int c, double lowestShift, double[] energy, ref int count, out bool settled)
     {
         ReadOnlySpan<double> mu = _solver.Plane;
         double[] plain = _local.PlainPlane[c];
@@ -297,8 +297,6 @@ internal sealed class SampleSolver
 
             int p = ranked[t];
             if (!_isColumn[p] || _inBlock[p]) continue;
-            // Its own error bounds it too (r0 + δ_p − the largest rise): far enough above, its cost is not needed.
-            if (rankedCost[t] + shift[p] - largestRise >= below + HullTolerances.EnergyEvPerAtom) continue;
             var xp = _local.Input.FractionsOf(p);
             double cost = energy[p];
             for (int r = 0; r < components.Length; r++) cost -= mu[r] * xp[components[r]];
