@@ -8,9 +8,10 @@ using Hull.Bench.Suites;
 //                                   the suites time the Native AOT executable of bench/Hull.Solve instead)
 if (args.Length == 0)
 {
-    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep|uncertainty> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
+    Console.Error.WriteLine("usage: Hull.Bench <hull3d4d|hull6d8d|families|engine-choice|dataset60|figures|windows|defect-ewald|electrochemistry|fermi-sweep|uncertainty|uncertainty-threads> [--reps N] [--proc-reps N] [--qconvex-cap SECONDS] [--lp-sample N] [--seed N] [--quick]");
     Console.Error.WriteLine("       Hull.Bench solve-file POINTS");
     Console.Error.WriteLine("       Hull.Bench engines-file POINTS [REPS]");
+    Console.Error.WriteLine("       Hull.Bench uncertainty-once dense|sparse [THREADS [SAMPLES [SEED]]]");
     return 2;
 }
 if (args[0] == "solve-file")
@@ -41,6 +42,12 @@ if (args[0] == "write-points")
     pts.WriteAmountsFile(args[6]);
     pts.WriteQhullFile(args[6] + ".qhull");
     return 0;
+}
+
+if (args[0] == "uncertainty-once")
+{
+    // uncertainty-once dense|sparse [THREADS [SAMPLES [SEED]]]: one timed sampling run, for comparing builds in turn.
+    return UncertaintyThreadsSuite.RunOnce(args[1..]);
 }
 
 if (args[0] == "dataset-once")
@@ -84,6 +91,7 @@ try
         FamiliesSuite.Name => FamiliesSuite.Run(options, work, repoRoot),
         FermiSweepSuite.Name => FermiSweepSuite.Run(options, repoRoot),
         UncertaintySuite.Name => UncertaintySuite.Run(options),
+        UncertaintyThreadsSuite.Name => UncertaintyThreadsSuite.Run(options),
         _ => throw new ArgumentException($"unknown suite '{suite}' (hull3d4d, hull6d8d, families, engine-choice, dataset60, figures, windows, defect-ewald, electrochemistry, fermi-sweep)"),
     };
     report += $"\nSuite wall time: {total.Elapsed.TotalMinutes:F1} min.\n";

@@ -19,15 +19,13 @@ public static class UncertaintySuite
 {
     public const string Name = "uncertainty";
 
-    private const int Entries = 2_000;
     private const int TargetSamples = 1_000;
     private const double TargetSeconds = 5;
-    private static readonly string[] Elements = ["Co", "Li", "Mn", "Ni", "O"];
 
     public static string Run(BenchOptions options)
     {
         int reps = options.Quick ? 1 : options.InProcessReps ?? 3;
-        int entries = options.Scale(Entries);
+        int entries = options.Scale(UncertaintyBenchSystem.Entries);
         var report = new StringBuilder();
         report.AppendLine($"# Uncertainty: stability sampling of {entries} entries in 5 components\n");
         report.AppendLine($"Command: `{options.CommandLine}`; machine: {MachineInfo.Describe()}; load average at start {FiguresSuite.LoadAverage()}; medians of {reps} repetitions after a 20-sample warm-up; the plain way over 10 samples after one.");
@@ -36,13 +34,8 @@ public static class UncertaintySuite
         report.AppendLine("|---|---:|---:|---|---:|---:|---:|---:|---:|---:|---:|---|");
         foreach (EnergyDistribution distribution in new[] { EnergyDistribution.Dense, EnergyDistribution.Sparse })
         {
-            PointSet points = LatticeGenerator.Generate(Elements.Length, entries, LatticeGenerator.SmallCellMaxAtoms, distribution, options.Seed);
-            PhaseEntry[] rows = points.Amounts.Select((a, i) => new PhaseEntry(
-                $"e{i:00000}", FiguresSuite.Formula(Elements, a), points.EnergiesEvPerAtom[i], EnergyBasis.FormationPerAtom)).ToArray();
-            SystemHull plain = SystemHull.OverElements(rows);
-            EnergyUncertainty[] sigma = rows.Select((r, i) => new EnergyUncertainty(
-                r.Id, r.Composition.Elements.Count > 1 ? 0.02 : 0.0, r.Composition.Elements.Count > 1 && i % 4 == 0 ? "method-b" : null)).ToArray();
-            CorrelationGroup[] groups = [new("method-b", 0.01)];
+            var system = UncertaintyBenchSystem.Generate(distribution, entries, options.Seed);
+            (PhaseEntry[] rows, SystemHull plain, EnergyUncertainty[] sigma, CorrelationGroup[] groups) = system;
             double plainPerSample = PlainWayMsPerSample(rows, sigma, options.Seed, options.Quick ? 3 : 10);
             // Warm-up (JIT, the plain hull's lazy parts) on a short run, so that every repetition below is timed.
             _ = StabilitySampling.Run(plain, sigma, groups, SamplingPlan.Fixed(20, 1), 2);

@@ -10,10 +10,13 @@ namespace Hull.Core.Thermo.Uncertainty;
 /// <remarks>
 /// A sample moves every energy by its error δ_j. For a point j of c's face, its reduced cost against the sample's
 /// plane μ is E_j + δ_j − μ·x_j = r0_j + δ_j − (μ − μ0)·x_j, where r0_j is its plain reduced cost against the plain
-/// plane μ0; the fractions x_j are non-negative and sum to 1, so that is at least r0_j + min δ − max_k (μ − μ0)_k.
+/// plane μ0; the fractions x_j are non-negative and sum to 1, so that is at least r0_j + min δ − max_k (μ − μ0)_k,
+/// min δ the lowest error among the points of c's face.
 /// The sample's program is therefore solved over the near points only, and its optimum holds over every point when
 /// <see cref="Threshold"/> + min δ − max_k (μ − μ0)_k stays at or above the solver's entering threshold; otherwise it
 /// is solved over the whole face (see <see cref="SampleSolver"/>).
+/// The same argument with μ = μ0 + min δ (every component alike) bounds the sample's optimum from below by
+/// <see cref="PlainValue"/> + min δ: a composition whose representative lies below that needs no program at all.
 /// </remarks>
 internal sealed class LocalPrograms
 {
@@ -69,6 +72,9 @@ internal sealed class LocalPrograms
 
     /// <summary>Per composition, the plain program's optimal plane over its components (eV/atom).</summary>
     public double[][] PlainPlane { get; private init; } = [];
+
+    /// <summary>Per composition, the plain program's optimum: the hull energy there over every other composition (eV/atom; +∞ for a pure one).</summary>
+    public double[] PlainValue { get; private init; } = [];
 
     /// <summary>Per composition, the plain program's optimal basis (points).</summary>
     public int[][] PlainBasis { get; private init; } = [];
@@ -126,6 +132,7 @@ internal sealed class LocalPrograms
         var rankedCost = new double[m][];
         var threshold = new double[m];
         var plainPlane = new double[m][];
+        var plainValue = new double[m];
         var plainBasis = new int[m][];
         // Each composition's program and ranking is its own (the same on any thread); threads share nothing else.
         Parallel.For(0, m, new ParallelOptions { MaxDegreeOfParallelism = Math.Max(1, threads) }, () => new PrepareScratch(maxRows, n), (c, _, scratch) =>
@@ -137,6 +144,7 @@ internal sealed class LocalPrograms
                 rankedCost[c] = [];
                 threshold[c] = double.PositiveInfinity;
                 plainPlane[c] = [];
+                plainValue[c] = double.PositiveInfinity;
                 plainBasis[c] = [];
                 return scratch;
             }
@@ -158,7 +166,7 @@ internal sealed class LocalPrograms
             var basis = basisAll.AsSpan(0, k);
             var weights = weightsAll.AsSpan(0, k);
             solver.ForgetCandidates();
-            solver.Solve(block, x, excluded: -1, basis, weights, warm: false);
+            plainValue[c] = solver.Solve(block, x, excluded: -1, basis, weights, warm: false);
             double[] mu = solver.Plane.ToArray();
             plainPlane[c] = mu;
             plainBasis[c] = new int[k];
@@ -202,6 +210,7 @@ internal sealed class LocalPrograms
             RankedCost = rankedCost,
             Threshold = threshold,
             PlainPlane = plainPlane,
+            PlainValue = plainValue,
             PlainBasis = plainBasis,
             FacePoints = facePoints,
             MaxRows = maxRows,

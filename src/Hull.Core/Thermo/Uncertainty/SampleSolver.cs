@@ -24,6 +24,11 @@ internal sealed class SampleSolver
     private readonly bool[] _inBlock;
     private readonly int _nearCapacity;
     private readonly Dictionary<ulong, FaceBlock> _faces = [];
+    private readonly int[] _decomposition;
+    private readonly int[] _decompositionLength;
+    private readonly int[][] _facePoints;
+    private readonly int[] _faceOf;
+    private readonly double[] _faceLowestShift;
     private long _sample;
 
     public SampleSolver(LocalPrograms local)
@@ -45,7 +50,12 @@ internal sealed class SampleSolver
         Representative = new int[local.CompositionCount];
         IsVertexComposition = new bool[local.CompositionCount];
         HullEnergy = new double[local.CompositionCount];
-        Decomposition = new int[local.CompositionCount][];
+        _decomposition = new int[local.CompositionCount * rows];
+        _decompositionLength = new int[local.CompositionCount];
+        ulong[] faces = [.. local.FacePoints.Keys.Order()];
+        _facePoints = [.. faces.Select(f => local.FacePoints[f])];
+        _faceOf = [.. local.Masks.Select(mask => Array.IndexOf(faces, mask))];
+        _faceLowestShift = new double[faces.Length];
     }
 
     /// <summary>Per composition, the sample's representative (its lowest kept point, lowest index among equals), or -1.</summary>
@@ -57,8 +67,11 @@ internal sealed class SampleSolver
     /// <summary>Per composition, the hull energy there (eV/atom; the representative's energy at a vertex).</summary>
     public double[] HullEnergy { get; }
 
-    /// <summary>Per composition that is no vertex, its decomposition into hull vertices (points, ascending).</summary>
-    public int[][] Decomposition { get; }
+    /// <summary>Composition <paramref name="c"/>'s decomposition into hull vertices (points, ascending; empty at a vertex).</summary>
+    public ReadOnlySpan<int> DecompositionOf(int c) => _decomposition.AsSpan(c * _local.MaxRows, _decompositionLength[c]);
+
+    /// <summary>Compositions of the last sample shown to be vertices by the lower bound alone, with no program solved.</summary>
+    public int BoundVertices { get; private set; }
 
     /// <summary>Programs of the last sample solved over their whole face (the bound did not settle them).</summary>
     public int WholeFacePrograms { get; private set; }
@@ -72,8 +85,15 @@ internal sealed class SampleSolver
         LocalPrograms local = _local;
         HullInput input = local.Input;
         int m = local.CompositionCount;
-        double lowestShift = 0;
-        foreach (double d in shift) lowestShift = Math.Min(lowestShift, d);
+        // The lowest error of each face's points (and never above zero): the bounds below need it only over the
+        // points a composition's program can use, and a face of few components holds few points.
+        for (int f = 0; f < _facePoints.Length; f++)
+        {
+            double lowest = 0;
+            foreach (int p in _facePoints[f]) lowest = Math.Min(lowest, shift[p]);
+            _faceLowestShift[f] = lowest;
+        }
+
         for (int c = 0; c < m; c++)
         {
             int rep = -1;
@@ -88,14 +108,28 @@ internal sealed class SampleSolver
         }
 
         WholeFacePrograms = 0;
+        BoundVertices = 0;
         _sample++;
         for (int c = 0; c < m; c++)
         {
-            Decomposition[c] = [];
+            _decompositionLength[c] = 0;
             if (local.IsPure[c])
             {
                 IsVertexComposition[c] = true;
                 HullEnergy[c] = energy[Representative[c]];
+                continue;
+            }
+
+            // The plane μ0 + min δ lies below every point at its sampled energy, so the program's optimum is at
+            // least PlainValue + min δ (less the plain solve's entering threshold): a representative below that,
+            // by a margin past the rounding, is a vertex whatever the program would find.
+            double lowestShift = _faceLowestShift[_faceOf[c]];
+            int own = Representative[c];
+            if (own >= 0 && energy[own] < local.PlainValue[c] + lowestShift - StabilitySampling.CandidateMarginEvPerAtom - HullTolerances.EnergyEvPerAtom)
+            {
+                IsVertexComposition[c] = true;
+                HullEnergy[c] = energy[own];
+                BoundVertices++;
                 continue;
             }
 
@@ -140,9 +174,9 @@ internal sealed class SampleSolver
                 WholeFacePrograms++;
                 FaceBlock face = Face(c, energy);
                 for (int i = 0; i < k; i++) basis[i] = face.ColumnOf[_near.Points[basis[i]]];
-                int own = Representative[c] >= 0 ? face.ColumnOf[Representative[c]] : -1;
+                int ownColumn = own >= 0 ? face.ColumnOf[own] : -1;
                 _solver.ForgetCandidates();
-                value = _solver.Solve(face.Block, x, own, basis, weights, warm: true);
+                value = _solver.Solve(face.Block, x, ownColumn, basis, weights, warm: true);
                 solvedOver = face.Block;
             }
 
@@ -155,7 +189,7 @@ internal sealed class SampleSolver
             }
             else
             {
-                Decomposition[c] = PositivePoints(solvedOver, basis, weights);
+                _decompositionLength[c] = PositivePoints(solvedOver, basis, weights, DecompositionSpace(c));
             }
         }
 
@@ -163,7 +197,7 @@ internal sealed class SampleSolver
         // others): solved again over the vertices only, which gives the same energy into vertices.
         for (int c = 0; c < m; c++)
         {
-            if (IsVertexComposition[c] || AllVertices(Decomposition[c])) continue;
+            if (IsVertexComposition[c] || AllVertices(DecompositionOf(c))) continue;
             int[] components = local.Components[c];
             int k = components.Length;
             int count = 0;
@@ -179,7 +213,7 @@ internal sealed class SampleSolver
             var weights = _weights.AsSpan(0, k);
             _solver.ForgetCandidates();
             _solver.Solve(_face, x, excluded: -1, basis, weights, warm: false);
-            Decomposition[c] = PositivePoints(_face, basis, weights);
+            _decompositionLength[c] = PositivePoints(_face, basis, weights, DecompositionSpace(c));
         }
     }
 
@@ -282,7 +316,7 @@ internal sealed class SampleSolver
         return added;
     }
 
-    private bool AllVertices(int[] points)
+    private bool AllVertices(ReadOnlySpan<int> points)
     {
         foreach (int p in points) if (!IsVertexPoint(p)) return false;
         return true;
@@ -304,17 +338,18 @@ internal sealed class SampleSolver
         return true;
     }
 
-    private static int[] PositivePoints(ColumnBlock block, ReadOnlySpan<int> basis, ReadOnlySpan<double> weights)
+    private Span<int> DecompositionSpace(int c) => _decomposition.AsSpan(c * _local.MaxRows, _local.MaxRows);
+
+    // The points of the basis with a positive weight, ascending, written to points; returns how many.
+    private static int PositivePoints(ColumnBlock block, ReadOnlySpan<int> basis, ReadOnlySpan<double> weights, Span<int> points)
     {
         int kept = 0;
-        for (int i = 0; i < basis.Length; i++) if (weights[i] > HullTolerances.BarycentricWeight) kept++;
-        var points = new int[kept];
-        for (int i = 0, j = 0; i < basis.Length; i++)
+        for (int i = 0; i < basis.Length; i++)
         {
-            if (weights[i] > HullTolerances.BarycentricWeight) points[j++] = block.Points[basis[i]];
+            if (weights[i] > HullTolerances.BarycentricWeight) points[kept++] = block.Points[basis[i]];
         }
 
-        Array.Sort(points);
-        return points;
+        points[..kept].Sort();
+        return kept;
     }
 }

@@ -1,38 +1,29 @@
-using System.Collections.Concurrent;
-
 namespace Hull.Core.Thermo.Uncertainty;
 
 /// <summary>
-/// Every sample's reading of every entry (vertex or not, energy above hull, decomposition), stored by sample index so
-/// that parallel samples never share a slot and the summary sums in sample order. Decompositions and stable sets are
-/// interned as sorted canonical point indices.
+/// Every sample's reading of every entry (vertex or not, energy above hull, decomposition), one row per sample: a
+/// sample's worker hands its whole row over at once, into a place of its own (rows of different samples share no
+/// memory but at their ends). Each worker interns its decompositions and stable sets (sorted canonical point
+/// indices) in its own <see cref="SampleKeys"/>; once the samples are done their ids are merged into the tally's,
+/// in sample order, so the tally is the same whichever worker drew which sample.
 /// </summary>
 internal sealed class SampleTally
 {
     private readonly int _entries;
-    private readonly ConcurrentDictionary<int[], int> _keyIds = new(KeyComparer.Instance);
-    private readonly List<int[]> _keys = [];
-    private readonly Lock _keysLock = new();
-    private double[][] _above;
-    private bool[][] _vertex;
-    private int[][] _products;
+    private readonly SampleKeys _keys = new();
+    private readonly List<SampleScratch> _workers = [];
+    private SamplingSetup? _setup;
+    private double[] _above = [];
+    private bool[] _vertex = [];
+    private int[] _products = [];
     private int[] _stableSets = [];
     private int[] _rebuilt = [];
-    private long[] _vertexCounts;
+    private int[] _workerOf = [];
+    private readonly long[] _vertexCounts;
 
     public SampleTally(int entries)
     {
         _entries = entries;
-        _above = new double[entries][];
-        _vertex = new bool[entries][];
-        _products = new int[entries][];
-        for (int e = 0; e < entries; e++)
-        {
-            _above[e] = [];
-            _vertex[e] = [];
-            _products[e] = [];
-        }
-
         _vertexCounts = new long[entries];
     }
 
@@ -40,53 +31,69 @@ internal sealed class SampleTally
     public int Count { get; private set; }
 
     /// <summary>
-    /// Draws samples <paramref name="first"/> .. first + count − 1 on up to <paramref name="threads"/> threads. The
-    /// loop checks <paramref name="cancellation"/> before each sample and, once cancelled, throws after the samples
-    /// under way have finished (none is left running).
+    /// Draws samples <paramref name="first"/> .. first + count − 1 on up to <paramref name="threads"/> workers, each
+    /// taking the next sample not yet taken. A worker checks <paramref name="cancellation"/> before each sample; once
+    /// it is cancelled, the call throws after the samples under way have finished (none is left running).
     /// </summary>
     public void Run(SamplingSetup setup, ulong seed, int first, int count, int threads, CancellationToken cancellation)
     {
-        Grow(first + count);
-        // Each thread keeps one solver for its samples; a sample's answer depends on nothing the solver kept.
-        Parallel.For(first, first + count, new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = cancellation },
-            () => setup.Local is null ? null : new SampleSolver(setup.Local),
-            (s, _, solver) =>
-            {
-                StabilitySampling.SampleOne(setup, seed, s, this, s, solver);
-                return solver;
-            },
-            _ => { });
-        for (int e = 0; e < _entries; e++)
+        if (_setup is not null && !ReferenceEquals(_setup, setup))
         {
-            bool[] flags = _vertex[e];
-            for (int s = first; s < first + count; s++)
-            {
-                if (flags[s])
-                {
-                    _vertexCounts[e]++;
-                }
-            }
+            throw new InvalidOperationException("A tally samples one setup.");
         }
 
-        Count = first + count;
+        _setup = setup;
+        Grow(first + count);
+        int workers = Math.Max(1, Math.Min(threads, count));
+        // Each worker keeps its scratch (and solver) from call to call; a sample's answer depends on nothing kept.
+        while (_workers.Count < workers)
+        {
+            _workers.Add(new SampleScratch(setup));
+        }
+
+        int next = first - 1;
+        int end = first + count;
+        Parallel.For(0, workers, new ParallelOptions { MaxDegreeOfParallelism = workers }, (w, state) =>
+        {
+            SampleScratch scratch = _workers[w];
+            while (!state.ShouldExitCurrentIteration && !cancellation.IsCancellationRequested)
+            {
+                int s = Interlocked.Increment(ref next);
+                if (s >= end)
+                {
+                    break;
+                }
+
+                _workerOf[s] = w;
+                StabilitySampling.SampleOne(setup, seed, s, this, scratch);
+            }
+        });
+        cancellation.ThrowIfCancellationRequested();
+        Merge(first, end);
+        Count = end;
     }
 
-    public void Record(int entry, int sample, bool isVertex, double aboveEvPerAtom, int[] products)
+    /// <summary>
+    /// Sample <paramref name="sample"/>'s row from <paramref name="scratch"/> (its worker's): per entry vertex flag,
+    /// energy above hull and decomposition id, the stable set's id (both in the worker's keys) and how many points
+    /// the sample's hull was rebuilt over.
+    /// </summary>
+    public void RecordRow(int sample, SampleScratch scratch, int stableSet, int pointsRebuilt)
     {
-        _vertex[entry][sample] = isVertex;
-        _above[entry][sample] = aboveEvPerAtom;
-        _products[entry][sample] = Intern(products);
-    }
-
-    public void RecordStableSet(int sample, int[] vertexPoints, int pointsRebuilt)
-    {
-        _stableSets[sample] = Intern(vertexPoints);
+        int at = sample * _entries;
+        scratch.RowVertex.AsSpan().CopyTo(_vertex.AsSpan(at, _entries));
+        scratch.RowAbove.AsSpan().CopyTo(_above.AsSpan(at, _entries));
+        scratch.RowProducts.AsSpan().CopyTo(_products.AsSpan(at, _entries));
+        _stableSets[sample] = stableSet;
         _rebuilt[sample] = pointsRebuilt;
     }
 
     /// <summary>Sample <paramref name="sample"/>'s reading of entry <paramref name="entry"/> (decomposition as canonical point indices).</summary>
-    public (bool IsVertex, double AboveEvPerAtom, int[] Products) Reading(int entry, int sample) =>
-        (_vertex[entry][sample], _above[entry][sample], _keys[_products[entry][sample]]);
+    public (bool IsVertex, double AboveEvPerAtom, int[] Products) Reading(int entry, int sample)
+    {
+        int at = sample * _entries + entry;
+        return (_vertex[at], _above[at], _keys[_products[at]]);
+    }
 
     /// <summary>Sample <paramref name="sample"/>'s hull vertices (canonical point indices, ascending).</summary>
     public int[] StableSet(int sample) => _keys[_stableSets[sample]];
@@ -109,13 +116,18 @@ internal sealed class SampleTally
         int n = Count;
         var odds = new List<(int Row, EntryStabilityOdds Odds)>(_entries);
         var probable = new List<string>();
+        var values = new double[n];
         for (int e = 0; e < _entries; e++)
         {
             int i = setup.EntryPoints[e];
             HullPoint point = plain.PointAt(i);
             string id = point.Phase.Id;
             double p = (double)_vertexCounts[e] / n;
-            double[] values = _above[e].AsSpan(0, n).ToArray();
+            for (int s = 0; s < n; s++)
+            {
+                values[s] = _above[s * _entries + e];
+            }
+
             // Summed as differences from the first value, so that equal values give that value exactly.
             double sum = 0;
             foreach (double v in values)
@@ -131,7 +143,7 @@ internal sealed class SampleTally
             }
 
             Array.Sort(values);
-            (int[] mode, int modeCount) = Mode(_products[e], n);
+            (int[] mode, int modeCount) = Mode(_products, e, _entries, n);
             EntryStability plainEntry = plain.GetEntry(id);
             odds.Add((point.RowIndex, new EntryStabilityOdds(
                 id,
@@ -154,7 +166,7 @@ internal sealed class SampleTally
             }
         }
 
-        (int[] stableSet, int stableCount) = Mode(_stableSets, n);
+        (int[] stableSet, int stableCount) = Mode(_stableSets, 0, 1, n);
         return new StabilitySamplingResult(
             plain.SystemName,
             HullAxis.FormationEnergy,
@@ -188,20 +200,22 @@ internal sealed class SampleTally
         return Math.Sqrt(p * (1 - p) / n);
     }
 
-    // The most frequent key; ties go to the smallest key in canonical order, so the answer is deterministic.
-    private (int[] Key, int Count) Mode(int[] ids, int n)
+    // The most frequent key among ids[start + s·stride] for s < n; ties go to the smallest key in canonical order,
+    // so the answer is deterministic.
+    private (int[] Key, int Count) Mode(int[] ids, int start, int stride, int n)
     {
         var counts = new Dictionary<int, int>();
         for (int s = 0; s < n; s++)
         {
-            counts[ids[s]] = counts.GetValueOrDefault(ids[s]) + 1;
+            int id = ids[start + s * stride];
+            counts[id] = counts.GetValueOrDefault(id) + 1;
         }
 
         int best = -1;
         int bestCount = 0;
         foreach ((int id, int c) in counts)
         {
-            if (c > bestCount || (c == bestCount && KeyComparer.Compare(_keys[id], _keys[best]) < 0))
+            if (c > bestCount || (c == bestCount && SampleKeys.Compare(_keys[id], _keys[best]) < 0))
             {
                 best = id;
                 bestCount = c;
@@ -211,25 +225,39 @@ internal sealed class SampleTally
         return (_keys[best], bestCount);
     }
 
-    private int Intern(int[] key)
+    // The workers' key ids of samples [first, end) become the tally's, met in sample order, and the vertex flags are counted.
+    private void Merge(int first, int end)
     {
-        if (_keyIds.TryGetValue(key, out int id))
+        for (int s = first; s < end; s++)
         {
-            return id;
-        }
-
-        lock (_keysLock)
-        {
-            if (_keyIds.TryGetValue(key, out id))
+            SampleScratch worker = _workers[_workerOf[s]];
+            _stableSets[s] = TallyId(worker, _stableSets[s]);
+            int at = s * _entries;
+            for (int e = 0; e < _entries; e++)
             {
-                return id;
+                _products[at + e] = TallyId(worker, _products[at + e]);
+                if (_vertex[at + e])
+                {
+                    _vertexCounts[e]++;
+                }
             }
-
-            id = _keys.Count;
-            _keys.Add(key);
-            _keyIds[key] = id;
-            return id;
         }
+    }
+
+    private int TallyId(SampleScratch worker, int id)
+    {
+        List<int> ids = worker.TallyIds;
+        while (ids.Count <= id)
+        {
+            ids.Add(-1);
+        }
+
+        if (ids[id] < 0)
+        {
+            ids[id] = _keys.InternShared(worker.Keys[id]);
+        }
+
+        return ids[id];
     }
 
     private void Grow(int total)
@@ -239,34 +267,14 @@ internal sealed class SampleTally
             return;
         }
 
-        int capacity = Math.Max(total, Math.Min(2 * _stableSets.Length, SamplingLimits.MaxSamples));
+        // Doubling, but never past the work limit's number of samples (every row holds every entry).
+        long cap = Math.Min(SamplingLimits.MaxSamples, SamplingLimits.MaxSampledValues / Math.Max(1, _entries));
+        int capacity = (int)Math.Max(total, Math.Min(2L * _stableSets.Length, cap));
         Array.Resize(ref _stableSets, capacity);
         Array.Resize(ref _rebuilt, capacity);
-        for (int e = 0; e < _entries; e++)
-        {
-            Array.Resize(ref _above[e], capacity);
-            Array.Resize(ref _vertex[e], capacity);
-            Array.Resize(ref _products[e], capacity);
-        }
-    }
-
-    private sealed class KeyComparer : IEqualityComparer<int[]>
-    {
-        public static KeyComparer Instance { get; } = new();
-
-        public bool Equals(int[]? x, int[]? y) => x.AsSpan().SequenceEqual(y);
-
-        public int GetHashCode(int[] key)
-        {
-            var hash = new HashCode();
-            foreach (int k in key)
-            {
-                hash.Add(k);
-            }
-
-            return hash.ToHashCode();
-        }
-
-        public static int Compare(int[] x, int[] y) => x.AsSpan().SequenceCompareTo(y);
+        Array.Resize(ref _workerOf, capacity);
+        Array.Resize(ref _above, capacity * _entries);
+        Array.Resize(ref _vertex, capacity * _entries);
+        Array.Resize(ref _products, capacity * _entries);
     }
 }

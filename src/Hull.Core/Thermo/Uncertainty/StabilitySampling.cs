@@ -21,8 +21,9 @@ namespace Hull.Core.Thermo.Uncertainty;
 /// when no other point can lie below the sample's plane (<see cref="LocalPrograms"/>, <see cref="SampleSolver"/>);
 /// the few programs the bound leaves open are solved over their whole face. The readings are those of the hull
 /// built over the kept entries (tested sample by sample).</para>
-/// <para>Samples run in parallel; each one's draws follow from the seed and its index alone, and every tally is
-/// summed in sample order afterwards, so the answer does not depend on the number of threads.</para>
+/// <para>Samples run in parallel, each worker with its own scratch space allocated once; each sample's draws follow
+/// from the seed and its index alone, its readings go to the tally as one row, and every tally is summed in sample
+/// order afterwards, so the answer does not depend on the number of threads (to the last bit).</para>
 /// </remarks>
 public static class StabilitySampling
 {
@@ -120,50 +121,56 @@ public static class StabilitySampling
 
     /// <summary>
     /// The per-sample work: draw, keep the entries that may be vertices, read the hull of those at every entry,
-    /// by the local programs when <paramref name="solver"/> is given (see <see cref="LocalPrograms"/>), else by
-    /// building that hull.
+    /// by the local programs when the worker has a solver (see <see cref="LocalPrograms"/>), else by building that
+    /// hull; the readings go to the tally as one row.
     /// </summary>
-    internal static void SampleOne(SamplingSetup setup, ulong seed, int sample, SampleTally tally, int slot, SampleSolver? solver)
+    internal static void SampleOne(SamplingSetup setup, ulong seed, int sample, SampleTally tally, SampleScratch scratch)
     {
         int n = setup.Plain.PointCount;
-        (double[] shift, double[] energy) = Draw(setup, seed, sample);
+        double[] shift = scratch.Shift;
+        double[] energy = scratch.Energy;
+        DrawInto(setup, seed, sample, scratch.GroupShift, shift, energy);
 
         if (Array.TrueForAll(shift, d => d == 0.0))
         {
             // No energy moved: the sample is the plain hull itself, read as it reads.
-            RecordPlain(setup, tally, slot);
+            RecordPlain(setup, tally, sample, scratch);
             return;
         }
 
-        var kept = new List<int>(n);
-        var sampleIndex = new int[n];
-        var isKept = new bool[n];
+        int[] sampleIndex = scratch.SampleIndex;
+        bool[] isKept = scratch.IsKept;
+        int[] kept = scratch.Kept;
+        int keptCount = 0;
         for (int i = 0; i < n; i++)
         {
             sampleIndex[i] = -1;
+            isKept[i] = false;
             if (setup.RebuildAll || setup.AlwaysKept[i] || LowerBoundAboveHull(setup, i, shift) <= CandidateMarginEvPerAtom)
             {
-                sampleIndex[i] = kept.Count;
+                sampleIndex[i] = keptCount;
                 isKept[i] = true;
-                kept.Add(i);
+                kept[keptCount++] = i;
             }
         }
 
-        if (solver is not null)
+        scratch.KeptCount = keptCount;
+        if (scratch.Solver is { } solver)
         {
-            ReadByLocalPrograms(setup, solver, energy, shift, isKept, kept.Count, tally, slot);
+            ReadByLocalPrograms(setup, solver, scratch, tally, sample);
             return;
         }
 
-        int[] keptPoints = kept.ToArray();
+        int[] keptPoints = kept[..keptCount];
         SystemHull hull = setup.Plain.Resampled(HullAxis.SampledEnergy(sample), keptPoints, energy);
-        var vertexSet = new int[hull.VertexPointIndices.Count];
-        for (int k = 0; k < vertexSet.Length; k++)
+        int[] points = scratch.Points;
+        int vertexCount = hull.VertexPointIndices.Count;
+        for (int k = 0; k < vertexCount; k++)
         {
-            vertexSet[k] = keptPoints[hull.VertexPointIndices[k]];
+            points[k] = keptPoints[hull.VertexPointIndices[k]];
         }
 
-        tally.RecordStableSet(slot, vertexSet, keptPoints.Length);
+        int stableSet = scratch.Keys.Intern(points.AsSpan(0, vertexCount));
         for (int e = 0; e < setup.EntryPoints.Length; e++)
         {
             int i = setup.EntryPoints[e];
@@ -176,24 +183,29 @@ public static class StabilitySampling
                 above = 0.0;
             }
 
-            int[] products;
+            int count;
             if (isVertex)
             {
-                products = [i];
+                points[0] = i;
+                count = 1;
             }
             else
             {
-                products = new int[position.VertexPoints.Count];
-                for (int p = 0; p < products.Length; p++)
+                count = position.VertexPoints.Count;
+                for (int p = 0; p < count; p++)
                 {
-                    products[p] = keptPoints[position.VertexPoints[p]];
+                    points[p] = keptPoints[position.VertexPoints[p]];
                 }
 
-                Array.Sort(products);
+                Array.Sort(points, 0, count);
             }
 
-            tally.Record(e, slot, isVertex, above, products);
+            scratch.RowVertex[e] = isVertex;
+            scratch.RowAbove[e] = above;
+            scratch.RowProducts[e] = scratch.Keys.Intern(points.AsSpan(0, count));
         }
+
+        tally.RecordRow(sample, scratch, stableSet, keptCount);
     }
 
     /// <summary>
@@ -203,17 +215,25 @@ public static class StabilitySampling
     internal static (double[] Shift, double[] Energy) Draw(SamplingSetup setup, ulong seed, int sample)
     {
         int n = setup.Plain.PointCount;
+        var shift = new double[n];
+        var energy = new double[n];
+        DrawInto(setup, seed, sample, new double[setup.Groups.Count], shift, energy);
+        return (shift, energy);
+    }
+
+    /// <summary>As <see cref="Draw"/>, into the given arrays (every element written).</summary>
+    private static void DrawInto(SamplingSetup setup, ulong seed, int sample, double[] groupShift, double[] shift, double[] energy)
+    {
+        int n = setup.Plain.PointCount;
         var random = new SampleRandom(seed, sample);
-        var groupShift = new double[setup.Groups.Count];
         for (int g = 0; g < groupShift.Length; g++)
         {
             groupShift[g] = setup.Groups[g].SigmaEvPerAtom * random.NextGaussian();
         }
 
-        var shift = new double[n];
-        var energy = new double[n];
         for (int i = 0; i < n; i++)
         {
+            shift[i] = 0.0;
             if (setup.IsEntry[i])
             {
                 // One draw per entry whatever its σ, so an entry's σ never moves another entry's stream.
@@ -223,46 +243,68 @@ public static class StabilitySampling
 
             energy[i] = setup.PlainEnergy[i] + shift[i];
         }
-
-        return (shift, energy);
     }
 
     /// <summary>The readings of one sample from the local programs: the same fields as the hull built over the kept points.</summary>
-    private static void ReadByLocalPrograms(
-        SamplingSetup setup, SampleSolver solver, double[] energy, double[] shift, bool[] isKept, int keptCount, SampleTally tally, int slot)
+    private static void ReadByLocalPrograms(SamplingSetup setup, SampleSolver solver, SampleScratch scratch, SampleTally tally, int sample)
     {
-        solver.Solve(energy, shift, isKept);
+        double[] energy = scratch.Energy;
+        solver.Solve(energy, scratch.Shift, scratch.IsKept);
         int[] compositionOf = setup.Local!.CompositionOf;
-        var vertices = new List<int>();
-        for (int i = 0; i < energy.Length; i++) if (solver.IsVertexPoint(i)) vertices.Add(i);
-        tally.RecordStableSet(slot, [.. vertices], keptCount);
+        int[] points = scratch.Points;
+        int vertexCount = 0;
+        for (int i = 0; i < energy.Length; i++) if (solver.IsVertexPoint(i)) points[vertexCount++] = i;
+        int stableSet = scratch.Keys.Intern(points.AsSpan(0, vertexCount));
         for (int e = 0; e < setup.EntryPoints.Length; e++)
         {
             int i = setup.EntryPoints[e];
             int c = compositionOf[i];
-            bool isVertex = solver.IsVertexPoint(i);
             double above = energy[i] - solver.HullEnergy[c];
             if (!(above > HullTolerances.EnergyEvPerAtom))
             {
                 above = 0.0;
             }
 
-            int[] products = solver.IsVertexComposition[c] ? [solver.Representative[c]] : solver.Decomposition[c];
-            tally.Record(e, slot, isVertex, above, products);
+            scratch.RowVertex[e] = solver.IsVertexPoint(i);
+            scratch.RowAbove[e] = above;
+            scratch.RowProducts[e] = solver.IsVertexComposition[c]
+                ? scratch.Keys.Intern(new ReadOnlySpan<int>(in solver.Representative[c]))
+                : scratch.Keys.Intern(solver.DecompositionOf(c));
         }
+
+        tally.RecordRow(sample, scratch, stableSet, scratch.KeptCount);
     }
 
-    private static void RecordPlain(SamplingSetup setup, SampleTally tally, int slot)
+    private static void RecordPlain(SamplingSetup setup, SampleTally tally, int sample, SampleScratch scratch)
     {
         SystemHull plain = setup.Plain;
-        tally.RecordStableSet(slot, [.. plain.VertexPointIndices], 0);
+        int[] points = scratch.Points;
+        int vertexCount = plain.VertexPointIndices.Count;
+        for (int k = 0; k < vertexCount; k++) points[k] = plain.VertexPointIndices[k];
+        int stableSet = scratch.Keys.Intern(points.AsSpan(0, vertexCount));
         for (int e = 0; e < setup.EntryPoints.Length; e++)
         {
             int i = setup.EntryPoints[e];
             bool isVertex = plain.IsVertexPoint(i);
-            int[] products = isVertex ? [i] : [.. setup.PlainProducts[i].Order()];
-            tally.Record(e, slot, isVertex, setup.PlainAbove[i], products);
+            int count;
+            if (isVertex)
+            {
+                points[0] = i;
+                count = 1;
+            }
+            else
+            {
+                count = setup.PlainProducts[i].Length;
+                setup.PlainProducts[i].CopyTo(points, 0);
+                Array.Sort(points, 0, count);
+            }
+
+            scratch.RowVertex[e] = isVertex;
+            scratch.RowAbove[e] = setup.PlainAbove[i];
+            scratch.RowProducts[e] = scratch.Keys.Intern(points.AsSpan(0, count));
         }
+
+        tally.RecordRow(sample, scratch, stableSet, 0);
     }
 
     // above_s ≥ (E_i − H(x_i)) + δ_i − Σ_j w_ij δ_j: the plain decomposition at sampled energies is a mixture at x_i,
