@@ -198,6 +198,13 @@ public sealed class CorrectionServiceTests : IAsyncLifetime
         Assert.Contains(", corrected with nbs-copper v1 from version 1", Figure(2));
         Assert.Contains("corrections=\"nbs-copper v1 from version 1\"", Figure(2));
         Assert.DoesNotContain("corrected with", Figure(1));
+        // Every figure kind writes its source through the same metadata attributes: a window figure, as one of them.
+        string Window(long version) => C.Windows.DrawWindowFigure(new DrawWindowFigureRequest
+        {
+            Dataset = "named", Version = version, Compound = new CompoundRef { EntryId = "Cu2O" },
+        }, C.Call()).Svg;
+        Assert.Contains("corrections=\"nbs-copper v1 from version 1\"", Window(2));
+        Assert.DoesNotContain("corrections=", Window(1));
     }
 
     // Two methods in Li–Co, worked by hand in the Core check (eV): aligning "hybrid" on LiCo shifts it by

@@ -159,7 +159,7 @@ public static class CarrierFigure
 
         string metadata = $"kind=\"carriers\" x-axis=\"{Escape(axis.Name)}\" x-unit=\"{Escape(axis.Unit)}\" defects=\"{Escape(string.Join(' ', names))}\" "
             + $"statistics=\"{solutions[0].Statistics.ToString().ToLowerInvariant()}\" form=\"{(solutions[0].Form is { } f ? f.ToString().ToLowerInvariant() : "frozen")}\""
-            + (source is null ? string.Empty : $" dataset=\"{Escape(source.Dataset)}\" version=\"{source.Version}\" content-sha256=\"{Escape(source.ContentSha256)}\"");
+            + (source is null ? string.Empty : " " + source.SvgAttributes());
         return canvas.Finish(plainTitle, metadata);
     }
 

@@ -156,7 +156,7 @@ public static class DefectFormationFigure
             FigurePalette.SmallFontSize, extra: "fill-opacity=\"0.8\"");
         string metadata =
             $"kind=\"defect-formation\" host=\"{Escape(input.HostFormula)}\" point=\"{Escape(input.PointLabel)}\" " +
-            $"dataset=\"{Escape(input.Metadata.Dataset)}\" version=\"{input.Metadata.Version}\" content-sha256=\"{Escape(input.Metadata.ContentSha256)}\" " +
+            input.Metadata.SvgAttributes() + " " +
             $"study=\"{Escape(input.StudyName)}\" study-version=\"{input.StudyVersion}\" band-gap-ev=\"{Num(input.BandGapEv, "R")}\"";
         string svg = canvas.Finish($"Defect formation energies in {input.HostFormula} at {input.PointLabel}", metadata);
         return new DefectFigureResult(svg, curves.Length, marked);

@@ -46,7 +46,7 @@ public static class ReactionProfileFigure
         chart.Footer("0 K energies stand in for Gibbs energies; kinetics may keep a reactive interface from reacting.", 1);
         string attributes = $"kind=\"reaction-profile\" system=\"{Escape(profile.ChemicalSystem)}\" first=\"{Escape(profile.First.Id)}\" second=\"{Escape(profile.Second.Id)}\""
             + $" energy-axis=\"{Escape(profile.Axis.DisplayName)}\" energy-unit=\"{Escape(profile.Axis.Unit)}\""
-            + (metadata is null ? string.Empty : $" dataset=\"{Escape(metadata.Dataset)}\" version=\"{metadata.Version}\" content-sha256=\"{Escape(metadata.ContentSha256)}\"");
+            + (metadata is null ? string.Empty : " " + metadata.SvgAttributes());
         return chart.Canvas.Finish($"Reaction of {a} with {b}", attributes);
     }
 

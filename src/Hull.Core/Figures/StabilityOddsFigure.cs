@@ -102,7 +102,7 @@ public static class StabilityOddsFigure
         canvas.Text(20, SimplexFigure.Height - 12, PhaseDiagram.Provenance(metadata), FigurePalette.SmallFontSize, extra: "fill-opacity=\"0.8\"");
         return canvas.Finish($"{system}: probability of being stable",
             $"kind=\"stability-odds\" system=\"{Escape(hull.SystemName)}\" components=\"{Escape(string.Join(' ', hull.Components))}\" " +
-            $"dataset=\"{Escape(metadata.Dataset)}\" version=\"{metadata.Version}\" content-sha256=\"{Escape(metadata.ContentSha256)}\" " +
+            metadata.SvgAttributes() + " " +
             string.Create(CultureInfo.InvariantCulture, $"samples=\"{odds.SampleCount}\" seed=\"{odds.Seed}\""));
     }
 

@@ -104,8 +104,7 @@ internal sealed class SvgCanvas
     public string Finish(FigureKind kind, FigureInput input, string title) => Finish(title,
         $"kind=\"{kind.ToString().ToLowerInvariant()}\" system=\"{Escape(input.SystemName)}\" " +
         $"components=\"{Escape(string.Join(' ', input.Components))}\" over-end-members=\"{(input.OverEndMembers ? "true" : "false")}\" " +
-        $"dataset=\"{Escape(input.Metadata.Dataset)}\" version=\"{input.Metadata.Version}\" content-sha256=\"{Escape(input.Metadata.ContentSha256)}\" " +
-        (input.Metadata.Corrections is { } corrections ? $"corrections=\"{Escape(corrections)}\" " : string.Empty) +
+        input.Metadata.SvgAttributes() + " " +
         $"energy-axis=\"{Escape(input.Axis.Name)}\" energy-unit=\"{Escape(input.Axis.Unit)}\"");
 
     /// <summary>The whole document with the metadata element's attributes given (already escaped).</summary>

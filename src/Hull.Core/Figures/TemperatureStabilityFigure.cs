@@ -77,7 +77,7 @@ public static class TemperatureStabilityFigure
         chart.Footer($"{treatment}; {gas}" + (metadata is null ? string.Empty : $" · {metadata.Dataset} v{metadata.Version}"), 0);
         chart.Footer("Estimates from computed energies. Released oxygen and hot cathodes are a fire hazard: follow local rules and licensed practice.", 1);
         string attributes = $"kind=\"temperature-stability\" gas=\"{Escape(gas)}\" from-k=\"{Px(first.FromK)}\" to-k=\"{Px(first.ToK)}\""
-            + (metadata is null ? string.Empty : $" dataset=\"{Escape(metadata.Dataset)}\" version=\"{metadata.Version}\" content-sha256=\"{Escape(metadata.ContentSha256)}\"");
+            + (metadata is null ? string.Empty : " " + metadata.SvgAttributes());
         return chart.Canvas.Finish($"Stability against temperature ({gas})", attributes);
     }
 

@@ -74,7 +74,7 @@ public static class VoltageProfileFigure
             0);
         chart.Footer(profile.Caveat, 1);
         string attributes = $"kind=\"voltage-profile\" system=\"{Escape(profile.ChemicalSystem)}\" host=\"{Escape(host)}\" ion=\"{Escape(profile.Ion)}\""
-            + (metadata is null ? string.Empty : $" dataset=\"{Escape(metadata.Dataset)}\" version=\"{metadata.Version}\" content-sha256=\"{Escape(metadata.ContentSha256)}\"");
+            + (metadata is null ? string.Empty : " " + metadata.SvgAttributes());
         return chart.Canvas.Finish($"Voltage profile of {profile.Ion} into {host}", attributes);
     }
 }

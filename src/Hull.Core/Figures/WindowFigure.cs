@@ -153,7 +153,7 @@ public static class WindowFigure
             $"x-element=\"{Escape(map.XElement)}\" y-element=\"{Escape(map.YElement)}\" dependent=\"{Escape(map.DependentElement ?? string.Empty)}\" " +
             $"section=\"{Escape(string.Join(' ', map.FixedPotentialsEv.OrderBy(p => p.Key, StringComparer.Ordinal).Select(p => $"{p.Key}={R(p.Value)}")))}\" dimension=\"{map.Dimension}\" " +
             $"plot=\"{R(PlotLeft)} {R(PlotTop)} {R(PlotWidth)} {R(PlotHeight)}\" x-range=\"{R(xMin)} {R(xMax)}\" y-range=\"{R(yMin)} {R(yMax)}\"" +
-            (source is null ? string.Empty : $" dataset=\"{Escape(source.Dataset)}\" version=\"{source.Version}\" content-sha256=\"{Escape(source.ContentSha256)}\"");
+            (source is null ? string.Empty : " " + source.SvgAttributes());
         string svg = canvas.Finish($"Stability window of {formula} ({elementsText})", metadata);
         return new WindowFigureResult(svg, map.Dimension, drawn.Select(l => l.Line.Id).ToArray(), leftOut, crowded);
     }

@@ -59,7 +59,7 @@ public sealed class ElectrochemistryGrpcService(CompoundResolution compounds) : 
             Used = WireMapping.ToWire(snapshot.Version),
             Profile = ElectrochemistryWireMapping.ToWire(profile),
         };
-        if (request.IncludeFigure) response.FigureSvg = VoltageProfileFigure.Render(profile, Metadata(snapshot));
+        if (request.IncludeFigure) response.FigureSvg = VoltageProfileFigure.Render(profile, FigureSource.Of(snapshot.Version));
         return response;
     }
 
@@ -88,7 +88,7 @@ public sealed class ElectrochemistryGrpcService(CompoundResolution compounds) : 
             Reacts = profile.React,
         };
         response.Points.AddRange(profile.Points.Select(ElectrochemistryWireMapping.ToWire));
-        if (request.IncludeFigure) response.FigureSvg = ReactionProfileFigure.Render(profile, Metadata(snapshot));
+        if (request.IncludeFigure) response.FigureSvg = ReactionProfileFigure.Render(profile, FigureSource.Of(snapshot.Version));
         return response;
     }
 
@@ -107,9 +107,6 @@ public sealed class ElectrochemistryGrpcService(CompoundResolution compounds) : 
 
     private static string FormulaOf(VersionSnapshot snapshot, string id) =>
         snapshot.TryFind(id, out int row) ? snapshot.FormulasAsStored[row] : id;
-
-    private static FigureMetadata Metadata(VersionSnapshot snapshot) =>
-        new(snapshot.Version.Dataset, snapshot.Version.Version, snapshot.Version.Fingerprint);
 
     private static Composition ParseFormula(string text, string field)
     {
