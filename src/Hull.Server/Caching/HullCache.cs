@@ -43,6 +43,12 @@ public sealed class HullCache
 
     public CacheStatisticsCounters Counters { get; } = new();
 
+    /// <summary>
+    /// Run on the building thread before each system hull is built; null in service. Tests hold a build with it, so
+    /// that a caller is certainly waiting for a hull when its deadline passes, however fast the machine.
+    /// </summary>
+    internal Action? BeforeHullBuild { get; set; }
+
     /// <summary>Hulls held now.</summary>
     public int CachedHullCount => _hulls.Count;
 
@@ -82,6 +88,7 @@ public sealed class HullCache
         return GetOrBuild(_hulls, (snapshot.Version.Dataset, snapshot.Version.Fingerprint, system, references.KeyFor(elements)), _maxHulls, () =>
         {
             Counters.CountHullBuild();
+            BeforeHullBuild?.Invoke();
             IReadOnlyList<PhaseEntry> entries = snapshot.EntriesWithin(elements);
             return new CachedHull(SystemHull.OverElements(entries, references.References, elements), Counters);
         }, Counters.CountHullHit, cancellation);
